@@ -1,0 +1,10 @@
+// Pages need a signed-in user; the server still checks every request itself.
+export default defineNuxtRouteMiddleware(async (to) => {
+  const { user, loaded, refresh } = useAuth()
+  if (!loaded.value) await refresh()
+  if (to.path === '/login') {
+    if (user.value) return navigateTo(typeof to.query.next === 'string' && to.query.next.startsWith('/') ? to.query.next : '/')
+    return
+  }
+  if (!user.value) return navigateTo({ path: '/login', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+})

@@ -1,0 +1,40 @@
+// Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  future: { compatibilityVersion: 4 },
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt'],
+  css: ['~/assets/css/main.css'],
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Pastload',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Stress history from borehole to settlement' },
+      ],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    // Overridden at run time by NUXT_DATABASE_URL / DATABASE_URL (see server/db/client.ts).
+    databaseUrl: '',
+  },
+  tailwindcss: {
+    cssPath: false,
+    viewer: false,
+  },
+  nitro: {
+    // Migrations are applied by scripts/start.mjs before the server listens; the
+    // server also refuses to answer before its own readiness check (server/plugins/db.ts).
+    experimental: { openAPI: false },
+  },
+  vite: {
+    optimizeDeps: { include: ['d3', 'zod'] },
+  },
+  typescript: {
+    strict: true,
+    typeCheck: false,
+  },
+})

@@ -1,0 +1,4 @@
+// One-line, prefixed messages from the project's scripts.
+export function log(tag, message) {
+  process.stdout.write(`[pastload:${tag}] ${message}\n`)
+}

@@ -1,0 +1,60 @@
+// `npm start`: PostgreSQL (installed and created when missing), migrations, the
+// demo seed on an empty database, a build when stale, then the app on 127.0.0.1.
+// Ctrl-C / SIGTERM stops the app and the database server this script started.
+import { spawn } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { buildIfStale } from './lib/build.mjs'
+import { log } from './lib/log.mjs'
+import { ensureCluster } from './lib/postgres.mjs'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+const port = Number(process.env.PORT ?? 3000)
+const dbPort = Number(process.env.PASTLOAD_DB_PORT ?? 54329)
+
+async function main() {
+  const external = process.env.DATABASE_URL
+  const cluster = external ? null : await ensureCluster({ projectRoot: root, name: 'pg', port: dbPort, database: 'pastload' })
+  const databaseUrl = external ?? cluster.url
+  const stopAll = () => cluster?.stop()
+
+  try {
+    buildIfStale(root)
+  }
+  catch (err) {
+    stopAll()
+    throw err
+  }
+
+  log('app', `Starting Pastload on http://127.0.0.1:${port}`)
+  const app = spawn(process.execPath, ['.output/server/index.mjs'], {
+    cwd: root,
+    stdio: 'inherit',
+    env: {
+      ...process.env,
+      DATABASE_URL: databaseUrl,
+      PASTLOAD_SEED: process.env.PASTLOAD_SEED ?? 'demo',
+      PASTLOAD_MIGRATIONS_DIR: `${root}migrations`,
+      NITRO_HOST: process.env.HOST ?? '127.0.0.1',
+      NITRO_PORT: String(port),
+      NUXT_TELEMETRY_DISABLED: '1',
+    },
+  })
+  let stopping = false
+  const shutdown = (signal) => {
+    if (stopping) return
+    stopping = true
+    log('app', `${signal}: stopping…`)
+    app.kill('SIGTERM')
+  }
+  process.on('SIGINT', () => shutdown('SIGINT'))
+  process.on('SIGTERM', () => shutdown('SIGTERM'))
+  app.on('exit', (code) => {
+    stopAll()
+    process.exit(stopping ? 0 : (code ?? 1))
+  })
+}
+
+main().catch((err) => {
+  console.error(`[pastload] ${err.message}`)
+  process.exit(1)
+})

@@ -1,0 +1,61 @@
+// `npm test`: lint, typecheck, then unit, API and browser tests against a separate
+// test database on its own port (never the demo data). Starts and stops the test
+// PostgreSQL itself; installs Debian's chromium for the browser tests when missing.
+import { execFileSync, spawnSync } from 'node:child_process'
+import { existsSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { buildIfStale } from './lib/build.mjs'
+import { log } from './lib/log.mjs'
+import { ensureCluster } from './lib/postgres.mjs'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+const env = { ...process.env, NUXT_TELEMETRY_DISABLED: '1' }
+
+function step(name, cmd, args, extraEnv = {}) {
+  log('test', `${name}…`)
+  const t0 = Date.now()
+  const r = spawnSync(cmd, args, { cwd: root, stdio: 'inherit', env: { ...env, ...extraEnv } })
+  const secs = ((Date.now() - t0) / 1000).toFixed(1)
+  if (r.status !== 0) {
+    log('test', `${name} FAILED after ${secs} s`)
+    return false
+  }
+  log('test', `${name} passed in ${secs} s`)
+  return true
+}
+
+function ensureChromium() {
+  if (existsSync('/usr/bin/chromium')) return
+  if (process.getuid?.() !== 0) throw new Error('Chromium is missing: run `sudo apt-get install -y chromium` once.')
+  log('test', 'Installing Debian\'s chromium for the browser tests…')
+  execFileSync('apt-get', ['update', '-q'], { stdio: 'inherit' })
+  execFileSync('apt-get', ['install', '-y', '-q', 'chromium'], { stdio: 'inherit', env: { ...env, DEBIAN_FRONTEND: 'noninteractive' } })
+}
+
+async function main() {
+  const only = process.argv.slice(2)
+  if (!step('lint', 'npx', ['eslint', '.'])) return 1
+  if (!step('typecheck', 'npx', ['nuxt', 'typecheck'])) return 1
+  ensureChromium()
+  const cluster = await ensureCluster({
+    projectRoot: root,
+    name: 'pg-test',
+    port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339),
+    database: 'pastload_test',
+    fresh: true,
+  })
+  let ok = false
+  try {
+    buildIfStale(root)
+    ok = step('vitest (unit, api, e2e)', 'npx', ['vitest', 'run', ...only], { DATABASE_URL: cluster.url })
+  }
+  finally {
+    cluster.stop()
+  }
+  return ok ? 0 : 1
+}
+
+main().then(code => process.exit(code), (err) => {
+  console.error(`[pastload:test] ${err.message}`)
+  process.exit(1)
+})

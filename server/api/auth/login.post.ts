@@ -1,0 +1,35 @@
+import { sql } from 'drizzle-orm'
+import { LoginSchema } from '#shared/schemas/auth'
+import { useDb } from '../../db/client'
+import { users } from '../../db/schema'
+import { recordAudit } from '../../services/audit'
+import { clearFailures, recordFailure, retryAfterSeconds } from '../../services/login-throttle'
+import { dummyPasswordHash, verifyPassword } from '../../utils/password'
+
+const WRONG = 'E-mail or password is wrong.'
+
+export default defineEventHandler(async (event) => {
+  const { email, password } = await validateBody(event, LoginSchema)
+  const ip = clientIp(event)
+
+  const wait = await retryAfterSeconds(email, ip)
+  if (wait > 0) {
+    setResponseHeader(event, 'Retry-After', wait)
+    throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute(s).` })
+  }
+
+  const [user] = await useDb().select().from(users).where(sql`lower(${users.email}) = ${email}`).limit(1)
+  // Same work and the same answer for an unknown e-mail and a wrong password.
+  const ok = await verifyPassword(user?.passwordHash ?? await dummyPasswordHash(), password)
+  if (!user || !ok) {
+    await recordFailure(email, ip)
+    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: WRONG })
+  }
+  await clearFailures(email)
+
+  const lucia = useLucia()
+  const session = await lucia.createSession(user.id, {})
+  writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  await recordAudit({ actorId: user.id, action: 'login', entity: 'session', entityId: null, after: { ip } })
+  return { user: { id: user.id, email: user.email, displayName: user.displayName, isSiteAdmin: user.isSiteAdmin } }
+})

@@ -1,0 +1,14 @@
+import { asc, eq } from 'drizzle-orm'
+import { useDb } from '../../../../db/client'
+import { projectMembers, users } from '../../../../db/schema'
+
+export default defineEventHandler(async (event) => {
+  const { project } = await requireProjectRole(event, 'project.read')
+  const members = await useDb()
+    .select({ userId: users.id, email: users.email, displayName: users.displayName, role: projectMembers.role, since: projectMembers.createdAt })
+    .from(projectMembers)
+    .innerJoin(users, eq(users.id, projectMembers.userId))
+    .where(eq(projectMembers.projectId, project.id))
+    .orderBy(asc(users.displayName))
+  return { members }
+})

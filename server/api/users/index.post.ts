@@ -1,0 +1,27 @@
+import { CreateUserSchema } from '#shared/schemas/auth'
+import { useDb } from '../../db/client'
+import { users } from '../../db/schema'
+import { recordAudit } from '../../services/audit'
+import { isUniqueViolation } from '../../utils/db-errors'
+import { hashPassword } from '../../utils/password'
+
+/** Site admins create accounts; the new user changes the password on the account page. */
+export default defineEventHandler(async (event) => {
+  const admin = requireSiteAdmin(event)
+  const body = await validateBody(event, CreateUserSchema)
+  try {
+    const [row] = await useDb().insert(users).values({
+      email: body.email,
+      displayName: body.displayName,
+      isSiteAdmin: body.isSiteAdmin,
+      passwordHash: await hashPassword(body.password),
+    }).returning({ id: users.id, email: users.email, displayName: users.displayName, isSiteAdmin: users.isSiteAdmin })
+    await recordAudit({ actorId: admin.id, action: 'create', entity: 'user', entityId: row!.id, after: row })
+    setResponseStatus(event, 201)
+    return { user: row }
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `An account already uses ${body.email}.` })
+    throw err
+  }
+})

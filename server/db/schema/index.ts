@@ -1,0 +1,4 @@
+export * from './users'
+export * from './projects'
+export * from './audit'
+export * from './relations'

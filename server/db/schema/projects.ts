@@ -1,0 +1,29 @@
+import { index, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { PROJECT_ROLES, UNIT_SYSTEMS } from '../../../shared/auth/roles'
+import { timestamps } from './columns'
+import { users } from './users'
+
+export const projectRole = pgEnum('project_role', PROJECT_ROLES)
+export const unitSystem = pgEnum('unit_system', UNIT_SYSTEMS)
+
+export const projects = pgTable('projects', {
+  id: uuid().primaryKey().defaultRandom(),
+  jobNumber: text().notNull(),
+  name: text().notNull(),
+  client: text().notNull().default(''),
+  unitSystem: unitSystem().notNull().default('SI'),
+  description: text().notNull().default(''),
+  // A creator may leave; the project stays.
+  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [uniqueIndex('projects_job_number_idx').on(t.jobNumber)])
+
+export const projectMembers = pgTable('project_members', {
+  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  role: projectRole().notNull(),
+  ...timestamps,
+}, t => [
+  primaryKey({ name: 'project_members_pk', columns: [t.projectId, t.userId] }),
+  index('project_members_user_idx').on(t.userId),
+])

@@ -1,0 +1,33 @@
+import { authenticateToken } from '../services/api-tokens'
+
+/**
+ * Puts the caller on `event.context`: a Lucia session from the cookie (renewed
+ * when Lucia extends it) or a personal API token from `Authorization: Bearer`.
+ */
+export default defineEventHandler(async (event) => {
+  event.context.user = null
+  event.context.authVia = null
+  const header = getRequestHeader(event, 'authorization')
+  if (header?.startsWith('Bearer ')) {
+    const user = await authenticateToken(header.slice(7).trim())
+    if (user) {
+      event.context.user = user
+      event.context.authVia = 'token'
+    }
+    // A bad token is not silently downgraded to a cookie session.
+    event.context.tokenRejected = !user
+    return
+  }
+  const lucia = useLucia()
+  const sessionId = getCookie(event, lucia.sessionCookieName)
+  if (!sessionId) return
+  const { session, user } = await lucia.validateSession(sessionId)
+  if (!session) {
+    writeSessionCookie(event, lucia.createBlankSessionCookie())
+    return
+  }
+  if (session.fresh) writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  event.context.user = { id: user.id, email: user.email, displayName: user.displayName, isSiteAdmin: user.isSiteAdmin }
+  event.context.sessionId = session.id
+  event.context.authVia = 'session'
+})

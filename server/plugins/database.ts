@@ -1,0 +1,22 @@
+import { useDb } from '../db/client'
+import { applyMigrations } from '../db/migrate'
+import { seedDemoIfEmpty } from '../services/demo-seed'
+import { markDatabaseFailed, markDatabaseReady } from '../utils/ready'
+
+// Applies migrations at start; a failing migration stops the server with its error.
+export default defineNitroPlugin(() => {
+  const start = async () => {
+    const db = useDb()
+    const folder = await applyMigrations(db)
+    console.info(`[pastload:db] migrations applied from ${folder}`)
+    if (process.env.PASTLOAD_SEED === 'demo') {
+      const seeded = await seedDemoIfEmpty(db)
+      console.info(seeded ? '[pastload:db] demo scenario seeded' : '[pastload:db] database has data: demo seed skipped')
+    }
+  }
+  start().then(markDatabaseReady, (err: unknown) => {
+    markDatabaseFailed(err)
+    console.error('[pastload:db] start-up failed:', err instanceof Error ? (err.stack ?? err.message) : err)
+    process.exit(1)
+  })
+})

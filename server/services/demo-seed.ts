@@ -1,0 +1,33 @@
+import { count } from 'drizzle-orm'
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
+import type { Database } from '../db/client'
+import { projectMembers, projects, users } from '../db/schema'
+import { hashPassword } from '../utils/password'
+import { recordAudit } from './audit'
+
+/**
+ * Seeds the invented demo scenario when the database has no users. One
+ * transaction: a failure leaves the database empty, never half-seeded.
+ * Returns false when there was already data.
+ */
+export async function seedDemoIfEmpty(db: Database): Promise<boolean> {
+  const [row] = await db.select({ n: count() }).from(users)
+  if ((row?.n ?? 0) > 0) return false
+  const passwordHash = await hashPassword(DEMO_PASSWORD)
+  await db.transaction(async (tx) => {
+    const people = await tx.insert(users).values(DEMO_PEOPLE.map(p => ({
+      email: p.email,
+      displayName: p.displayName,
+      isSiteAdmin: p.isSiteAdmin,
+      passwordHash,
+    }))).returning({ id: users.id, email: users.email })
+    const admin = people.find(p => p.email === DEMO_PEOPLE.find(d => d.isSiteAdmin)!.email)!
+    const [project] = await tx.insert(projects).values({ ...DEMO_PROJECT, createdBy: admin.id }).returning()
+    await tx.insert(projectMembers).values(DEMO_PEOPLE.map((p) => {
+      const id = people.find(u => u.email === p.email)!.id
+      return { projectId: project!.id, userId: id, role: p.role }
+    }))
+    await recordAudit({ actorId: admin.id, projectId: project!.id, action: 'create', entity: 'project', entityId: project!.id, after: { seeded: 'demo' } }, tx)
+  })
+  return true
+}

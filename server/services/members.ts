@@ -1,0 +1,41 @@
+import { and, count, eq } from 'drizzle-orm'
+import type { ProjectRole } from '#shared/auth/roles'
+import { useDb } from '../db/client'
+import { projectMembers } from '../db/schema'
+import { recordAudit } from './audit'
+
+/**
+ * Changes a member's role, or removes the member when `role` is null. The last
+ * owner can neither be removed nor demoted (409): a project always has an owner.
+ * Runs in one transaction with the owner rows locked, so two owners demoting each
+ * other at once cannot both succeed.
+ */
+export async function changeMemberRole(args: { actorId: string, projectId: string, userId: string, role: ProjectRole | null }) {
+  const { actorId, projectId, userId, role } = args
+  return useDb().transaction(async (tx) => {
+    const [current] = await tx.select().from(projectMembers)
+      .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
+      .for('update')
+    if (!current) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'That user is not a member of this project.' })
+    if (current.role === 'owner' && role !== 'owner') {
+      await tx.select({ userId: projectMembers.userId }).from(projectMembers)
+        .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.role, 'owner')))
+        .for('update')
+      const [owners] = await tx.select({ n: count() }).from(projectMembers)
+        .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.role, 'owner')))
+      if ((owners?.n ?? 0) <= 1) {
+        throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This is the project\'s last owner: make another member owner first.' })
+      }
+    }
+    if (role === null) {
+      await tx.delete(projectMembers).where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
+      await recordAudit({ actorId, projectId, action: 'delete', entity: 'project-member', entityId: userId, before: current }, tx)
+      return null
+    }
+    const [row] = await tx.update(projectMembers).set({ role })
+      .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
+      .returning()
+    await recordAudit({ actorId, projectId, action: 'update', entity: 'project-member', entityId: userId, before: current, after: row }, tx)
+    return row!
+  })
+}

@@ -1,0 +1,134 @@
+import { describe, expect, it } from 'vitest'
+import { Client, TEST_PASSWORD, createUser, demoEmail, signIn } from '../helpers/http'
+
+describe('sign-in, me, sign-out', () => {
+  it('signs in with the demo engineer and sets an HttpOnly, SameSite=Lax session cookie', async () => {
+    const c = new Client()
+    const r = await c.request('POST', '/api/auth/login', { email: demoEmail('engineer'), password: 'pastload-demo-2026' })
+    expect(r.status).toBe(200)
+    const cookie = r.headers.getSetCookie().find(s => s.startsWith('pastload_session='))
+    expect(cookie).toMatch(/HttpOnly/)
+    expect(cookie).toMatch(/SameSite=Lax/)
+    // Served over plain HTTP here, so not Secure.
+    expect(cookie).not.toMatch(/Secure/)
+    const me = await c.get<{ user: { email: string, displayName: string } }>('/api/auth/me')
+    expect(me.status).toBe(200)
+    expect(me.body.user.email).toBe(demoEmail('engineer'))
+    expect(me.body.user.displayName).toBe('Tomas Lindqvist')
+  })
+
+  it('marks the cookie Secure when the request came over HTTPS through the proxy', async () => {
+    const c = new Client()
+    const res = await c.request('POST', '/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' }, { 'x-forwarded-proto': 'https' })
+    expect(res.status).toBe(200)
+    expect(res.headers.getSetCookie().find(s => s.startsWith('pastload_session='))).toMatch(/Secure/)
+  })
+
+  it('treats e-mail case-insensitively', async () => {
+    const c = new Client()
+    const r = await c.post('/api/auth/login', { email: demoEmail('reviewer').toUpperCase(), password: 'pastload-demo-2026' })
+    expect(r.status).toBe(200)
+  })
+
+  it('gives the same 401 for an unknown e-mail and a wrong password', async () => {
+    const a = await new Client().post<{ message: string }>('/api/auth/login', { email: 'nobody@harrow-estuary.example', password: 'pastload-demo-2026' })
+    const b = await new Client().post<{ message: string }>('/api/auth/login', { email: demoEmail('engineer'), password: 'wrong-password-123' })
+    expect(a.status).toBe(401)
+    expect(b.status).toBe(401)
+    expect(a.body.message).toBe(b.body.message)
+    expect(a.body.message).toBe('E-mail or password is wrong.')
+  })
+
+  it('rejects a malformed body with 400 and the zod issues', async () => {
+    const r = await new Client().post<{ data: { issues: { path: string, message: string }[] } }>('/api/auth/login', { email: 'not-an-email' })
+    expect(r.status).toBe(400)
+    const paths = r.body.data.issues.map(i => i.path).sort()
+    expect(paths).toEqual(['email', 'password'])
+  })
+
+  it('answers 401 to /me without a session and after sign-out', async () => {
+    expect((await new Client().get('/api/auth/me')).status).toBe(401)
+    const c = await signIn(demoEmail('geologist'))
+    const cookie = c.cookie
+    expect((await c.post('/api/auth/logout')).status).toBe(200)
+    expect((await c.get('/api/auth/me')).status).toBe(401)
+    // The old session id is dead on the server, not just forgotten by the client.
+    const replay = new Client()
+    replay.cookie = cookie
+    expect((await replay.get('/api/auth/me')).status).toBe(401)
+  })
+})
+
+describe('rate limit', () => {
+  it('refuses the 11th failed attempt for one e-mail with 429 and Retry-After, even with the right password', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { email } = await createUser(admin, 'throttle')
+    const c = new Client()
+    c.forwardedFor = '203.0.113.10'
+    for (let i = 0; i < 10; i++) {
+      const r = await c.post('/api/auth/login', { email, password: `wrong-password-${i}` })
+      expect(r.status).toBe(401)
+    }
+    const blocked = await c.post('/api/auth/login', { email, password: TEST_PASSWORD })
+    expect(blocked.status).toBe(429)
+    const retry = Number(blocked.headers.get('retry-after'))
+    expect(retry).toBeGreaterThan(800)
+    expect(retry).toBeLessThanOrEqual(900)
+    // Another e-mail from another address is unaffected.
+    const other = new Client()
+    other.forwardedFor = '203.0.113.11'
+    expect((await other.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })).status).toBe(200)
+  })
+
+  it('refuses an IP after 10 failures across different e-mails', async () => {
+    const c = new Client()
+    c.forwardedFor = '203.0.113.20'
+    for (let i = 0; i < 10; i++) {
+      expect((await c.post('/api/auth/login', { email: `probe${i}@nowhere.example`, password: 'wrong-password-1' })).status).toBe(401)
+    }
+    expect((await c.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })).status).toBe(429)
+  })
+})
+
+describe('Origin check (CSRF)', () => {
+  it('refuses a state-changing request from another origin with 403', async () => {
+    const c = await signIn(demoEmail('owner'))
+    c.origin = 'http://evil.example'
+    const r = await c.post<{ message: string }>('/api/auth/logout')
+    expect(r.status).toBe(403)
+    expect(r.body.message).toMatch(/Origin/)
+    c.origin = c.base
+    expect((await c.get('/api/auth/me')).status).toBe(200)
+  })
+
+  it('refuses a cookie-authenticated write without any Origin header', async () => {
+    const c = await signIn(demoEmail('owner'))
+    c.origin = null
+    expect((await c.post('/api/auth/logout')).status).toBe(403)
+  })
+
+  it('lets a GET through without Origin', async () => {
+    const c = await signIn(demoEmail('owner'))
+    c.origin = null
+    expect((await c.get('/api/auth/me')).status).toBe(200)
+  })
+})
+
+describe('password change', () => {
+  it('changes the password, signs out other sessions, and enforces 12 characters', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { client, email } = await createUser(admin, 'pw')
+    const second = await signIn(email, TEST_PASSWORD)
+    const short = await client.post<{ data: { issues: { path: string }[] } }>('/api/account/password', { currentPassword: TEST_PASSWORD, newPassword: 'short' })
+    expect(short.status).toBe(400)
+    expect(short.body.data.issues[0]!.path).toBe('newPassword')
+    const wrong = await client.post('/api/account/password', { currentPassword: 'not-my-password', newPassword: 'a-brand-new-passphrase' })
+    expect(wrong.status).toBe(422)
+    const ok = await client.post('/api/account/password', { currentPassword: TEST_PASSWORD, newPassword: 'a-brand-new-passphrase' })
+    expect(ok.status).toBe(200)
+    expect((await client.get('/api/auth/me')).status).toBe(200)
+    expect((await second.get('/api/auth/me')).status).toBe(401)
+    expect((await new Client().post('/api/auth/login', { email, password: TEST_PASSWORD })).status).toBe(401)
+    expect((await new Client().post('/api/auth/login', { email, password: 'a-brand-new-passphrase' })).status).toBe(200)
+  })
+})

@@ -1,0 +1,127 @@
+// Every project route × every role × a non-member × anonymous → expected status.
+// Later features add their routes to PROJECT_ROUTES.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { PROJECT_ROLES, type ProjectRole } from '../../shared/auth/roles'
+import { Client, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
+
+type Caller = ProjectRole | 'nonMember' | 'anonymous'
+const CALLERS: Caller[] = [...PROJECT_ROLES, 'nonMember', 'anonymous']
+
+interface Ctx {
+  projectId: string
+  owner: Client
+  clients: Record<Caller, Client>
+  ids: Record<Caller, string>
+}
+
+interface RouteCase {
+  method: 'GET' | 'POST' | 'PATCH' | 'DELETE'
+  path: string
+  /** Roles allowed; everyone else in the project gets 403, a non-member 404, anonymous 401. */
+  allowed: readonly ProjectRole[]
+  /** Status an allowed caller gets. */
+  ok: number
+  /** Builds the concrete path and body for one call (fresh targets for writes). */
+  prepare?: (ctx: Ctx) => Promise<{ path?: string, body?: unknown }>
+}
+
+const ALL = PROJECT_ROLES
+
+async function freshMember(ctx: Ctx): Promise<string> {
+  const { email, id } = await createUser(ctx.owner, 'target')
+  const r = await ctx.owner.post(`/api/projects/${ctx.projectId}/members`, { email, role: 'viewer' })
+  if (r.status !== 201) throw new Error(`could not add target member: ${r.status}`)
+  return id
+}
+
+export const PROJECT_ROUTES: RouteCase[] = [
+  { method: 'GET', path: '/api/projects/:projectId', allowed: ALL, ok: 200 },
+  { method: 'PATCH', path: '/api/projects/:projectId', allowed: ['owner'], ok: 200, prepare: async () => ({ body: { description: 'Matrix test description' } }) },
+  { method: 'GET', path: '/api/projects/:projectId/members', allowed: ALL, ok: 200 },
+  { method: 'GET', path: '/api/projects/:projectId/audit', allowed: ALL, ok: 200 },
+  {
+    method: 'POST', path: '/api/projects/:projectId/members', allowed: ['owner'], ok: 201,
+    prepare: async (ctx) => {
+      const email = uniqueEmail('invitee')
+      const r = await ctx.owner.post('/api/users', { email, displayName: 'Invitee', password: 'correct-horse-battery-9' })
+      if (r.status !== 201) throw new Error('could not create invitee')
+      return { body: { email, role: 'viewer' } }
+    },
+  },
+  {
+    method: 'PATCH', path: '/api/projects/:projectId/members/:userId', allowed: ['owner'], ok: 200,
+    prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/members/${await freshMember(ctx)}`, body: { role: 'designer' } }),
+  },
+  {
+    method: 'DELETE', path: '/api/projects/:projectId/members/:userId', allowed: ['owner'], ok: 200,
+    prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/members/${await freshMember(ctx)}` }),
+  },
+]
+
+function expected(route: RouteCase, caller: Caller): number {
+  if (caller === 'anonymous') return 401
+  if (caller === 'nonMember') return 404
+  return route.allowed.includes(caller) ? route.ok : 403
+}
+
+describe('authorization matrix', () => {
+  const ctx = {} as Ctx
+
+  beforeAll(async () => {
+    ctx.owner = await signIn(demoEmail('owner'))
+    const p = await ctx.owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `MX-${Date.now().toString(36)}`, name: 'Authorization matrix' })
+    ctx.projectId = p.body.project.id
+    const me = await ctx.owner.get<{ user: { id: string } }>('/api/auth/me')
+    ctx.clients = { owner: ctx.owner, anonymous: new Client() } as Record<Caller, Client>
+    ctx.ids = { owner: me.body.user.id } as Record<Caller, string>
+    for (const caller of CALLERS) {
+      if (caller === 'owner' || caller === 'anonymous') continue
+      const u = await createUser(ctx.owner, caller)
+      ctx.clients[caller] = u.client
+      ctx.ids[caller] = u.id
+      if (caller !== 'nonMember') {
+        const r = await ctx.owner.post(`/api/projects/${ctx.projectId}/members`, { email: u.email, role: caller })
+        expect(r.status).toBe(201)
+      }
+    }
+  })
+
+  for (const route of PROJECT_ROUTES) {
+    for (const caller of CALLERS) {
+      const want = expected(route, caller)
+      it(`${route.method} ${route.path} as ${caller} → ${want}`, async () => {
+        const prepared = route.prepare ? await route.prepare(ctx) : {}
+        const path = prepared.path ?? route.path.replace(':projectId', ctx.projectId)
+        const body = prepared.body ?? (route.method === 'GET' || route.method === 'DELETE' ? undefined : {})
+        const r = await ctx.clients[caller].request(route.method, path, body)
+        expect(r.status, JSON.stringify(r.body)).toBe(want)
+      })
+    }
+  }
+
+  it('answers 404 (not 403) for a project id that does not exist, even to its would-be owner', async () => {
+    expect((await ctx.owner.get('/api/projects/00000000-0000-4000-8000-000000000000')).status).toBe(404)
+    expect((await ctx.owner.get('/api/projects/not-a-uuid')).status).toBe(404)
+  })
+
+  describe('site-wide routes', () => {
+    const cases: { method: 'GET' | 'POST', path: string, body?: () => unknown, admin: number }[] = [
+      { method: 'GET', path: '/api/users', admin: 200 },
+      { method: 'POST', path: '/api/users', body: () => ({ email: uniqueEmail('matrix'), displayName: 'Matrix', password: 'correct-horse-battery-9' }), admin: 201 },
+      { method: 'POST', path: '/api/projects', body: () => ({ jobNumber: `MXP-${Math.random().toString(36).slice(2, 8)}`, name: 'Matrix project' }), admin: 201 },
+    ]
+    for (const c of cases) {
+      it(`${c.method} ${c.path}: site admin ${c.admin}, member 403, anonymous 401`, async () => {
+        expect((await ctx.owner.request(c.method, c.path, c.body?.())).status).toBe(c.admin)
+        expect((await ctx.clients.engineer.request(c.method, c.path, c.body?.())).status).toBe(403)
+        expect((await ctx.clients.anonymous.request(c.method, c.path, c.body?.())).status).toBe(401)
+      })
+    }
+    for (const path of ['/api/projects', '/api/auth/me', '/api/account/tokens']) {
+      it(`GET ${path}: any signed-in user 200, anonymous 401`, async () => {
+        expect((await ctx.clients.viewer.get(path)).status).toBe(200)
+        expect((await ctx.clients.anonymous.get(path)).status).toBe(401)
+      })
+    }
+  })
+})
