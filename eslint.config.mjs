@@ -4,7 +4,7 @@ import pluginVue from 'eslint-plugin-vue'
 import vueParser from 'vue-eslint-parser'
 
 export default tseslint.config(
-  { ignores: ['.nuxt/**', '.output/**', '.data/**', 'node_modules/**', 'coverage/**', 'test-results/**', 'migrations/**'] },
+  { ignores: ['.nuxt/**', '.output/**', '.nuxt-*/**', '.output-*/**', '.data/**', 'node_modules/**', 'coverage/**', 'test-results/**', 'migrations/**'] },
   ...tseslint.configs.recommended,
   ...pluginVue.configs['flat/recommended'],
   {

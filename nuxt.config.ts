@@ -3,6 +3,8 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   future: { compatibilityVersion: 4 },
   devtools: { enabled: false },
+  // Separate build folders let two checkouts' builds run side by side (e.g. a UI build while tests run).
+  buildDir: process.env.PASTLOAD_BUILD_DIR ?? '.nuxt',
   telemetry: false,
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt'],
   css: ['~/assets/css/main.css'],
@@ -29,6 +31,7 @@ export default defineNuxtConfig({
     // Migrations are applied by scripts/start.mjs before the server listens; the
     // server also refuses to answer before its own readiness check (server/plugins/db.ts).
     experimental: { openAPI: false },
+    output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
   },
   vite: {
     optimizeDeps: { include: ['d3', 'zod'] },

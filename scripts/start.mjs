@@ -13,7 +13,7 @@ const dbPort = Number(process.env.PASTLOAD_DB_PORT ?? 54329)
 
 async function main() {
   const external = process.env.DATABASE_URL
-  const cluster = external ? null : await ensureCluster({ projectRoot: root, name: 'pg', port: dbPort, database: 'pastload' })
+  const cluster = external ? null : await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_DB_DIR ?? 'pg', port: dbPort, database: 'pastload' })
   const databaseUrl = external ?? cluster.url
   const stopAll = () => cluster?.stop()
 
@@ -26,7 +26,7 @@ async function main() {
   }
 
   log('app', `Starting Pastload on http://127.0.0.1:${port}`)
-  const app = spawn(process.execPath, ['.output/server/index.mjs'], {
+  const app = spawn(process.execPath, [`${process.env.PASTLOAD_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
     cwd: root,
     stdio: 'inherit',
     env: {

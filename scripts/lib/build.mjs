@@ -16,7 +16,7 @@ function newestMtime(path) {
 }
 
 export function buildIfStale(projectRoot, { force = false } = {}) {
-  const stamp = join(projectRoot, '.output', 'nitro.json')
+  const stamp = join(projectRoot, process.env.PASTLOAD_OUTPUT_DIR ?? '.output', 'nitro.json')
   const built = existsSync(stamp) ? statSync(stamp).mtimeMs : 0
   const newest = Math.max(...SOURCES.map(s => newestMtime(join(projectRoot, s))))
   if (!force && built > newest) {

@@ -5,7 +5,7 @@ export const LoginSchema = z.object({
   email: EmailSchema,
   // No length rule here: a wrong password of any length is the same 401.
   password: z.string().min(1, { message: 'is required' }).max(256),
-})
+}).meta({ id: 'LoginRequest' })
 export type LoginInput = z.infer<typeof LoginSchema>
 
 export const ChangePasswordSchema = z.object({

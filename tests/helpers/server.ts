@@ -26,13 +26,14 @@ export interface RunningServer {
 }
 
 export async function startServer(env: Record<string, string> = {}): Promise<RunningServer> {
-  if (!existsSync(resolve(ROOT, '.output/server/index.mjs'))) throw new Error('No build in .output: run `npm test` (it builds first) or `npx nuxt build`.')
+  const output = process.env.PASTLOAD_OUTPUT_DIR ?? '.output'
+  if (!existsSync(resolve(ROOT, output, 'server/index.mjs'))) throw new Error(`No build in ${output}: run npm test (it builds first) or npx nuxt build.`)
   const databaseUrl = env.DATABASE_URL ?? process.env.DATABASE_URL
   if (!databaseUrl) throw new Error('DATABASE_URL is not set: run the API and browser tests through `npm test`, which starts the test database.')
   const port = await freePort()
   const url = `http://127.0.0.1:${port}`
   let log = ''
-  const child = spawn(process.execPath, ['.output/server/index.mjs'], {
+  const child = spawn(process.execPath, [`${output}/server/index.mjs`], {
     cwd: ROOT,
     env: {
       ...process.env,

@@ -1,5 +1,6 @@
 import { relations } from 'drizzle-orm'
 import { auditEvents } from './audit'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from './investigation'
 import { projectMembers, projects } from './projects'
 import { apiTokens, sessions, users } from './users'
 
@@ -13,6 +14,8 @@ export const projectsRelations = relations(projects, ({ one, many }) => ({
   creator: one(users, { fields: [projects.createdBy], references: [users.id] }),
   members: many(projectMembers),
   auditEvents: many(auditEvents),
+  strata: many(strata),
+  points: many(investigationPoints),
 }))
 
 export const projectMembersRelations = relations(projectMembers, ({ one }) => ({
@@ -31,4 +34,49 @@ export const apiTokensRelations = relations(apiTokens, ({ one }) => ({
 export const auditEventsRelations = relations(auditEvents, ({ one }) => ({
   actor: one(users, { fields: [auditEvents.actorId], references: [users.id] }),
   project: one(projects, { fields: [auditEvents.projectId], references: [projects.id] }),
+}))
+
+export const strataRelations = relations(strata, ({ one, many }) => ({
+  project: one(projects, { fields: [strata.projectId], references: [projects.id] }),
+  intervals: many(logIntervals),
+}))
+
+export const investigationPointsRelations = relations(investigationPoints, ({ one, many }) => ({
+  project: one(projects, { fields: [investigationPoints.projectId], references: [projects.id] }),
+  intervals: many(logIntervals),
+  samples: many(samples),
+  spt: many(sptResults),
+  groundwater: many(groundwaterObservations),
+  cpt: one(cptSoundings),
+  vane: many(vaneReadings),
+}))
+
+export const logIntervalsRelations = relations(logIntervals, ({ one }) => ({
+  point: one(investigationPoints, { fields: [logIntervals.pointId], references: [investigationPoints.id] }),
+  stratum: one(strata, { fields: [logIntervals.stratumId], references: [strata.id] }),
+}))
+
+export const samplesRelations = relations(samples, ({ one }) => ({
+  point: one(investigationPoints, { fields: [samples.pointId], references: [investigationPoints.id] }),
+  index: one(indexTests),
+}))
+
+export const indexTestsRelations = relations(indexTests, ({ one }) => ({
+  sample: one(samples, { fields: [indexTests.sampleId], references: [samples.id] }),
+}))
+
+export const sptResultsRelations = relations(sptResults, ({ one }) => ({
+  point: one(investigationPoints, { fields: [sptResults.pointId], references: [investigationPoints.id] }),
+}))
+
+export const groundwaterObservationsRelations = relations(groundwaterObservations, ({ one }) => ({
+  point: one(investigationPoints, { fields: [groundwaterObservations.pointId], references: [investigationPoints.id] }),
+}))
+
+export const cptSoundingsRelations = relations(cptSoundings, ({ one }) => ({
+  point: one(investigationPoints, { fields: [cptSoundings.pointId], references: [investigationPoints.id] }),
+}))
+
+export const vaneReadingsRelations = relations(vaneReadings, ({ one }) => ({
+  point: one(investigationPoints, { fields: [vaneReadings.pointId], references: [investigationPoints.id] }),
 }))

@@ -1,0 +1,18 @@
+// Development aid: runs vitest (any arguments) against the test database and a
+// fresh build, without lint and typecheck. `npm test` is the full gate.
+import { spawnSync } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { buildIfStale } from './lib/build.mjs'
+import { ensureCluster } from './lib/postgres.mjs'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+const cluster = await ensureCluster({ projectRoot: root, name: 'pg-test', port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339), database: 'pastload_test', fresh: true })
+let status = 1
+try {
+  buildIfStale(root)
+  status = spawnSync('npx', ['vitest', 'run', ...process.argv.slice(2)], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: cluster.url } }).status ?? 1
+}
+finally {
+  cluster.stop()
+}
+process.exit(status)

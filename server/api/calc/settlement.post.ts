@@ -1,0 +1,21 @@
+import { RESULT_CAUTION } from '#shared/caution'
+import { computeSettlement } from '#shared/geotech/settlement'
+import { SettlementRequestSchema } from '#shared/schemas/calc'
+
+/** 1-D primary consolidation settlement, optionally with time rate and secondary compression. */
+export default defineEventHandler(async (event) => {
+  requireUser(event)
+  const body = await validateBody(event, SettlementRequestSchema)
+  // The convergence report doubles the count: bound the work before starting it.
+  const planned = body.layers.reduce((n, l) => {
+    if (!l.compressible || !(l.thickness > 0)) return n
+    if (body.sublayers && 'count' in body.sublayers) return n + body.sublayers.count
+    const max = body.sublayers?.maxThickness ?? 0.25
+    return n + Math.ceil(l.thickness / max)
+  }, 0)
+  if (planned > MAX_SUBLAYERS) {
+    refuse422(`The sublayering asks for ${planned} sublayers; the limit is ${MAX_SUBLAYERS}. Use a larger maxThickness.`, 'too-many-sublayers')
+  }
+  const result = runEngine(() => computeSettlement(body))
+  return { ...result, caution: RESULT_CAUTION }
+})

@@ -1,0 +1,13 @@
+import { computeStressProfile } from '#shared/geotech/stress'
+import { StressProfileRequestSchema } from '#shared/schemas/calc'
+
+/** σv, u and σ'v0 at every breakpoint and requested depth. */
+export default defineEventHandler(async (event) => {
+  requireUser(event)
+  const body = await validateBody(event, StressProfileRequestSchema)
+  const profile = runEngine(() => computeStressProfile(body))
+  return {
+    points: profile.points.map(p => ({ depth: p.depth, layer: p.layer, totalStress: p.totalStress, porePressure: p.porePressure, effectiveStress: p.effectiveStress })),
+    warnings: profile.warnings,
+  }
+})

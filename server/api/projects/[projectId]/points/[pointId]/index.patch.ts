@@ -1,0 +1,37 @@
+import { and, eq, sql } from 'drizzle-orm'
+import { PointUpdateSchema } from '#shared/schemas/investigation'
+import { useDb } from '../../../../../db/client'
+import { investigationPoints, logIntervals } from '../../../../../db/schema'
+import { recordAudit } from '../../../../../services/audit'
+import { assertLogValid, requirePoint } from '../../../../../services/points'
+import { versionedUpdate } from '../../../../../services/versioned'
+import { isUniqueViolation } from '../../../../../utils/db-errors'
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { pointId } = validateParams(event, PointParams)
+  const { version, ...patch } = await validateBody(event, PointUpdateSchema)
+  try {
+    const point = await useDb().transaction(async (tx) => {
+      const before = await requirePoint(project.id, pointId, tx, { lock: true })
+      if (patch.finalDepth !== undefined && patch.finalDepth !== before.finalDepth) {
+        // A shallower final depth must still hold the whole log.
+        const intervals = await tx.select({ top: logIntervals.top, bottom: logIntervals.bottom }).from(logIntervals).where(eq(logIntervals.pointId, pointId))
+        assertLogValid(intervals, patch.finalDepth)
+      }
+      const row = await versionedUpdate({
+        entity: 'Point',
+        update: () => tx.update(investigationPoints).set({ ...patch, version: sql`${investigationPoints.version} + 1` })
+          .where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, project.id), eq(investigationPoints.version, version))).returning(),
+        current: async () => before,
+      })
+      await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'point', entityId: pointId, before, after: row }, tx)
+      return row
+    })
+    return { point }
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${patch.identifier} already exists in this project.` })
+    throw err
+  }
+})

@@ -1,0 +1,38 @@
+import { and, eq, sql } from 'drizzle-orm'
+import { z } from 'zod'
+import { IndexTestInputSchema } from '#shared/schemas/investigation'
+import { useDb } from '../../../../../../../db/client'
+import { indexTests, samples } from '../../../../../../../db/schema'
+import { recordAudit } from '../../../../../../../services/audit'
+import { requirePoint } from '../../../../../../../services/points'
+import { notFound, versionedUpdate } from '../../../../../../../services/versioned'
+
+const Body = z.intersection(IndexTestInputSchema, z.object({ version: z.number().int().min(1).optional() }))
+
+/** Creates or replaces a sample's index tests (send the version read when replacing). */
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'tests.write')
+  const { pointId, sampleId } = validateParams(event, SampleParams)
+  const { version, ...values } = await validateBody(event, Body)
+  const indexTest = await useDb().transaction(async (tx) => {
+    const point = await requirePoint(project.id, pointId, tx)
+    const [sample] = await tx.select({ id: samples.id }).from(samples).where(and(eq(samples.id, sampleId), eq(samples.pointId, point.id)))
+    if (!sample) notFound('Sample')
+    const [before] = await tx.select().from(indexTests).where(eq(indexTests.sampleId, sampleId)).for('update')
+    let row
+    if (!before) {
+      [row] = await tx.insert(indexTests).values({ ...values, sampleId }).returning()
+    }
+    else {
+      if (version === undefined) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This sample already has index tests: send the version you read to replace them.', data: { current: before } })
+      row = await versionedUpdate({
+        entity: 'Index test',
+        update: () => tx.update(indexTests).set({ ...values, version: sql`${indexTests.version} + 1` }).where(and(eq(indexTests.sampleId, sampleId), eq(indexTests.version, version))).returning(),
+        current: async () => before,
+      })
+    }
+    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row!.id, before: before ?? null, after: row }, tx)
+    return row!
+  })
+  return { indexTest }
+})

@@ -1,0 +1,31 @@
+import { and, eq, sql } from 'drizzle-orm'
+import { SampleUpdateSchema } from '#shared/schemas/investigation'
+import { useDb } from '../../../../../../../db/client'
+import { samples } from '../../../../../../../db/schema'
+import { recordAudit } from '../../../../../../../services/audit'
+import { requirePoint } from '../../../../../../../services/points'
+import { notFound, unprocessable, versionedUpdate } from '../../../../../../../services/versioned'
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { pointId, sampleId } = validateParams(event, SampleParams)
+  const { version, ...patch } = await validateBody(event, SampleUpdateSchema)
+  const sample = await useDb().transaction(async (tx) => {
+    const point = await requirePoint(project.id, pointId, tx)
+    const scope = and(eq(samples.id, sampleId), eq(samples.pointId, point.id))
+    const [before] = await tx.select().from(samples).where(scope)
+    if (!before) notFound('Sample')
+    const top = patch.top ?? before.top
+    const bottom = patch.bottom ?? before.bottom
+    if (bottom < top) unprocessable('The sample\'s bottom must not be above its top.')
+    if (bottom > point.finalDepth) unprocessable(`The sample's bottom (${bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
+    const row = await versionedUpdate({
+      entity: 'Sample',
+      update: () => tx.update(samples).set({ ...patch, version: sql`${samples.version} + 1` }).where(and(scope, eq(samples.version, version))).returning(),
+      current: async () => before,
+    })
+    await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'sample', entityId: sampleId, before, after: row }, tx)
+    return row
+  })
+  return { sample }
+})

@@ -1,0 +1,161 @@
+import { sql } from 'drizzle-orm'
+import { check, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../../../shared/investigation/types'
+import { timestamps } from './columns'
+import { projects } from './projects'
+import { users } from './users'
+
+export const pointKind = pgEnum('point_kind', POINT_KINDS)
+export const sampleType = pgEnum('sample_type', SAMPLE_TYPES)
+export const groundwaterKind = pgEnum('groundwater_kind', GROUNDWATER_KINDS)
+
+/** Optimistic concurrency: every write sends the version it read; a stale one is 409. */
+const version = { version: integer().notNull().default(1) }
+
+/** Project-level geological units, in display order. */
+export const strata = pgTable('strata', {
+  id: uuid().primaryKey().defaultRandom(),
+  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  code: text().notNull(),
+  name: text().notNull(),
+  description: text().notNull().default(''),
+  colour: text().notNull(),
+  pattern: text().notNull(),
+  unitWeight: doublePrecision().notNull(),
+  unitWeightSaturated: doublePrecision().notNull(),
+  displayOrder: integer().notNull().default(0),
+  ...version,
+  ...timestamps,
+}, t => [
+  uniqueIndex('strata_project_code_idx').on(t.projectId, t.code),
+])
+
+export const investigationPoints = pgTable('investigation_points', {
+  id: uuid().primaryKey().defaultRandom(),
+  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  identifier: text().notNull(),
+  kind: pointKind().notNull(),
+  easting: doublePrecision().notNull(),
+  northing: doublePrecision().notNull(),
+  groundElevation: doublePrecision().notNull(),
+  finalDepth: doublePrecision().notNull(),
+  startedOn: date({ mode: 'string' }),
+  endedOn: date({ mode: 'string' }),
+  method: text().notNull().default(''),
+  loggedBy: text().notNull().default(''),
+  remarks: text().notNull().default(''),
+  ...version,
+  ...timestamps,
+}, t => [
+  uniqueIndex('investigation_points_project_identifier_idx').on(t.projectId, t.identifier),
+  check('investigation_points_final_depth_positive', sql`${t.finalDepth} > 0`),
+])
+
+export const logIntervals = pgTable('log_intervals', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  top: doublePrecision().notNull(),
+  bottom: doublePrecision().notNull(),
+  description: text().notNull().default(''),
+  uscs: text(),
+  // Deleting a stratum leaves the logged interval, unassigned.
+  stratumId: uuid().references(() => strata.id, { onDelete: 'set null' }),
+  moisture: text(),
+  consistency: text(),
+  ...version,
+  ...timestamps,
+}, t => [
+  index('log_intervals_point_idx').on(t.pointId, t.top),
+  check('log_intervals_top_above_bottom', sql`${t.top} >= 0 and ${t.bottom} > ${t.top}`),
+])
+
+export const samples = pgTable('samples', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  identifier: text().notNull(),
+  top: doublePrecision().notNull(),
+  bottom: doublePrecision().notNull(),
+  type: sampleType().notNull(),
+  recovery: doublePrecision(),
+  remarks: text().notNull().default(''),
+  ...version,
+  ...timestamps,
+}, t => [
+  uniqueIndex('samples_point_identifier_idx').on(t.pointId, t.identifier),
+  check('samples_top_above_bottom', sql`${t.top} >= 0 and ${t.bottom} >= ${t.top}`),
+])
+
+/** Index tests on a sample (one set per sample). PI is derived, never stored. */
+export const indexTests = pgTable('index_tests', {
+  id: uuid().primaryKey().defaultRandom(),
+  sampleId: uuid().notNull().references(() => samples.id, { onDelete: 'cascade' }),
+  waterContent: doublePrecision(),
+  liquidLimit: doublePrecision(),
+  plasticLimit: doublePrecision(),
+  bulkUnitWeight: doublePrecision(),
+  ...version,
+  ...timestamps,
+}, t => [uniqueIndex('index_tests_sample_idx').on(t.sampleId)])
+
+export const sptResults = pgTable('spt_results', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  depth: doublePrecision().notNull(),
+  blows: integer().array().notNull(),
+  n: integer().notNull(),
+  ...version,
+  ...timestamps,
+}, t => [index('spt_results_point_idx').on(t.pointId, t.depth)])
+
+export const groundwaterObservations = pgTable('groundwater_observations', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  kind: groundwaterKind().notNull(),
+  observedAt: timestamp({ withTimezone: true, mode: 'string' }).notNull(),
+  depth: doublePrecision(),
+  pressure: doublePrecision(),
+  remarks: text().notNull().default(''),
+  ...version,
+  ...timestamps,
+}, t => [
+  index('groundwater_point_idx').on(t.pointId, t.observedAt),
+  check('groundwater_depth_or_pressure', sql`${t.depth} is not null or ${t.pressure} is not null`),
+])
+
+/**
+ * One CPT sounding per point, stored as parallel double arrays: a sounding is
+ * thousands of rows that are always read whole, so one row reads in one fetch.
+ */
+export const cptSoundings = pgTable('cpt_soundings', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  areaRatio: doublePrecision().notNull(),
+  count: integer().notNull(),
+  depth: doublePrecision().array().notNull(),
+  qc: doublePrecision().array().notNull(),
+  fs: doublePrecision().array().notNull(),
+  u2: doublePrecision().array().notNull(),
+  ...version,
+  ...timestamps,
+}, t => [uniqueIndex('cpt_soundings_point_idx').on(t.pointId)])
+
+/** Field vane readings (peak and remoulded su,FV). */
+export const vaneReadings = pgTable('vane_readings', {
+  id: uuid().primaryKey().defaultRandom(),
+  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  depth: doublePrecision().notNull(),
+  peak: doublePrecision().notNull(),
+  remoulded: doublePrecision(),
+  ...version,
+  ...timestamps,
+}, t => [index('vane_readings_point_idx').on(t.pointId, t.depth)])
+
+/** A saved column mapping for one import kind, so the next file of the same layout maps itself. */
+export const importMappings = pgTable('import_mappings', {
+  id: uuid().primaryKey().defaultRandom(),
+  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  target: text().notNull(),
+  mapping: jsonb().$type<Record<string, string>>().notNull(),
+  savedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [uniqueIndex('import_mappings_project_target_idx').on(t.projectId, t.target)])

@@ -1,0 +1,63 @@
+/**
+ * Rules of one hole's log (common practice): intervals never overlap and never
+ * pass the hole's final depth; gaps are allowed and reported. Shared by the log
+ * table (inline errors), the importers and the server (the authority).
+ */
+
+export interface IntervalLike {
+  top: number
+  bottom: number
+}
+
+export interface IntervalIssue {
+  /** Index into the list as given. */
+  index: number
+  field: 'top' | 'bottom'
+  message: string
+}
+
+export interface Gap {
+  top: number
+  bottom: number
+}
+
+/** Depths closer than this are the same depth (0.1 mm): avoids false overlaps from decimal rounding. */
+export const DEPTH_TOLERANCE = 1e-4
+
+export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: number): { issues: IntervalIssue[], gaps: Gap[] } {
+  const issues: IntervalIssue[] = []
+  intervals.forEach((iv, index) => {
+    if (!Number.isFinite(iv.top) || iv.top < 0) issues.push({ index, field: 'top', message: 'Top must be a depth of 0 m or more.' })
+    if (!Number.isFinite(iv.bottom)) issues.push({ index, field: 'bottom', message: 'Bottom must be a number.' })
+    else if (iv.bottom <= iv.top) issues.push({ index, field: 'bottom', message: `Bottom (${fmt(iv.bottom)} m) must be below the top (${fmt(iv.top)} m).` })
+    if (Number.isFinite(iv.bottom) && iv.bottom > finalDepth + DEPTH_TOLERANCE) {
+      issues.push({ index, field: 'bottom', message: `Bottom (${fmt(iv.bottom)} m) is below the hole's final depth (${fmt(finalDepth)} m).` })
+    }
+  })
+  const order = intervals
+    .map((iv, index) => ({ ...iv, index }))
+    .filter(iv => Number.isFinite(iv.top) && iv.top >= 0 && Number.isFinite(iv.bottom) && iv.bottom > iv.top)
+    .sort((a, b) => a.top - b.top || a.bottom - b.bottom)
+  const gaps: Gap[] = []
+  let reach = 0
+  let reachIndex = -1
+  for (const iv of order) {
+    if (iv.top < reach - DEPTH_TOLERANCE) {
+      issues.push({ index: iv.index, field: 'top', message: `Overlaps the interval ${fmt(order.find(o => o.index === reachIndex)!.top)}–${fmt(reach)} m (row ${reachIndex + 1}).` })
+    }
+    else if (iv.top > reach + DEPTH_TOLERANCE) {
+      gaps.push({ top: reach, bottom: iv.top })
+    }
+    if (iv.bottom > reach) {
+      reach = iv.bottom
+      reachIndex = iv.index
+    }
+  }
+  if (order.length && reach < finalDepth - DEPTH_TOLERANCE) gaps.push({ top: reach, bottom: finalDepth })
+  issues.sort((a, b) => a.index - b.index)
+  return { issues, gaps }
+}
+
+function fmt(v: number): string {
+  return Number(v.toFixed(3)).toString()
+}

@@ -1,0 +1,197 @@
+import { z } from 'zod'
+
+/**
+ * Request and response shapes of the public compute API (`/api/calc/*`), SI units.
+ * These schemas are the contract: the routes validate with them, the OpenAPI
+ * document is generated from them, and the engine's input types must accept
+ * what they produce. Shape errors are 400; physically impossible values (a zero
+ * thickness, e0 ≤ 0, σ'v0 ≤ 0 …) pass the shape check and are refused by the
+ * engine with 422 and a plain message.
+ */
+
+const num = (description: string) => z.number({ error: 'must be a number' }).describe(description)
+
+export const CalcLayerSchema = z.object({
+  name: z.string().min(1, { message: 'is required' }).max(80).describe('Stratum name, echoed in results'),
+  thickness: num('Layer thickness, m'),
+  unitWeight: num('Bulk unit weight above the water table, kN/m³'),
+  unitWeightSaturated: num('Saturated unit weight below the water table, kN/m³'),
+})
+
+export const PiezometerSchema = z.object({
+  depth: num('Depth of the control point, m'),
+  porePressure: num('Pore water pressure at that depth, kPa'),
+})
+
+export const GroundwaterSchema = z.object({
+  waterTableDepth: num('Depth of the water table (u = 0), m'),
+  piezometers: z.array(PiezometerSchema).max(200).optional()
+    .describe('Piezometric control points: u is linear between them and hydrostatic below the last'),
+})
+
+const profileBase = {
+  surcharge: num('Uniform surface pressure already in place, kPa (default 0)').optional(),
+  gammaW: num('Unit weight of water, kN/m³ (default 9.81)').optional(),
+  groundwater: GroundwaterSchema,
+}
+
+export const StressProfileRequestSchema = z.object({
+  ...profileBase,
+  layers: z.array(CalcLayerSchema).min(1, { message: 'needs at least one layer' }).max(200),
+  depths: z.array(z.number()).max(20_000).optional().describe('Extra depths (m) to report besides the breakpoints'),
+}).meta({ id: 'StressProfileRequest' })
+export type StressProfileRequest = z.infer<typeof StressProfileRequestSchema>
+
+export const StressPointSchema = z.object({
+  depth: z.number(),
+  layer: z.string(),
+  totalStress: z.number().describe('σv, kPa'),
+  porePressure: z.number().describe('u, kPa'),
+  effectiveStress: z.number().describe("σ'v0, kPa"),
+})
+
+export const StressProfileResponseSchema = z.object({
+  points: z.array(StressPointSchema),
+  warnings: z.array(z.string()),
+}).meta({ id: 'StressProfileResponse' })
+
+export const PreconsolidationModelSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('ocr'), value: num('OCR = σ\'p / σ\'v0') }),
+  z.object({ type: z.literal('pop'), value: num('POP = σ\'p − σ\'v0, kPa') }),
+  z.object({ type: z.literal('constant'), value: num('σ\'p, kPa') }),
+  z.object({ type: z.literal('linear'), top: num('σ\'p at the layer top, kPa'), bottom: num('σ\'p at the layer bottom, kPa') }),
+])
+
+export const DrainageSchema = z.enum(['double', 'top', 'bottom'])
+
+export const SettlementLayerSchema = CalcLayerSchema.extend({
+  compressible: z.boolean(),
+  cc: num('Compression index Cc').optional(),
+  cr: num('Recompression index Cr').optional(),
+  e0: num('Initial void ratio e0').optional(),
+  preconsolidation: PreconsolidationModelSchema.optional(),
+  cv: num('Coefficient of consolidation, m²/year').optional(),
+  drainage: DrainageSchema.optional().describe('Drained faces of the layer (default double)'),
+  calpha: num('Secondary compression index Cα').optional(),
+}).superRefine((layer, ctx) => {
+  if (!layer.compressible) return
+  for (const key of ['cc', 'cr', 'e0', 'preconsolidation'] as const) {
+    if (layer[key] === undefined) ctx.addIssue({ code: 'custom', path: [key], message: 'is required for a compressible layer' })
+  }
+})
+
+const at2 = z.object({ x: z.number(), y: z.number() }).describe('Plan point measured from the load centre, m')
+
+export const LoadSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('uniform'), pressure: num('kPa') }),
+  z.object({ type: z.literal('rectangle'), width: num('Along x, m'), length: num('Along y, m'), pressure: num('kPa'), at: at2.optional() }),
+  z.object({ type: z.literal('circle'), radius: num('m'), pressure: num('kPa'), at: at2.optional() }),
+  z.object({ type: z.literal('strip'), width: num('m'), pressure: num('kPa'), at: z.object({ x: z.number() }).optional() }),
+])
+
+export const SublayerOptionsSchema = z.union([
+  z.object({ maxThickness: z.number().positive({ message: 'must be positive' }) }),
+  z.object({ count: z.number().int().min(1).max(10_000) }),
+])
+
+export const SettlementRequestSchema = z.object({
+  ...profileBase,
+  layers: z.array(SettlementLayerSchema).min(1, { message: 'needs at least one layer' }).max(200),
+  load: LoadSchema,
+  sublayers: SublayerOptionsSchema.optional().describe('Default { maxThickness: 0.25 }'),
+  time: z.object({ years: z.array(z.number().min(0)).min(1).max(1000) }).optional(),
+  designLife: z.number().positive().optional().describe('Years after loading for secondary compression'),
+}).meta({ id: 'SettlementRequest' })
+export type SettlementRequest = z.infer<typeof SettlementRequestSchema>
+
+export const SublayerRowSchema = z.object({
+  layer: z.string(),
+  top: z.number(),
+  bottom: z.number(),
+  depth: z.number(),
+  thickness: z.number(),
+  effectiveStress: z.number(),
+  stressIncrease: z.number(),
+  finalEffectiveStress: z.number(),
+  preconsolidation: z.number(),
+  finalPreconsolidation: z.number(),
+  case: z.enum(['NC', 'OC', 'OC-NC']),
+  voidRatioChange: z.number(),
+  strain: z.number(),
+  compression: z.number().describe('m'),
+})
+
+export const SettlementResponseSchema = z.object({
+  settlement: z.number().describe('Total primary consolidation settlement, m'),
+  convergence: z.object({ halved: z.number(), relativeChange: z.number() }).nullable().describe('Total with every sublayer halved, and the relative change'),
+  sublayers: z.array(SublayerRowSchema),
+  layers: z.array(z.object({ name: z.string(), settlement: z.number() })),
+  time: z.array(z.object({ years: z.number(), degree: z.number(), settlement: z.number() })).optional(),
+  times: z.object({ t50: z.number(), t90: z.number() }).optional(),
+  secondary: z.object({
+    designLife: z.number(),
+    settlement: z.number(),
+    layers: z.array(z.object({ name: z.string(), endOfPrimary: z.number(), settlement: z.number() })),
+  }).optional(),
+  warnings: z.array(z.string()),
+  caution: z.string(),
+}).meta({ id: 'SettlementResponse' })
+
+export const OEDOMETER_METHOD_NAMES = ['casagrande', 'pachecoSilva', 'work', 'bilinear'] as const
+
+export const PreconsolidationRequestSchema = z.object({
+  points: z.array(z.object({ stress: num("σ', kPa"), voidRatio: num('e') })).min(1).max(500),
+  e0: num('Initial void ratio').optional(),
+  insituStress: num("In-situ σ'v0 of the sample, kPa (for sample quality)").optional(),
+  methods: z.array(z.enum(OEDOMETER_METHOD_NAMES)).min(1).max(4).optional(),
+}).meta({ id: 'PreconsolidationRequest' })
+export type PreconsolidationRequest = z.infer<typeof PreconsolidationRequestSchema>
+
+export const PreconsolidationResponseSchema = z.object({
+  results: z.array(z.object({
+    method: z.enum(OEDOMETER_METHOD_NAMES),
+    preconsolidation: z.number().describe("σ'p, kPa"),
+    construction: z.record(z.string(), z.unknown()).describe('Geometry of the construction, for drawing'),
+  })),
+  cc: z.number(),
+  cr: z.number(),
+  sampleQuality: z.object({ deltaEOverE0: z.number(), class: z.string() }).passthrough().optional(),
+  warnings: z.array(z.string()),
+}).meta({ id: 'PreconsolidationResponse' })
+
+export const TREND_MODEL_NAMES = ['constant', 'linear', 'pop', 'ocr', 'crust', 'auto'] as const
+
+export const TrendFitRequestSchema = z.object({
+  model: z.enum(TREND_MODEL_NAMES),
+  points: z.array(z.object({
+    depth: num('m'),
+    preconsolidation: num("σ'p, kPa"),
+    effectiveStress: num("σ'v0 at the point, kPa (needed by pop, ocr and crust)").optional(),
+    weight: z.number().positive().optional(),
+  })).min(1).max(50_000),
+  logSpace: z.boolean().optional().describe("Fit ln σ'p instead of σ'p"),
+}).meta({ id: 'TrendFitRequest' })
+export type TrendFitRequest = z.infer<typeof TrendFitRequestSchema>
+
+export const TrendFitResponseSchema = z.object({
+  model: z.string(),
+  parameters: z.record(z.string(), z.number()),
+  n: z.number().int(),
+  r2: z.number(),
+  rmse: z.number(),
+  aic: z.number(),
+  aicc: z.number().nullable().describe('AICc (Hurvich & Tsai 1989); null when n ≤ k + 1'),
+  band: z.array(z.object({ depth: z.number(), lower: z.number(), upper: z.number(), fitted: z.number() })),
+  reason: z.string().optional(),
+}).passthrough().meta({ id: 'TrendFitResponse' })
+
+export const ApiErrorSchema = z.object({
+  statusCode: z.number().int(),
+  statusMessage: z.string(),
+  message: z.string(),
+  data: z.object({
+    issues: z.array(z.object({ path: z.string(), message: z.string() })).optional(),
+    code: z.string().optional(),
+    depth: z.number().optional(),
+  }).optional(),
+}).meta({ id: 'ApiError' })

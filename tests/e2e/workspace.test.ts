@@ -1,0 +1,90 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEMO_PEOPLE } from '../../shared/demo/scenario'
+import { ROLE_LABELS } from '../../shared/auth/roles'
+import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
+import { type Browser, launch, screenshot, signInAs } from './helpers'
+
+describe('the signed-in workspace in Chromium', () => {
+  let browser: Browser
+  beforeAll(async () => { browser = await launch() })
+  afterAll(async () => { await browser?.close() })
+
+  it('shows the error for a wrong password and stays on the sign-in page', async () => {
+    const page = await browser.context.newPage()
+    await page.goto(`${baseUrl()}/login`)
+    await page.getByLabel('E-mail').fill(demoEmail('engineer'))
+    await page.getByLabel('Password').fill('not-the-password')
+    await page.getByRole('button', { name: 'Sign in' }).click()
+    const error = page.getByTestId('login-error')
+    await error.waitFor()
+    expect(await error.textContent()).toContain('E-mail or password is wrong.')
+    expect(new URL(page.url()).pathname).toBe('/login')
+    await screenshot(page, 'login-error')
+    await page.close()
+  })
+
+  it('sends a signed-out visitor to the sign-in page', async () => {
+    await browser.context.clearCookies()
+    const page = await browser.context.newPage()
+    await page.goto(`${baseUrl()}/account`)
+    await page.getByRole('button', { name: 'Sign in' }).waitFor()
+    expect(new URL(page.url()).pathname).toBe('/login')
+    expect(new URL(page.url()).searchParams.get('next')).toBe('/account')
+    await screenshot(page, 'login')
+    await page.close()
+  })
+
+  for (const person of DEMO_PEOPLE) {
+    it(`signs in as the demo ${person.role} and sees TRN-0417 with that role`, async () => {
+      const page = await signInAs(browser.context, person.email)
+      const card = page.getByTestId('project-list').getByRole('link', { name: /Saltmarsh Lane Freight Terminal/ })
+      expect(await card.textContent()).toContain(ROLE_LABELS[person.role])
+      await screenshot(page, `projects-${person.role}`)
+      await card.click()
+      await page.getByRole('heading', { name: 'Saltmarsh Lane Freight Terminal' }).waitFor()
+      const table = page.getByTestId('members-table')
+      expect(await table.textContent()).toContain('Priya Natarajan')
+      const canManage = person.role === 'owner'
+      expect(await page.getByTestId('add-member').count()).toBe(canManage ? 1 : 0)
+      expect(await page.getByTestId('new-project').count()).toBe(0)
+      await screenshot(page, `project-${person.role}`)
+      await page.close()
+    })
+  }
+
+  it('a viewer sees no create or edit controls anywhere', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const projectId = await demoProjectId(admin)
+    const viewer = await createUser(admin, 'viewer')
+    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
+
+    const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
+    expect(await page.getByTestId('new-project').count()).toBe(0)
+    await page.goto(`${baseUrl()}/projects/${projectId}`)
+    await page.getByTestId('members-table').waitFor()
+    expect(await page.getByTestId('add-member').count()).toBe(0)
+    expect(await page.getByRole('button', { name: 'Remove' }).count()).toBe(0)
+    expect(await page.locator('[data-testid="members-table"] select').count()).toBe(0)
+    await screenshot(page, 'project-viewer')
+    await page.close()
+  })
+
+  it('the site admin sees the new-project form; the account page lists tokens; sign-out works', async () => {
+    const page = await signInAs(browser.context, demoEmail('owner'))
+    await page.getByTestId('new-project').click()
+    await page.getByRole('button', { name: 'Create project' }).click()
+    expect(await page.getByText('Job number must be at least 2 characters').count()).toBe(1)
+    await screenshot(page, 'projects-new')
+    await page.goto(`${baseUrl()}/account`)
+    await page.getByLabel('Token name').fill('browser test')
+    await page.getByRole('button', { name: 'Create token' }).click()
+    const token = await page.getByTestId('new-token').textContent()
+    expect(token).toMatch(/^plt_/)
+    await screenshot(page, 'account')
+    await page.getByTestId('user-menu').click()
+    await page.getByTestId('sign-out').click()
+    await page.getByRole('button', { name: 'Sign in' }).waitFor()
+    expect(new URL(page.url()).pathname).toBe('/login')
+    await page.close()
+  })
+})
