@@ -39,7 +39,7 @@ async function main() {
   ensureChromium()
   const cluster = await ensureCluster({
     projectRoot: root,
-    name: 'pg-test',
+    name: process.env.PASTLOAD_TEST_DB_DIR ?? 'pg-test',
     port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339),
     database: 'pastload_test',
     fresh: true,

@@ -6,7 +6,7 @@ import { buildIfStale } from './lib/build.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
-const cluster = await ensureCluster({ projectRoot: root, name: 'pg-test', port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339), database: 'pastload_test', fresh: true })
+const cluster = await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_TEST_DB_DIR ?? 'pg-test', port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339), database: 'pastload_test', fresh: true })
 let status = 1
 try {
   buildIfStale(root)

@@ -15,7 +15,7 @@ interface Ctx {
 }
 
 interface RouteCase {
-  method: 'GET' | 'POST' | 'PATCH' | 'DELETE'
+  method: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
   path: string
   /** Roles allowed; everyone else in the project gets 403, a non-member 404, anonymous 401. */
   allowed: readonly ProjectRole[]
@@ -33,6 +33,42 @@ async function freshMember(ctx: Ctx): Promise<string> {
   if (r.status !== 201) throw new Error(`could not add target member: ${r.status}`)
   return id
 }
+
+let seq = 0
+const next = () => `${Date.now().toString(36)}${++seq}`
+
+async function ok<T>(p: Promise<{ status: number, body: T }>, want = 201): Promise<T> {
+  const r = await p
+  if (r.status !== want) throw new Error(`fixture failed: ${r.status} ${JSON.stringify(r.body)}`)
+  return r.body
+}
+
+/** A fresh point owned by the matrix project (created by the owner). */
+async function freshPoint(ctx: Ctx, kind = 'borehole'): Promise<{ id: string, version: number, url: string }> {
+  const b = await ok(ctx.owner.post<{ point: { id: string, version: number } }>(`/api/projects/${ctx.projectId}/points`, { identifier: `P-${next()}`, kind, easting: 1, northing: 2, groundElevation: 3, finalDepth: 20 }))
+  return { ...b.point, url: `/api/projects/${ctx.projectId}/points/${b.point.id}` }
+}
+
+async function freshSample(ctx: Ctx) {
+  const p = await freshPoint(ctx)
+  const b = await ok(ctx.owner.post<{ sample: { id: string, version: number } }>(`${p.url}/samples`, { identifier: 'U1', top: 2, bottom: 2.45, type: 'thin-walled-tube' }))
+  return { ...b.sample, url: `${p.url}/samples/${b.sample.id}` }
+}
+
+async function freshRow(ctx: Ctx, kind: 'spt' | 'groundwater' | 'vane') {
+  const p = await freshPoint(ctx)
+  const body = kind === 'spt' ? { depth: 5, blows: [1, 2, 3] } : kind === 'vane' ? { depth: 5, peak: 20 } : { kind: 'standing', observedAt: '2025-04-01T09:00:00Z', depth: 1.6 }
+  const b = await ok(ctx.owner.post<{ row: { id: string, version: number } }>(`${p.url}/${kind}`, body))
+  return { ...b.row, url: `${p.url}/${kind}/${b.row.id}` }
+}
+
+async function freshStratum(ctx: Ctx) {
+  const b = await ok(ctx.owner.post<{ stratum: { id: string, version: number } }>(`/api/projects/${ctx.projectId}/strata`, { code: `S${next()}`.slice(0, 16), name: 'Stratum', colour: 'c', pattern: 'p', unitWeight: 18, unitWeightSaturated: 19 }))
+  return { ...b.stratum, url: `/api/projects/${ctx.projectId}/strata/${b.stratum.id}` }
+}
+
+const LOG_WRITERS = ['owner', 'engineer', 'geologist'] as const
+const CPT_BODY = { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] }
 
 export const PROJECT_ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId', allowed: ALL, ok: 200 },
@@ -56,6 +92,36 @@ export const PROJECT_ROUTES: RouteCase[] = [
     method: 'DELETE', path: '/api/projects/:projectId/members/:userId', allowed: ['owner'], ok: 200,
     prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/members/${await freshMember(ctx)}` }),
   },
+  // Investigation points and their logs
+  { method: 'GET', path: '/api/projects/:projectId/points', allowed: ALL, ok: 200 },
+  { method: 'POST', path: '/api/projects/:projectId/points', allowed: LOG_WRITERS, ok: 201, prepare: async () => ({ body: { identifier: `BH-${next()}`, kind: 'borehole', easting: 0, northing: 0, groundElevation: 1, finalDepth: 10 } }) },
+  { method: 'GET', path: '/api/projects/:projectId/points/:pointId', allowed: ALL, ok: 200, prepare: async ctx => ({ path: (await freshPoint(ctx)).url }) },
+  { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const p = await freshPoint(ctx); return { path: p.url, body: { remarks: 'checked', version: p.version } } } },
+  { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshPoint(ctx)).url }) },
+  { method: 'PUT', path: '/api/projects/:projectId/points/:pointId/intervals', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/intervals`, body: { intervals: [{ top: 0, bottom: 1 }] } }) },
+  { method: 'POST', path: '/api/projects/:projectId/points/:pointId/samples', allowed: LOG_WRITERS, ok: 201, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/samples`, body: { identifier: 'U2', top: 1, bottom: 1.45, type: 'piston' } }) },
+  { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const s = await freshSample(ctx); return { path: s.url, body: { recovery: 90, version: s.version } } } },
+  { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshSample(ctx)).url }) },
+  { method: 'PUT', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId/index-test', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${(await freshSample(ctx)).url}/index-test`, body: { liquidLimit: 60, plasticLimit: 25 } }) },
+  ...(['spt', 'groundwater', 'vane'] as const).flatMap((kind): RouteCase[] => [
+    {
+      method: 'POST', path: `/api/projects/:projectId/points/:pointId/${kind}`, allowed: LOG_WRITERS, ok: 201,
+      prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/${kind}`, body: kind === 'spt' ? { depth: 3, blows: [2, 3, 4] } : kind === 'vane' ? { depth: 3, peak: 18 } : { kind: 'strike', observedAt: '2025-03-03T10:00:00Z', depth: 1.6 } }),
+    },
+    { method: 'DELETE', path: `/api/projects/:projectId/points/:pointId/${kind}/:rowId`, allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshRow(ctx, kind)).url }) },
+  ]),
+  { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/spt/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'spt'); return { path: r.url, body: { depth: 5, blows: [2, 2, 2], version: r.version } } } },
+  { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/groundwater/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'groundwater'); return { path: r.url, body: { kind: 'standing', observedAt: '2025-04-02T09:00:00Z', depth: 1.7, version: r.version } } } },
+  { method: 'PUT', path: '/api/projects/:projectId/points/:pointId/cpt', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx, 'cpt')).url}/cpt`, body: CPT_BODY }) },
+  {
+    method: 'GET', path: '/api/projects/:projectId/points/:pointId/cpt', allowed: ALL, ok: 200,
+    prepare: async (ctx) => { const p = await freshPoint(ctx, 'cpt'); await ok(ctx.owner.request('PUT', `${p.url}/cpt`, CPT_BODY), 200); return { path: `${p.url}/cpt` } },
+  },
+  // Strata
+  { method: 'GET', path: '/api/projects/:projectId/strata', allowed: ALL, ok: 200 },
+  { method: 'POST', path: '/api/projects/:projectId/strata', allowed: LOG_WRITERS, ok: 201, prepare: async () => ({ body: { code: `N${next()}`.slice(0, 16), name: 'New', colour: 'c', pattern: 'p', unitWeight: 17, unitWeightSaturated: 18 } }) },
+  { method: 'PATCH', path: '/api/projects/:projectId/strata/:stratumId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const s = await freshStratum(ctx); return { path: s.url, body: { name: 'Renamed', version: s.version } } } },
+  { method: 'DELETE', path: '/api/projects/:projectId/strata/:stratumId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshStratum(ctx)).url }) },
 ]
 
 function expected(route: RouteCase, caller: Caller): number {

@@ -1,0 +1,13 @@
+import { z } from 'zod'
+import { GroundwaterInputSchema } from '#shared/schemas/investigation'
+import { updatePointRow } from '../../../../../../services/point-rows'
+
+const Body = z.intersection(GroundwaterInputSchema, z.object({ version: z.number().int().min(1) }))
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { pointId, rowId } = validateParams(event, PointRowParams)
+  const { version, ...values } = await validateBody(event, Body)
+  const row = await updatePointRow('groundwater', { actorId: user.id, projectId: project.id, pointId }, rowId, version, values)
+  return { row }
+})

@@ -1,0 +1,11 @@
+import { GroundwaterInputSchema } from '#shared/schemas/investigation'
+import { createPointRow } from '../../../../../../services/point-rows'
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { pointId } = validateParams(event, PointParams)
+  const body = await validateBody(event, GroundwaterInputSchema)
+  const row = await createPointRow('groundwater', { actorId: user.id, projectId: project.id, pointId }, body)
+  setResponseStatus(event, 201)
+  return { row }
+})

@@ -1,0 +1,13 @@
+import { z } from 'zod'
+import { SptInputSchema } from '#shared/schemas/investigation'
+import { updatePointRow } from '../../../../../../services/point-rows'
+
+const Body = SptInputSchema.extend({ version: z.number().int().min(1) })
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { pointId, rowId } = validateParams(event, PointRowParams)
+  const { version, ...values } = await validateBody(event, Body)
+  const row = await updatePointRow('spt', { actorId: user.id, projectId: project.id, pointId }, rowId, version, { ...values, n: values.blows[1] + values.blows[2] })
+  return { row }
+})

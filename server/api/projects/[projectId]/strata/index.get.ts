@@ -1,0 +1,9 @@
+import { asc, eq } from 'drizzle-orm'
+import { useDb } from '../../../../db/client'
+import { strata } from '../../../../db/schema'
+
+export default defineEventHandler(async (event) => {
+  const { project } = await requireProjectRole(event, 'project.read')
+  const rows = await useDb().select().from(strata).where(eq(strata.projectId, project.id)).orderBy(asc(strata.displayOrder), asc(strata.code))
+  return { strata: rows }
+})

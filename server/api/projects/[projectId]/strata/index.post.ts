@@ -1,0 +1,23 @@
+import { StratumInputSchema } from '#shared/schemas/investigation'
+import { useDb } from '../../../../db/client'
+import { strata } from '../../../../db/schema'
+import { recordAudit } from '../../../../services/audit'
+import { isUniqueViolation } from '../../../../utils/db-errors'
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const body = await validateBody(event, StratumInputSchema)
+  try {
+    const stratum = await useDb().transaction(async (tx) => {
+      const [row] = await tx.insert(strata).values({ ...body, projectId: project.id }).returning()
+      await recordAudit({ actorId: user.id, projectId: project.id, action: 'create', entity: 'stratum', entityId: row!.id, after: row }, tx)
+      return row!
+    })
+    setResponseStatus(event, 201)
+    return { stratum }
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `A stratum with code ${body.code} already exists.` })
+    throw err
+  }
+})

@@ -1,0 +1,42 @@
+import { eq, sql } from 'drizzle-orm'
+import { useDb } from '../db/client'
+import { cptSoundings } from '../db/schema'
+import { recordAudit, type Tx } from './audit'
+import { requirePoint } from './points'
+import { unprocessable } from './versioned'
+
+export interface CptArrays {
+  areaRatio: number
+  depth: number[]
+  qc: number[]
+  fs: number[]
+  u2: number[]
+}
+
+/** Depths must increase and stay within the hole; the sounding is replaced whole. */
+export function assertCptValid(c: CptArrays, finalDepth: number) {
+  for (let i = 1; i < c.depth.length; i++) {
+    if (!(c.depth[i]! > c.depth[i - 1]!)) unprocessable(`CPT row ${i + 1}: depth ${c.depth[i]} m does not increase from ${c.depth[i - 1]} m.`)
+  }
+  const last = c.depth[c.depth.length - 1]!
+  if (c.depth[0]! < 0) unprocessable('CPT depths must be 0 m or deeper.')
+  if (last > finalDepth + 1e-6) unprocessable(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
+}
+
+export async function replaceCptSounding(ctx: { actorId: string, projectId: string, pointId: string }, c: CptArrays & { version?: number }, txIn?: Tx) {
+  const run = async (tx: Tx) => {
+    const point = await requirePoint(ctx.projectId, ctx.pointId, tx, { lock: true })
+    assertCptValid(c, point.finalDepth)
+    const [before] = await tx.select({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio }).from(cptSoundings).where(eq(cptSoundings.pointId, point.id))
+    if (before && c.version !== undefined && c.version !== before.version) {
+      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This sounding was replaced by someone else since you opened it.', data: { current: before } })
+    }
+    const values = { areaRatio: c.areaRatio, count: c.depth.length, depth: c.depth, qc: c.qc, fs: c.fs, u2: c.u2 }
+    const [row] = before
+      ? await tx.update(cptSoundings).set({ ...values, version: sql`${cptSoundings.version} + 1` }).where(eq(cptSoundings.id, before.id)).returning({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio })
+      : await tx.insert(cptSoundings).values({ ...values, pointId: point.id }).returning({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio })
+    await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: before ? 'update' : 'create', entity: 'cpt', entityId: row!.id, before: before ?? null, after: row }, tx)
+    return row!
+  }
+  return txIn ? run(txIn) : useDb().transaction(run)
+}
