@@ -355,6 +355,18 @@ function valuesAt(model: StressModel, i: number, z: number, out: StressAtDepth):
   return out
 }
 
+/** Requested depths checked and in ascending order; already-sorted input (the usual case) skips the sort. */
+function sortedDepths(model: StressModel, depths: readonly number[]): Float64Array {
+  const out = new Float64Array(depths.length)
+  let sorted = true
+  for (let i = 0; i < depths.length; i++) {
+    out[i] = checkDepth(model, depths[i]!)
+    if (i > 0 && out[i]! < out[i - 1]!) sorted = false
+  }
+  // A typed array sorts numerically without a comparator call per pair.
+  return sorted ? out : out.sort()
+}
+
 /**
  * Vertical stress profile with exact values at every breakpoint (surface, layer
  * boundaries, water table, piezometer depths) plus the requested depths, sorted
@@ -364,7 +376,7 @@ function valuesAt(model: StressModel, i: number, z: number, out: StressAtDepth):
  */
 export function computeStressProfile(input: StressProfileInput): StressProfile {
   const model = buildStressModel(input)
-  const requested = (input.depths ?? []).map(z => checkDepth(model, z)).sort((a, b) => a - b)
+  const requested = sortedDepths(model, input.depths ?? [])
   const points: StressProfilePoint[] = []
   const scratch: StressAtDepth = { totalStress: 0, porePressure: 0, effectiveStress: 0, layerIndex: 0 }
   const n = model.depth.length

@@ -1,0 +1,18 @@
+// `npm run bench`: engine and API speed against bare baselines, measured in one
+// run on this machine, on a private benchmark database. Writes docs/performance.md.
+import { spawnSync } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { buildIfStale } from './lib/build.mjs'
+import { ensureCluster } from './lib/postgres.mjs'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+const cluster = await ensureCluster({ projectRoot: root, name: 'pg-bench', port: Number(process.env.PASTLOAD_BENCH_DB_PORT ?? 54369), database: 'pastload_bench', fresh: true })
+let status = 1
+try {
+  buildIfStale(root)
+  status = spawnSync('npx', ['tsx', 'tests/bench/run.ts'], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: cluster.url, NODE_ENV: 'production' } }).status ?? 1
+}
+finally {
+  cluster.stop()
+}
+process.exit(status)

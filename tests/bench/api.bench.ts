@@ -1,0 +1,49 @@
+// Median latency of the compute API on loopback against the built server.
+import { performance } from 'node:perf_hooks'
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
+import { startServer } from '../helpers/server'
+
+/** A 10-layer profile whose compressible layers make 400 sublayers in all. */
+export function tenLayerSettlementBody() {
+  const layers = Array.from({ length: 10 }, (_, i) => {
+    const compressible = i >= 1 && i <= 8
+    return {
+      name: `Layer ${i + 1}`,
+      thickness: 2.5,
+      unitWeight: 18,
+      unitWeightSaturated: 18.5,
+      compressible,
+      ...(compressible ? { cc: 0.5 + 0.02 * i, cr: 0.05, e0: 1.5, preconsolidation: { type: 'pop', value: 20 + i }, cv: 2 } : {}),
+    }
+  })
+  // 8 compressible layers × 2.5 m / 0.05 m = 400 sublayers.
+  return { layers, groundwater: { waterTableDepth: 1.6 }, load: { type: 'rectangle', width: 80, length: 120, pressure: 120 }, sublayers: { maxThickness: 0.05 }, time: { years: [0.5, 1, 2, 5, 10] } }
+}
+
+export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, calls: number }> {
+  const server = await startServer({ PASTLOAD_SEED: 'demo' })
+  try {
+    const designer = DEMO_PEOPLE.find(p => p.role === 'designer')!
+    const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url }, body: JSON.stringify({ email: designer.email, password: DEMO_PASSWORD }) })
+    if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`)
+    const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    const body = JSON.stringify(tenLayerSettlementBody())
+    const call = async () => {
+      const r = await fetch(`${server.url}/api/calc/settlement`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url, cookie }, body })
+      const json = await r.json() as { sublayers: unknown[] }
+      if (!r.ok || json.sublayers.length !== 400) throw new Error(`bench call failed: ${r.status}`)
+    }
+    for (let i = 0; i < 30; i++) await call()
+    const times: number[] = []
+    for (let i = 0; i < calls; i++) {
+      const t0 = performance.now()
+      await call()
+      times.push(performance.now() - t0)
+    }
+    times.sort((a, b) => a - b)
+    return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]!, calls }
+  }
+  finally {
+    await server.stop()
+  }
+}

@@ -1,0 +1,139 @@
+// Engine speed against minimal hand-written loops of the same formulas, measured
+// in one run (best of several interleaved repetitions). Run by `npm run bench`.
+import { performance } from 'node:perf_hooks'
+import { linearRegression } from 'simple-statistics'
+import { computeSettlement } from '../../shared/geotech/settlement'
+import { computeStressProfile } from '../../shared/geotech/stress'
+import { fitTrend } from '../../shared/geotech/trends'
+
+export interface BenchRow { name: string, ours: number, baseline: number, ratio: number, goal: number, note?: string }
+
+function best(fn: () => number, reps: number): { ms: number, sink: number } {
+  let ms = Infinity
+  let sink = 0
+  for (let i = 0; i < reps; i++) {
+    const t0 = performance.now()
+    sink += fn()
+    ms = Math.min(ms, performance.now() - t0)
+  }
+  return { ms, sink }
+}
+
+function compare(name: string, goal: number, ours: () => number, baseline: () => number, reps = 15, note?: string): BenchRow {
+  // Warm up both, then interleave so machine load affects both alike.
+  ours(); baseline(); ours(); baseline()
+  let o = Infinity
+  let b = Infinity
+  for (let r = 0; r < reps; r++) {
+    o = Math.min(o, best(ours, 1).ms)
+    b = Math.min(b, best(baseline, 1).ms)
+  }
+  return { name, ours: o, baseline: b, ratio: o / b, goal, note }
+}
+
+const GAMMA_W = 9.81
+
+/** Settlement of one NC-with-POP layer in N sublayers: the engine against the bare formula loop. */
+function settlementBench(n: number): BenchRow[] {
+  const thickness = 25
+  const gsat = 16
+  const cc = 0.85
+  const cr = 0.09
+  const e0 = 2.1
+  const pop = 25
+  const q = 120
+  const input = {
+    layers: [{ name: 'Estuarine clay', thickness, unitWeight: gsat, unitWeightSaturated: gsat, compressible: true, cc, cr, e0, preconsolidation: { type: 'pop' as const, value: pop } }],
+    groundwater: { waterTableDepth: 0 },
+    load: { type: 'uniform' as const, pressure: q },
+    sublayers: { count: n },
+  }
+  const bare = () => {
+    const h = thickness / n
+    const gEff = gsat - GAMMA_W
+    let s = 0
+    for (let i = 0; i < n; i++) {
+      const z = (i + 0.5) * h
+      const s0 = gEff * z
+      const sp = s0 + pop
+      const sf = s0 + q
+      const de = sf <= sp ? cr * Math.log10(sf / s0) : cr * Math.log10(sp / s0) + cc * Math.log10(sf / sp)
+      s += de / (1 + e0) * h
+    }
+    return s
+  }
+  const engineCore = () => computeSettlement(input, { convergence: false }).settlement
+  const engineFull = () => computeSettlement(input).settlement
+  const check = Math.abs(engineCore() - bare()) / bare()
+  if (check > 1e-9) throw new Error(`settlement bench: engine and bare loop disagree (${check})`)
+  return [
+    compare(`settlement, ${n.toLocaleString('en')} sublayers (core)`, 2, engineCore, bare),
+    compare(`settlement, ${n.toLocaleString('en')} sublayers + convergence check`, 2, engineFull, bare, 10, 'the convergence report evaluates 2n more sublayers: 3n in all'),
+  ]
+}
+
+/** σv, u, σ'v0 at N depths through a 5-layer profile with a water table. */
+function stressBench(n: number): BenchRow {
+  const layers = [
+    { name: 'Made ground', thickness: 1.2, unitWeight: 19, unitWeightSaturated: 20 },
+    { name: 'Crust', thickness: 2.2, unitWeight: 18, unitWeightSaturated: 18.5 },
+    { name: 'Estuarine clay', thickness: 11.6, unitWeight: 16, unitWeightSaturated: 16 },
+    { name: 'Glacial clay', thickness: 6.5, unitWeight: 20.5, unitWeightSaturated: 20.5 },
+    { name: 'Sand', thickness: 8.5, unitWeight: 20, unitWeightSaturated: 20 },
+  ]
+  const wt = 1.6
+  const depths = Array.from({ length: n }, (_, i) => (30 * (i + 0.5)) / n)
+  const input = { layers, groundwater: { waterTableDepth: wt }, depths }
+  const bare = () => {
+    // Walk the sorted depths and the layers together (the same formulas, no breakpoints),
+    // building the same output rows the engine returns.
+    const out: { depth: number, layer: string, totalStress: number, porePressure: number, effectiveStress: number }[] = []
+    let li = 0
+    let top = 0
+    let sigmaTop = 0
+    for (let i = 0; i < n; i++) {
+      const z = depths[i]!
+      while (z > top + layers[li]!.thickness && li < layers.length - 1) {
+        const L = layers[li]!
+        const b = top + L.thickness
+        const dry = Math.max(0, Math.min(b, wt) - top)
+        sigmaTop += dry * L.unitWeight + (L.thickness - dry) * L.unitWeightSaturated
+        top = b
+        li++
+      }
+      const L = layers[li]!
+      const dry = Math.max(0, Math.min(z, wt) - top)
+      const sv = sigmaTop + dry * L.unitWeight + (z - top - dry) * L.unitWeightSaturated
+      const u = z > wt ? GAMMA_W * (z - wt) : 0
+      out.push({ depth: z, layer: L.name, totalStress: sv, porePressure: u, effectiveStress: sv - u })
+    }
+    return out[out.length - 1]!.effectiveStress
+  }
+  const ours = () => {
+    const r = computeStressProfile(input)
+    return r.points[r.points.length - 1]!.effectiveStress
+  }
+  return compare(`stress profile, ${n.toLocaleString('en')} depths`, 2, ours, bare, 10)
+}
+
+/** Linear σ'p trend on N points against simple-statistics' linear regression. */
+function trendBench(n: number): BenchRow {
+  let seed = 417
+  const uniform = () => {
+    seed = (seed * 16807) % 2147483647 // Park & Miller (1988) minimal standard generator
+    return seed / 2147483647
+  }
+  const pts = Array.from({ length: n }, (_, i) => {
+    const depth = 1 + (20 * i) / n
+    return { depth, preconsolidation: 40 + 6 * depth + 10 * (uniform() - 0.5) }
+  })
+  const data = pts.map(p => [p.depth, p.preconsolidation])
+  return compare(`trend fit (linear), ${n.toLocaleString('en')} points`, 2, () => fitTrend(pts, { model: 'linear' }).parameters.gradient!, () => linearRegression(data).m, 15, 'baseline: simple-statistics linearRegression')
+}
+
+/** Each benchmark runs in its own process (tests/bench/one.ts). */
+export const BENCHES: Record<string, () => BenchRow[]> = {
+  settlement: () => settlementBench(100_000),
+  stress: () => [stressBench(100_000)],
+  trend: () => [trendBench(50_000)],
+}

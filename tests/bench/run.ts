@@ -1,0 +1,45 @@
+// `npm run bench` entry: runs every benchmark, prints a table and rewrites the
+// measured section of docs/performance.md.
+import { readFileSync, writeFileSync } from 'node:fs'
+import { cpus } from 'node:os'
+import { resolve } from 'node:path'
+import { execFileSync } from 'node:child_process'
+import { runApiBench } from './api.bench'
+import { BENCHES, type BenchRow } from './engine.bench'
+
+function runInFreshProcess(name: string): BenchRow[] {
+  const out = execFileSync(process.execPath, ['--import', 'tsx', resolve(import.meta.dirname, 'one.ts'), name], { encoding: 'utf8' })
+  return JSON.parse(out.trim().split('\n').pop()!) as BenchRow[]
+}
+
+const fmt = (ms: number) => (ms < 10 ? ms.toFixed(2) : ms.toFixed(1))
+
+async function main() {
+  const rows: BenchRow[] = Object.keys(BENCHES).flatMap(runInFreshProcess)
+  const api = await runApiBench()
+  const lines = [
+    `Measured ${new Date().toISOString().slice(0, 10)} on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}.`,
+    '',
+    '| benchmark | Pastload (ms) | baseline (ms) | ratio | goal | met |',
+    '|---|---:|---:|---:|---:|:-:|',
+    ...rows.map(r => `| ${r.name}${r.note ? ` (${r.note})` : ''} | ${fmt(r.ours)} | ${fmt(r.baseline)} | ${r.ratio.toFixed(2)}× | ≤ ${r.goal}× | ${r.ratio <= r.goal ? 'yes' : 'no'} |`),
+    '',
+    '| API benchmark | median (ms) | p95 (ms) | calls | goal | met |',
+    '|---|---:|---:|---:|---:|:-:|',
+    `| POST /api/calc/settlement, 10 layers, 400 sublayers, loopback | ${fmt(api.median)} | ${fmt(api.p95)} | ${api.calls} | median ≤ 5 ms | ${api.median <= 5 ? 'yes' : 'no'} |`,
+  ]
+  const table = lines.join('\n')
+  console.log(`\n${table}\n`)
+  const doc = resolve(import.meta.dirname, '../../docs/performance.md')
+  const text = readFileSync(doc, 'utf8')
+  const start = '<!-- bench:engine:start -->'
+  const end = '<!-- bench:engine:end -->'
+  const i = text.indexOf(start)
+  const j = text.indexOf(end)
+  if (i >= 0 && j > i) writeFileSync(doc, `${text.slice(0, i + start.length)}\n${table}\n${text.slice(j)}`)
+}
+
+main().catch((err: unknown) => {
+  console.error(err)
+  process.exit(1)
+})
