@@ -3,6 +3,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { PROJECT_ROLES, type ProjectRole } from '../../shared/auth/roles'
 import { Client, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
+import { upload } from '../helpers/upload'
 
 type Caller = ProjectRole | 'nonMember' | 'anonymous'
 const CALLERS: Caller[] = [...PROJECT_ROLES, 'nonMember', 'anonymous']
@@ -68,6 +69,12 @@ async function freshStratum(ctx: Ctx) {
 }
 
 const LOG_WRITERS = ['owner', 'engineer', 'geologist'] as const
+
+async function freshUpload(ctx: Ctx): Promise<string> {
+  const r = await upload<{ importId: string }>(ctx.owner, `/api/projects/${ctx.projectId}/imports`, 'points.csv', 'Point,Kind,Easting,Northing,Ground level,Final depth\nMX-1,borehole,1,2,3,10\n')
+  if (r.status !== 201) throw new Error(`fixture upload failed: ${r.status}`)
+  return `/api/projects/${ctx.projectId}/imports/${r.body.importId}`
+}
 const CPT_BODY = { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] }
 
 export const PROJECT_ROUTES: RouteCase[] = [
@@ -117,6 +124,10 @@ export const PROJECT_ROUTES: RouteCase[] = [
     method: 'GET', path: '/api/projects/:projectId/points/:pointId/cpt', allowed: ALL, ok: 200,
     prepare: async (ctx) => { const p = await freshPoint(ctx, 'cpt'); await ok(ctx.owner.request('PUT', `${p.url}/cpt`, CPT_BODY), 200); return { path: `${p.url}/cpt` } },
   },
+  // Imports: a JSON body reaching an allowed caller is 400 (the route wants multipart), which shows the guard let it through.
+  { method: 'POST', path: '/api/projects/:projectId/imports', allowed: LOG_WRITERS, ok: 400 },
+  { method: 'GET', path: '/api/projects/:projectId/imports/:importId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}?target=points` }) },
+  { method: 'POST', path: '/api/projects/:projectId/imports/:importId/commit', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}/commit`, body: { target: 'points', mapping: { identifier: 'Point', kind: 'Kind', easting: 'Easting', northing: 'Northing', groundElevation: 'Ground level', finalDepth: 'Final depth' }, dryRun: true } }) },
   // Strata
   { method: 'GET', path: '/api/projects/:projectId/strata', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/strata', allowed: LOG_WRITERS, ok: 201, prepare: async () => ({ body: { code: `N${next()}`.slice(0, 16), name: 'New', colour: 'c', pattern: 'p', unitWeight: 17, unitWeightSaturated: 18 } }) },

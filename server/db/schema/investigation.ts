@@ -1,9 +1,8 @@
 import { sql } from 'drizzle-orm'
-import { check, date, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { check, date, doublePrecision, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../../../shared/investigation/types'
 import { timestamps } from './columns'
 import { projects } from './projects'
-import { users } from './users'
 
 export const pointKind = pgEnum('point_kind', POINT_KINDS)
 export const sampleType = pgEnum('sample_type', SAMPLE_TYPES)
@@ -150,12 +149,3 @@ export const vaneReadings = pgTable('vane_readings', {
   ...timestamps,
 }, t => [index('vane_readings_point_idx').on(t.pointId, t.depth)])
 
-/** A saved column mapping for one import kind, so the next file of the same layout maps itself. */
-export const importMappings = pgTable('import_mappings', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  target: text().notNull(),
-  mapping: jsonb().$type<Record<string, string>>().notNull(),
-  savedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  ...timestamps,
-}, t => [uniqueIndex('import_mappings_project_target_idx').on(t.projectId, t.target)])

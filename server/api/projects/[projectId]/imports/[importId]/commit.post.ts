@@ -1,0 +1,57 @@
+import { eq } from 'drizzle-orm'
+import { checkMapping, validateRows } from '#shared/imports/targets'
+import { ImportCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
+import { useDb } from '../../../../../db/client'
+import { importFiles, importMappings } from '../../../../../db/schema'
+import { importContext, pointInProject, writeImport } from '../../../../../services/imports/commit'
+import type { UploadFormat } from '../../../../../services/imports/files'
+import { loadImportFile, tableOrThrow } from '../../../../../services/imports/preview'
+import { notFound } from '../../../../../services/versioned'
+
+const MAX_REPORTED = 500
+
+/**
+ * Checks every row of the uploaded file against the target and the project,
+ * then writes all of it in one transaction — or, on any error, nothing: 422 with
+ * the row-level report (file row, column, message). `dryRun` only reports.
+ */
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { importId } = validateParams(event, ImportParamsSchema)
+  const body = await validateBody(event, ImportCommitSchema)
+  const file = await loadImportFile(project.id, importId)
+  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet)
+
+  const mappingProblems = checkMapping(body.target, table.headers, body.mapping)
+  if (mappingProblems.length) {
+    throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: mappingProblems[0]!, data: { mappingProblems } })
+  }
+  const ctx = await importContext(project.id)
+  let cptPoint: Awaited<ReturnType<typeof pointInProject>>
+  if (body.target === 'cpt') {
+    cptPoint = await pointInProject(project.id, body.pointId!)
+    if (!cptPoint) notFound('Point')
+    ctx.cptFinalDepth = cptPoint.finalDepth
+  }
+  const result = validateRows(body.target, table.headers, table.rows, body.mapping, ctx, table.rowNumbers)
+  if (result.errors.length) {
+    throw createError({
+      statusCode: 422,
+      statusMessage: 'Unprocessable Entity',
+      message: `${result.errors.length} problem(s) in ${file.filename}; nothing was imported. First: row ${result.errors[0]!.row}, ${result.errors[0]!.column}: ${result.errors[0]!.message}`,
+      data: { errors: result.errors.slice(0, MAX_REPORTED), errorCount: result.errors.length, rowCount: table.rows.length },
+    })
+  }
+  if (body.dryRun) return { dryRun: true, rowCount: table.rows.length, errors: [] }
+
+  const written = await useDb().transaction(async (tx) => {
+    const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records: result.records, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio }, ctx)
+    if (body.saveMapping) {
+      await tx.insert(importMappings).values({ projectId: project.id, target: body.target, mapping: body.mapping, savedBy: user.id })
+        .onConflictDoUpdate({ target: [importMappings.projectId, importMappings.target], set: { mapping: body.mapping, savedBy: user.id, updatedAt: new Date() } })
+    }
+    await tx.delete(importFiles).where(eq(importFiles.id, file.id))
+    return n
+  })
+  return { dryRun: false, written, target: body.target }
+})

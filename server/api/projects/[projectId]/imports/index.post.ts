@@ -1,0 +1,35 @@
+import { lt } from 'drizzle-orm'
+import { useDb } from '../../../../db/client'
+import { importFiles } from '../../../../db/schema'
+import { detectFormat, UploadError } from '../../../../services/imports/files'
+import { previewTable } from '../../../../services/imports/preview'
+
+const MAX_BYTES = 25 * 1024 * 1024
+
+/**
+ * Upload one CSV, XLSX or AGS4 file (multipart field `file`). The format is read
+ * from the content; nothing is imported yet: the answer is a preview to map.
+ */
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const parts = await readMultipartFormData(event).catch(() => undefined)
+  const file = parts?.find(p => p.name === 'file' && p.filename)
+  if (!file) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'Send the file as multipart form data in a field named "file".' })
+  if (file.data.length > MAX_BYTES) throw createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `The file is ${(file.data.length / 1048576).toFixed(1)} MB; the limit is 25 MB.` })
+  const filename = (file.filename ?? 'upload').slice(0, 200)
+  let format
+  try {
+    format = detectFormat(file.data, filename)
+  }
+  catch (err) {
+    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+    throw err
+  }
+  const db = useDb()
+  // Uploads nobody committed within a day are dropped.
+  await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
+  const [row] = await db.insert(importFiles).values({ projectId: project.id, uploadedBy: user.id, filename, format, size: file.data.length, content: file.data }).returning({ id: importFiles.id })
+  const preview = format === 'ags4' ? null : await previewTable(project.id, { content: file.data, format, filename })
+  setResponseStatus(event, 201)
+  return { importId: row!.id, filename, format, size: file.data.length, preview }
+})

@@ -1,0 +1,103 @@
+import { and, eq, inArray, sql } from 'drizzle-orm'
+import type { ImportContext, ImportTarget, ParsedValue } from '#shared/imports/targets'
+import { useDb } from '../../db/client'
+import { groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, strata } from '../../db/schema'
+import { recordAudit, type Tx } from '../audit'
+import { replaceCptSounding } from '../cpt'
+
+type Rec = Record<string, ParsedValue | undefined>
+
+/** What an import needs to know about the project to check references. */
+export async function importContext(projectId: string): Promise<ImportContext & { pointIds: Map<string, string>, strataIds: Map<string, string>, sampleIds: Map<string, string> }> {
+  const db = useDb()
+  const [points, sampleRows, strataRows] = await Promise.all([
+    db.select({ id: investigationPoints.id, identifier: investigationPoints.identifier, finalDepth: investigationPoints.finalDepth }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId)),
+    db.select({ id: samples.id, identifier: samples.identifier, point: investigationPoints.identifier }).from(samples).innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId)).where(eq(investigationPoints.projectId, projectId)),
+    db.select({ id: strata.id, code: strata.code }).from(strata).where(eq(strata.projectId, projectId)),
+  ])
+  return {
+    points: new Map(points.map(p => [p.identifier, { finalDepth: p.finalDepth }])),
+    pointIds: new Map(points.map(p => [p.identifier, p.id])),
+    samples: new Set(sampleRows.map(s => `${s.point}/${s.identifier}`)),
+    sampleIds: new Map(sampleRows.map(s => [`${s.point}/${s.identifier}`, s.id])),
+    strata: new Set(strataRows.map(s => s.code)),
+    strataIds: new Map(strataRows.map(s => [s.code, s.id])),
+  }
+}
+
+const str = (v: ParsedValue | undefined) => (typeof v === 'string' ? v : '')
+const strOrNull = (v: ParsedValue | undefined) => (typeof v === 'string' && v !== '' ? v : null)
+const num = (v: ParsedValue | undefined) => v as number
+const numOrNull = (v: ParsedValue | undefined) => (typeof v === 'number' ? v : null)
+
+/**
+ * Writes validated records in the caller's transaction. Intervals replace the
+ * whole log of every point the file names; other targets add rows (index tests
+ * replace a sample's existing set).
+ */
+export async function writeImport(tx: Tx, args: { projectId: string, actorId: string, target: ImportTarget, records: Rec[], filename: string, cptPointId?: string, areaRatio?: number }, ctx: Awaited<ReturnType<typeof importContext>>): Promise<number> {
+  const { projectId, target, records } = args
+  const pid = (r: Rec) => ctx.pointIds.get(str(r.point))!
+  const CHUNK = 2000
+  const insertChunks = async <T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>) => {
+    for (let i = 0; i < rows.length; i += CHUNK) await insert(rows.slice(i, i + CHUNK))
+  }
+  switch (target) {
+    case 'points':
+      await insertChunks(records.map(r => ({
+        projectId, identifier: str(r.identifier), kind: r.kind as 'borehole', easting: num(r.easting), northing: num(r.northing), groundElevation: num(r.groundElevation), finalDepth: num(r.finalDepth),
+        startedOn: strOrNull(r.startedOn), endedOn: strOrNull(r.endedOn), method: str(r.method), loggedBy: str(r.loggedBy), remarks: str(r.remarks),
+      })), c => tx.insert(investigationPoints).values(c))
+      break
+    case 'intervals': {
+      const pointIds = [...new Set(records.map(pid))]
+      if (pointIds.length) await tx.delete(logIntervals).where(inArray(logIntervals.pointId, pointIds))
+      await insertChunks(records.map(r => ({
+        pointId: pid(r), top: num(r.top), bottom: num(r.bottom), description: str(r.description), uscs: strOrNull(r.uscs),
+        stratumId: typeof r.stratum === 'string' ? ctx.strataIds.get(r.stratum) ?? null : null, moisture: strOrNull(r.moisture), consistency: strOrNull(r.consistency),
+      })), c => tx.insert(logIntervals).values(c))
+      break
+    }
+    case 'samples':
+      await insertChunks(records.map(r => ({
+        pointId: pid(r), identifier: str(r.identifier), top: num(r.top), bottom: num(r.bottom), type: r.type as 'bulk', recovery: numOrNull(r.recovery), remarks: str(r.remarks),
+      })), c => tx.insert(samples).values(c))
+      break
+    case 'index-tests':
+      for (const r of records) {
+        const sampleId = ctx.sampleIds.get(`${str(r.point)}/${str(r.sample)}`)!
+        const values = { waterContent: numOrNull(r.waterContent), liquidLimit: numOrNull(r.liquidLimit), plasticLimit: numOrNull(r.plasticLimit), bulkUnitWeight: numOrNull(r.bulkUnitWeight) }
+        await tx.insert(indexTests).values({ ...values, sampleId })
+          .onConflictDoUpdate({ target: indexTests.sampleId, set: { ...values, version: sql`${indexTests.version} + 1`, updatedAt: new Date() } })
+      }
+      break
+    case 'groundwater':
+      await insertChunks(records.map(r => ({
+        pointId: pid(r), kind: r.kind as 'strike', observedAt: str(r.observedAt), depth: numOrNull(r.depth), pressure: numOrNull(r.pressure), remarks: str(r.remarks),
+      })), c => tx.insert(groundwaterObservations).values(c))
+      break
+    case 'cpt': {
+      const n = records.length
+      const depth = new Array<number>(n)
+      const qc = new Array<number>(n)
+      const fs = new Array<number>(n)
+      const u2 = new Array<number>(n)
+      for (let i = 0; i < n; i++) {
+        const r = records[i]!
+        depth[i] = num(r.depth)
+        qc[i] = num(r.qc)
+        fs[i] = num(r.fs)
+        u2[i] = num(r.u2)
+      }
+      await replaceCptSounding({ actorId: args.actorId, projectId, pointId: args.cptPointId! }, { areaRatio: args.areaRatio!, depth, qc, fs, u2 }, tx)
+      break
+    }
+  }
+  await recordAudit({ actorId: args.actorId, projectId, action: 'import', entity: target, entityId: args.cptPointId ?? null, after: { filename: args.filename, rows: records.length } }, tx)
+  return records.length
+}
+
+export async function pointInProject(projectId: string, pointId: string) {
+  const [p] = await useDb().select().from(investigationPoints).where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, projectId)))
+  return p
+}

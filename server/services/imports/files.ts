@@ -1,0 +1,97 @@
+import Papa from 'papaparse'
+import * as XLSX from 'xlsx-republish'
+
+/**
+ * Reading uploaded files: the format is decided by content (never by the name
+ * alone), text must be UTF-8, and every refusal says plainly what is wrong.
+ */
+export type UploadFormat = 'csv' | 'xlsx' | 'ags4'
+
+export type Cell = string | number | boolean | Date | null
+
+export interface Table {
+  sheets: string[]
+  sheet: string | null
+  headers: string[]
+  rows: Cell[][]
+  /** 1-based file row of each data row (blank lines are skipped but still counted). */
+  rowNumbers: number[]
+}
+
+export class UploadError extends Error {
+  constructor(message: string, readonly code: string) {
+    super(message)
+  }
+}
+
+const ZIP = [0x50, 0x4B, 0x03, 0x04]
+
+export function detectFormat(buf: Buffer, filename: string): UploadFormat {
+  if (buf.length === 0) throw new UploadError(`${filename} is empty.`, 'empty-file')
+  if (ZIP.every((b, i) => buf[i] === b)) {
+    if (!buf.includes(Buffer.from('xl/'))) throw new UploadError(`${filename} is a ZIP archive but not an Excel workbook (.xlsx).`, 'wrong-type')
+    return 'xlsx'
+  }
+  if (buf.subarray(0, 4).toString('latin1') === '%PDF') throw new UploadError(`${filename} is a PDF. Upload CSV, XLSX or AGS4 data; attach reports to the project instead.`, 'wrong-type')
+  if (buf.subarray(0, 8).equals(Buffer.from([0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1]))) throw new UploadError(`${filename} is an old binary Excel file (.xls): save it as .xlsx or CSV and upload again.`, 'wrong-type')
+  if (buf.subarray(0, 8192).includes(0)) throw new UploadError(`${filename} is not a text or spreadsheet file.`, 'wrong-type')
+  const text = decodeText(buf, filename)
+  const first = text.split(/\r?\n/).find(l => l.trim() !== '') ?? ''
+  if (/^"GROUP"\s*,/.test(first)) return 'ags4'
+  if (first.trim() === '') throw new UploadError(`${filename} has no data (only blank lines).`, 'empty-file')
+  return 'csv'
+}
+
+/** UTF-8 text (a BOM is dropped); anything else is refused with a way out. */
+export function decodeText(buf: Buffer, filename: string): string {
+  try {
+    const text = new TextDecoder('utf-8', { fatal: true }).decode(buf)
+    return text.charCodeAt(0) === 0xFEFF ? text.slice(1) : text
+  }
+  catch {
+    throw new UploadError(`${filename} is not UTF-8 text (it may be saved in a legacy encoding). Save it as "CSV UTF-8" and upload again.`, 'wrong-encoding')
+  }
+}
+
+/** First row is the header; blank lines are skipped; headers must be present and unique. */
+export function readTable(buf: Buffer, format: 'csv' | 'xlsx', filename: string, sheet?: string): Table {
+  let sheets: string[] = []
+  let chosen: string | null = null
+  let grid: Cell[][]
+  if (format === 'csv') {
+    const parsed = Papa.parse<string[]>(decodeText(buf, filename), { skipEmptyLines: false })
+    const fatal = parsed.errors.find(e => e.type === 'Quotes')
+    if (fatal) throw new UploadError(`${filename} row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`, 'malformed-csv')
+    grid = parsed.data
+  }
+  else {
+    let wb: XLSX.WorkBook
+    try {
+      wb = XLSX.read(buf, { type: 'buffer', cellDates: true, dense: true })
+    }
+    catch {
+      throw new UploadError(`${filename} could not be read as an Excel workbook.`, 'wrong-type')
+    }
+    sheets = wb.SheetNames
+    chosen = sheet && sheets.includes(sheet) ? sheet : sheets[0] ?? null
+    if (sheet && !sheets.includes(sheet)) throw new UploadError(`${filename} has no sheet named "${sheet}".`, 'no-such-sheet')
+    if (!chosen) throw new UploadError(`${filename} has no sheets.`, 'empty-file')
+    grid = XLSX.utils.sheet_to_json<Cell[]>(wb.Sheets[chosen]!, { header: 1, raw: true, blankrows: true, defval: null })
+  }
+  const blank = (r: Cell[]) => r.every(c => c === null || c === undefined || String(c).trim() === '')
+  const headIndex = grid.findIndex(r => !blank(r))
+  const head = grid[headIndex]
+  if (!head) throw new UploadError(`${filename} has no header row.`, 'empty-file')
+  const rows: Cell[][] = []
+  const rowNumbers: number[] = []
+  for (let i = headIndex + 1; i < grid.length; i++) {
+    if (blank(grid[i]!)) continue
+    rows.push(grid[i]!)
+    rowNumbers.push(i + 1)
+  }
+  const headers = head.map((c, i) => (c === null || String(c).trim() === '' ? `Column ${i + 1}` : String(c).trim()))
+  const dup = headers.find((h, i) => headers.indexOf(h) !== i)
+  if (dup) throw new UploadError(`${filename}: the column header "${dup}" appears twice.`, 'duplicate-header')
+  if (rows.length === 0) throw new UploadError(`${filename} has a header but no data rows.`, 'empty-file')
+  return { sheets, sheet: chosen, headers, rows, rowNumbers }
+}

@@ -1,0 +1,52 @@
+import { and, eq } from 'drizzle-orm'
+import { type ImportTarget, suggestMapping } from '#shared/imports/targets'
+import { useDb } from '../../db/client'
+import { importFiles, importMappings } from '../../db/schema'
+import { notFound } from '../versioned'
+import { readTable, UploadError, type UploadFormat } from './files'
+
+export const PREVIEW_ROWS = 20
+
+export async function loadImportFile(projectId: string, importId: string) {
+  const [file] = await useDb().select().from(importFiles).where(and(eq(importFiles.id, importId), eq(importFiles.projectId, projectId)))
+  if (!file) notFound('Upload')
+  return file
+}
+
+export function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string) {
+  if (format === 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'An AGS4 file is imported whole; it has no columns to map.' })
+  try {
+    return readTable(content, format, filename, sheet)
+  }
+  catch (err) {
+    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+    throw err
+  }
+}
+
+/** Headers, the first rows, and a mapping: the saved one for this target when its columns are all present, else a suggestion. */
+export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string) {
+  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet)
+  let mapping: Record<string, string> | null = null
+  let mappingSource: 'saved' | 'suggested' | null = null
+  if (target) {
+    const [saved] = await useDb().select().from(importMappings).where(and(eq(importMappings.projectId, projectId), eq(importMappings.target, target)))
+    if (saved && Object.values(saved.mapping).every(h => table.headers.includes(h))) {
+      mapping = saved.mapping
+      mappingSource = 'saved'
+    }
+    else {
+      mapping = suggestMapping(target, table.headers)
+      mappingSource = 'suggested'
+    }
+  }
+  return {
+    sheets: table.sheets,
+    sheet: table.sheet,
+    headers: table.headers,
+    rowCount: table.rows.length,
+    preview: table.rows.slice(0, PREVIEW_ROWS),
+    mapping,
+    mappingSource,
+  }
+}

@@ -1,0 +1,284 @@
+import { isUscsGroupSymbol } from '../geotech/plasticity'
+import { checkIntervals } from '../investigation/intervals'
+import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/types'
+
+/**
+ * Tabular imports (CSV, XLSX): what each target table needs, how file columns
+ * map onto its fields, and a row-by-row check that reports every problem with
+ * the file's own row number before anything is written. Pure: the server runs
+ * it on the whole file; the browser may run it for the preview.
+ */
+
+export const IMPORT_TARGETS = ['points', 'intervals', 'samples', 'index-tests', 'groundwater', 'cpt'] as const
+export type ImportTarget = (typeof IMPORT_TARGETS)[number]
+
+type FieldType = 'number' | 'text' | 'date' | 'datetime' | { enum: readonly string[] } | 'uscs'
+
+export interface ImportField {
+  key: string
+  label: string
+  type: FieldType
+  required: boolean
+  /** Header spellings recognised when suggesting a mapping (compared case- and punctuation-insensitively). */
+  aliases: string[]
+}
+
+const f = (key: string, label: string, type: FieldType, required: boolean, aliases: string[] = []): ImportField => ({ key, label, type, required, aliases: [key, label, ...aliases] })
+
+export const TARGET_FIELDS: Record<ImportTarget, ImportField[]> = {
+  'points': [
+    f('identifier', 'Point', 'text', true, ['point', 'id', 'hole', 'location', 'loca_id', 'borehole']),
+    f('kind', 'Kind', { enum: POINT_KINDS }, true, ['type']),
+    f('easting', 'Easting (m)', 'number', true, ['x', 'e']),
+    f('northing', 'Northing (m)', 'number', true, ['y', 'n']),
+    f('groundElevation', 'Ground elevation (m)', 'number', true, ['ground level', 'gl', 'elevation', 'level']),
+    f('finalDepth', 'Final depth (m)', 'number', true, ['depth', 'final depth', 'fdep']),
+    f('startedOn', 'Started', 'date', false, ['start', 'start date']),
+    f('endedOn', 'Ended', 'date', false, ['end', 'end date']),
+    f('method', 'Method', 'text', false),
+    f('loggedBy', 'Logged by', 'text', false, ['logger']),
+    f('remarks', 'Remarks', 'text', false, ['notes', 'comments']),
+  ],
+  'intervals': [
+    f('point', 'Point', 'text', true, ['identifier', 'hole', 'borehole', 'loca_id']),
+    f('top', 'Top (m)', 'number', true, ['from', 'depth top']),
+    f('bottom', 'Bottom (m)', 'number', true, ['to', 'base', 'depth base']),
+    f('description', 'Description', 'text', false, ['field description', 'desc']),
+    f('uscs', 'USCS', 'uscs', false, ['group symbol', 'symbol']),
+    f('stratum', 'Stratum code', 'text', false, ['stratum', 'unit', 'geology']),
+    f('moisture', 'Moisture', 'text', false),
+    f('consistency', 'Consistency / density', 'text', false, ['consistency', 'density']),
+  ],
+  'samples': [
+    f('point', 'Point', 'text', true, ['identifier', 'hole', 'borehole']),
+    f('identifier', 'Sample', 'text', true, ['sample', 'sample id', 'ref']),
+    f('top', 'Top (m)', 'number', true, ['from']),
+    f('bottom', 'Bottom (m)', 'number', true, ['to', 'base']),
+    f('type', 'Type', { enum: SAMPLE_TYPES }, true, ['sample type']),
+    f('recovery', 'Recovery (%)', 'number', false),
+    f('remarks', 'Remarks', 'text', false),
+  ],
+  'index-tests': [
+    f('point', 'Point', 'text', true, ['identifier', 'hole', 'borehole']),
+    f('sample', 'Sample', 'text', true, ['sample id', 'ref']),
+    f('waterContent', 'Water content (%)', 'number', false, ['w', 'moisture content', 'mc']),
+    f('liquidLimit', 'Liquid limit (%)', 'number', false, ['ll', 'wl']),
+    f('plasticLimit', 'Plastic limit (%)', 'number', false, ['pl', 'wp']),
+    f('bulkUnitWeight', 'Bulk unit weight (kN/m³)', 'number', false, ['gamma', 'unit weight']),
+  ],
+  'groundwater': [
+    f('point', 'Point', 'text', true, ['identifier', 'hole', 'borehole']),
+    f('kind', 'Kind', { enum: GROUNDWATER_KINDS }, true, ['type']),
+    f('observedAt', 'Observed at', 'datetime', true, ['date', 'time', 'datetime']),
+    f('depth', 'Depth (m)', 'number', false, ['level depth']),
+    f('pressure', 'Pressure (kPa)', 'number', false, ['pore pressure', 'u']),
+    f('remarks', 'Remarks', 'text', false),
+  ],
+  'cpt': [
+    f('depth', 'Depth (m)', 'number', true, ['z', 'penetration']),
+    f('qc', 'qc (kPa)', 'number', true, ['cone resistance', 'qc (kpa)']),
+    f('fs', 'fs (kPa)', 'number', true, ['sleeve friction', 'fs (kpa)']),
+    f('u2', 'u2 (kPa)', 'number', true, ['pore pressure', 'u2 (kpa)']),
+  ],
+}
+
+export const TARGET_LABELS: Record<ImportTarget, string> = {
+  'points': 'Investigation points',
+  'intervals': 'Log intervals',
+  'samples': 'Samples',
+  'index-tests': 'Index tests',
+  'groundwater': 'Groundwater observations',
+  'cpt': 'CPT sounding (one point)',
+}
+
+export type ImportMapping = Record<string, string>
+
+export interface RowError {
+  /** 1-based row of the file as a spreadsheet shows it (the header is row 1). */
+  row: number
+  column: string
+  message: string
+}
+
+const norm = (s: string) => s.toLowerCase().replace(/[^a-z0-9%³]+/g, '')
+
+/** Suggests a mapping field → header from the headers' spelling. */
+export function suggestMapping(target: ImportTarget, headers: readonly string[]): ImportMapping {
+  const mapping: ImportMapping = {}
+  const used = new Set<string>()
+  for (const field of TARGET_FIELDS[target]) {
+    const wanted = new Set(field.aliases.map(norm))
+    const hit = headers.find(h => !used.has(h) && wanted.has(norm(h)))
+    if (hit) {
+      mapping[field.key] = hit
+      used.add(hit)
+    }
+  }
+  return mapping
+}
+
+/** Problems with the mapping itself: a required field unmapped, a header that is not in the file. */
+export function checkMapping(target: ImportTarget, headers: readonly string[], mapping: ImportMapping): string[] {
+  const problems: string[] = []
+  for (const field of TARGET_FIELDS[target]) {
+    const header = mapping[field.key]
+    if (!header) {
+      if (field.required) problems.push(`${field.label} is required: choose the column that holds it.`)
+    }
+    else if (!headers.includes(header)) problems.push(`Column "${header}" (for ${field.label}) is not in the file.`)
+  }
+  return problems
+}
+
+type Cell = string | number | boolean | Date | null | undefined
+export type ParsedValue = string | number | null
+
+function parseCell(raw: Cell, type: FieldType): { value: ParsedValue, error?: string } {
+  if (raw === null || raw === undefined || (typeof raw === 'string' && raw.trim() === '')) return { value: null }
+  if (type === 'number') {
+    if (typeof raw === 'number') return Number.isFinite(raw) ? { value: raw } : { value: null, error: 'is not a finite number' }
+    const text = String(raw).trim().replace(/\s/g, '')
+    // A decimal comma is accepted only when there is no other separator (e.g. "1,25").
+    const n = Number(/^-?\d+,\d+$/.test(text) ? text.replace(',', '.') : text)
+    return Number.isFinite(n) ? { value: n } : { value: null, error: `"${String(raw)}" is not a number` }
+  }
+  if (type === 'date' || type === 'datetime') {
+    const d = raw instanceof Date ? raw : new Date(String(raw).trim())
+    if (Number.isNaN(d.getTime())) return { value: null, error: `"${String(raw)}" is not a date (use YYYY-MM-DD${type === 'datetime' ? ' hh:mm' : ''})` }
+    return { value: type === 'date' ? d.toISOString().slice(0, 10) : d.toISOString() }
+  }
+  const text = String(raw).trim()
+  if (type === 'uscs') {
+    const sym = text.toUpperCase()
+    return isUscsGroupSymbol(sym) ? { value: sym } : { value: null, error: `"${text}" is not an ASTM D2487 group symbol` }
+  }
+  if (typeof type === 'object') {
+    const v = text.toLowerCase().replace(/[\s_]+/g, '-')
+    return type.enum.includes(v) ? { value: v } : { value: null, error: `"${text}" is not one of ${type.enum.join(', ')}` }
+  }
+  return { value: text }
+}
+
+export interface ImportContext {
+  /** Points already in the project, by identifier. */
+  points: Map<string, { finalDepth: number }>
+  /** Samples already in the project, as `point/sample`. */
+  samples: Set<string>
+  /** Stratum codes of the project. */
+  strata: Set<string>
+  /** For a CPT import: the sounding's point final depth. */
+  cptFinalDepth?: number
+}
+
+export interface ValidatedImport {
+  records: Record<string, ParsedValue>[]
+  /** File row number of each record, for messages after validation. */
+  rowNumbers: number[]
+  errors: RowError[]
+}
+
+/**
+ * Checks every data row against the target: types, required fields, references
+ * to points/samples/strata, and the target's own rules (interval overlaps and
+ * depths beyond the hole, increasing CPT depth). `rows` are the data rows after
+ * the header; `fileRows` their 1-based rows in the file (default: header on row 1, no blank lines).
+ */
+export function validateRows(target: ImportTarget, headers: readonly string[], rows: readonly Cell[][], mapping: ImportMapping, ctx: ImportContext, fileRows?: readonly number[]): ValidatedImport {
+  const fields = TARGET_FIELDS[target]
+  const index = new Map(headers.map((h, i) => [h, i]))
+  const records: Record<string, ParsedValue>[] = []
+  const rowNumbers: number[] = []
+  const errors: RowError[] = []
+  rows.forEach((cells, i) => {
+    const row = fileRows?.[i] ?? i + 2
+    const rec: Record<string, ParsedValue> = {}
+    for (const field of fields) {
+      const header = mapping[field.key]
+      const col = header === undefined ? undefined : index.get(header)
+      const { value, error } = col === undefined ? { value: null } : parseCell(cells[col], field.type)
+      if (error) errors.push({ row, column: header!, message: `${field.label} ${error}.` })
+      else if (value === null && field.required) errors.push({ row, column: header ?? field.label, message: `${field.label} is empty.` })
+      rec[field.key] = value
+    }
+    records.push(rec)
+    rowNumbers.push(row)
+  })
+  checkReferences(target, records, rowNumbers, mapping, ctx, errors)
+  errors.sort((a, b) => a.row - b.row)
+  return { records, rowNumbers, errors }
+}
+
+function checkReferences(target: ImportTarget, records: Record<string, ParsedValue>[], rowNumbers: number[], mapping: ImportMapping, ctx: ImportContext, errors: RowError[]) {
+  const col = (key: string) => mapping[key] ?? key
+  const pointOf = (rec: Record<string, ParsedValue>, i: number) => {
+    const id = rec.point
+    if (typeof id !== 'string') return null
+    const p = ctx.points.get(id)
+    if (!p) errors.push({ row: rowNumbers[i]!, column: col('point'), message: `Point ${id} is not in this project.` })
+    return p ?? null
+  }
+  if (target === 'points') {
+    const seen = new Map<string, number>()
+    records.forEach((rec, i) => {
+      const id = rec.identifier
+      if (typeof id !== 'string') return
+      const first = seen.get(id)
+      if (first !== undefined) errors.push({ row: rowNumbers[i]!, column: col('identifier'), message: `Point ${id} appears twice in the file (first on row ${first}).` })
+      else seen.set(id, rowNumbers[i]!)
+      if (ctx.points.has(id)) errors.push({ row: rowNumbers[i]!, column: col('identifier'), message: `Point ${id} already exists in this project.` })
+      if (typeof rec.finalDepth === 'number' && rec.finalDepth <= 0) errors.push({ row: rowNumbers[i]!, column: col('finalDepth'), message: 'Final depth must be deeper than 0 m.' })
+    })
+  }
+  if (target === 'intervals') {
+    const byPoint = new Map<string, { top: number, bottom: number, i: number }[]>()
+    records.forEach((rec, i) => {
+      const p = pointOf(rec, i)
+      if (typeof rec.stratum === 'string' && !ctx.strata.has(rec.stratum)) errors.push({ row: rowNumbers[i]!, column: col('stratum'), message: `Stratum ${rec.stratum} is not defined in this project.` })
+      if (!p || typeof rec.top !== 'number' || typeof rec.bottom !== 'number') return
+      const list = byPoint.get(rec.point as string) ?? []
+      list.push({ top: rec.top, bottom: rec.bottom, i })
+      byPoint.set(rec.point as string, list)
+    })
+    for (const [id, list] of byPoint) {
+      const { issues } = checkIntervals(list, ctx.points.get(id)!.finalDepth)
+      for (const issue of issues) {
+        const i = list[issue.index]!.i
+        errors.push({ row: rowNumbers[i]!, column: col(issue.field), message: `${id}: ${issue.message.replace(/\(row (\d+)\)/, (_m, n: string) => `(file row ${rowNumbers[list[Number(n) - 1]!.i]})`)}` })
+      }
+    }
+  }
+  if (target === 'samples') {
+    const seen = new Set<string>()
+    records.forEach((rec, i) => {
+      const p = pointOf(rec, i)
+      const key = `${String(rec.point)}/${String(rec.identifier)}`
+      if (seen.has(key) || ctx.samples.has(key)) errors.push({ row: rowNumbers[i]!, column: col('identifier'), message: `Sample ${String(rec.identifier)} already exists at ${String(rec.point)}.` })
+      seen.add(key)
+      if (typeof rec.top === 'number' && typeof rec.bottom === 'number' && rec.bottom < rec.top) errors.push({ row: rowNumbers[i]!, column: col('bottom'), message: 'Bottom must not be above the top.' })
+      if (p && typeof rec.bottom === 'number' && rec.bottom > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('bottom'), message: `Bottom (${rec.bottom} m) is below the hole's final depth (${p.finalDepth} m).` })
+    })
+  }
+  if (target === 'index-tests') {
+    records.forEach((rec, i) => {
+      if (!pointOf(rec, i)) return
+      if (!ctx.samples.has(`${String(rec.point)}/${String(rec.sample)}`)) errors.push({ row: rowNumbers[i]!, column: col('sample'), message: `Sample ${String(rec.sample)} is not logged at ${String(rec.point)}.` })
+      if (typeof rec.liquidLimit === 'number' && typeof rec.plasticLimit === 'number' && rec.plasticLimit > rec.liquidLimit) errors.push({ row: rowNumbers[i]!, column: col('plasticLimit'), message: 'The plastic limit exceeds the liquid limit.' })
+    })
+  }
+  if (target === 'groundwater') {
+    records.forEach((rec, i) => {
+      const p = pointOf(rec, i)
+      if (rec.depth === null && rec.pressure === null) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: 'Give a depth or a pressure.' })
+      if (p && typeof rec.depth === 'number' && rec.depth > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth (${rec.depth} m) is below the hole's final depth (${p.finalDepth} m).` })
+    })
+  }
+  if (target === 'cpt') {
+    let prev = -Infinity
+    records.forEach((rec, i) => {
+      if (typeof rec.depth !== 'number') return
+      if (rec.depth <= prev) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${rec.depth} m does not increase from the row above (${prev} m).` })
+      if (ctx.cptFinalDepth !== undefined && rec.depth > ctx.cptFinalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${rec.depth} m is below the point's final depth (${ctx.cptFinalDepth} m).` })
+      prev = rec.depth
+    })
+  }
+}

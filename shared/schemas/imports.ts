@@ -1,0 +1,23 @@
+import { z } from 'zod'
+import { IMPORT_TARGETS } from '../imports/targets'
+import { UuidSchema } from './common'
+
+export const ImportParamsSchema = z.object({ projectId: UuidSchema, importId: UuidSchema })
+
+export const ImportPreviewQuerySchema = z.object({
+  target: z.enum(IMPORT_TARGETS).optional(),
+  sheet: z.string().max(120).optional(),
+})
+
+export const ImportCommitSchema = z.object({
+  target: z.enum(IMPORT_TARGETS),
+  mapping: z.record(z.string().max(60), z.string().max(200)),
+  sheet: z.string().max(120).optional(),
+  /** CPT only: the point the sounding belongs to, and its cone area ratio. */
+  pointId: UuidSchema.optional(),
+  areaRatio: z.number().gt(0).max(1).optional(),
+  /** Check everything and report, write nothing. */
+  dryRun: z.boolean().default(false),
+  /** Remember this mapping for the next file of this target. */
+  saveMapping: z.boolean().default(true),
+}).refine(v => v.target !== 'cpt' || (v.pointId && v.areaRatio), { path: ['pointId'], message: 'a CPT import needs the point and its cone area ratio' })

@@ -1,0 +1,16 @@
+import type { Client } from './http'
+
+/** Uploads one file as multipart form data (field "file") with the client's cookie and Origin. */
+export async function upload<T = Record<string, unknown>>(c: Client, path: string, filename: string, content: string | Uint8Array, type = 'text/csv') {
+  const form = new FormData()
+  form.append('file', new Blob([content], { type }), filename)
+  const headers: Record<string, string> = {}
+  if (c.cookie) headers.cookie = c.cookie
+  if (c.origin) headers.origin = c.origin
+  const res = await fetch(c.base + path, { method: 'POST', body: form, headers })
+  const text = await res.text()
+  let body: unknown = text
+  try { body = JSON.parse(text) }
+  catch { /* not JSON */ }
+  return { status: res.status, body: body as T }
+}
