@@ -128,6 +128,8 @@ export const PROJECT_ROUTES: RouteCase[] = [
   { method: 'POST', path: '/api/projects/:projectId/imports', allowed: LOG_WRITERS, ok: 400 },
   { method: 'GET', path: '/api/projects/:projectId/imports/:importId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}?target=points` }) },
   { method: 'POST', path: '/api/projects/:projectId/imports/:importId/commit', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}/commit`, body: { target: 'points', mapping: { identifier: 'Point', kind: 'Kind', easting: 'Easting', northing: 'Northing', groundElevation: 'Ground level', finalDepth: 'Final depth' }, dryRun: true } }) },
+  // Exports
+  { method: 'GET', path: '/exports/:projectId/logs.xlsx', allowed: ALL, ok: 200 },
   // Strata
   { method: 'GET', path: '/api/projects/:projectId/strata', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/strata', allowed: LOG_WRITERS, ok: 201, prepare: async () => ({ body: { code: `N${next()}`.slice(0, 16), name: 'New', colour: 'c', pattern: 'p', unitWeight: 17, unitWeightSaturated: 18 } }) },

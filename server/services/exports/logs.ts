@@ -1,0 +1,64 @@
+import { asc, eq, inArray } from 'drizzle-orm'
+import * as XLSX from 'xlsx-republish'
+import { RESULT_CAUTION } from '#shared/caution'
+import { useDb } from '../../db/client'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from '../../db/schema'
+import type { ProjectRow } from '../../utils/guards'
+
+/** Everything logged in a project, one row per record, for the exports. */
+export async function loadProjectLogs(projectId: string) {
+  const db = useDb()
+  const points = await db.select().from(investigationPoints).where(eq(investigationPoints.projectId, projectId)).orderBy(asc(investigationPoints.identifier))
+  const ids = points.map(p => p.id)
+  const none = ids.length === 0
+  const byId = new Map(points.map(p => [p.id, p.identifier]))
+  const [strataRows, intervals, sampleRows, spt, groundwater, vane, cpt] = await Promise.all([
+    db.select().from(strata).where(eq(strata.projectId, projectId)).orderBy(asc(strata.displayOrder)),
+    none ? [] : db.select().from(logIntervals).where(inArray(logIntervals.pointId, ids)).orderBy(asc(logIntervals.pointId), asc(logIntervals.top)),
+    none ? [] : db.select({ sample: samples, index: indexTests }).from(samples).leftJoin(indexTests, eq(indexTests.sampleId, samples.id)).where(inArray(samples.pointId, ids)).orderBy(asc(samples.pointId), asc(samples.top)),
+    none ? [] : db.select().from(sptResults).where(inArray(sptResults.pointId, ids)).orderBy(asc(sptResults.pointId), asc(sptResults.depth)),
+    none ? [] : db.select().from(groundwaterObservations).where(inArray(groundwaterObservations.pointId, ids)).orderBy(asc(groundwaterObservations.pointId), asc(groundwaterObservations.observedAt)),
+    none ? [] : db.select().from(vaneReadings).where(inArray(vaneReadings.pointId, ids)).orderBy(asc(vaneReadings.pointId), asc(vaneReadings.depth)),
+    none ? [] : db.select().from(cptSoundings).where(inArray(cptSoundings.pointId, ids)),
+  ])
+  return { points, byId, strata: strataRows, intervals, samples: sampleRows, spt, groundwater, vane, cpt }
+}
+
+/** The project's logs as an XLSX workbook, one sheet per table, SI units in the headers. */
+export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
+  const d = await loadProjectLogs(project.id)
+  const code = new Map(d.strata.map(s => [s.id, s.code]))
+  const pt = (id: string) => d.byId.get(id) ?? ''
+  const wb = XLSX.utils.book_new()
+  const add = (name: string, rows: (string | number | null)[][]) => XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(rows), name)
+  add('About', [
+    ['Project', `${project.jobNumber} ${project.name}`],
+    ['Client', project.client],
+    ['Exported', new Date().toISOString()],
+    ['Units', 'm, kPa, kN/m³, %'],
+    ['Caution', RESULT_CAUTION],
+  ])
+  add('Strata', [['Code', 'Name', 'Description', 'Unit weight (kN/m³)', 'Saturated unit weight (kN/m³)'], ...d.strata.map(s => [s.code, s.name, s.description, s.unitWeight, s.unitWeightSaturated])])
+  add('Points', [['Point', 'Kind', 'Easting (m)', 'Northing (m)', 'Ground elevation (m)', 'Final depth (m)', 'Started', 'Ended', 'Method', 'Logged by', 'Remarks'],
+    ...d.points.map(p => [p.identifier, p.kind, p.easting, p.northing, p.groundElevation, p.finalDepth, p.startedOn, p.endedOn, p.method, p.loggedBy, p.remarks])])
+  add('Intervals', [['Point', 'Top (m)', 'Bottom (m)', 'Description', 'USCS', 'Stratum', 'Moisture', 'Consistency / density'],
+    ...d.intervals.map(i => [pt(i.pointId), i.top, i.bottom, i.description, i.uscs, i.stratumId ? code.get(i.stratumId) ?? null : null, i.moisture, i.consistency])])
+  add('Samples', [['Point', 'Sample', 'Top (m)', 'Bottom (m)', 'Type', 'Recovery (%)', 'Remarks'],
+    ...d.samples.map(({ sample: s }) => [pt(s.pointId), s.identifier, s.top, s.bottom, s.type, s.recovery, s.remarks])])
+  add('Index tests', [['Point', 'Sample', 'Water content (%)', 'Liquid limit (%)', 'Plastic limit (%)', 'Plasticity index (%)', 'Bulk unit weight (kN/m³)'],
+    ...d.samples.filter(r => r.index).map(({ sample: s, index: i }) => [pt(s.pointId), s.identifier, i!.waterContent, i!.liquidLimit, i!.plasticLimit, i!.liquidLimit !== null && i!.plasticLimit !== null ? i!.liquidLimit - i!.plasticLimit : null, i!.bulkUnitWeight])])
+  add('SPT', [['Point', 'Depth (m)', 'Seating blows', 'Blows 2', 'Blows 3', 'N'], ...d.spt.map(s => [pt(s.pointId), s.depth, s.blows[0] ?? null, s.blows[1] ?? null, s.blows[2] ?? null, s.n])])
+  add('Groundwater', [['Point', 'Kind', 'Observed at', 'Depth (m)', 'Pressure (kPa)', 'Remarks'], ...d.groundwater.map(g => [pt(g.pointId), g.kind, g.observedAt, g.depth, g.pressure, g.remarks])])
+  add('Vane', [['Point', 'Depth (m)', 'Peak su,FV (kPa)', 'Remoulded (kPa)'], ...d.vane.map(v => [pt(v.pointId), v.depth, v.peak, v.remoulded])])
+  const cptRows: (string | number | null)[][] = [['Point', 'Cone area ratio', 'Depth (m)', 'qc (kPa)', 'fs (kPa)', 'u2 (kPa)']]
+  for (const c of d.cpt) {
+    for (let i = 0; i < c.count; i++) cptRows.push([pt(c.pointId), c.areaRatio, c.depth[i]!, c.qc[i]!, c.fs[i]!, c.u2[i]!])
+  }
+  add('CPT', cptRows)
+  return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
+}
+
+/** A file name safe for Content-Disposition. */
+export function exportName(project: ProjectRow, what: string, ext: string): string {
+  return `${project.jobNumber}-${what}.${ext}`.replace(/[^A-Za-z0-9._-]+/g, '_')
+}
