@@ -1,9 +1,11 @@
 import { count } from 'drizzle-orm'
+import { generateDemoInvestigation } from '#shared/demo/generate'
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
 import type { Database } from '../db/client'
 import { projectMembers, projects, users } from '../db/schema'
 import { hashPassword } from '../utils/password'
 import { recordAudit } from './audit'
+import { writeInvestigation } from './investigation-writer'
 
 /**
  * Seeds the invented demo scenario when the database has no users. One
@@ -28,6 +30,10 @@ export async function seedDemoIfEmpty(db: Database): Promise<boolean> {
       return { projectId: project!.id, userId: id, role: p.role }
     }))
     await recordAudit({ actorId: admin.id, projectId: project!.id, action: 'create', entity: 'project', entityId: project!.id, after: { seeded: 'demo' } }, tx)
+    // The investigation, generated deterministically from the scenario's ground model.
+    const investigation = generateDemoInvestigation()
+    await writeInvestigation(tx, project!.id, investigation)
+    await recordAudit({ actorId: people.find(p => p.email === DEMO_PEOPLE.find(d => d.role === 'geologist')!.email)!.id, projectId: project!.id, action: 'import', entity: 'investigation', after: { seeded: 'demo', points: investigation.points.length } }, tx)
   })
   return true
 }

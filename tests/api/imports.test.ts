@@ -148,3 +148,26 @@ describe('imports', () => {
     expect(r.status).toBe(403)
   })
 })
+
+describe('the example file with the demo site\'s deliberate logging errors', () => {
+  it('is reported row by row against the demo project, and the database is unchanged', async () => {
+    const { readFileSync } = await import('node:fs')
+    const { resolve } = await import('node:path')
+    const { demoImportCsv, demoImportErrors } = await import('../../shared/demo/import-examples')
+    const { demoProjectId } = await import('../helpers/http')
+    const csv = readFileSync(resolve(import.meta.dirname, '../../docs/examples/saltmarsh-lane-intervals-with-errors.csv'), 'utf8')
+    // The shipped example is the generator's output, byte for byte.
+    expect(csv).toBe(demoImportCsv())
+    const geo = await signIn(demoEmail('geologist'))
+    const projectId = await demoProjectId(geo)
+    const base = `/api/projects/${projectId}`
+    const before = await geo.get<{ events: unknown[] }>(`${base}/audit?limit=100`)
+    const up = await upload<{ importId: string }>(geo, `${base}/imports`, 'saltmarsh-lane-intervals-with-errors.csv', csv)
+    const pre = await geo.get<{ preview: { mapping: Record<string, string> } }>(`${base}/imports/${up.body.importId}?target=intervals`)
+    const r = await geo.post<Report>(`${base}/imports/${up.body.importId}/commit`, { target: 'intervals', mapping: pre.body.preview.mapping })
+    expect(r.status).toBe(422)
+    expect(r.body.data.errors.map(e => [e.row, e.column])).toEqual(demoImportErrors().map(e => [e.row, e.column]))
+    const after = await geo.get<{ events: unknown[] }>(`${base}/audit?limit=100`)
+    expect(after.body.events.length).toBe(before.body.events.length)
+  })
+})

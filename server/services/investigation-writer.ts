@@ -1,0 +1,63 @@
+import type { InvestigationRecord } from '#shared/investigation/types'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from '../db/schema'
+import type { Tx } from './audit'
+
+const CHUNK = 1000
+
+async function inChunks<T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>) {
+  for (let i = 0; i < rows.length; i += CHUNK) await insert(rows.slice(i, i + CHUNK))
+}
+
+/**
+ * Writes a whole investigation (strata, points and everything logged at them)
+ * into a project inside the caller's transaction: used by the demo seed and the
+ * AGS4 import. Strata already in the project with the same code are reused.
+ * Returns the ids it created, by identifier, for callers that add more.
+ */
+export async function writeInvestigation(tx: Tx, projectId: string, data: InvestigationRecord, existingStrata: Map<string, string> = new Map()) {
+  const strataIds = new Map(existingStrata)
+  const newStrata = data.strata.filter(s => !strataIds.has(s.code))
+  if (newStrata.length) {
+    const rows = await tx.insert(strata).values(newStrata.map(s => ({ ...s, projectId }))).returning({ id: strata.id, code: strata.code })
+    for (const r of rows) strataIds.set(r.code, r.id)
+  }
+  const pointIds = new Map<string, string>()
+  const sampleIds = new Map<string, string>()
+  if (data.points.length === 0) return { strataIds, pointIds, sampleIds }
+  const pointRows = await tx.insert(investigationPoints).values(data.points.map(p => ({
+    projectId,
+    identifier: p.identifier,
+    kind: p.kind,
+    easting: p.easting,
+    northing: p.northing,
+    groundElevation: p.groundElevation,
+    finalDepth: p.finalDepth,
+    startedOn: p.startedOn,
+    endedOn: p.endedOn,
+    method: p.method,
+    loggedBy: p.loggedBy,
+    remarks: p.remarks,
+  }))).returning({ id: investigationPoints.id, identifier: investigationPoints.identifier })
+  for (const r of pointRows) pointIds.set(r.identifier, r.id)
+
+  const intervals = data.points.flatMap(p => p.intervals.map(i => ({ ...i, stratumCode: undefined, pointId: pointIds.get(p.identifier)!, stratumId: i.stratumCode ? strataIds.get(i.stratumCode) ?? null : null })))
+  await inChunks(intervals.map(({ stratumCode: _c, ...rest }) => rest), c => tx.insert(logIntervals).values(c))
+
+  const sampleList = data.points.flatMap(p => p.samples.map(s => ({ p, s })))
+  if (sampleList.length) {
+    const rows = await tx.insert(samples).values(sampleList.map(({ p, s }) => ({
+      pointId: pointIds.get(p.identifier)!, identifier: s.identifier, top: s.top, bottom: s.bottom, type: s.type, recovery: s.recovery, remarks: s.remarks,
+    }))).returning({ id: samples.id })
+    rows.forEach((r, i) => sampleIds.set(`${sampleList[i]!.p.identifier}/${sampleList[i]!.s.identifier}`, r.id))
+    const idx = sampleList.flatMap(({ p, s }) => (s.index ? [{ ...s.index, sampleId: sampleIds.get(`${p.identifier}/${s.identifier}`)! }] : []))
+    await inChunks(idx, c => tx.insert(indexTests).values(c))
+  }
+  await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: pointIds.get(p.identifier)!, depth: s.depth, blows: [...s.blows], n: s.n }))), c => tx.insert(sptResults).values(c))
+  await inChunks(data.points.flatMap(p => p.groundwater.map(g => ({ ...g, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(groundwaterObservations).values(c))
+  await inChunks(data.points.flatMap(p => p.vane.map(v => ({ ...v, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(vaneReadings).values(c))
+  for (const p of data.points) {
+    if (!p.cpt) continue
+    await tx.insert(cptSoundings).values({ pointId: pointIds.get(p.identifier)!, areaRatio: p.cpt.areaRatio, count: p.cpt.depth.length, depth: p.cpt.depth, qc: p.cpt.qc, fs: p.cpt.fs, u2: p.cpt.u2 })
+  }
+  return { strataIds, pointIds, sampleIds }
+}
