@@ -1,5 +1,9 @@
 import { relations } from 'drizzle-orm'
+import { attachments } from './attachments'
 import { auditEvents } from './audit'
+import { oedometerTests, preconsolidationAdoptions } from './lab'
+import { siteModels, siteModelVersions } from './models'
+import { reviewFlags, reviewReplies } from './review'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from './investigation'
 import { projectMembers, projects } from './projects'
 import { apiTokens, sessions, users } from './users'
@@ -56,9 +60,10 @@ export const logIntervalsRelations = relations(logIntervals, ({ one }) => ({
   stratum: one(strata, { fields: [logIntervals.stratumId], references: [strata.id] }),
 }))
 
-export const samplesRelations = relations(samples, ({ one }) => ({
+export const samplesRelations = relations(samples, ({ one, many }) => ({
   point: one(investigationPoints, { fields: [samples.pointId], references: [investigationPoints.id] }),
   index: one(indexTests),
+  oedometerTests: many(oedometerTests),
 }))
 
 export const indexTestsRelations = relations(indexTests, ({ one }) => ({
@@ -79,4 +84,38 @@ export const cptSoundingsRelations = relations(cptSoundings, ({ one }) => ({
 
 export const vaneReadingsRelations = relations(vaneReadings, ({ one }) => ({
   point: one(investigationPoints, { fields: [vaneReadings.pointId], references: [investigationPoints.id] }),
+}))
+
+export const oedometerTestsRelations = relations(oedometerTests, ({ one, many }) => ({
+  sample: one(samples, { fields: [oedometerTests.sampleId], references: [samples.id] }),
+  adoptions: many(preconsolidationAdoptions),
+}))
+
+export const preconsolidationAdoptionsRelations = relations(preconsolidationAdoptions, ({ one }) => ({
+  test: one(oedometerTests, { fields: [preconsolidationAdoptions.oedometerTestId], references: [oedometerTests.id] }),
+  project: one(projects, { fields: [preconsolidationAdoptions.projectId], references: [projects.id] }),
+  adopter: one(users, { fields: [preconsolidationAdoptions.adoptedBy], references: [users.id] }),
+}))
+
+export const attachmentsRelations = relations(attachments, ({ one }) => ({
+  project: one(projects, { fields: [attachments.projectId], references: [projects.id] }),
+}))
+
+export const siteModelsRelations = relations(siteModels, ({ one, many }) => ({
+  project: one(projects, { fields: [siteModels.projectId], references: [projects.id] }),
+  versions: many(siteModelVersions),
+}))
+
+export const siteModelVersionsRelations = relations(siteModelVersions, ({ one }) => ({
+  model: one(siteModels, { fields: [siteModelVersions.modelId], references: [siteModels.id] }),
+  author: one(users, { fields: [siteModelVersions.createdBy], references: [users.id] }),
+}))
+
+export const reviewFlagsRelations = relations(reviewFlags, ({ one, many }) => ({
+  project: one(projects, { fields: [reviewFlags.projectId], references: [projects.id] }),
+  replies: many(reviewReplies),
+}))
+
+export const reviewRepliesRelations = relations(reviewReplies, ({ one }) => ({
+  flag: one(reviewFlags, { fields: [reviewReplies.flagId], references: [reviewFlags.id] }),
 }))

@@ -1,0 +1,69 @@
+import { and, asc, desc, eq, inArray } from 'drizzle-orm'
+import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
+import { useDb } from '../db/client'
+import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
+
+export type SiteModelRow = typeof siteModels.$inferSelect
+
+/**
+ * A starting model from the project's logs: one band per stratum in display
+ * order, each as thick as its mean logged thickness, unit weights from the
+ * strata list, and the water table at the median standing level.
+ */
+export async function definitionFromLogs(projectId: string): Promise<SiteModelDefinition> {
+  const db = useDb()
+  const strataRows = await db.select().from(strata).where(eq(strata.projectId, projectId)).orderBy(asc(strata.displayOrder), asc(strata.code))
+  const points = await db.select({ id: investigationPoints.id }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
+  const ids = points.map(p => p.id)
+  const intervals = ids.length ? await db.select({ pointId: logIntervals.pointId, stratumId: logIntervals.stratumId, top: logIntervals.top, bottom: logIntervals.bottom }).from(logIntervals).where(inArray(logIntervals.pointId, ids)) : []
+  const standing = ids.length
+    ? await db.select({ depth: groundwaterObservations.depth }).from(groundwaterObservations).where(and(inArray(groundwaterObservations.pointId, ids), eq(groundwaterObservations.kind, 'standing')))
+    : []
+  // Thickness of each stratum per hole, then the mean over the holes that log it.
+  const perHole = new Map<string, Map<string, number>>()
+  for (const iv of intervals) {
+    if (!iv.stratumId) continue
+    const m = perHole.get(iv.stratumId) ?? new Map<string, number>()
+    m.set(iv.pointId, (m.get(iv.pointId) ?? 0) + (iv.bottom - iv.top))
+    perHole.set(iv.stratumId, m)
+  }
+  const bands = strataRows.map((s) => {
+    const t = [...(perHole.get(s.id)?.values() ?? [])]
+    const thickness = t.length ? t.reduce((a, b) => a + b, 0) / t.length : 1
+    return {
+      code: s.code,
+      name: s.name,
+      thickness: Math.round(thickness * 100) / 100,
+      unitWeight: s.unitWeight,
+      unitWeightSaturated: s.unitWeightSaturated,
+      compressible: false,
+      cptFactor: 0.33,
+    }
+  })
+  const levels = standing.map(s => s.depth).filter((d): d is number => d !== null).sort((a, b) => a - b)
+  const median = levels.length ? levels[Math.floor(levels.length / 2)]! : 1
+  return {
+    schemaVersion: SITE_MODEL_SCHEMA_VERSION,
+    surcharge: 0,
+    gammaW: 9.81,
+    groundwater: { waterTableDepth: median, piezometers: [] },
+    strata: bands.length ? bands : [{ code: 'GROUND', name: 'Ground', thickness: 10, unitWeight: 18, unitWeightSaturated: 19, compressible: false, cptFactor: 0.33 }],
+    flagsInForce: [],
+  }
+}
+
+/**
+ * The stress model in force for the project's interpretation pages: the most
+ * recently edited model's draft, or a model built from the logs when there is
+ * none yet.
+ */
+export async function currentDefinition(projectId: string): Promise<{ definition: SiteModelDefinition, modelId: string | null, source: 'draft' | 'logs' }> {
+  const [model] = await useDb().select().from(siteModels).where(eq(siteModels.projectId, projectId)).orderBy(desc(siteModels.updatedAt)).limit(1)
+  if (model) return { definition: model.draft, modelId: model.id, source: 'draft' }
+  return { definition: await definitionFromLogs(projectId), modelId: null, source: 'logs' }
+}
+
+export async function latestVersion(modelId: string) {
+  const [v] = await useDb().select().from(siteModelVersions).where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version)).limit(1)
+  return v ?? null
+}
