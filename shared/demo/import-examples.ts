@@ -3,7 +3,8 @@
  * the importer's row-level error report. The rows are the demo's own intervals, so everything else in the
  * file is valid against the demo project's points and final depths.
  */
-import type { InvestigationRecord, LogIntervalRecord } from '../investigation/types'
+import { investigationToAgs } from '../ags4/investigation'
+import type { InvestigationRecord, LogIntervalRecord, PointRecord } from '../investigation/types'
 import { isUscsGroupSymbol } from '../strata/uscs'
 import { generateDemoInvestigation } from './generate'
 
@@ -147,4 +148,27 @@ export function demoImportCsv(): string {
 /** Each deliberate error of `demoImportCsv` with its 1-based file row (header = row 1). */
 export function demoImportErrors(): DemoImportError[] {
   return demoImportExample().errors
+}
+
+/**
+ * The AGS4 example for the import page: BH-01 and BH-02 of the demo site with
+ * two deliberate logging errors — an interval of BH-01 starting 0.30 m inside
+ * the one above it, and BH-02's last interval ending 1.5 m below the hole.
+ * docs/examples/saltmarsh-lane-with-errors.ags is this text.
+ */
+export function demoImportAgs(): string {
+  const d = generateDemoInvestigation()
+  const pick = d.points
+    .filter(p => p.identifier === 'BH-01' || p.identifier === 'BH-02')
+    .map(p => ({ ...p, samples: p.samples.map(s => ({ ...s, oedometer: null })), cpt: null, intervals: [...p.intervals] }))
+  const [bh1, bh2] = pick as [PointRecord, PointRecord]
+  bh1.intervals[3] = { ...bh1.intervals[3]!, top: Math.round((bh1.intervals[3]!.top - 0.3) * 100) / 100 }
+  const last = bh2.intervals.length - 1
+  bh2.intervals[last] = { ...bh2.intervals[last]!, bottom: bh2.finalDepth + 1.5 }
+  return investigationToAgs({ ...d, points: pick }, {
+    producedOn: '2025-06-02',
+    producer: 'Pastload demo',
+    recipient: 'Saltmarsh Lane project team',
+    description: 'BH-01 and BH-02 with two deliberate logging errors',
+  })
 }

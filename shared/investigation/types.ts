@@ -57,6 +57,7 @@ export interface OedometerStageRecord {
 
 export interface OedometerTestRecord {
   testType: OedometerTestType
+  /** Initial specimen height, m. */
   specimenHeight: number
   initialWaterContent: number | null
   specificGravity: number | null

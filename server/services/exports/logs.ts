@@ -2,7 +2,8 @@ import { asc, eq, inArray } from 'drizzle-orm'
 import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
 import { useDb } from '../../db/client'
-import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from '../../db/schema'
+import type { InvestigationRecord } from '#shared/investigation/types'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../../db/schema'
 import type { ProjectRow } from '../../utils/guards'
 
 /** Everything logged in a project, one row per record, for the exports. */
@@ -61,4 +62,61 @@ export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
 /** A file name safe for Content-Disposition. */
 export function exportName(project: ProjectRow, what: string, ext: string): string {
   return `${project.jobNumber}-${what}.${ext}`.replace(/[^A-Za-z0-9._-]+/g, '_')
+}
+
+/** The project's investigation as the shared interchange model (for the AGS4 export). */
+export async function loadInvestigationRecord(project: ProjectRow): Promise<InvestigationRecord> {
+  const d = await loadProjectLogs(project.id)
+  const db = useDb()
+  const sampleIds = d.samples.map(s => s.sample.id)
+  const tests = sampleIds.length ? await db.select().from(oedometerTests).where(inArray(oedometerTests.sampleId, sampleIds)) : []
+  const code = new Map(d.strata.map(s => [s.id, s.code]))
+  const by = <T extends { pointId: string }>(rows: T[]) => {
+    const m = new Map<string, T[]>()
+    for (const r of rows) m.set(r.pointId, [...(m.get(r.pointId) ?? []), r])
+    return m
+  }
+  const intervals = by(d.intervals)
+  const samplesBy = by(d.samples.map(s => ({ ...s, pointId: s.sample.pointId })))
+  const spt = by(d.spt)
+  const gw = by(d.groundwater)
+  const vane = by(d.vane)
+  const cpt = new Map(d.cpt.map(c => [c.pointId, c]))
+  const test = new Map(tests.map(t => [t.sampleId, t]))
+  return {
+    project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
+    strata: d.strata.map(s => ({ code: s.code, name: s.name, description: s.description, colour: s.colour, pattern: s.pattern, unitWeight: s.unitWeight, unitWeightSaturated: s.unitWeightSaturated, displayOrder: s.displayOrder })),
+    points: d.points.map(p => ({
+      identifier: p.identifier,
+      kind: p.kind,
+      easting: p.easting,
+      northing: p.northing,
+      groundElevation: p.groundElevation,
+      finalDepth: p.finalDepth,
+      startedOn: p.startedOn,
+      endedOn: p.endedOn,
+      method: p.method,
+      loggedBy: p.loggedBy,
+      remarks: p.remarks,
+      intervals: (intervals.get(p.id) ?? []).map(i => ({ top: i.top, bottom: i.bottom, description: i.description, uscs: i.uscs, stratumCode: i.stratumId ? code.get(i.stratumId) ?? null : null, moisture: i.moisture, consistency: i.consistency })),
+      samples: (samplesBy.get(p.id) ?? []).map(({ sample: s, index: i }) => {
+        const t = test.get(s.id)
+        return {
+          identifier: s.identifier,
+          top: s.top,
+          bottom: s.bottom,
+          type: s.type,
+          recovery: s.recovery,
+          remarks: s.remarks,
+          index: i ? { waterContent: i.waterContent, liquidLimit: i.liquidLimit, plasticLimit: i.plasticLimit, bulkUnitWeight: i.bulkUnitWeight } : null,
+          // Stored in mm; the interchange model uses m.
+          oedometer: t ? { testType: t.testType, specimenHeight: t.specimenHeight / 1000, initialWaterContent: t.initialWaterContent, specificGravity: t.specificGravity, e0: t.e0, stages: t.stages.map(st => ({ stress: st.stress, voidRatio: st.voidRatio })), remarks: t.remarks } : null,
+        }
+      }),
+      spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, blows: [s.blows[0] ?? 0, s.blows[1] ?? 0, s.blows[2] ?? 0] as [number, number, number], n: s.n })),
+      groundwater: (gw.get(p.id) ?? []).map(g => ({ kind: g.kind, observedAt: new Date(g.observedAt).toISOString(), depth: g.depth, pressure: g.pressure, remarks: g.remarks })),
+      cpt: cpt.has(p.id) ? { areaRatio: cpt.get(p.id)!.areaRatio, depth: cpt.get(p.id)!.depth, qc: cpt.get(p.id)!.qc, fs: cpt.get(p.id)!.fs, u2: cpt.get(p.id)!.u2 } : null,
+      vane: (vane.get(p.id) ?? []).map(v => ({ depth: v.depth, peak: v.peak, remoulded: v.remoulded })),
+    })),
+  }
 }

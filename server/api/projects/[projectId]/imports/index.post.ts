@@ -2,6 +2,7 @@ import { lt } from 'drizzle-orm'
 import { useDb } from '../../../../db/client'
 import { importFiles } from '../../../../db/schema'
 import { detectFormat, UploadError } from '../../../../services/imports/files'
+import { analyseAgs, asRowErrors } from '../../../../services/imports/ags'
 import { previewTable } from '../../../../services/imports/preview'
 
 const MAX_BYTES = 25 * 1024 * 1024
@@ -30,6 +31,12 @@ export default defineEventHandler(async (event) => {
   await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
   const [row] = await db.insert(importFiles).values({ projectId: project.id, uploadedBy: user.id, filename, format, size: file.data.length, content: file.data }).returning({ id: importFiles.id })
   const preview = format === 'ags4' ? null : await previewTable(project.id, { content: file.data, format, filename })
+  const ags = format === 'ags4' ? agsPreview(file.data) : null
   setResponseStatus(event, 201)
-  return { importId: row!.id, filename, format, size: file.data.length, preview }
+  return { importId: row!.id, filename, format, size: file.data.length, preview, ags }
 })
+
+function agsPreview(content: Buffer) {
+  const a = analyseAgs(content)
+  return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), warnings: asRowErrors(a.warnings).slice(0, 500) }
+}

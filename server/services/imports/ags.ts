@@ -1,0 +1,63 @@
+import { checkAgs } from '#shared/ags4/check'
+import { standardDictionary } from '#shared/ags4/dictionary'
+import { agsToInvestigation } from '#shared/ags4/investigation'
+import { decodeAgs, parseAgs } from '#shared/ags4/parse'
+import type { AgsFile, AgsIssue } from '#shared/ags4/types'
+import { checkIntervals } from '#shared/investigation/intervals'
+import type { InvestigationRecord } from '#shared/investigation/types'
+
+/**
+ * Reads an uploaded AGS4 file: the format rules (checked against the standard
+ * dictionary plus the file's own DICT entries), the mapping to Pastload's model,
+ * and the groups Pastload keeps but does not map.
+ */
+export function analyseAgs(content: Buffer) {
+  const file = parseAgs(decodeAgs(new Uint8Array(content)))
+  const ruleIssues = checkAgs(file, standardDictionary())
+  const mapped = agsToInvestigation(file)
+  const issues: AgsIssue[] = [...ruleIssues, ...mapped.issues, ...logRuleIssues(file, mapped.data)]
+  const errors = issues.filter(i => i.severity === 'error')
+  const warnings = issues.filter(i => i.severity !== 'error')
+  return {
+    groups: file.groups.map(g => ({ name: g.name, rows: g.rows.length, line: g.line })),
+    unknownGroups: mapped.unknownGroups,
+    undefinedStrata: mapped.undefinedStrata,
+    data: mapped.data,
+    errors,
+    warnings,
+    summary: {
+      points: mapped.data.points.length,
+      intervals: mapped.data.points.reduce((n, p) => n + p.intervals.length, 0),
+      samples: mapped.data.points.reduce((n, p) => n + p.samples.length, 0),
+      cptRows: mapped.data.points.reduce((n, p) => n + (p.cpt?.depth.length ?? 0), 0),
+      strata: mapped.data.strata.length,
+    },
+  }
+}
+
+export function asRowErrors(issues: AgsIssue[]) {
+  return issues.map(i => ({ row: i.line, column: i.group, message: `Rule ${i.rule}: ${i.message}`, rule: i.rule }))
+}
+
+/**
+ * Pastload's own log rules on the mapped data (the AGS4 format rules say nothing
+ * about overlaps or depths beyond the hole), reported at the GEOL or SAMP line.
+ */
+export function logRuleIssues(file: AgsFile, data: InvestigationRecord): AgsIssue[] {
+  const out: AgsIssue[] = []
+  const lineOf = (group: string, loca: string, topHeading: string, top: number) => {
+    const g = file.groups.find(x => x.name === group)
+    const row = g?.rows.find(r => r.values.LOCA_ID === loca && Math.abs(Number(r.values[topHeading]) - top) < 1e-6)
+    return row?.line ?? g?.line ?? 0
+  }
+  for (const p of data.points) {
+    for (const issue of checkIntervals(p.intervals, p.finalDepth).issues) {
+      const iv = p.intervals[issue.index]!
+      out.push({ rule: 'pastload', severity: 'error', group: 'GEOL', line: lineOf('GEOL', p.identifier, 'GEOL_TOP', iv.top), message: `${p.identifier} ${iv.top}–${iv.bottom} m: ${issue.message.replace(/ \(row \d+\)/, '')}` })
+    }
+    for (const s of p.samples) {
+      if (s.bottom > p.finalDepth + 1e-6) out.push({ rule: 'pastload', severity: 'error', group: 'SAMP', line: lineOf('SAMP', p.identifier, 'SAMP_TOP', s.top), message: `${p.identifier} sample ${s.identifier}: bottom (${s.bottom} m) is below the hole's final depth (${p.finalDepth} m).` })
+    }
+  }
+  return out
+}
