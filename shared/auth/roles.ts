@@ -25,6 +25,7 @@ export const CAPABILITIES = {
   'model.write': ['owner', 'engineer'],
   'interpretation.write': ['owner', 'engineer'],
   'review.write': ['owner', 'reviewer'],
+  'review.reply': ['owner', 'engineer', 'geologist', 'reviewer'],
   'settlement.run': ['owner', 'engineer', 'designer'],
   'export.read': ['owner', 'engineer', 'geologist', 'reviewer', 'designer', 'viewer'],
 } as const satisfies Record<string, readonly ProjectRole[]>

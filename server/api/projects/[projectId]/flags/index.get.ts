@@ -1,0 +1,25 @@
+import { and, count, desc, eq, type SQL } from 'drizzle-orm'
+import { FlagListQuerySchema } from '#shared/schemas/review'
+import { useDb } from '../../../../db/client'
+import { reviewFlags, reviewReplies, users } from '../../../../db/schema'
+
+/** The project's review list, newest first, filtered by status, target type, verdict or target. */
+export default defineEventHandler(async (event) => {
+  const { project } = await requireProjectRole(event, 'project.read')
+  const q = validateQuery(event, FlagListQuerySchema)
+  const where: SQL[] = [eq(reviewFlags.projectId, project.id)]
+  if (q.status) where.push(eq(reviewFlags.status, q.status))
+  if (q.targetType) where.push(eq(reviewFlags.targetType, q.targetType))
+  if (q.verdict) where.push(eq(reviewFlags.verdict, q.verdict))
+  if (q.targetId) where.push(eq(reviewFlags.targetId, q.targetId))
+  const db = useDb()
+  const replyCounts = db.select({ flagId: reviewReplies.flagId, n: count().as('n') }).from(reviewReplies).groupBy(reviewReplies.flagId).as('reply_counts')
+  const rows = await db.select({ flag: reviewFlags, author: users.displayName, replies: replyCounts.n })
+    .from(reviewFlags)
+    .leftJoin(users, eq(users.id, reviewFlags.createdBy))
+    .leftJoin(replyCounts, eq(replyCounts.flagId, reviewFlags.id))
+    .where(and(...where))
+    .orderBy(desc(reviewFlags.createdAt))
+    .limit(q.limit).offset(q.offset)
+  return { flags: rows.map(r => ({ ...r.flag, author: r.author, replyCount: Number(r.replies ?? 0) })), limit: q.limit, offset: q.offset }
+})

@@ -1,0 +1,18 @@
+import { asc, desc, eq } from 'drizzle-orm'
+import { useDb } from '../../../../db/client'
+import { siteModels, siteModelVersions } from '../../../../db/schema'
+
+/** The project's site models with their latest saved version. */
+export default defineEventHandler(async (event) => {
+  const { project } = await requireProjectRole(event, 'project.read')
+  const db = useDb()
+  const models = await db.select({ id: siteModels.id, name: siteModels.name, description: siteModels.description, version: siteModels.version, basedOn: siteModels.basedOn, updatedAt: siteModels.updatedAt })
+    .from(siteModels).where(eq(siteModels.projectId, project.id)).orderBy(asc(siteModels.name))
+  const versions = models.length
+    ? await db.select({ modelId: siteModelVersions.modelId, version: siteModelVersions.version, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, message: siteModelVersions.message })
+      .from(siteModelVersions).orderBy(desc(siteModelVersions.version))
+    : []
+  return {
+    models: models.map(m => ({ ...m, latest: versions.find(v => v.modelId === m.id) ?? null, versionCount: versions.filter(v => v.modelId === m.id).length })),
+  }
+})

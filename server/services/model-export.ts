@@ -1,0 +1,63 @@
+import * as XLSX from 'xlsx-republish'
+import { RESULT_CAUTION } from '#shared/caution'
+import { ModelIncompleteError } from '#shared/site-model/convert'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { sublayerTable } from '#shared/site-model/sublayers'
+import type { ProjectRow } from '../utils/guards'
+
+export const EXPORT_SCHEMA = 'pastload.site-model-export'
+export const EXPORT_SCHEMA_VERSION = 1
+
+interface VersionMeta { version: number, message: string, status: string, createdAt: Date, author: string | null }
+
+function tableOrRefuse(def: SiteModelDefinition, maxThickness: number) {
+  try {
+    return runEngine(() => sublayerTable(def, maxThickness))
+  }
+  catch (err) {
+    if (err instanceof ModelIncompleteError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: 'model-incomplete' } })
+    throw err
+  }
+}
+
+/**
+ * The export document (docs/site-model-schema.md): its `layers`, `groundwater`,
+ * `surcharge` and `gammaW` are the settlement API's input as they are, so a
+ * client adds a `load` and posts it to /api/calc/settlement.
+ */
+export function exportDocument(project: ProjectRow, model: { id: string, name: string }, v: VersionMeta & { definition: SiteModelDefinition }, maxThickness: number) {
+  const { layers } = tableOrRefuse(v.definition, maxThickness)
+  return {
+    schema: EXPORT_SCHEMA,
+    schemaVersion: EXPORT_SCHEMA_VERSION,
+    project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
+    model: { id: model.id, name: model.name },
+    version: { number: v.version, message: v.message, status: v.status, savedBy: v.author, savedAt: v.createdAt.toISOString() },
+    units: { length: 'm', stress: 'kPa', unitWeight: 'kN/m³', cv: 'm²/year' },
+    caution: RESULT_CAUTION,
+    surcharge: v.definition.surcharge,
+    gammaW: v.definition.gammaW,
+    groundwater: v.definition.groundwater,
+    layers,
+    sublayers: { maxThickness },
+    strata: v.definition.strata,
+    flagsInForce: v.definition.flagsInForce,
+  }
+}
+
+export function exportWorkbook(project: ProjectRow, model: { name: string }, v: VersionMeta & { definition: SiteModelDefinition }, maxThickness: number): Buffer {
+  const { rows } = tableOrRefuse(v.definition, maxThickness)
+  const wb = XLSX.utils.book_new()
+  XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([
+    ['Project', `${project.jobNumber} ${project.name}`],
+    ['Model', `${model.name}, version ${v.version}`],
+    ['Saved', `${v.createdAt.toISOString()} by ${v.author ?? 'unknown'}: ${v.message}`],
+    ['Status', v.status],
+    ['Sublayers', `at most ${maxThickness} m thick; stresses at mid-depth`],
+    ['Units', 'm, kPa, m²/year'],
+    ['Caution', RESULT_CAUTION],
+  ]), 'About')
+  const head = ['Layer', 'Top (m)', 'Bottom (m)', 'Mid-depth (m)', "σ'v0 (kPa)", "σ'p (kPa)", 'OCR', 'POP (kPa)', 'Cc', 'Cr', 'e0', 'cv (m²/year)']
+  XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([head, ...rows.map(r => [r.layer, r.top, r.bottom, r.depth, r.effectiveStress, r.preconsolidation, r.ocr, r.pop, r.cc, r.cr, r.e0, r.cv])]), 'Sublayers')
+  return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
+}

@@ -1,0 +1,65 @@
+import { and, desc, eq } from 'drizzle-orm'
+import { buildStressModel } from '#shared/geotech/stress'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { toStressInput } from '#shared/site-model/convert'
+import { useDb } from '../db/client'
+import { siteModels, siteModelVersions, users } from '../db/schema'
+import type { Tx } from './audit'
+import { notFound } from './versioned'
+
+export async function requireModel(projectId: string, modelId: string, tx?: Tx) {
+  const db = tx ?? useDb()
+  const [m] = await db.select().from(siteModels).where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId)))
+  if (!m) notFound('Model')
+  return m
+}
+
+export async function requireVersion(modelId: string, version: number, tx?: Tx) {
+  const db = tx ?? useDb()
+  const [v] = await db.select({ v: siteModelVersions, author: users.displayName }).from(siteModelVersions)
+    .leftJoin(users, eq(users.id, siteModelVersions.createdBy))
+    .where(and(eq(siteModelVersions.modelId, modelId), eq(siteModelVersions.version, version)))
+  if (!v) notFound(`Version ${version}`)
+  return { ...v.v, author: v.author }
+}
+
+export async function listVersions(modelId: string) {
+  return useDb().select({ version: siteModelVersions.version, message: siteModelVersions.message, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, author: users.displayName })
+    .from(siteModelVersions).leftJoin(users, eq(users.id, siteModelVersions.createdBy))
+    .where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version))
+}
+
+export async function nextVersionNumber(tx: Tx, modelId: string): Promise<number> {
+  const [last] = await tx.select({ version: siteModelVersions.version }).from(siteModelVersions).where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version)).limit(1)
+  return (last?.version ?? 0) + 1
+}
+
+/** A model whose stresses cannot be computed (σ'v0 ≤ 0 somewhere) is refused with the engine's 422. */
+export function assertDefinitionComputable(def: SiteModelDefinition) {
+  runEngine(() => buildStressModel(toStressInput(def)))
+}
+
+/** Field-by-field differences between two definitions, as dotted paths (for the compare table). */
+export function diffDefinitions(a: unknown, b: unknown, path = ''): { path: string, a: unknown, b: unknown }[] {
+  if (Object.is(a, b)) return []
+  const isObj = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object'
+  if (Array.isArray(a) && Array.isArray(b)) {
+    // Long id lists are summarised rather than listed item by item.
+    if (path.endsWith('PointIds')) {
+      const sa = new Set(a as string[])
+      const sb = new Set(b as string[])
+      const added = [...sb].filter(x => !sa.has(x)).length
+      const removed = [...sa].filter(x => !sb.has(x)).length
+      return added || removed ? [{ path, a: `${a.length} points`, b: `${b.length} points (+${added} −${removed})` }] : []
+    }
+    const out: { path: string, a: unknown, b: unknown }[] = []
+    for (let i = 0; i < Math.max(a.length, b.length); i++) out.push(...diffDefinitions(a[i], b[i], `${path}[${i}]`))
+    return out
+  }
+  if (isObj(a) && isObj(b)) {
+    const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])].sort()
+    return keys.flatMap(k => diffDefinitions(a[k], b[k], path ? `${path}.${k}` : k))
+  }
+  return [{ path, a: a ?? null, b: b ?? null }]
+}
+

@@ -1,0 +1,54 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+
+interface Flag { id: string, version: number, status: string, verdict: string, targetId: string }
+
+describe('reviewer flags', () => {
+  let reviewer: Client
+  let engineer: Client
+  let projectId: string
+  let intervalId: string
+
+  beforeAll(async () => {
+    reviewer = await signIn(demoEmail('reviewer'))
+    engineer = await signIn(demoEmail('engineer'))
+    projectId = await demoProjectId(reviewer)
+    const pts = await reviewer.get<{ points: { id: string }[] }>(`/api/projects/${projectId}/points?q=BH-02`)
+    const d = await reviewer.get<{ intervals: { id: string }[] }>(`/api/projects/${projectId}/points/${pts.body.points[0]!.id}`)
+    intervalId = d.body.intervals[2]!.id
+  })
+
+  it('flags a log interval, threads replies, resolves and reopens, with the audit trail', async () => {
+    const f = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'questionable', comment: 'Description says shells but the sample log does not.' })
+    expect(f.status).toBe(201)
+    const flag = f.body.flag
+    expect((await engineer.post(`/api/projects/${projectId}/flags/${flag.id}/replies`, { body: 'Checked the core photos: shells present, log is right.' })).status).toBe(201)
+    expect((await reviewer.post(`/api/projects/${projectId}/flags/${flag.id}/replies`, { body: 'Agreed.' })).status).toBe(201)
+    const thread = await engineer.get<{ replies: { body: string, author: string }[] }>(`/api/projects/${projectId}/flags/${flag.id}`)
+    expect(thread.body.replies.map(r => r.author)).toEqual(['Tomas Lindqvist', 'Priya Natarajan'])
+
+    const resolved = await reviewer.patch<{ flag: Flag }>(`/api/projects/${projectId}/flags/${flag.id}`, { status: 'resolved', version: flag.version })
+    expect(resolved.body.flag.status).toBe('resolved')
+    const stale = await reviewer.patch(`/api/projects/${projectId}/flags/${flag.id}`, { status: 'open', version: flag.version })
+    expect(stale.status).toBe(409)
+    const reopened = await reviewer.patch<{ flag: Flag }>(`/api/projects/${projectId}/flags/${flag.id}`, { status: 'open', version: resolved.body.flag.version })
+    expect(reopened.body.flag.status).toBe('open')
+
+    const list = await engineer.get<{ flags: (Flag & { replyCount: number })[] }>(`/api/projects/${projectId}/flags?targetType=log-interval&status=open`)
+    expect(list.body.flags.find(x => x.id === flag.id)!.replyCount).toBe(2)
+  })
+
+  it('an engineer cannot flag (403) but can reply; a target outside the project is 404; a reason is required (400)', async () => {
+    expect((await engineer.post(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'exclude', comment: 'engineer tries' })).status).toBe(403)
+    expect((await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: '00000000-0000-4000-8000-000000000000', verdict: 'exclude', comment: 'not here' })).status).toBe(404)
+    expect((await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'cpt-point', targetId: 'cpt:garbage', verdict: 'exclude', comment: 'bad id' })).status).toBe(404)
+    expect((await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'exclude', comment: '' })).status).toBe(400)
+  })
+
+  it('a saved model version records the flags in force', async () => {
+    const f = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'exclude', comment: 'Exclude while the log is rechecked.' })
+    const m = await engineer.post<{ model: { id: string, version: number } }>(`/api/projects/${projectId}/models`, { name: `Flag check ${Date.now().toString(36)}` })
+    const v = await engineer.post<{ version: { definition: { flagsInForce: { flagId: string, verdict: string }[] } } }>(`/api/projects/${projectId}/models/${m.body.model.id}/versions`, { message: 'With the exclusion', version: m.body.model.version })
+    expect(v.body.version.definition.flagsInForce).toContainEqual(expect.objectContaining({ flagId: f.body.flag.id, verdict: 'exclude' }))
+  })
+})
