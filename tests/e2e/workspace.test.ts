@@ -43,7 +43,9 @@ describe('the signed-in workspace in Chromium', () => {
       await card.click()
       await page.getByRole('heading', { name: 'Saltmarsh Lane Freight Terminal' }).waitFor()
       const table = page.getByTestId('members-table')
-      expect(await table.textContent()).toContain('Priya Natarajan')
+      // The member list loads after navigation: wait for its rows.
+      await table.getByText('Priya Natarajan').waitFor()
+      expect(await table.locator('tbody tr').count()).toBeGreaterThanOrEqual(5)
       const canManage = person.role === 'owner'
       expect(await page.getByTestId('add-member').count()).toBe(canManage ? 1 : 0)
       expect(await page.getByTestId('new-project').count()).toBe(0)
