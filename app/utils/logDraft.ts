@@ -1,0 +1,263 @@
+import { checkIntervals, type Gap } from '#shared/investigation/intervals'
+import { isUscsGroupSymbol } from '#shared/geotech/plasticity'
+import { IntervalInputSchema } from '#shared/schemas/investigation'
+
+/**
+ * The log table's editing model, kept free of Vue so its rules read in one place:
+ * rows are edited as text, parsed into intervals, checked with the same zod schema
+ * and interval rules as the server, and filled from spreadsheet pastes.
+ */
+export const LOG_COLUMNS = ['top', 'bottom', 'description', 'uscs', 'stratumId', 'moisture', 'consistency'] as const
+export type LogColumn = (typeof LOG_COLUMNS)[number]
+
+export const LOG_COLUMN_LABELS: Record<LogColumn, string> = {
+  top: 'Top (m)',
+  bottom: 'Bottom (m)',
+  description: 'Description',
+  uscs: 'USCS',
+  stratumId: 'Stratum',
+  moisture: 'Moisture',
+  consistency: 'Consistency / density',
+}
+
+export interface DraftRow {
+  /** Stable key for Vue lists; not sent. */
+  key: string
+  id?: string
+  version?: number
+  top: string
+  bottom: string
+  description: string
+  uscs: string
+  stratumId: string
+  moisture: string
+  consistency: string
+}
+
+export interface SavedInterval {
+  id: string
+  version: number
+  top: number
+  bottom: number
+  description: string
+  uscs: string | null
+  stratumId: string | null
+  moisture: string | null
+  consistency: string | null
+}
+
+export interface IntervalPayload {
+  id?: string
+  version?: number
+  top: number
+  bottom: number
+  description: string
+  uscs: string | null
+  stratumId: string | null
+  moisture: string | null
+  consistency: string | null
+}
+
+export interface StratumRef { id: string, code: string, name: string }
+
+let keyCounter = 0
+export function newKey(): string {
+  keyCounter += 1
+  return `r${keyCounter}`
+}
+
+export function emptyRow(): DraftRow {
+  return { key: newKey(), top: '', bottom: '', description: '', uscs: '', stratumId: '', moisture: '', consistency: '' }
+}
+
+function depthText(v: number): string {
+  return Number(v.toFixed(4)).toString()
+}
+
+export function draftFromInterval(iv: SavedInterval): DraftRow {
+  return {
+    key: newKey(),
+    id: iv.id,
+    version: iv.version,
+    top: depthText(iv.top),
+    bottom: depthText(iv.bottom),
+    description: iv.description,
+    uscs: iv.uscs ?? '',
+    stratumId: iv.stratumId ?? '',
+    moisture: iv.moisture ?? '',
+    consistency: iv.consistency ?? '',
+  }
+}
+
+/** A depth as typed or pasted: "1.2", "1,2", "1.20 m"; NaN when blank or not a depth. */
+export function parseDepth(text: string): number {
+  const t = text.trim().replace(/\s*m$/i, '')
+  if (!/^[-+]?(\d+([.,]\d*)?|[.,]\d+)$/.test(t)) return Number.NaN
+  return Number(t.replace(',', '.'))
+}
+
+export function isBlankRow(r: DraftRow): boolean {
+  return !r.id && LOG_COLUMNS.every(c => r[c].trim() === '')
+}
+
+export function toPayloadRow(r: DraftRow): IntervalPayload {
+  const opt = (s: string) => (s.trim() === '' ? null : s.trim())
+  return {
+    ...(r.id ? { id: r.id, version: r.version } : {}),
+    top: parseDepth(r.top),
+    bottom: parseDepth(r.bottom),
+    description: r.description.trim(),
+    uscs: opt(r.uscs),
+    stratumId: opt(r.stratumId),
+    moisture: opt(r.moisture),
+    consistency: opt(r.consistency),
+  }
+}
+
+/** The rows to send (blank new rows are left out) and, for each, its row index in the table. */
+export function toPayload(rows: readonly DraftRow[]): { intervals: IntervalPayload[], rowIndex: number[] } {
+  const intervals: IntervalPayload[] = []
+  const rowIndex: number[] = []
+  rows.forEach((r, i) => {
+    if (isBlankRow(r)) return
+    intervals.push(toPayloadRow(r))
+    rowIndex.push(i)
+  })
+  return { intervals, rowIndex }
+}
+
+export type RowErrors = Partial<Record<LogColumn, string>>
+
+const FIELD_NAMES: Partial<Record<LogColumn, string>> = { uscs: 'USCS symbol', stratumId: 'Stratum', moisture: 'Moisture', consistency: 'Consistency', description: 'Description' }
+
+/**
+ * Live problems per table row: the zod schema for each row's shape, then the
+ * interval rules (overlaps, depth past the hole) across the log; plus the gaps.
+ */
+export function validateDraft(rows: readonly DraftRow[], finalDepth: number): { errors: RowErrors[], gaps: Gap[], count: number } {
+  const errors: RowErrors[] = rows.map(() => ({}))
+  const { intervals, rowIndex } = toPayload(rows)
+  let count = 0
+  const put = (row: number, col: LogColumn, message: string) => {
+    const e = errors[row]
+    if (e && !e[col]) {
+      e[col] = message
+      count += 1
+    }
+  }
+  intervals.forEach((iv, i) => {
+    const parsed = IntervalInputSchema.safeParse(iv)
+    if (parsed.success) return
+    for (const issue of parsed.error.issues) {
+      const col = issue.path[0]
+      if (typeof col !== 'string' || !(LOG_COLUMNS as readonly string[]).includes(col)) continue
+      const name = FIELD_NAMES[col as LogColumn]
+      put(rowIndex[i]!, col as LogColumn, name ? `${name} ${issue.message}` : issue.message)
+    }
+  })
+  const rules = checkIntervals(intervals, finalDepth)
+  for (const issue of rules.issues) put(rowIndex[issue.index]!, issue.field, issue.message)
+  return { errors, gaps: rules.gaps, count }
+}
+
+/**
+ * Splits text copied from a spreadsheet: rows by line, cells by tab; a cell in
+ * double quotes may hold tabs, line breaks and doubled quotes. The trailing line
+ * break spreadsheets add is dropped.
+ */
+export function parseTsv(text: string): string[][] {
+  const rows: string[][] = []
+  let row: string[] = []
+  let cell = ''
+  let i = 0
+  let quoted = false
+  const s = text.replace(/\r\n?/g, '\n')
+  while (i < s.length) {
+    const ch = s[i]!
+    if (quoted) {
+      if (ch === '"' && s[i + 1] === '"') { cell += '"'; i += 2; continue }
+      if (ch === '"') { quoted = false; i += 1; continue }
+      cell += ch
+      i += 1
+      continue
+    }
+    if (ch === '"' && cell === '') { quoted = true; i += 1; continue }
+    if (ch === '\t') { row.push(cell); cell = ''; i += 1; continue }
+    if (ch === '\n') { row.push(cell); rows.push(row); row = []; cell = ''; i += 1; continue }
+    cell += ch
+    i += 1
+  }
+  if (cell !== '' || row.length) {
+    row.push(cell)
+    rows.push(row)
+  }
+  return rows
+}
+
+/** True when a paste should be spread over cells rather than typed into one. */
+export function isMultiCellPaste(text: string): boolean {
+  return /[\t\n\r]/.test(text.replace(/[\r\n]+$/, ''))
+}
+
+function matchStratum(value: string, strata: readonly StratumRef[]): StratumRef | undefined {
+  const v = value.trim().toLowerCase()
+  if (!v) return undefined
+  return strata.find(s => s.id === value.trim() || s.code.toLowerCase() === v || s.name.toLowerCase() === v)
+}
+
+/**
+ * Fills the table from a pasted grid, starting at a cell and moving right and
+ * down, adding rows at the end as needed. Returns the new rows and notes on what
+ * could not be taken as given (unknown strata, a skipped header line).
+ */
+export function applyPaste(rows: readonly DraftRow[], startRow: number, startCol: LogColumn, grid: string[][], strata: readonly StratumRef[]): { rows: DraftRow[], notes: string[], filled: number } {
+  const next = rows.map(r => ({ ...r }))
+  const notes: string[] = []
+  const col0 = LOG_COLUMNS.indexOf(startCol)
+  let lines = grid
+  // A header line copied with the data: a depth column whose first cell is not a number while the next is.
+  const depthAt = ['top', 'bottom'].includes(startCol) ? 0 : LOG_COLUMNS.slice(col0).findIndex(c => c === 'top' || c === 'bottom')
+  if (lines.length > 1 && depthAt >= 0) {
+    const first = lines[0]![depthAt] ?? ''
+    const second = lines[1]![depthAt] ?? ''
+    if (first.trim() !== '' && Number.isNaN(parseDepth(first)) && !Number.isNaN(parseDepth(second))) {
+      lines = lines.slice(1)
+      notes.push('Skipped the first pasted line as a header.')
+    }
+  }
+  lines.forEach((cells, i) => {
+    const r = startRow + i
+    while (next.length <= r) next.push(emptyRow())
+    const row = next[r]!
+    cells.forEach((raw, j) => {
+      const col = LOG_COLUMNS[col0 + j]
+      if (!col) return
+      const value = raw.trim()
+      if (col === 'stratumId') {
+        if (!value) { row.stratumId = ''; return }
+        const s = matchStratum(value, strata)
+        if (s) row.stratumId = s.id
+        else notes.push(`Row ${r + 1}: no stratum called “${value}” in this project; left unassigned.`)
+      }
+      else if (col === 'uscs') {
+        row.uscs = value.toUpperCase()
+      }
+      else {
+        row[col] = value
+      }
+    })
+  })
+  const extra = lines.some(cells => cells.length > LOG_COLUMNS.length - col0)
+  if (extra) notes.push(`Pasted cells beyond the ${LOG_COLUMN_LABELS[LOG_COLUMNS[LOG_COLUMNS.length - 1]!]} column were ignored.`)
+  return { rows: next, notes, filled: lines.length }
+}
+
+/** A USCS value the select cannot offer (pasted or imported): shown as it is, flagged by the schema. */
+export function isUnknownUscs(value: string): boolean {
+  return value.trim() !== '' && !isUscsGroupSymbol(value.trim())
+}
+
+/** The saved content of a row, for comparing drafts with the server (ids and versions aside). */
+export function rowContent(r: IntervalPayload | SavedInterval): string {
+  return JSON.stringify([r.top, r.bottom, r.description, r.uscs, r.stratumId, r.moisture, r.consistency])
+}
