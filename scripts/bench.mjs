@@ -3,16 +3,20 @@
 import { spawnSync } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
+import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 const cluster = await ensureCluster({ projectRoot: root, name: 'pg-bench', port: Number(process.env.PASTLOAD_BENCH_DB_PORT ?? 54369), database: 'pastload_bench', fresh: true })
 let status = 1
+let store = null
 try {
+  store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: `s3-bench-${process.pid}`, port: 0, fresh: true })
   buildIfStale(root)
-  status = spawnSync('npx', ['tsx', 'tests/bench/run.ts'], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: cluster.url, NODE_ENV: 'production' } }).status ?? 1
+  status = spawnSync('npx', ['tsx', 'tests/bench/run.ts'], { cwd: root, stdio: 'inherit', env: { ...process.env, ...store?.env, DATABASE_URL: cluster.url, NODE_ENV: 'production' } }).status ?? 1
 }
 finally {
+  store?.stop()
   cluster.stop()
 }
 process.exit(status)

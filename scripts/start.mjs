@@ -5,6 +5,7 @@ import { spawn } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
+import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -15,7 +16,8 @@ async function main() {
   const external = process.env.DATABASE_URL
   const cluster = external ? null : await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_DB_DIR ?? 'pg', port: dbPort, database: 'pastload' })
   const databaseUrl = external ?? cluster.url
-  const stopAll = () => cluster?.stop()
+  const store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: 's3', port: Number(process.env.PASTLOAD_S3_PORT ?? 54331), optional: true })
+  const stopAll = () => { store?.stop(); cluster?.stop() }
 
   try {
     buildIfStale(root)
@@ -31,6 +33,7 @@ async function main() {
     stdio: 'inherit',
     env: {
       ...process.env,
+      ...store?.env,
       DATABASE_URL: databaseUrl,
       PASTLOAD_SEED: process.env.PASTLOAD_SEED ?? 'demo',
       PASTLOAD_MIGRATIONS_DIR: `${root}migrations`,

@@ -6,6 +6,7 @@ import { existsSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
+import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -45,11 +46,14 @@ async function main() {
     fresh: true,
   })
   let ok = false
+  let store = null
   try {
+    store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: `s3-test-${process.pid}`, port: Number(process.env.PASTLOAD_TEST_S3_PORT ?? 0), fresh: true })
     buildIfStale(root)
-    ok = step('vitest (unit, api, e2e)', 'npx', ['vitest', 'run', ...only], { DATABASE_URL: cluster.url })
+    ok = step('vitest (unit, api, e2e)', 'npx', ['vitest', 'run', ...only], { ...store?.env, DATABASE_URL: cluster.url })
   }
   finally {
+    store?.stop()
     cluster.stop()
   }
   return ok ? 0 : 1

@@ -3,16 +3,20 @@
 import { spawnSync } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
+import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 const cluster = await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_TEST_DB_DIR ?? 'pg-test', port: Number(process.env.PASTLOAD_TEST_DB_PORT ?? 54339), database: 'pastload_test', fresh: true })
 let status = 1
+let store = null
 try {
+  store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: `s3-test-${process.pid}`, port: Number(process.env.PASTLOAD_TEST_S3_PORT ?? 0), fresh: true })
   buildIfStale(root)
-  status = spawnSync('npx', ['vitest', 'run', ...process.argv.slice(2)], { cwd: root, stdio: 'inherit', env: { ...process.env, DATABASE_URL: cluster.url } }).status ?? 1
+  status = spawnSync('npx', ['vitest', 'run', ...process.argv.slice(2)], { cwd: root, stdio: 'inherit', env: { ...process.env, ...store?.env, DATABASE_URL: cluster.url } }).status ?? 1
 }
 finally {
+  store?.stop()
   cluster.stop()
 }
 process.exit(status)

@@ -1,6 +1,7 @@
 import { useDb } from '../db/client'
 import { applyMigrations } from '../db/migrate'
 import { seedDemoIfEmpty } from '../services/demo-seed'
+import { seedDemoAttachmentsAfterDemoSeed } from '../services/demo-seed-attachments'
 import { markDatabaseFailed, markDatabaseReady } from '../utils/ready'
 
 // Applies migrations at start; a failing migration stops the server with its error.
@@ -12,6 +13,7 @@ export default defineNitroPlugin(() => {
     if (process.env.PASTLOAD_SEED === 'demo') {
       const seeded = await seedDemoIfEmpty(db)
       console.info(seeded ? '[pastload:db] demo scenario seeded' : '[pastload:db] database has data: demo seed skipped')
+      if (seeded) await seedDemoAttachmentsAfterDemoSeed(db)
     }
   }
   start().then(markDatabaseReady, (err: unknown) => {

@@ -27,6 +27,10 @@ async function main() {
     '| API benchmark | median (ms) | p95 (ms) | calls | goal | met |',
     '|---|---:|---:|---:|---:|:-:|',
     `| POST /api/calc/settlement, 10 layers, 400 sublayers, loopback | ${fmt(api.median)} | ${fmt(api.p95)} | ${api.calls} | median ≤ 5 ms | ${api.median <= 5 ? 'yes' : 'no'} |`,
+    '',
+    '| import benchmark | Pastload (ms) | floor (ms) | ratio | goal | met |',
+    '|---|---:|---:|---:|---:|:-:|',
+    `| CPT CSV, ${api.import.rows.toLocaleString('en')} rows (${(api.import.bytes / 1048576).toFixed(1)} MB): upload + check + write over HTTP vs papaparse + COPY | ${fmt(api.import.ours)} | ${fmt(api.import.floor)} | ${api.import.ratio.toFixed(2)}× | ≤ 2× | ${api.import.ratio <= 2 ? 'yes' : 'no'} |`,
   ]
   const table = lines.join('\n')
   console.log(`\n${table}\n`)

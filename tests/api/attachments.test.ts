@@ -1,0 +1,321 @@
+// Attachments over real HTTP, stored in the test run's object store: content
+// decides the type, photos get thumbnails, downloads are authorised streams,
+// and a store that is down or missing answers 503 while the rest keeps working.
+import { createHash } from 'node:crypto'
+import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
+import sharp from 'sharp'
+import * as XLSX from 'xlsx-republish'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
+import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { startServer, type RunningServer } from '../helpers/server'
+
+interface View {
+  id: string
+  ownerType: string
+  ownerId: string | null
+  filename: string
+  contentType: string
+  kind: string | null
+  size: number
+  sha256: string
+  caption: string
+  uploadedBy: { id: string, displayName: string } | null
+  createdAt: string
+  downloadUrl: string
+  thumbnailUrl: string | null
+}
+interface ErrorBody { message: string, data?: { code?: string, issues?: { path: string }[] } }
+
+const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex')
+
+/** Keys under the project's prefix in the bucket the test servers use. */
+async function storedKeys(projectId: string): Promise<string[]> {
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED = 'true'
+  const s3 = new S3Client({
+    endpoint: process.env.PASTLOAD_S3_ENDPOINT,
+    region: process.env.PASTLOAD_S3_REGION ?? 'us-east-1',
+    forcePathStyle: true,
+    credentials: { accessKeyId: process.env.PASTLOAD_S3_ACCESS_KEY_ID!, secretAccessKey: process.env.PASTLOAD_S3_SECRET_ACCESS_KEY! },
+  })
+  const r = await s3.send(new ListObjectsV2Command({ Bucket: process.env.PASTLOAD_S3_BUCKET!, Prefix: `projects/${projectId}/` }))
+  s3.destroy()
+  return (r.Contents ?? []).map(o => o.Key!).sort()
+}
+
+async function signInOn(server: RunningServer, email: string): Promise<Client> {
+  const c = new Client(server.url)
+  const r = await c.post('/api/auth/login', { email, password: 'pastload-demo-2026' })
+  if (r.status !== 200) throw new Error(`sign-in on the extra server failed: ${r.status}`)
+  return c
+}
+
+describe('attachments', () => {
+  let owner: Client
+  let geo: Client
+  let viewer: Client
+  let outsider: Client
+  let projectId: string
+  let otherProjectId: string
+  let pointId: string
+  let otherPointId: string
+  let otherSampleId: string
+  let base: string
+  let photo: Buffer
+  let pdf: View
+  let png: View
+  let pdfKey: string
+
+  beforeAll(async () => {
+    owner = await signIn(demoEmail('owner'))
+    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATT-${Date.now().toString(36)}`, name: 'Attachment test site' })
+    projectId = p.body.project.id
+    base = `/api/projects/${projectId}/attachments`
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    geo = await signIn(demoEmail('geologist'))
+    const v = await createUser(owner, 'att-viewer')
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: v.email, role: 'viewer' })).status).toBe(201)
+    viewer = v.client
+    outsider = (await createUser(owner, 'att-outsider')).client
+    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A1', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
+    pointId = pt.body.point.id
+
+    const other = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATO-${Date.now().toString(36)}`, name: 'Another site' })
+    otherProjectId = other.body.project.id
+    const op = await owner.post<{ point: { id: string } }>(`/api/projects/${otherProjectId}/points`, { identifier: 'BH-Z9', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
+    otherPointId = op.body.point.id
+    const os = await owner.post<{ sample: { id: string } }>(`/api/projects/${otherProjectId}/points/${otherPointId}/samples`, { identifier: 'U1', top: 4, bottom: 4.45, type: 'thin-walled-tube' })
+    otherSampleId = os.body.sample.id
+    photo = await testPhoto(1000, 600)
+  })
+
+  it('stores a PDF report for the project: type from the content, SHA-256, no thumbnail, no storage key in the answer', async () => {
+    const r = await attach<{ attachment: View }>(geo, projectId, 'LR-03 oedometer.pdf', TINY_PDF, { ownerType: 'project', caption: 'Oedometer report' })
+    expect(r.status).toBe(201)
+    pdf = r.body.attachment
+    expect(pdf).toMatchObject({ ownerType: 'project', ownerId: null, filename: 'LR-03 oedometer.pdf', contentType: 'application/pdf', kind: 'report', size: TINY_PDF.length, sha256: sha256(TINY_PDF), caption: 'Oedometer report', thumbnailUrl: null })
+    expect(pdf.uploadedBy?.displayName).toBe('Ana Ferreira')
+    expect(pdf.downloadUrl).toBe(`${base}/${pdf.id}/download`)
+    const keys = await storedKeys(projectId)
+    expect(keys).toHaveLength(1)
+    expect(keys[0]).toMatch(new RegExp(`^projects/${projectId}/[0-9a-f-]{36}$`))
+    expect(keys[0]).not.toContain('oedometer')
+    pdfKey = keys[0]!
+    expect(JSON.stringify(r.body)).not.toContain(keys[0]!)
+  })
+
+  it('stores a photo of a point with a thumbnail of its own; the download returns the same bytes', async () => {
+    const r = await attach<{ attachment: View }>(geo, projectId, 'box 1.png', photo, { ownerType: 'point', ownerId: pointId, caption: 'Core box 1' })
+    expect(r.status).toBe(201)
+    png = r.body.attachment
+    expect(png).toMatchObject({ ownerType: 'point', ownerId: pointId, contentType: 'image/png', kind: 'photo', size: photo.length, sha256: sha256(photo) })
+    expect(png.thumbnailUrl).toBe(`${base}/${png.id}/thumbnail`)
+    expect(await storedKeys(projectId)).toHaveLength(3)
+
+    const d = await fetchBytes(geo, png.downloadUrl)
+    expect(d.status).toBe(200)
+    expect(d.bytes.equals(photo)).toBe(true)
+    expect(d.headers.get('content-type')).toBe('image/png')
+    expect(d.headers.get('content-disposition')).toBe('attachment; filename="box 1.png"; filename*=UTF-8\'\'box%201.png')
+    expect(d.headers.get('x-content-type-options')).toBe('nosniff')
+
+    const t = await fetchBytes(geo, png.thumbnailUrl!)
+    expect(t.status).toBe(200)
+    expect(t.headers.get('content-type')).toBe('image/jpeg')
+    const meta = await sharp(t.bytes).metadata()
+    expect([meta.format, meta.width, meta.height]).toEqual(['jpeg', 320, 192])
+    expect(t.bytes.length).toBeLessThan(photo.length)
+  })
+
+  it('has no thumbnail for a PDF (404)', async () => {
+    const r = await geo.get<ErrorBody>(`${base}/${pdf.id}/thumbnail`)
+    expect(r.status).toBe(404)
+    expect(r.body.message).toMatch(/no thumbnail/)
+  })
+
+  it('keeps field sheets: CSV and XLSX', async () => {
+    const csv = await attach<{ attachment: View }>(geo, projectId, 'levels.txt', 'point,depth\nBH-A1,1.6\nBH-A1,1.7\n')
+    expect(csv.status).toBe(201)
+    expect([csv.body.attachment.contentType, csv.body.attachment.kind]).toEqual(['text/csv', 'sheet'])
+    const wb = XLSX.utils.book_new()
+    XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([['point', 'depth'], ['BH-A1', 1.6]]), 'Levels')
+    const xlsx = await attach<{ attachment: View }>(geo, projectId, 'levels.xlsx', XLSX.write(wb, { type: 'buffer', bookType: 'xlsx' }) as Buffer)
+    expect(xlsx.status).toBe(201)
+    expect(xlsx.body.attachment.contentType).toBe('application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+    for (const a of [csv.body.attachment, xlsx.body.attachment]) expect((await geo.delete(`${base}/${a.id}`)).status).toBe(200)
+  })
+
+  it('lists by owner, newest first, in pages', async () => {
+    const all = await viewer.get<{ attachments: View[], total: number, limit: number, offset: number }>(base)
+    expect(all.status).toBe(200)
+    expect(all.body.total).toBe(2)
+    expect(all.body.attachments.map(a => a.id)).toEqual([png.id, pdf.id])
+    const projectOnly = await viewer.get<{ attachments: View[], total: number }>(`${base}?ownerType=project`)
+    expect(projectOnly.body.attachments.map(a => a.filename)).toEqual(['LR-03 oedometer.pdf'])
+    const ofPoint = await viewer.get<{ attachments: View[], total: number }>(`${base}?ownerType=point&ownerId=${pointId}`)
+    expect(ofPoint.body.attachments.map(a => a.filename)).toEqual(['box 1.png'])
+    const page2 = await viewer.get<{ attachments: View[], total: number, offset: number }>(`${base}?limit=1&offset=1`)
+    expect([page2.body.total, page2.body.offset, page2.body.attachments.map(a => a.id)]).toEqual([2, 1, [pdf.id]])
+    expect((await viewer.get(`${base}?limit=500`)).status).toBe(400)
+    expect(JSON.stringify(all.body)).not.toMatch(new RegExp(`projects/${projectId}/[0-9a-f]{8}-`))
+  })
+
+  it('refuses a type it does not keep with 422 and a message naming it', async () => {
+    const gif = await attach<ErrorBody>(geo, projectId, 'site.gif', new Uint8Array([0x47, 0x49, 0x46, 0x38, 0x39, 0x61, 1, 0, 1, 0]))
+    expect(gif.status).toBe(422)
+    expect(gif.body.message).toMatch(/^site\.gif is a GIF image/)
+    const html = await attach<ErrorBody>(geo, projectId, 'report.pdf', '<html><script>alert(1)</script></html>')
+    expect(html.status).toBe(422)
+    expect(html.body.data?.code).toBe('wrong-type')
+    const broken = await attach<ErrorBody>(geo, projectId, 'broken.png', photo.subarray(0, 200))
+    expect(broken.status).toBe(422)
+    expect(broken.body.message).toMatch(/starts like a PNG image but could not be read/)
+    expect(await storedKeys(projectId)).toHaveLength(3)
+  })
+
+  it('refuses an empty file with 422', async () => {
+    const r = await attach<ErrorBody>(geo, projectId, 'empty.pdf', new Uint8Array(0))
+    expect(r.status).toBe(422)
+    expect(r.body).toMatchObject({ message: 'empty.pdf is empty (0 bytes).', data: { code: 'empty-file' } })
+  })
+
+  it('refuses a file over 25 MB with 413, with or without a Content-Length', async () => {
+    const big = new Uint8Array(26 * 1024 * 1024).fill(0x25)
+    const r = await attach<ErrorBody>(geo, projectId, 'big.pdf', big)
+    expect(r.status).toBe(413)
+    // Streamed (chunked) so the body-size middleware cannot see its length: the route stops reading at the limit.
+    const boundary = 'pastload-test-boundary'
+    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.4\n`)
+    const chunk = Buffer.alloc(1024 * 1024, 0x20)
+    let sent = 0
+    const body = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        if (sent === 0) controller.enqueue(head)
+        if (sent >= 27) {
+          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
+          controller.close()
+          return
+        }
+        sent += 1
+        controller.enqueue(chunk)
+      },
+    })
+    const res = await fetch(`${geo.base}${base}`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
+    expect(res.status).toBe(413)
+    expect(((await res.json()) as ErrorBody).message).toBe('The file is larger than 25 MB, the limit for an attachment.')
+    expect(await storedKeys(projectId)).toHaveLength(3)
+  })
+
+  it('checks the owner belongs to the project: another project\'s point or sample is 404', async () => {
+    const point = await attach<ErrorBody>(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'point', ownerId: otherPointId })
+    expect(point.status).toBe(404)
+    expect(point.body.message).toBe('The point to attach to was not found in this project.')
+    expect((await attach(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'sample', ownerId: otherSampleId })).status).toBe(404)
+    expect((await attach(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'test', ownerId: '00000000-0000-4000-8000-000000000000' })).status).toBe(404)
+    // The other project's owner can attach to it in its own project.
+    expect((await attach(owner, otherProjectId, 'x.pdf', TINY_PDF, { ownerType: 'sample', ownerId: otherSampleId })).status).toBe(201)
+  })
+
+  it('validates the fields: an owner id for a point, none for the project, a bounded caption', async () => {
+    const noId = await attach<ErrorBody>(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'point' })
+    expect(noId.status).toBe(400)
+    expect(noId.body.data?.issues?.[0]?.path).toBe('ownerId')
+    expect((await attach(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'project', ownerId: pointId })).status).toBe(400)
+    expect((await attach(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'borehole-ish' })).status).toBe(400)
+    expect((await attach(geo, projectId, 'x.pdf', TINY_PDF, { caption: 'c'.repeat(501) })).status).toBe(400)
+  })
+
+  it('answers 404 to a non-member everywhere, so neither the project nor the file can be probed', async () => {
+    expect((await fetchBytes(outsider, pdf.downloadUrl)).status).toBe(404)
+    expect((await fetchBytes(outsider, png.thumbnailUrl!)).status).toBe(404)
+    expect((await outsider.get(base)).status).toBe(404)
+    expect((await attach(outsider, projectId, 'x.pdf', TINY_PDF)).status).toBe(404)
+    // A member asking for another project's attachment through their own project: 404 too.
+    expect((await fetchBytes(geo, `${base}/${pdf.id}/download`.replace(projectId, otherProjectId))).status).toBe(404)
+    expect((await fetchBytes(owner, `/api/projects/${otherProjectId}/attachments/${pdf.id}/download`)).status).toBe(404)
+  })
+
+  it('lets a viewer download but not upload or delete', async () => {
+    const d = await fetchBytes(viewer, pdf.downloadUrl)
+    expect(d.status).toBe(200)
+    expect(d.bytes.toString('latin1')).toBe(TINY_PDF)
+    expect(d.headers.get('content-type')).toBe('application/pdf')
+    expect((await attach(viewer, projectId, 'x.pdf', TINY_PDF)).status).toBe(403)
+    expect((await viewer.delete(`${base}/${pdf.id}`)).status).toBe(403)
+  })
+
+  it('deletes the row and both stored objects, and audits upload and delete without storage keys', async () => {
+    expect(await storedKeys(projectId)).toHaveLength(3)
+    const r = await geo.delete(`${base}/${png.id}`)
+    expect(r.status).toBe(200)
+    expect(await storedKeys(projectId)).toEqual([pdfKey])
+    expect((await fetchBytes(geo, png.downloadUrl)).status).toBe(404)
+    expect((await geo.delete(`${base}/${png.id}`)).status).toBe(404)
+    const list = await geo.get<{ attachments: View[] }>(base)
+    expect(list.body.attachments.map(a => a.id)).toEqual([pdf.id])
+
+    const audit = await owner.get<{ events: { action: string, entity: string, entityId: string, after: unknown, before: unknown }[] }>(`/api/projects/${projectId}/audit?limit=100`)
+    const mine = audit.body.events.filter(e => e.entity === 'attachment' && e.entityId === png.id)
+    expect(mine.map(e => e.action)).toEqual(['delete', 'create'])
+    expect(mine[1]!.after).toMatchObject({ filename: 'box 1.png', sha256: png.sha256, ownerType: 'point', ownerId: pointId })
+    expect(JSON.stringify(audit.body)).not.toMatch(/objectKey|thumbnailKey/)
+  })
+
+  it('seeded the demo project with a lab report, core-box photos and a field sheet', async () => {
+    const demoId = await demoProjectId(owner)
+    const r = await owner.get<{ attachments: View[], total: number }>(`/api/projects/${demoId}/attachments?ownerType=project`)
+    expect(r.status).toBe(200)
+    expect(r.body.attachments.map(a => [a.filename, a.contentType]).sort()).toEqual([
+      ['BH-02 core box 1.png', 'image/png'],
+      ['BH-02 water levels.csv', 'text/csv'],
+      ['LR-0417-03 oedometer tests BH-02 BH-04.pdf', 'application/pdf'],
+    ])
+    const report = r.body.attachments.find(a => a.kind === 'report')!
+    const d = await fetchBytes(owner, report.downloadUrl)
+    expect(d.bytes.subarray(0, 5).toString('latin1')).toBe('%PDF-')
+    expect(sha256(d.bytes)).toBe(report.sha256)
+    const box = r.body.attachments.find(a => a.kind === 'photo')!
+    expect(box.uploadedBy?.displayName).toBe('Ana Ferreira')
+    expect((await fetchBytes(owner, box.thumbnailUrl!)).status).toBe(200)
+    const atPoints = await owner.get<{ total: number }>(`/api/projects/${demoId}/attachments?ownerType=point`)
+    expect(atPoints.body.total).toBe(1)
+  })
+
+  describe('when object storage is down or not configured', () => {
+    let down: RunningServer
+    let bare: RunningServer
+    beforeAll(async () => {
+      down = await startServer({ PASTLOAD_S3_ENDPOINT: 'http://127.0.0.1:9' })
+      bare = await startServer({ PASTLOAD_S3_BUCKET: '' })
+    })
+    afterAll(async () => {
+      await down?.stop()
+      await bare?.stop()
+    })
+
+    it('answers 503 on every attachment route with a plain message, while the rest of the app works', async () => {
+      const c = await signInOn(down, demoEmail('geologist'))
+      const list = await c.get<ErrorBody>(base)
+      expect(list.status).toBe(503)
+      expect(list.body.message).toMatch(/^Object storage is not reachable right now/)
+      const up = await attach<ErrorBody>(c, projectId, 'x.pdf', TINY_PDF)
+      expect(up.status).toBe(503)
+      expect(up.body.data?.code).toBe('storage-unreachable')
+      expect((await fetchBytes(c, pdf.downloadUrl)).status).toBe(503)
+      expect((await c.delete(`${base}/${pdf.id}`)).status).toBe(503)
+      expect((await c.get(`/api/projects/${projectId}`)).status).toBe(200)
+      expect((await c.get(`/api/projects/${projectId}/points`)).status).toBe(200)
+      // Nothing was removed by the failed delete.
+      expect((await fetchBytes(geo, pdf.downloadUrl)).status).toBe(200)
+    })
+
+    it('says storage is not configured when no bucket is set', async () => {
+      const c = await signInOn(bare, demoEmail('geologist'))
+      const list = await c.get<ErrorBody>(base)
+      expect(list.status).toBe(503)
+      expect(list.body.message).toMatch(/object storage is not configured/)
+      expect((await attach(c, projectId, 'x.pdf', TINY_PDF)).status).toBe(503)
+      expect((await c.get('/api/health')).status).toBe(200)
+    })
+  })
+})
