@@ -13,10 +13,10 @@ export async function loadImportFile(projectId: string, importId: string) {
   return file
 }
 
-export function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string) {
+export function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string, previewRows?: number) {
   if (format === 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'An AGS4 file is imported whole; it has no columns to map.' })
   try {
-    return readTable(content, format, filename, sheet)
+    return readTable(content, format, filename, sheet, previewRows)
   }
   catch (err) {
     if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
@@ -26,7 +26,7 @@ export function tableOrThrow(content: Buffer, format: UploadFormat, filename: st
 
 /** Headers, the first rows, and a mapping: the saved one for this target when its columns are all present, else a suggestion. */
 export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string) {
-  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet)
+  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet, PREVIEW_ROWS)
   let mapping: Record<string, string> | null = null
   let mappingSource: 'saved' | 'suggested' | null = null
   if (target) {
@@ -44,7 +44,7 @@ export async function previewTable(projectId: string, file: { content: Buffer, f
     sheets: table.sheets,
     sheet: table.sheet,
     headers: table.headers,
-    rowCount: table.rows.length,
+    rowCount: table.rowCount,
     preview: table.rows.slice(0, PREVIEW_ROWS),
     mapping,
     mappingSource,
