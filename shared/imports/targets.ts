@@ -137,6 +137,9 @@ function parseCell(raw: Cell, type: FieldType): { value: ParsedValue, error?: st
   if (raw === null || raw === undefined || (typeof raw === 'string' && raw.trim() === '')) return { value: null }
   if (type === 'number') {
     if (typeof raw === 'number') return Number.isFinite(raw) ? { value: raw } : { value: null, error: 'is not a finite number' }
+    // Fast path for the usual plain decimal (a CPT file is hundreds of thousands of these).
+    const direct = Number(raw)
+    if (Number.isFinite(direct) && typeof raw === 'string') return { value: direct }
     const text = String(raw).trim().replace(/\s/g, '')
     // A decimal comma is accepted only when there is no other separator (e.g. "1,25").
     const n = Number(/^-?\d+,\d+$/.test(text) ? text.replace(',', '.') : text)
