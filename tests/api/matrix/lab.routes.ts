@@ -1,0 +1,31 @@
+import { testBody } from '../../helpers/lab'
+import { ALL, freshPoint, freshSample, LOG_WRITERS, MODEL_WRITERS, ok, type Ctx, type RouteCase } from './types'
+
+const CPT_BODY = { areaRatio: 0.8, depth: [1.02, 1.04, 1.06], qc: [300, 310, 320], fs: [5, 5, 6], u2: [1, 2, 3] }
+
+/** A fresh oedometer test (owner) on a fresh sample of the matrix project. */
+async function freshTest(ctx: Ctx): Promise<{ id: string, version: number, url: string }> {
+  const s = await freshSample(ctx)
+  const b = await ok(ctx.owner.post<{ test: { id: string, version: number } }>(`/api/projects/${ctx.projectId}/tests/oedometer`, testBody(s.id)))
+  return { ...b.test, url: `/api/projects/${ctx.projectId}/tests/oedometer/${b.test.id}` }
+}
+
+/** Oedometer tests, σ'p adoptions, the σ'p points list and the CPT interpretation. */
+export const ROUTES: RouteCase[] = [
+  { method: 'GET', path: '/api/projects/:projectId/tests/oedometer', allowed: ALL, ok: 200 },
+  { method: 'POST', path: '/api/projects/:projectId/tests/oedometer', allowed: LOG_WRITERS, ok: 201, prepare: async ctx => ({ body: testBody((await freshSample(ctx)).id) }) },
+  { method: 'GET', path: '/api/projects/:projectId/tests/oedometer/:testId', allowed: ALL, ok: 200, prepare: async ctx => ({ path: (await freshTest(ctx)).url }) },
+  { method: 'PATCH', path: '/api/projects/:projectId/tests/oedometer/:testId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const t = await freshTest(ctx); return { path: t.url, body: { label: 'Renamed', version: t.version } } } },
+  { method: 'DELETE', path: '/api/projects/:projectId/tests/oedometer/:testId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshTest(ctx)).url }) },
+  { method: 'GET', path: '/api/projects/:projectId/tests/oedometer/:testId/interpretation', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshTest(ctx)).url}/interpretation` }) },
+  { method: 'GET', path: '/api/projects/:projectId/tests/oedometer/:testId/adoptions', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshTest(ctx)).url}/adoptions` }) },
+  {
+    method: 'POST', path: '/api/projects/:projectId/tests/oedometer/:testId/adoptions', allowed: MODEL_WRITERS, ok: 201,
+    prepare: async ctx => ({ path: `${(await freshTest(ctx)).url}/adoptions`, body: { method: 'typed', value: 80, reason: 'matrix check' } }),
+  },
+  { method: 'GET', path: '/api/projects/:projectId/preconsolidation-points', allowed: ALL, ok: 200 },
+  {
+    method: 'GET', path: '/api/projects/:projectId/points/:pointId/cpt/interpretation', allowed: ALL, ok: 200,
+    prepare: async (ctx) => { const p = await freshPoint(ctx, 'cpt'); await ok(ctx.owner.request('PUT', `${p.url}/cpt`, CPT_BODY), 200); return { path: `${p.url}/cpt/interpretation` } },
+  },
+]
