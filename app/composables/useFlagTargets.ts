@@ -1,0 +1,165 @@
+import type { FlagTarget } from '#shared/review/flags'
+import type { OedometerListItem, PreconsolidationPointRow } from '~/composables/useLabTests'
+import type { IntervalRow, PointDetail } from '~/composables/usePoint'
+import type { PointListItem } from '~/composables/usePoints'
+import type { ReviewFlag } from '~/composables/useReviewFlags'
+
+/** What a flag is about, in words, and where that record lives. */
+export interface FlagTargetInfo {
+  text: string
+  detail: string
+  to: string | null
+}
+
+export function flagTargetKey(type: FlagTarget, id: string): string {
+  return `${type}|${id}`
+}
+
+/** Points fetched at a time while looking for the holes that own flagged intervals. */
+const BATCH = 6
+
+function kPa(v: number): string {
+  return `${Math.abs(v) >= 10 ? Math.round(v) : v.toFixed(1)} kPa`
+}
+function metres(v: number): string {
+  return `${v.toFixed(2)} m`
+}
+function clip(text: string, n = 110): string {
+  const t = text.trim()
+  return t.length > n ? `${t.slice(0, n - 1)}…` : t
+}
+
+/**
+ * Describes flagged records for the review list ("Log interval · BH-02 3.25–6.90 m")
+ * with a link to their page. It reads only the sources the flags need (lab tests,
+ * σ'p points, the points list and the logs of the holes concerned), once each,
+ * in the browser; the lab lists are also what the reviewer picks new targets from.
+ */
+export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<readonly ReviewFlag[]>) {
+  const info = shallowRef(new Map<string, FlagTargetInfo>())
+  const describing = ref(false)
+  const tests = shallowRef<OedometerListItem[] | null>(null)
+  const sigma = shallowRef<PreconsolidationPointRow[] | null>(null)
+  let points: PointListItem[] | null = null
+  const details = new Map<string, PointDetail>()
+  const owners = new Map<string, { point: PointListItem, interval: IntervalRow }>()
+
+  const base = () => `/api/projects/${toValue(projectId)}`
+
+  async function loadTests() {
+    tests.value ??= (await api<{ tests: OedometerListItem[] }>(`${base()}/tests/oedometer?limit=500`)).tests
+    return tests.value
+  }
+  async function loadSigma() {
+    sigma.value ??= (await api<{ points: PreconsolidationPointRow[] }>(`${base()}/preconsolidation-points`)).points
+    return sigma.value
+  }
+  async function loadPoints() {
+    if (points) return points
+    const all: PointListItem[] = []
+    for (let offset = 0; ; offset += 500) {
+      const page = await api<{ points: PointListItem[] }>(`${base()}/points?limit=500&offset=${offset}`)
+      all.push(...page.points)
+      if (page.points.length < 500) break
+    }
+    points = all
+    return all
+  }
+  /** Reads logs hole by hole (boreholes and pits first) until every wanted interval has its hole. */
+  async function findIntervals(wanted: Set<string>) {
+    const missing = () => [...wanted].filter(id => !owners.has(id))
+    if (!missing().length) return
+    const list = await loadPoints()
+    const order = [...list].sort((a, b) => Number(a.kind === 'cpt') - Number(b.kind === 'cpt') || a.identifier.localeCompare(b.identifier))
+    const todo = order.filter(p => !details.has(p.id))
+    for (let i = 0; i < todo.length && missing().length; i += BATCH) {
+      const batch = todo.slice(i, i + BATCH)
+      const got = await Promise.all(batch.map(p => api<PointDetail>(`${base()}/points/${p.id}`).catch(() => null)))
+      got.forEach((d, k) => {
+        if (!d) return
+        const p = batch[k]!
+        details.set(p.id, d)
+        for (const iv of d.intervals) owners.set(iv.id, { point: p, interval: iv })
+      })
+    }
+  }
+
+  function describe(f: ReviewFlag): FlagTargetInfo {
+    const pid = toValue(projectId)
+    const dataPage = `/projects/${pid}/preconsolidation`
+    if (f.targetType === 'log-interval') {
+      const o = owners.get(f.targetId)
+      if (!o) return { text: 'Log interval · no longer in the log', detail: 'The interval was changed or removed after it was flagged.', to: null }
+      const iv = o.interval
+      return {
+        text: `Log interval · ${o.point.identifier} ${iv.top.toFixed(2)}–${metres(iv.bottom)}`,
+        detail: clip([iv.uscs, iv.description].filter(Boolean).join(' · ')),
+        to: `/projects/${pid}/points/${o.point.id}`,
+      }
+    }
+    if (f.targetType === 'oedometer-test') {
+      const t = tests.value?.find(x => x.id === f.targetId)
+      if (!t) return { text: 'Oedometer test · no longer in the project', detail: '', to: null }
+      const quality = t.reading.qualityClass ? `${qualityLabel(t.reading.qualityClass)} sample quality` : 'Sample quality not assessed'
+      return {
+        text: `Oedometer test ${t.label} · ${t.point.identifier} ${metres(t.depth)}`,
+        detail: `Sample ${t.sample.identifier} · ${quality} · ${t.adoption ? `σ'p ${kPa(t.adoption.value)} adopted` : 'no σ\'p adopted'}`,
+        to: `/projects/${pid}/tests/oedometer/${t.id}`,
+      }
+    }
+    const p = sigma.value?.find(x => x.id === f.targetId)
+    if (f.targetType === 'preconsolidation-point') {
+      if (!p) return { text: 'σ\'p point · an adoption since replaced', detail: 'The engineer adopted another value for this test after the flag was raised.', to: dataPage }
+      return {
+        text: `σ'p point · ${p.pointIdentifier} ${metres(p.depth)} · ${pointMethodLabel(p.method)} ${kPa(p.preconsolidation)}`,
+        detail: [p.stratumCode ? `Stratum ${p.stratumCode}` : '', p.qualityClass ? `${qualityLabel(p.qualityClass)} sample quality` : ''].filter(Boolean).join(' · '),
+        to: dataPage,
+      }
+    }
+    if (f.targetType === 'cpt-point') {
+      if (p) return { text: `CPT σ'p · ${p.pointIdentifier} ${metres(p.depth)} · ${kPa(p.preconsolidation)}`, detail: p.stratumCode ? `Stratum ${p.stratumCode} · k·qnet` : 'k·qnet', to: dataPage }
+      const m = /^cpt:([0-9a-f-]{36}):(\d+)$/i.exec(f.targetId)
+      const point = m ? points?.find(x => x.id === m[1]) : undefined
+      return { text: `CPT σ'p · ${point?.identifier ?? 'a sounding'} ${m ? metres(Number(m[2]) / 1000) : ''}`.trim(), detail: 'Not among the current resampled points (the spacing or the sounding changed).', to: point ? `/projects/${pid}/points/${point.id}` : dataPage }
+    }
+    if (p) return { text: `Field vane σ'p · ${p.pointIdentifier} ${metres(p.depth)} · ${kPa(p.preconsolidation)}`, detail: pointMethodLabel(p.method), to: dataPage }
+    return { text: 'Field vane σ\'p · reading no longer recorded', detail: '', to: null }
+  }
+
+  async function resolve() {
+    if (import.meta.server) return
+    const list = flags.value
+    if (!list.length) {
+      info.value = new Map()
+      return
+    }
+    describing.value = true
+    try {
+      const types = new Set(list.map(f => f.targetType))
+      await Promise.all([
+        types.has('oedometer-test') ? loadTests() : null,
+        types.has('preconsolidation-point') || types.has('cpt-point') || types.has('vane-reading') ? loadSigma() : null,
+        types.has('cpt-point') ? loadPoints() : null,
+        types.has('log-interval') ? findIntervals(new Set(list.filter(f => f.targetType === 'log-interval').map(f => f.targetId))) : null,
+      ])
+    }
+    catch {
+      // A source that cannot be read leaves its flags with the plain fallback wording.
+    }
+    finally {
+      describing.value = false
+    }
+    info.value = new Map(list.map(f => [flagTargetKey(f.targetType, f.targetId), describe(f)]))
+  }
+
+  onMounted(() => void resolve())
+  watch(flags, () => void resolve())
+
+  /** Lab records a reviewer can flag from the review page. */
+  async function labTargets() {
+    const [t, s] = await Promise.all([loadTests(), loadSigma()])
+    return { tests: t, adoptions: s.filter(p => p.source === 'oedometer') }
+  }
+
+  return { info, describing, labTargets }
+}

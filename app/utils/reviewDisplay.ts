@@ -1,0 +1,91 @@
+import { FLAG_VERDICTS, VERDICT_LABELS, type FlagTarget, type FlagVerdict } from '#shared/review/flags'
+
+/**
+ * How Pastload shows a reviewer's verdict: a short word, a ring glyph in the
+ * verdict's colour (the same rings the σ'p canvas draws around flagged points:
+ * a slash for "kept out of fits", a broken ring for "questionable", a tick for
+ * "accepted") and the badge colours.
+ */
+export interface VerdictLook {
+  /** The word on a badge. */
+  short: string
+  /** What choosing it does, as the flag dialog explains it. */
+  means: string
+  colour: string
+  badge: string
+}
+
+export const VERDICT_LOOKS: Record<FlagVerdict, VerdictLook> = {
+  exclude: {
+    short: 'Out of fits',
+    means: 'Drawn on every plot but left out of the σ\'p trend fits while the flag is open.',
+    colour: '#c0392b',
+    badge: 'bg-alert-50 text-alert-700 border-alert-500',
+  },
+  questionable: {
+    short: 'Questioned',
+    means: 'Needs a second look. It stays in the fits; the people who made it are asked to answer.',
+    colour: '#ab621c',
+    badge: 'bg-ochre-50 text-ochre-800 border-ochre-400',
+  },
+  accepted: {
+    short: 'Accepted',
+    means: 'Checked and sound as it stands, recorded so the check is not repeated.',
+    colour: '#216641',
+    badge: 'bg-good-50 text-good-700 border-good-500',
+  },
+}
+
+/** Dialog and filter order: the everyday verdict first. */
+export const VERDICT_ORDER: readonly FlagVerdict[] = ['questionable', 'exclude', 'accepted']
+
+/** Strength for markers: an exclusion outranks a question, which outranks an acceptance. */
+const VERDICT_RANK: Record<FlagVerdict, number> = { exclude: 3, questionable: 2, accepted: 1 }
+
+export function strongestVerdict(verdicts: readonly FlagVerdict[]): FlagVerdict | null {
+  let best: FlagVerdict | null = null
+  for (const v of verdicts) if (!best || VERDICT_RANK[v] > VERDICT_RANK[best]) best = v
+  return best
+}
+
+export function isVerdict(v: unknown): v is FlagVerdict {
+  return typeof v === 'string' && (FLAG_VERDICTS as readonly string[]).includes(v)
+}
+
+export function verdictLabel(v: FlagVerdict): string {
+  return VERDICT_LABELS[v]
+}
+
+export const TARGET_LABELS: Record<FlagTarget, string> = {
+  'preconsolidation-point': 'σ\'p point (lab)',
+  'oedometer-test': 'Oedometer test',
+  'log-interval': 'Log interval',
+  'cpt-point': 'CPT σ\'p',
+  'vane-reading': 'Field vane σ\'p',
+}
+
+/**
+ * The verdict glyph as SVG markup in a 14 × 14 box centred on 0,0 (our own
+ * constant strings, safe for v-html).
+ */
+export function verdictGlyph(v: FlagVerdict): string {
+  const c = VERDICT_LOOKS[v].colour
+  const ring = (dash: string) => `<circle r="5.2" fill="#fff" stroke="${c}" stroke-width="1.7"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`
+  if (v === 'exclude') return `${ring('')}<path d="M-3.4,3.4L3.4,-3.4" stroke="${c}" stroke-width="1.7" stroke-linecap="round"/>`
+  if (v === 'questionable') return `${ring('2.6 1.5')}<circle r="1.6" fill="${c}"/>`
+  return `${ring('')}<path d="M-2.6,0.2L-0.7,2.2L2.8,-2" fill="none" stroke="${c}" stroke-width="1.7" stroke-linecap="round" stroke-linejoin="round"/>`
+}
+
+export function flagDate(iso: string | null | undefined): string {
+  if (!iso) return ''
+  const d = new Date(iso)
+  if (Number.isNaN(d.getTime())) return ''
+  return d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })
+}
+
+export function flagDateTime(iso: string | null | undefined): string {
+  if (!iso) return ''
+  const d = new Date(iso)
+  if (Number.isNaN(d.getTime())) return ''
+  return `${flagDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`
+}
