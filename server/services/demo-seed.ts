@@ -33,7 +33,7 @@ export async function seedDemoIfEmpty(db: Database): Promise<boolean> {
     await recordAudit({ actorId: admin.id, projectId: project!.id, action: 'create', entity: 'project', entityId: project!.id, after: { seeded: 'demo' } }, tx)
     // The investigation, generated deterministically from the scenario's ground model.
     const investigation = generateDemoInvestigation()
-    const written = await writeInvestigation(tx, project!.id, investigation)
+    const written = await writeInvestigation(tx, project!.id, investigation, new Map(), { oedometer: false })
     await seedDemoLab(tx, project!.id, investigation, written.sampleIds, people.find(p => p.email === DEMO_PEOPLE.find(d => d.role === 'engineer')!.email)!.id)
     await recordAudit({ actorId: people.find(p => p.email === DEMO_PEOPLE.find(d => d.role === 'geologist')!.email)!.id, projectId: project!.id, action: 'import', entity: 'investigation', after: { seeded: 'demo', points: investigation.points.length } }, tx)
   })

@@ -1,5 +1,5 @@
 import type { InvestigationRecord } from '#shared/investigation/types'
-import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings } from '../db/schema'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
 import type { Tx } from './audit'
 
 const CHUNK = 1000
@@ -12,9 +12,11 @@ async function inChunks<T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>) 
  * Writes a whole investigation (strata, points and everything logged at them)
  * into a project inside the caller's transaction: used by the demo seed and the
  * AGS4 import. Strata already in the project with the same code are reused.
+ * Oedometer tests on samples are written too (stages as void ratios), unless
+ * `oedometer: false` (the demo seed writes its own, with time readings).
  * Returns the ids it created, by identifier, for callers that add more.
  */
-export async function writeInvestigation(tx: Tx, projectId: string, data: InvestigationRecord, existingStrata: Map<string, string> = new Map()) {
+export async function writeInvestigation(tx: Tx, projectId: string, data: InvestigationRecord, existingStrata: Map<string, string> = new Map(), options: { oedometer?: boolean } = {}) {
   const strataIds = new Map(existingStrata)
   const newStrata = data.strata.filter(s => !strataIds.has(s.code))
   if (newStrata.length) {
@@ -51,6 +53,24 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
     rows.forEach((r, i) => sampleIds.set(`${sampleList[i]!.p.identifier}/${sampleList[i]!.s.identifier}`, r.id))
     const idx = sampleList.flatMap(({ p, s }) => (s.index ? [{ ...s.index, sampleId: sampleIds.get(`${p.identifier}/${s.identifier}`)! }] : []))
     await inChunks(idx, c => tx.insert(indexTests).values(c))
+    if (options.oedometer ?? true) {
+      const tests = sampleList.flatMap(({ p, s }) => (s.oedometer
+        ? [{
+            sampleId: sampleIds.get(`${p.identifier}/${s.identifier}`)!,
+            label: `${s.identifier} oedometer`,
+            testType: s.oedometer.testType,
+            // The interchange model gives the height in m; tests store mm.
+            specimenHeight: Math.round(s.oedometer.specimenHeight * 1000 * 1000) / 1000,
+            initialWaterContent: s.oedometer.initialWaterContent,
+            specificGravity: s.oedometer.specificGravity,
+            e0: s.oedometer.e0,
+            convention: 'void-ratio' as const,
+            stages: s.oedometer.stages.map(st => ({ stress: st.stress, entered: st.voidRatio, voidRatio: st.voidRatio })),
+            remarks: s.oedometer.remarks,
+          }]
+        : []))
+      await inChunks(tests, c => tx.insert(oedometerTests).values(c))
+    }
   }
   await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: pointIds.get(p.identifier)!, depth: s.depth, blows: [...s.blows], n: s.n }))), c => tx.insert(sptResults).values(c))
   await inChunks(data.points.flatMap(p => p.groundwater.map(g => ({ ...g, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(groundwaterObservations).values(c))

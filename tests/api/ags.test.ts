@@ -41,6 +41,12 @@ describe('AGS4 export and import', () => {
     const db = await one(p.body.project.id, b.body.points)
     expect(db.intervals.map(i => [i.top, i.bottom, i.uscs, i.description])).toEqual(da.intervals.map(i => [i.top, i.bottom, i.uscs, i.description]))
     expect(db.samples.map(s => [s.identifier, s.top, s.index?.liquidLimit ?? null])).toEqual(da.samples.map(s => [s.identifier, s.top, s.index?.liquidLimit ?? null]))
+    // Oedometer tests travel in CONG/CONS and come back with their stages.
+    const tests = async (projectId: string) => (await owner.get<{ tests: { sample: { identifier: string }, point: { identifier: string }, e0: number, stageCount: number }[] }>(`/api/projects/${projectId}/tests/oedometer?limit=100`)).body.tests
+      .map(t => [t.point.identifier, t.sample.identifier, t.e0, t.stageCount]).sort()
+    const ta = await tests(demo)
+    expect(ta.length).toBe(14)
+    expect(await tests(p.body.project.id)).toEqual(ta)
   })
 
   it('refuses the example file with the deliberate logging errors at their GEOL lines, and writes nothing', async () => {
