@@ -6,42 +6,9 @@ import { createStressEvaluator } from '#shared/geotech/stress'
 import type { InvestigationRecord, OedometerTestRecord } from '#shared/investigation/types'
 import { specimenHeightAt } from '#shared/lab/stages'
 import { toStressInput } from '#shared/site-model/convert'
-import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
 import { oedometerTests, preconsolidationAdoptions, type OedometerStageJson } from '../db/schema'
 import { recordAudit, type Tx } from './audit'
-
-/**
- * The stress model the interpretation pages use while a project has no site model
- * (`definitionFromLogs` in ./site-models), built from the record itself: the seed's rows are not
- * visible outside its transaction yet. Same rule: each stratum at its mean logged thickness over
- * the holes that log it, unit weights from the strata list, the water table at the median
- * standing level, hydrostatic below it.
- */
-export function demoDefinitionFromRecord(record: InvestigationRecord): SiteModelDefinition {
-  const perHole = new Map<string, Map<string, number>>()
-  for (const p of record.points) {
-    for (const iv of p.intervals) {
-      if (!iv.stratumCode) continue
-      const m = perHole.get(iv.stratumCode) ?? new Map<string, number>()
-      m.set(p.identifier, (m.get(p.identifier) ?? 0) + (iv.bottom - iv.top))
-      perHole.set(iv.stratumCode, m)
-    }
-  }
-  const ordered = [...record.strata].sort((a, b) => a.displayOrder - b.displayOrder || a.code.localeCompare(b.code))
-  const levels = record.points.flatMap(p => p.groundwater.filter(g => g.kind === 'standing' && g.depth !== null).map(g => g.depth!)).sort((a, b) => a - b)
-  return {
-    schemaVersion: SITE_MODEL_SCHEMA_VERSION,
-    surcharge: 0,
-    gammaW: 9.81,
-    groundwater: { waterTableDepth: levels.length ? levels[Math.floor(levels.length / 2)]! : 1, piezometers: [] },
-    strata: ordered.map((s) => {
-      const t = [...(perHole.get(s.code)?.values() ?? [])]
-      const thickness = t.length ? t.reduce((a, b) => a + b, 0) / t.length : 1
-      return { code: s.code, name: s.name, thickness: Math.round(thickness * 100) / 100, unitWeight: s.unitWeight, unitWeightSaturated: s.unitWeightSaturated, compressible: false, cptFactor: 0.33 }
-    }),
-    flagsInForce: [],
-  }
-}
+import { definitionFromLogs } from './site-models'
 
 /** A common laboratory reading schedule for one 24 h stage, minutes (common practice). */
 const READING_MINUTES = [0, 0.1, 0.25, 0.5, 1, 2, 4, 8, 15, 30, 60, 120, 240, 480, 1440]
@@ -95,7 +62,8 @@ export function demoTimeReadings(oed: OedometerTestRecord, heightMm: number, str
  * while the project has no site model.
  */
 export async function seedDemoLab(tx: Tx, projectId: string, investigation: InvestigationRecord, sampleIds: Map<string, string>, adopterId: string): Promise<{ tests: number, adoptions: number }> {
-  const stressAt = createStressEvaluator(toStressInput(demoDefinitionFromRecord(investigation)))
+  // The model the pages use while the project has no site model, built from the rows just written.
+  const stressAt = createStressEvaluator(toStressInput(await definitionFromLogs(projectId, tx)))
   let adoptions = 0
   for (const [n, plan] of DEMO_OEDOMETER_PLAN.entries()) {
     const sample = plannedOedometerSample(investigation, plan)

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray } from 'drizzle-orm'
 import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
-import { useDb } from '../db/client'
+import { type Database, useDb } from '../db/client'
+import type { Tx } from './audit'
 import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
 
 export type SiteModelRow = typeof siteModels.$inferSelect
@@ -10,8 +11,7 @@ export type SiteModelRow = typeof siteModels.$inferSelect
  * order, each as thick as its mean logged thickness, unit weights from the
  * strata list, and the water table at the median standing level.
  */
-export async function definitionFromLogs(projectId: string): Promise<SiteModelDefinition> {
-  const db = useDb()
+export async function definitionFromLogs(projectId: string, db: Database | Tx = useDb()): Promise<SiteModelDefinition> {
   const strataRows = await db.select().from(strata).where(eq(strata.projectId, projectId)).orderBy(asc(strata.displayOrder), asc(strata.code))
   const points = await db.select({ id: investigationPoints.id }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
   const ids = points.map(p => p.id)

@@ -7,9 +7,8 @@ import { degreeOfConsolidation } from '../../shared/geotech/consolidation'
 import { createStressEvaluator } from '../../shared/geotech/stress'
 import { cptPointId } from '../../shared/review/flags'
 import { toStressInput } from '../../shared/site-model/convert'
-import { demoDefinitionFromRecord } from '../../server/services/demo-seed-lab'
 import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
-import { asDial, bilinearCurve, DOUBLING, ESTUARINE, testBody } from '../helpers/lab'
+import { asDial, bilinearCurve, demoDefinitionFromRecord, DOUBLING, ESTUARINE, testBody } from '../helpers/lab'
 
 interface TestJson {
   id: string

@@ -1,3 +1,5 @@
+import type { InvestigationRecord } from '../../shared/investigation/types'
+import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '../../shared/site-model/definition'
 // Synthetic oedometer curves for the lab API tests: the textbook bilinear e–log10 σ' idealisation
 // (Terzaghi & Peck; common practice), e = e0 − Cr·log10(σ'/σ's) below σ'p and a further
 // −Cc·log10(σ'/σ'p) beyond it, so the σ'p every construction aims at is known.
@@ -36,3 +38,38 @@ export function testBody(sampleId: string, label = 'OED-T1'): { sampleId: string
     stages: bilinearCurve(ESTUARINE, 80).map(p => ({ stress: p.stress, value: p.voidRatio })),
   }
 }
+
+/**
+ * The stress model the interpretation pages use while a project has no site model
+ * (`definitionFromLogs` in ./site-models), built from the record itself: the seed's rows are not
+ * visible outside its transaction yet. Same rule: each stratum at its mean logged thickness over
+ * the holes that log it, unit weights from the strata list, the water table at the median
+ * standing level, hydrostatic below it.
+ */
+/** An independent rebuild of the logs-derived stress model from the demo record (the test's oracle). */
+export function demoDefinitionFromRecord(record: InvestigationRecord): SiteModelDefinition {
+  const perHole = new Map<string, Map<string, number>>()
+  for (const p of record.points) {
+    for (const iv of p.intervals) {
+      if (!iv.stratumCode) continue
+      const m = perHole.get(iv.stratumCode) ?? new Map<string, number>()
+      m.set(p.identifier, (m.get(p.identifier) ?? 0) + (iv.bottom - iv.top))
+      perHole.set(iv.stratumCode, m)
+    }
+  }
+  const ordered = [...record.strata].sort((a, b) => a.displayOrder - b.displayOrder || a.code.localeCompare(b.code))
+  const levels = record.points.flatMap(p => p.groundwater.filter(g => g.kind === 'standing' && g.depth !== null).map(g => g.depth!)).sort((a, b) => a - b)
+  return {
+    schemaVersion: SITE_MODEL_SCHEMA_VERSION,
+    surcharge: 0,
+    gammaW: 9.81,
+    groundwater: { waterTableDepth: levels.length ? levels[Math.floor(levels.length / 2)]! : 1, piezometers: [] },
+    strata: ordered.map((s) => {
+      const t = [...(perHole.get(s.code)?.values() ?? [])]
+      const thickness = t.length ? t.reduce((a, b) => a + b, 0) / t.length : 1
+      return { code: s.code, name: s.name, thickness: Math.round(thickness * 100) / 100, unitWeight: s.unitWeight, unitWeightSaturated: s.unitWeightSaturated, compressible: false, cptFactor: 0.33 }
+    }),
+    flagsInForce: [],
+  }
+}
+
