@@ -75,6 +75,10 @@ describe('the reviewer\'s tools in Chromium', () => {
     await dialog.getByLabel('Reason (required)').fill(REASON)
     await screenshot(page, 'review-flag-dialog')
     await dialog.getByTestId('flag-submit').click()
+    // Either the dialog closes or it says why it could not save: fail with the server's words.
+    const formError = dialog.getByTestId('flag-form-error')
+    await Promise.race([dialog.waitFor({ state: 'hidden' }), formError.waitFor()])
+    expect(await formError.count(), await formError.textContent().catch(() => '')).toBe(0)
     await dialog.waitFor({ state: 'hidden' })
 
     const badge = rowOf(page, target).getByTestId('review-badge')
