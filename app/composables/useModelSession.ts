@@ -1,0 +1,144 @@
+import { SiteModelDefinitionSchema, type SiteModelDefinition } from '#shared/site-model/definition'
+import { useModelEditorStore } from '~/stores/modelEditor'
+import type { WorkspaceEditor } from '~/composables/useTrendFits'
+import { diffDefinitions, type DefinitionChange } from '~/utils/siteModelEdits'
+import type { SiteModelRow } from '~/composables/useModel'
+
+export interface DraftConflict {
+  theirs: SiteModelRow
+  changes: DefinitionChange[]
+  /** Which request met the conflict. */
+  during: 'draft' | 'version'
+}
+
+/**
+ * The editing session of a model page: loads the server's draft into the editor
+ * store, saves the draft (PUT with the revision read; a 409 shows theirs against
+ * yours), saves a version (the draft first when it has unsaved edits), and binds
+ * Ctrl+Z / Ctrl+Shift+Z (Ctrl+Y) to undo and redo.
+ */
+export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>, options: { active?: () => boolean } = {}) {
+  const store = useModelEditorStore()
+  const saving = ref<'draft' | 'version' | null>(null)
+  const error = ref('')
+  const issues = ref<{ path: string, message: string }[]>([])
+  const notice = ref('')
+  const conflict = shallowRef<DraftConflict | null>(null)
+  const base = () => modelUrl(toValue(projectId), toValue(modelId))
+
+  function start(model: SiteModelRow) {
+    if (store.modelId === model.id && store.draft) return
+    store.load(model.id, model.draft, model.version)
+  }
+
+  const editor = computed((): WorkspaceEditor | null => (store.draft && !store.recovery
+    ? { edit: store.edit, startGesture: store.startGesture, pendingExcluded: () => store.pendingExcluded, current: () => store.draft! }
+    : null))
+
+  /** The draft checked against the schema the server validates with, before it is sent. */
+  function check(d: SiteModelDefinition): boolean {
+    const parsed = SiteModelDefinitionSchema.safeParse(d)
+    if (parsed.success) { issues.value = []; return true }
+    issues.value = parsed.error.issues.map(i => ({ path: i.path.join('.'), message: i.message }))
+    error.value = 'The draft is not complete yet:'
+    return false
+  }
+
+  function handleConflict(err: unknown, during: 'draft' | 'version', mine: SiteModelDefinition): boolean {
+    const e = err as { statusCode?: number, data?: { data?: { current?: SiteModelRow } } }
+    const current = e.data?.data?.current
+    if (e.statusCode !== 409 || !current) return false
+    conflict.value = { theirs: current, changes: diffDefinitions(current.draft, mine), during }
+    return true
+  }
+
+  async function saveDraft(): Promise<boolean> {
+    const d = store.draft
+    if (!d) return false
+    error.value = ''
+    notice.value = ''
+    if (!check(d)) return false
+    saving.value = 'draft'
+    try {
+      const { model } = await api<{ model: SiteModelRow }>(`${base()}/draft`, { method: 'PUT', body: { draft: d, version: store.revision } })
+      store.markSaved(d, model.version)
+      notice.value = 'Draft saved.'
+      return true
+    }
+    catch (err) {
+      if (!handleConflict(err, 'draft', d)) {
+        error.value = apiErrorMessage(err)
+        issues.value = apiErrorIssues(err)
+      }
+      return false
+    }
+    finally {
+      saving.value = null
+    }
+  }
+
+  /** Saves the draft as the next version; returns its number. */
+  async function saveVersion(message: string): Promise<number | null> {
+    if (!store.draft) return null
+    if (message.trim().length < 3) {
+      error.value = 'Say what changed in this version (3 characters or more).'
+      return null
+    }
+    if (store.dirty && !(await saveDraft())) return null
+    error.value = ''
+    saving.value = 'version'
+    try {
+      const { version } = await api<{ version: { version: number } }>(`${base()}/versions`, { method: 'POST', body: { message: message.trim(), version: store.revision } })
+      // Saving a version bumps the draft's revision on the server; the content is unchanged.
+      store.markRevision(store.revision + 1)
+      notice.value = `Version ${version.version} saved.`
+      return version.version
+    }
+    catch (err) {
+      if (!handleConflict(err, 'version', store.draft)) error.value = apiErrorMessage(err)
+      return null
+    }
+    finally {
+      saving.value = null
+    }
+  }
+
+  /** Keeps your draft: their revision becomes the base and yours is saved over it. */
+  async function keepMine() {
+    const c = conflict.value
+    if (!c) return
+    conflict.value = null
+    store.rebaseOnto(c.theirs.draft, c.theirs.version)
+    await saveDraft()
+  }
+
+  /** Takes their draft (undo brings yours back). */
+  function takeTheirs() {
+    const c = conflict.value
+    if (!c) return
+    conflict.value = null
+    store.takeTheirs(c.theirs.draft, c.theirs.version)
+    notice.value = 'Their draft is open; Undo brings yours back.'
+  }
+
+  function onKey(e: KeyboardEvent) {
+    if (!(e.ctrlKey || e.metaKey) || !editor.value || options.active?.() === false) return
+    const t = e.target as HTMLElement | null
+    // Typing fields keep their own undo.
+    if (t && (t.tagName === 'INPUT' || t.tagName === 'TEXTAREA' || t.isContentEditable)) return
+    const k = e.key.toLowerCase()
+    if (k === 'z' && !e.shiftKey) { e.preventDefault(); store.undo() }
+    else if ((k === 'z' && e.shiftKey) || k === 'y') { e.preventDefault(); store.redo() }
+  }
+  onMounted(() => window.addEventListener('keydown', onKey))
+  onBeforeUnmount(() => window.removeEventListener('keydown', onKey))
+
+  // Leaving with edits that only live on this device: the browser asks first.
+  function onBeforeUnload(e: BeforeUnloadEvent) {
+    if (store.dirty && !store.lastLocalWrite) e.preventDefault()
+  }
+  onMounted(() => window.addEventListener('beforeunload', onBeforeUnload))
+  onBeforeUnmount(() => window.removeEventListener('beforeunload', onBeforeUnload))
+
+  return { store, editor, start, saving, error, issues, notice, conflict, saveDraft, saveVersion, keepMine, takeTheirs }
+}

@@ -1,0 +1,118 @@
+import * as d3 from 'd3'
+import type { ModelWorkspace } from '~/composables/useModelWorkspace'
+import { modelBase } from '~/utils/siteModelEdits'
+import { engineerExcluded, sampleTrend, stressAt, type PointState, type SigmaPoint, type TrendSample } from '~/utils/stressHistory'
+
+export type Verdict = 'exclude' | 'questionable' | 'accepted'
+
+/** A σ'p point where the stress track draws it (px in the track's own x, the drawing's y). */
+export interface PointMark { p: SigmaPoint, px: number, py: number, state: PointState, band: number, verdict: Verdict | null }
+
+/** A point's OCR or POP, in the ratio tracks' own x. */
+export interface RatioMark { ocr: number, pop: number, cy: number, ocrX: number, popX: number }
+
+const VERDICT_ORDER: readonly Verdict[] = ['exclude', 'questionable', 'accepted']
+
+/**
+ * The x scales of the value tracks and where every σ'p point sits on them, for
+ * the canvas that draws the points, the stress track's hit testing and the
+ * exported drawing. Computed once per change of zoom, data or draft.
+ */
+export function usePointMarks(ws: ModelWorkspace, widths: () => { stress: number, ocr: number, pop: number }, stressMax: () => number | null) {
+  /** Stress axis: automatic from σv at the base and the bulk of the σ'p points, or the engineer's maximum. */
+  const stressScale = computed(() => {
+    let hi = stressMax()
+    if (hi === null) {
+      const base = modelBase(ws.definition.value)
+      const sv = ws.profile.value.reduce((m, p) => Math.max(m, p.totalStress), 0)
+      const inModel = ws.points.value.filter(p => p.depth <= base).map(p => p.preconsolidation).sort((a, b) => a - b)
+      const q = inModel.length ? d3.quantileSorted(inModel, 0.8) ?? 0 : 0
+      hi = Math.max(100, sv * 1.1, q * 1.15)
+    }
+    return d3.scaleLinear().domain([0, hi]).nice(5).range([0, widths().stress])
+  })
+
+  /** Each stratum's trend sampled within it, with OCR and POP (shared by the ratio tracks). */
+  const trendSamples = computed((): { band: number, samples: TrendSample[] }[] => ws.definition.value.strata
+    .map((_s, i) => ({ band: i, samples: sampleTrend(ws.definition.value, i, ws.profile.value) }))
+    .filter(l => l.samples.length))
+
+  const ocrScale = computed(() => {
+    const values = trendSamples.value.flatMap(l => l.samples.map(s => s.ocr))
+    const hi = Math.min(12, Math.max(3, ...values) * 1.1)
+    return d3.scaleLinear().domain([0, hi]).nice(3).range([4, widths().ocr - 4])
+  })
+  const popScale = computed(() => {
+    const values = trendSamples.value.flatMap(l => l.samples.map(s => s.pop))
+    return d3.scaleLinear().domain([Math.min(0, ...values), Math.max(50, ...values) * 1.1]).nice(3).range([4, widths().pop - 4])
+  })
+
+  /** Per point: its state and verdict, independent of the zoom. */
+  const states = computed(() => {
+    const def = ws.definition.value
+    const pending = ws.editor.value?.pendingExcluded() ?? {}
+    const bands = ws.fits.bands.value
+    const flaggedOut = ws.fits.flaggedOut.value
+    const flags = ws.flags.value
+    const excludedByBand = def.strata.map(s => engineerExcluded(s, pending))
+    return ws.points.value.map((p, k) => {
+      const band = bands[k] ?? -1
+      const list = flags.get(p.id)
+      const verdict = list ? VERDICT_ORDER.find(v => list.some(f => f.verdict === v)) ?? null : null
+      let state: PointState
+      if (band < 0 || !def.strata[band]) state = 'unassigned'
+      else if (flaggedOut.has(p.id)) state = 'flagged-out'
+      else state = excludedByBand[band]!.has(p.id) ? 'excluded' : 'included'
+      return { band, state, verdict }
+    })
+  })
+
+  /** σ'v0 at each point in the current profile (null outside it). */
+  const effective = computed(() => ws.points.value.map(p => stressAt(ws.profile.value, p.depth)?.effectiveStress ?? null))
+
+  const marks = computed((): PointMark[] => {
+    const y = ws.y.value
+    const x = stressScale.value
+    const lo = ws.plot.value.top - 10
+    const hi = ws.plot.value.bottom + 10
+    const st = states.value
+    const out: PointMark[] = []
+    ws.points.value.forEach((p, k) => {
+      const py = y(p.depth)
+      if (py < lo || py > hi) return
+      const s = st[k]!
+      out.push({ p, px: x(p.preconsolidation), py, state: s.state, band: s.band, verdict: s.verdict })
+    })
+    return out
+  })
+
+  const ratioMarks = computed((): RatioMark[] => {
+    const y = ws.y.value
+    const ox = ocrScale.value
+    const px = popScale.value
+    const lo = ws.plot.value.top
+    const hi = ws.plot.value.bottom
+    const out: RatioMark[] = []
+    ws.points.value.forEach((p, k) => {
+      const e = effective.value[k]
+      if (e === null || e === undefined || !(e > 0)) return
+      const cy = y(p.depth)
+      if (cy < lo || cy > hi) return
+      const ocr = p.preconsolidation / e
+      const pop = p.preconsolidation - e
+      out.push({ ocr, pop, cy, ocrX: ox(ocr), popX: px(pop) })
+    })
+    return out
+  })
+
+  /** Counts per state, for the drawing's summary (and tests). */
+  const counts = computed(() => {
+    const c: Record<PointState, number> = { 'included': 0, 'excluded': 0, 'flagged-out': 0, 'unassigned': 0 }
+    for (const s of states.value) c[s.state]++
+    return c
+  })
+
+  return { stressScale, ocrScale, popScale, trendSamples, marks, ratioMarks, counts }
+}
+
+export type PointMarks = ReturnType<typeof usePointMarks>

@@ -1,0 +1,218 @@
+import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
+import { setTrend } from '~/utils/siteModelEdits'
+import {
+  assignBands, fitInput, reviewerExcluded, sameIds, trendFromFit,
+  type PointFlag, type ProfilePoint, type SigmaPoint, type TrendFitAnswer,
+} from '~/utils/stressHistory'
+import type { EditorSnapshot } from '~/stores/modelEditor'
+
+export type FitChoice = StratumTrend['model'] | 'auto'
+
+export const FIT_LABELS: Record<FitChoice, string> = {
+  auto: 'Best by AICc (auto)',
+  constant: 'Constant σ\'p',
+  linear: 'σ\'p linear in depth',
+  pop: 'Constant POP',
+  ocr: 'Constant OCR',
+  crust: 'Crust over constant POP',
+}
+
+/** How the workspace writes into the session (null when read-only). */
+export interface WorkspaceEditor {
+  edit: (label: string, fn: (d: SiteModelDefinition, pending: Record<string, string[]>) => SiteModelDefinition | EditorSnapshot, opts?: { gesture?: string }) => boolean
+  startGesture: () => string
+  pendingExcluded: () => Record<string, string[]>
+  /** The session's definition right now (props follow it only at the next render). */
+  current: () => SiteModelDefinition
+}
+
+export interface BandFit {
+  /** What the fit was asked with, to know when it no longer matches the draft. */
+  key: string
+  answer: TrendFitAnswer | null
+  error: string | null
+  pending: boolean
+}
+
+/**
+ * σ'p trend fits per band through POST /api/calc/trend-fit: the fits the engineer
+ * asks for (written into the draft's trend with the ids fitted and left out), and
+ * a display fit of each saved trend against today's points and σ'v0, for its 95 %
+ * band and to tell when the saved trend has gone stale.
+ */
+export function useTrendFits(args: {
+  definition: () => SiteModelDefinition
+  profile: () => readonly ProfilePoint[]
+  points: () => readonly SigmaPoint[]
+  flags: () => ReadonlyMap<string, readonly PointFlag[]>
+  editor: () => WorkspaceEditor | null
+}) {
+  // While editing, read the session itself: an edit followed at once by a fit must see the edit.
+  const definition = () => args.editor()?.current() ?? args.definition()
+  const bands = computed(() => assignBands(args.points(), args.definition()))
+  const flaggedOut = computed(() => reviewerExcluded(args.flags()))
+  const pending = () => args.editor()?.pendingExcluded() ?? {}
+  const fits = shallowRef<Record<number, BandFit>>({})
+  const fitError = ref<{ band: number, message: string } | null>(null)
+
+  function inputOf(i: number) {
+    const def = definition()
+    return fitInput(i, def, args.points(), def === args.definition() ? bands.value : assignBands(args.points(), def), pending(), flaggedOut.value, args.profile())
+  }
+
+  function requestKey(i: number, model: string, logSpace: boolean) {
+    const inp = inputOf(i)
+    // σ'v0 to 0.1 kPa: a change smaller than that does not move a fit.
+    return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}`).join(',')}`
+  }
+
+  async function ask(i: number, model: FitChoice, logSpace: boolean): Promise<{ answer: TrendFitAnswer, included: string[], excluded: string[] }> {
+    const inp = inputOf(i)
+    if (!inp.included.length) throw new Error('No points left to fit in this stratum.')
+    const answer = await api<TrendFitAnswer>('/api/calc/trend-fit', {
+      method: 'POST',
+      body: {
+        model,
+        logSpace,
+        points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })),
+      },
+    })
+    fits.value = { ...fits.value, [i]: { key: requestKey(i, answer.model, logSpace), answer, error: null, pending: false } }
+    return { answer, included: inp.included.map(p => p.id), excluded: inp.excludedIds }
+  }
+
+  /** Fits band `i` and writes the trend (the pending exclusions of its stratum move into it). */
+  async function fitBand(i: number, model: FitChoice, logSpace: boolean, gesture?: string): Promise<TrendFitAnswer | null> {
+    const editor = args.editor()
+    const s = definition().strata[i]
+    if (!editor || !s) return null
+    fitError.value = null
+    try {
+      const { answer, included, excluded } = await ask(i, model, logSpace)
+      const code = s.code
+      editor.edit(`Fit ${code}: ${FIT_LABELS[answer.model]}`, (d, p) => {
+        const next = { ...p }
+        delete next[code]
+        return { draft: setTrend(d, i, trendFromFit(answer, logSpace, included, excluded)), pendingExcluded: next }
+      }, { gesture })
+      return answer
+    }
+    catch (err) {
+      fitError.value = { band: i, message: apiErrorMessage(err) }
+      return null
+    }
+  }
+
+  /**
+   * Leaves points out of (or takes them back into) their bands' fits. Reviewer
+   * exclusions stay out whatever is asked. A band with a fitted trend is refitted
+   * with its model, in the same undo step.
+   */
+  async function setExcluded(ids: readonly string[], exclude: boolean) {
+    const editor = args.editor()
+    if (!editor || !ids.length) return
+    const def = definition()
+    const pts = args.points()
+    const byBand = new Map<number, string[]>()
+    const index = new Map(pts.map((p, k) => [p.id, k]))
+    for (const id of ids) {
+      const k = index.get(id)
+      if (k === undefined) continue
+      const b = bands.value[k]!
+      if (b < 0 || flaggedOut.value.has(id)) continue
+      byBand.set(b, [...(byBand.get(b) ?? []), id])
+    }
+    if (!byBand.size) return
+    const g = editor.startGesture()
+    const n = [...byBand.values()].reduce((a, l) => a + l.length, 0)
+    editor.edit(`${exclude ? 'Leave out' : 'Take back'} ${n} point${n === 1 ? '' : 's'}`, (d, pend) => {
+      const out = JSON.parse(JSON.stringify(d)) as SiteModelDefinition
+      const pendOut = { ...pend }
+      for (const [b, list] of byBand) {
+        const s = out.strata[b]
+        if (!s) continue
+        const current = new Set(s.trend ? s.trend.excludedPointIds : pendOut[s.code] ?? [])
+        for (const id of list) {
+          if (exclude) current.add(id)
+          else current.delete(id)
+        }
+        if (s.trend) {
+          s.trend.excludedPointIds = [...current]
+          const gone = new Set(current)
+          const all = pts.filter((_p, k) => bands.value[k] === b).map(p => p.id)
+          s.trend.includedPointIds = all.filter(id => !gone.has(id) && !flaggedOut.value.has(id))
+          if (s.trend.manual) s.trend.n = s.trend.includedPointIds.length
+        }
+        else {
+          pendOut[s.code] = [...current]
+        }
+      }
+      return { draft: out, pendingExcluded: pendOut }
+    }, { gesture: g })
+    for (const b of byBand.keys()) {
+      const t = def.strata[b]?.trend
+      if (t && !t.manual) await fitBand(b, t.model, t.logSpace, g)
+    }
+  }
+
+  /** Display fits of the saved trends, asked again when their points or σ'v0 change. */
+  let timer: ReturnType<typeof setTimeout> | null = null
+  function refreshDisplayFits() {
+    if (import.meta.server) return
+    if (timer) clearTimeout(timer)
+    timer = setTimeout(async () => {
+      timer = null
+      const def = args.definition()
+      if (!args.profile().length || !args.points().length) return
+      const jobs: Promise<void>[] = []
+      def.strata.forEach((s, i) => {
+        const t = s.trend
+        if (!t || t.manual) return
+        const key = requestKey(i, t.model, t.logSpace)
+        if (fits.value[i]?.key === key) return
+        const inp = inputOf(i)
+        if (!inp.included.length) return
+        fits.value = { ...fits.value, [i]: { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true } }
+        jobs.push(api<TrendFitAnswer>('/api/calc/trend-fit', {
+          method: 'POST',
+          body: { model: t.model, logSpace: t.logSpace, points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })) },
+        }).then((answer) => {
+          if (fits.value[i]?.key !== key) return
+          fits.value = { ...fits.value, [i]: { key, answer, error: null, pending: false } }
+        }).catch((err: unknown) => {
+          if (fits.value[i]?.key !== key) return
+          fits.value = { ...fits.value, [i]: { key, answer: null, error: apiErrorMessage(err), pending: false } }
+        }))
+      })
+      await Promise.all(jobs)
+    }, 250)
+  }
+
+  /** Whether a band's saved trend no longer matches its points (ids or σ'v0) — the engineer should refit. */
+  function stale(i: number): { ids: boolean, parameters: boolean } {
+    const s = args.definition().strata[i]
+    const t = s?.trend
+    // Before the points (or the profile) arrive nothing can be compared.
+    if (!t || t.manual || !args.points().length || !args.profile().length) return { ids: false, parameters: false }
+    const inp = inputOf(i)
+    const ids = !sameIds(t.includedPointIds, inp.included.map(p => p.id))
+    const f = fits.value[i]
+    let parameters = false
+    if (f?.answer && f.key === requestKey(i, t.model, t.logSpace)) {
+      for (const [k, v] of Object.entries(t.parameters)) {
+        const w = f.answer.parameters[k]
+        if (w === undefined) continue
+        if (Math.abs(v - w) > 1e-6 * Math.max(1, Math.abs(v)) + 0.05) parameters = true
+      }
+    }
+    return { ids, parameters }
+  }
+
+  onBeforeUnmount(() => {
+    if (timer) clearTimeout(timer)
+  })
+
+  return { bands, flaggedOut, fits, fitError, inputOf, fitBand, setExcluded, refreshDisplayFits, stale }
+}
+
+export type TrendFits = ReturnType<typeof useTrendFits>

@@ -1,0 +1,288 @@
+import { defineStore } from 'pinia'
+import { computed, ref, shallowRef } from 'vue'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { stableJson } from '../utils/siteModelEdits'
+
+/**
+ * The editing session of one site model's draft: the working definition, undo
+ * and redo for every edit, the dirty state against the draft revision last read
+ * from or saved to the server, and a copy in localStorage that survives a reload.
+ *
+ * Besides the definition, a snapshot carries the points the engineer left out of
+ * strata that have no fitted trend yet (`pendingExcluded`, by stratum code): they
+ * join the trend's `excludedPointIds` at the first fit. Network calls live in
+ * useModelSession; this store only holds state.
+ */
+
+export interface EditorSnapshot {
+  draft: SiteModelDefinition
+  pendingExcluded: Record<string, string[]>
+}
+
+interface HistoryEntry {
+  label: string
+  /** The session before the edit (undo) or after it (redo), serialised. */
+  snapshot: string
+  /** Edits of one continuing gesture (a drag, typing in one field) share a token and one entry. */
+  gesture?: string
+}
+
+export interface LocalDraft {
+  modelId: string
+  /** Draft revision the local copy was made on. */
+  revision: number
+  savedAt: string
+  snapshot: EditorSnapshot
+}
+
+export interface EditOptions { gesture?: string }
+
+/** Entries kept for undo; the oldest go first. */
+export const HISTORY_LIMIT = 300
+export const LOCAL_PREFIX = 'pastload.model-draft.v1'
+
+export function localKey(modelId: string, revision: number): string {
+  return `${LOCAL_PREFIX}:${modelId}:${revision}`
+}
+
+function storage(): Storage | null {
+  try {
+    return typeof window !== 'undefined' && window.localStorage ? window.localStorage : null
+  }
+  catch {
+    // Storage can be switched off by the browser's privacy settings.
+    return null
+  }
+}
+
+function copy<T>(v: T): T {
+  return JSON.parse(JSON.stringify(v)) as T
+}
+
+function isLocalDraft(v: unknown): v is LocalDraft {
+  const o = v as Partial<LocalDraft> | null
+  return !!o && typeof o.modelId === 'string' && typeof o.revision === 'number' && typeof o.savedAt === 'string'
+    && !!o.snapshot && typeof o.snapshot === 'object' && !!o.snapshot.draft && Array.isArray(o.snapshot.draft.strata)
+}
+
+let gestureCounter = 0
+
+export const useModelEditorStore = defineStore('modelEditor', () => {
+  const modelId = ref<string | null>(null)
+  /** The server's draft revision this session is based on (`version` of the model row). */
+  const revision = ref(0)
+  const draft = shallowRef<SiteModelDefinition | null>(null)
+  const pendingExcluded = shallowRef<Record<string, string[]>>({})
+  const savedJson = ref('')
+  const past = shallowRef<HistoryEntry[]>([])
+  const future = shallowRef<HistoryEntry[]>([])
+  /** A local copy found at load that differs from the server's draft, offered back until answered. */
+  const recovery = shallowRef<LocalDraft | null>(null)
+  const lastLocalWrite = ref<string | null>(null)
+
+  const currentJson = computed(() => (draft.value ? stableJson(draft.value) : ''))
+  const dirty = computed(() => !!draft.value && currentJson.value !== savedJson.value)
+  const canUndo = computed(() => past.value.length > 0)
+  const canRedo = computed(() => future.value.length > 0)
+  const undoLabel = computed(() => past.value[past.value.length - 1]?.label ?? null)
+  const redoLabel = computed(() => future.value[future.value.length - 1]?.label ?? null)
+
+  function snapshot(): EditorSnapshot {
+    if (!draft.value) throw new Error('No model is open.')
+    return { draft: draft.value, pendingExcluded: pendingExcluded.value }
+  }
+  function serialise(): string {
+    return JSON.stringify(snapshot())
+  }
+  function restore(json: string) {
+    const s = JSON.parse(json) as EditorSnapshot
+    draft.value = s.draft
+    pendingExcluded.value = s.pendingExcluded ?? {}
+  }
+
+  /** Starts a session on the server's draft at `rev`, and looks for a local copy to offer back. */
+  function load(id: string, serverDraft: SiteModelDefinition, rev: number) {
+    modelId.value = id
+    revision.value = rev
+    draft.value = copy(serverDraft)
+    pendingExcluded.value = {}
+    savedJson.value = stableJson(serverDraft)
+    past.value = []
+    future.value = []
+    lastLocalWrite.value = null
+    recovery.value = findLocal(id, savedJson.value)
+  }
+
+  /** The newest local copy of this model that is not the server's draft; copies equal to it are dropped. */
+  function findLocal(id: string, serverJson: string): LocalDraft | null {
+    const ls = storage()
+    if (!ls) return null
+    let best: LocalDraft | null = null
+    const prefix = `${LOCAL_PREFIX}:${id}:`
+    for (const key of Object.keys(ls)) {
+      if (!key.startsWith(prefix)) continue
+      let parsed: unknown = null
+      try {
+        parsed = JSON.parse(ls.getItem(key) ?? 'null')
+      }
+      catch {
+        parsed = null
+      }
+      if (!isLocalDraft(parsed) || parsed.modelId !== id) {
+        ls.removeItem(key)
+        continue
+      }
+      const same = stableJson(parsed.snapshot.draft) === serverJson && !Object.values(parsed.snapshot.pendingExcluded ?? {}).some(v => v.length)
+      if (same) {
+        ls.removeItem(key)
+        continue
+      }
+      if (!best || parsed.savedAt > best.savedAt) best = parsed
+    }
+    return best
+  }
+
+  /** Writes the session to localStorage while it differs from the server's draft; removes the copy otherwise. */
+  function persistLocal() {
+    const ls = storage()
+    if (!ls || !modelId.value || !draft.value) return
+    const key = localKey(modelId.value, revision.value)
+    const hasPending = Object.values(pendingExcluded.value).some(v => v.length)
+    if (!dirty.value && !hasPending) {
+      ls.removeItem(key)
+      return
+    }
+    const entry: LocalDraft = { modelId: modelId.value, revision: revision.value, savedAt: new Date().toISOString(), snapshot: snapshot() }
+    try {
+      ls.setItem(key, JSON.stringify(entry))
+      lastLocalWrite.value = entry.savedAt
+    }
+    catch {
+      // Quota exceeded: the session still works, it only will not survive a reload.
+      lastLocalWrite.value = null
+    }
+  }
+
+  /** A token for the edits of one gesture; all its edits undo as one. */
+  function startGesture(): string {
+    gestureCounter += 1
+    return `g${gestureCounter}`
+  }
+
+  /**
+   * Applies an edit: `fn` returns the next definition (and may return new pending
+   * exclusions). An edit that changes nothing leaves no history entry.
+   */
+  function edit(label: string, fn: (d: SiteModelDefinition, pending: Record<string, string[]>) => SiteModelDefinition | EditorSnapshot, opts: EditOptions = {}) {
+    if (!draft.value) throw new Error('No model is open.')
+    const before = serialise()
+    const result = fn(draft.value, pendingExcluded.value)
+    const next: EditorSnapshot = 'draft' in result && 'pendingExcluded' in result
+      ? result
+      : { draft: result as SiteModelDefinition, pendingExcluded: pendingExcluded.value }
+    const after = JSON.stringify(next)
+    if (after === before) return false
+    const last = past.value[past.value.length - 1]
+    const merge = !!opts.gesture && last?.gesture === opts.gesture && future.value.length === 0
+    if (!merge) {
+      const list = [...past.value, { label, snapshot: before, gesture: opts.gesture }]
+      past.value = list.length > HISTORY_LIMIT ? list.slice(list.length - HISTORY_LIMIT) : list
+    }
+    future.value = []
+    draft.value = next.draft
+    pendingExcluded.value = next.pendingExcluded
+    persistLocal()
+    return true
+  }
+
+  function undo() {
+    const last = past.value[past.value.length - 1]
+    if (!last) return
+    future.value = [...future.value, { label: last.label, snapshot: serialise() }]
+    past.value = past.value.slice(0, -1)
+    restore(last.snapshot)
+    persistLocal()
+  }
+
+  function redo() {
+    const next = future.value[future.value.length - 1]
+    if (!next) return
+    past.value = [...past.value, { label: next.label, snapshot: serialise() }]
+    future.value = future.value.slice(0, -1)
+    restore(next.snapshot)
+    persistLocal()
+  }
+
+  /** Takes the offered local copy as an edit (so undo returns to the server's draft). */
+  function acceptRecovery() {
+    const r = recovery.value
+    if (!r) return
+    recovery.value = null
+    removeLocalCopies(r.revision === revision.value ? [] : [r.revision])
+    edit('Restore the unsaved local draft', () => copy(r.snapshot))
+  }
+
+  function discardRecovery() {
+    const r = recovery.value
+    if (!r) return
+    recovery.value = null
+    removeLocalCopies([r.revision])
+  }
+
+  function removeLocalCopies(revisions: number[]) {
+    const ls = storage()
+    if (!ls || !modelId.value) return
+    for (const rev of revisions) ls.removeItem(localKey(modelId.value, rev))
+  }
+
+  /**
+   * The server accepted `sent` as revision `rev`. Edits made while the request was
+   * in flight stay dirty and are kept locally under the new revision.
+   */
+  function markSaved(sent: SiteModelDefinition, rev: number) {
+    const old = revision.value
+    savedJson.value = stableJson(sent)
+    revision.value = rev
+    removeLocalCopies([old])
+    persistLocal()
+  }
+
+  /** The server's draft moved to `rev` without a change of content (a saved version bumps the revision). */
+  function markRevision(rev: number) {
+    const old = revision.value
+    revision.value = rev
+    if (old !== rev) removeLocalCopies([old])
+    persistLocal()
+  }
+
+  /** Someone else saved first: their draft becomes the base; yours stays as the working copy (and is dirty). */
+  function rebaseOnto(theirs: SiteModelDefinition, rev: number) {
+    const old = revision.value
+    savedJson.value = stableJson(theirs)
+    revision.value = rev
+    removeLocalCopies([old])
+    persistLocal()
+  }
+
+  /** Takes their draft as the working copy (undo brings yours back). */
+  function takeTheirs(theirs: SiteModelDefinition, rev: number) {
+    rebaseOnto(theirs, rev)
+    edit('Take the saved draft of someone else', () => ({ draft: copy(theirs), pendingExcluded: {} }))
+  }
+
+  function close() {
+    modelId.value = null
+    draft.value = null
+    pendingExcluded.value = {}
+    savedJson.value = ''
+    past.value = []
+    future.value = []
+    recovery.value = null
+  }
+
+  return {
+    modelId, revision, draft, pendingExcluded, past, future, recovery, lastLocalWrite,
+    dirty, canUndo, canRedo, undoLabel, redoLabel,
+    load, edit, undo, redo, startGesture, acceptRecovery, discardRecovery, markSaved, markRevision, rebaseOnto, takeTheirs, close, persistLocal,
+  }
+})

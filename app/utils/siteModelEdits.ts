@@ -1,0 +1,229 @@
+import type { Compressibility, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
+import { stratumBounds } from '#shared/site-model/definition'
+
+/**
+ * Pure edits of a site-model definition, one function per gesture of the stress
+ * workspace. Each takes a definition and returns a new one (the input is never
+ * changed), so the editing session can keep snapshots for undo and redo.
+ * Depths in m, stresses in kPa, unit weights in kN/m³ (SI inside, always).
+ */
+
+/** Thinnest band a drag or a split may leave, m. */
+export const MIN_BAND_THICKNESS = 0.05
+
+const round = (v: number, digits: number) => {
+  const f = 10 ** digits
+  return Math.round(v * f) / f
+}
+/** Depths are kept to the millimetre. */
+export const roundDepth = (z: number) => round(z, 3)
+
+function clone(def: SiteModelDefinition): SiteModelDefinition {
+  return JSON.parse(JSON.stringify(def)) as SiteModelDefinition
+}
+
+function band(def: SiteModelDefinition, i: number): ModelStratum {
+  const s = def.strata[i]
+  if (!s) throw new RangeError(`No band ${i} in a model of ${def.strata.length}.`)
+  return s
+}
+
+/** Total depth of the model (the base of its last band). */
+export function modelBase(def: Pick<SiteModelDefinition, 'strata'>): number {
+  return roundDepth(def.strata.reduce((a, s) => a + s.thickness, 0))
+}
+
+export function setWaterTable(def: SiteModelDefinition, depth: number): SiteModelDefinition {
+  const out = clone(def)
+  out.groundwater.waterTableDepth = roundDepth(Math.max(0, depth))
+  return out
+}
+
+/**
+ * Moves the bottom of band `i` to `depth`. An inner break keeps the bottom of the
+ * band below fixed (its thickness takes up the difference); the base of the model
+ * moves alone. Both bands keep at least MIN_BAND_THICKNESS.
+ */
+export function moveBoundary(def: SiteModelDefinition, i: number, depth: number): SiteModelDefinition {
+  const out = clone(def)
+  const bounds = stratumBounds(out)
+  const b = bounds[i]
+  if (!b) throw new RangeError(`No band ${i} in a model of ${out.strata.length}.`)
+  const upper = band(out, i)
+  const lowerBand = out.strata[i + 1]
+  const lowerBound = bounds[i + 1]
+  const min = b.top + MIN_BAND_THICKNESS
+  const max = lowerBand && lowerBound ? lowerBound.bottom - MIN_BAND_THICKNESS : 500
+  const z = roundDepth(Math.min(Math.max(depth, min), max))
+  upper.thickness = roundDepth(z - b.top)
+  if (lowerBand && lowerBound) lowerBand.thickness = roundDepth(lowerBound.bottom - z)
+  return out
+}
+
+/** Splits band `i` at `depth` into two bands of the same stratum; the lower part starts without a trend. */
+export function splitBand(def: SiteModelDefinition, i: number, depth: number): SiteModelDefinition {
+  const out = clone(def)
+  const b = stratumBounds(out)[i]
+  const s = band(out, i)
+  if (!b) throw new RangeError(`No band ${i}.`)
+  const z = roundDepth(depth)
+  if (z - b.top < MIN_BAND_THICKNESS || b.bottom - z < MIN_BAND_THICKNESS) return out
+  const lower: ModelStratum = { ...JSON.parse(JSON.stringify(s)) as ModelStratum, thickness: roundDepth(b.bottom - z) }
+  delete lower.trend
+  s.thickness = roundDepth(z - b.top)
+  out.strata.splice(i + 1, 0, lower)
+  return out
+}
+
+/** Removes the break at the bottom of band `i`: the band below joins it and takes its properties. */
+export function removeBoundary(def: SiteModelDefinition, i: number): SiteModelDefinition {
+  const out = clone(def)
+  const upper = band(out, i)
+  const lower = out.strata[i + 1]
+  if (!lower) return out
+  upper.thickness = roundDepth(upper.thickness + lower.thickness)
+  out.strata.splice(i + 1, 1)
+  return out
+}
+
+export interface StratumChoice {
+  code: string
+  name: string
+  unitWeight: number
+  unitWeightSaturated: number
+}
+
+/**
+ * Gives band `i` another stratum of the project: its code, name and the strata
+ * list's unit weights. The σ'p trend belonged to the old stratum's points, so it goes.
+ */
+export function setBandStratum(def: SiteModelDefinition, i: number, choice: StratumChoice): SiteModelDefinition {
+  const out = clone(def)
+  const s = band(out, i)
+  if (s.code === choice.code) return out
+  s.code = choice.code
+  s.name = choice.name
+  s.unitWeight = choice.unitWeight
+  s.unitWeightSaturated = choice.unitWeightSaturated
+  delete s.trend
+  return out
+}
+
+export type UnitWeightKey = 'unitWeight' | 'unitWeightSaturated'
+
+/** Bounds of the definition's schema (shared/site-model/definition.ts). */
+export const UNIT_WEIGHT_RANGE = { min: 5, max: 30 } as const
+
+export function setUnitWeight(def: SiteModelDefinition, i: number, key: UnitWeightKey, value: number): SiteModelDefinition {
+  const out = clone(def)
+  band(out, i)[key] = round(Math.min(Math.max(value, UNIT_WEIGHT_RANGE.min), UNIT_WEIGHT_RANGE.max), 2)
+  return out
+}
+
+export interface PiezometerPoint { depth: number, porePressure: number }
+
+export function addPiezometer(def: SiteModelDefinition, p: PiezometerPoint): SiteModelDefinition {
+  const out = clone(def)
+  out.groundwater.piezometers.push(cleanPiezometer(p))
+  return out
+}
+
+export function movePiezometer(def: SiteModelDefinition, i: number, p: PiezometerPoint): SiteModelDefinition {
+  const out = clone(def)
+  if (!out.groundwater.piezometers[i]) throw new RangeError(`No piezometric control point ${i}.`)
+  out.groundwater.piezometers[i] = cleanPiezometer(p)
+  return out
+}
+
+export function removePiezometer(def: SiteModelDefinition, i: number): SiteModelDefinition {
+  const out = clone(def)
+  out.groundwater.piezometers.splice(i, 1)
+  return out
+}
+
+function cleanPiezometer(p: PiezometerPoint): PiezometerPoint {
+  return { depth: roundDepth(Math.max(0, p.depth)), porePressure: round(Math.max(0, p.porePressure), 1) }
+}
+
+export function setTrend(def: SiteModelDefinition, i: number, trend: StratumTrend | null): SiteModelDefinition {
+  const out = clone(def)
+  const s = band(out, i)
+  if (trend) s.trend = JSON.parse(JSON.stringify(trend)) as StratumTrend
+  else delete s.trend
+  return out
+}
+
+export function setCompressible(def: SiteModelDefinition, i: number, compressible: boolean): SiteModelDefinition {
+  const out = clone(def)
+  band(out, i).compressible = compressible
+  return out
+}
+
+/** Sets or clears fields of a band's adopted compressibility; Cc, Cr and e0 start at 0, 0 and 1 when absent. */
+export function setCompressibility(def: SiteModelDefinition, i: number, patch: Partial<Compressibility>): SiteModelDefinition {
+  const out = clone(def)
+  const s = band(out, i)
+  const next: Compressibility = { cc: 0, cr: 0, e0: 1, drainage: 'double', source: 'manual', ...s.compressibility, ...patch }
+  for (const key of ['cv', 'calpha', 'n'] as const) {
+    if (key in patch && patch[key] === undefined) delete next[key]
+  }
+  s.compressibility = next
+  return out
+}
+
+export function setCptFactor(def: SiteModelDefinition, i: number, k: number): SiteModelDefinition {
+  const out = clone(def)
+  band(out, i).cptFactor = round(Math.min(Math.max(k, 0.01), 2), 3)
+  return out
+}
+
+export function setSurcharge(def: SiteModelDefinition, q: number): SiteModelDefinition {
+  const out = clone(def)
+  out.surcharge = round(Math.max(0, q), 2)
+  return out
+}
+
+/** Band index holding a depth (a break belongs to the band below it); the last band below the base. */
+export function bandAt(def: Pick<SiteModelDefinition, 'strata'>, depth: number): number {
+  const bounds = stratumBounds(def)
+  const i = bounds.findIndex(b => depth >= b.top && depth < b.bottom)
+  return i === -1 ? Math.max(0, bounds.length - 1) : i
+}
+
+/** JSON with object keys sorted, so two equal definitions serialise alike whatever order the keys came in. */
+export function stableJson(value: unknown): string {
+  return JSON.stringify(value, (_key, v: unknown) => {
+    if (v && typeof v === 'object' && !Array.isArray(v)) {
+      const src = v as Record<string, unknown>
+      const sorted: Record<string, unknown> = {}
+      for (const k of Object.keys(src).sort()) sorted[k] = src[k]
+      return sorted
+    }
+    return v
+  })
+}
+
+export interface DefinitionChange { path: string, a: unknown, b: unknown }
+
+/** Field-by-field differences between two definitions (for "theirs vs yours"); long id lists are summarised. */
+export function diffDefinitions(a: unknown, b: unknown, path = ''): DefinitionChange[] {
+  if (Object.is(a, b)) return []
+  const isObj = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object' && !Array.isArray(v)
+  if (Array.isArray(a) && Array.isArray(b)) {
+    if (path.endsWith('PointIds')) {
+      const sa = new Set(a as string[])
+      const sb = new Set(b as string[])
+      const added = [...sb].filter(x => !sa.has(x)).length
+      const removed = [...sa].filter(x => !sb.has(x)).length
+      return added || removed ? [{ path, a: `${a.length} points`, b: `${b.length} points (+${added} −${removed})` }] : []
+    }
+    const out: DefinitionChange[] = []
+    for (let i = 0; i < Math.max(a.length, b.length); i++) out.push(...diffDefinitions(a[i], b[i], `${path}[${i}]`))
+    return out
+  }
+  if (isObj(a) && isObj(b)) {
+    const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])].sort()
+    return keys.flatMap(k => diffDefinitions(a[k], b[k], path ? `${path}.${k}` : k))
+  }
+  return [{ path, a: a ?? null, b: b ?? null }]
+}
