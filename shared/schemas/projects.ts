@@ -16,7 +16,14 @@ export const CreateProjectSchema = z.object({
 })
 export type CreateProjectInput = z.infer<typeof CreateProjectSchema>
 
-export const UpdateProjectSchema = CreateProjectSchema.partial().refine(v => Object.keys(v).length > 0, { message: 'nothing to change' })
+// No defaults here: a field left out of a PATCH stays as it is.
+export const UpdateProjectSchema = z.object({
+  jobNumber: JobNumberSchema.optional(),
+  name: z.string().trim().min(1, { message: 'is required' }).max(160).optional(),
+  client: z.string().trim().max(160).optional(),
+  unitSystem: z.enum(UNIT_SYSTEMS).optional(),
+  description: z.string().trim().max(4000).optional(),
+}).refine(v => Object.values(v).some(x => x !== undefined), { message: 'nothing to change' })
 
 export const RoleSchema = z.enum(PROJECT_ROLES)
 

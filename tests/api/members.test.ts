@@ -20,6 +20,16 @@ describe('projects and members', () => {
     expect(r.body.projects.find(p => p.jobNumber === 'TRN-0417')?.role).toBe('geologist')
   })
 
+  it('a PATCH changes only the fields it names', async () => {
+    const before = await owner.get<{ project: { client: string, unitSystem: string, description: string } }>(`/api/projects/${projectId}`)
+    const r = await owner.patch<{ project: { client: string, unitSystem: string, description: string } }>(`/api/projects/${projectId}`, { unitSystem: 'US' })
+    expect(r.status).toBe(200)
+    expect(r.body.project).toMatchObject({ unitSystem: 'US', client: before.body.project.client, description: before.body.project.description })
+    const back = await owner.patch<{ project: { unitSystem: string, client: string } }>(`/api/projects/${projectId}`, { description: 'Now with a description' })
+    expect(back.body.project).toMatchObject({ unitSystem: 'US', client: 'Test client' })
+    expect((await owner.patch(`/api/projects/${projectId}`, {})).status).toBe(400)
+  })
+
   it('refuses a duplicate job number with 409', async () => {
     const r = await owner.post('/api/projects', { jobNumber: 'TRN-0417', name: 'Copy' })
     expect(r.status).toBe(409)
