@@ -17,7 +17,8 @@ export interface ProfileError {
  * one arrives; a 422 is kept beside it with the depth it names.
  */
 export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, options: { delay?: number } = {}) {
-  const delay = options.delay ?? 150
+  // Short enough that an edit shows within ~150 ms on loopback; older requests are aborted, so a drag does not pile up.
+  const delay = options.delay ?? 60
   const points = shallowRef<ProfilePoint[]>([])
   const warnings = ref<string[]>([])
   const error = ref<ProfileError | null>(null)

@@ -12,7 +12,7 @@ export interface CanvasBenchResult {
   /** Time of one dense-layer redraw (bin and write the image), p95. */
   drawP95Ms: number
   edits: number
-  /** Keydown on the water table → new profile on screen (includes the 150 ms debounce and the round trip). */
+  /** Keydown on the water table → new profile on screen (includes the 60 ms debounce and the round trip). */
   editToCurveMedianMs: number
   editToCurveP95Ms: number
 }

@@ -31,6 +31,13 @@ async function main() {
     '| import benchmark | Pastload (ms) | floor (ms) | ratio | goal | met |',
     '|---|---:|---:|---:|---:|:-:|',
     `| CPT CSV, ${api.import.rows.toLocaleString('en')} rows (${(api.import.bytes / 1048576).toFixed(1)} MB): upload + check + write over HTTP vs papaparse + COPY | ${fmt(api.import.ours)} | ${fmt(api.import.floor)} | ${api.import.ratio.toFixed(2)}× | ≤ 2× | ${api.import.ratio <= 2 ? 'yes' : 'no'} |`,
+    '',
+    '| browser benchmark (Chromium, no GPU) | median (ms) | p95 (ms) | goal | met |',
+    '|---|---:|---:|---:|:-:|',
+    `| stress canvas, ${api.browser.canvas.points.toLocaleString('en')} points: frame time during pan/zoom (${api.browser.canvas.frames} frames) | ${fmt(api.browser.canvas.frameMedianMs)} | ${fmt(api.browser.canvas.frameP95Ms)} | p95 ≤ 20 ms | ${api.browser.canvas.frameP95Ms <= 20 ? 'yes' : 'no'} |`,
+    `| stress canvas: dense-layer redraw | – | ${fmt(api.browser.canvas.drawP95Ms)} | – | – |`,
+    `| stress canvas: water-table edit → redrawn σ'v0 curve (${api.browser.canvas.edits} edits, includes the 60 ms debounce) | ${fmt(api.browser.canvas.editToCurveMedianMs)} | ${fmt(api.browser.canvas.editToCurveP95Ms)} | ≤ 150 ms | ${api.browser.canvas.editToCurveMedianMs <= 150 ? 'yes' : 'no'} |`,
+    `| point page: CPT plot of 3 000 rows, draw after data arrives (${api.browser.cptDrawMs.length} loads) | ${fmt([...api.browser.cptDrawMs].sort((a, b) => a - b)[Math.floor(api.browser.cptDrawMs.length / 2)]!)} | ${fmt(Math.max(...api.browser.cptDrawMs))} (max) | < 200 ms | ${Math.max(...api.browser.cptDrawMs) < 200 ? 'yes' : 'no'} |`,
   ]
   const table = lines.join('\n')
   console.log(`\n${table}\n`)
