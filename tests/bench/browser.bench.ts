@@ -8,10 +8,15 @@ import { chromium } from 'playwright-core'
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { runCanvasBench, type CanvasBenchResult } from './canvas.bench'
 
-async function cptPoint(serverUrl: string, cookie: string, rows: number) {
+/** A project (the site admin creates it, the engineer joins) with one CPT point of `rows` readings. */
+async function cptPoint(serverUrl: string, engineerEmail: string, rows: number) {
+  const admin = DEMO_PEOPLE.find(p => p.isSiteAdmin)!
+  const login = await fetch(`${serverUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl }, body: JSON.stringify({ email: admin.email, password: DEMO_PASSWORD }) })
+  const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
   const h = { 'content-type': 'application/json', 'origin': serverUrl, cookie }
   const proj = await (await fetch(`${serverUrl}/api/projects`, { method: 'POST', headers: h, body: JSON.stringify({ jobNumber: `BR-${Date.now().toString(36)}`, name: 'Browser benchmark' }) })).json() as { project: { id: string } }
   const base = `${serverUrl}/api/projects/${proj.project.id}`
+  await fetch(`${base}/members`, { method: 'POST', headers: h, body: JSON.stringify({ email: engineerEmail, role: 'engineer' }) })
   const pt = await (await fetch(`${base}/points`, { method: 'POST', headers: h, body: JSON.stringify({ identifier: 'CPT-B2', kind: 'cpt', easting: 0, northing: 0, groundElevation: 0, finalDepth: 30 }) })).json() as { point: { id: string } }
   const depth = Array.from({ length: rows }, (_, i) => 0.01 * (i + 1))
   const put = await fetch(`${base}/points/${pt.point.id}/cpt`, { method: 'PUT', headers: h, body: JSON.stringify({ areaRatio: 0.8, depth, qc: depth.map(z => 400 + 30 * z + 50 * Math.sin(z * 7)), fs: depth.map(z => 8 + z), u2: depth.map(z => 9.81 * z + 20) }) })
@@ -34,9 +39,8 @@ export async function runBrowserBench(serverUrl: string): Promise<{ canvas: Canv
     await page.getByLabel('Password').fill(DEMO_PASSWORD)
     await page.getByRole('button', { name: 'Sign in' }).click()
     await page.getByTestId('project-list').waitFor()
-    const cookie = (await context.cookies()).filter(c => c.name === 'pastload_session').map(c => `${c.name}=${c.value}`).join('; ')
     const canvas = await runCanvasBench(serverUrl, page, { points: 200_000 })
-    const path = await cptPoint(serverUrl, cookie, 3000)
+    const path = await cptPoint(serverUrl, engineer.email, 3000)
     const cptDrawMs: number[] = []
     for (let i = 0; i < 5; i++) {
       await page.goto(`${serverUrl}${path}`)
