@@ -730,8 +730,8 @@ function naturalCubicSpline(x: readonly number[], y: readonly number[]): Spline 
   }
 }
 
-/** Monotone piecewise cubic Hermite interpolant (Fritsch & Carlson 1980): never invents a rise between falling readings. */
-function monotoneCubic(x: readonly number[], y: readonly number[]): (xx: number) => number {
+/** Monotone piecewise cubic Hermite interpolant (Fritsch & Carlson 1980) through increasing x: never invents a rise between falling readings. */
+export function monotoneCubic(x: readonly number[], y: readonly number[]): (xx: number) => number {
   const n = x.length
   const delta = new Float64Array(n - 1)
   for (let i = 0; i < n - 1; i++) delta[i] = (y[i + 1]! - y[i]!) / (x[i + 1]! - x[i]!)

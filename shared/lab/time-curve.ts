@@ -8,6 +8,7 @@
  * in m²/year (the product's internal unit), the drainage path is given in mm.
  */
 import { GeotechError } from '../geotech/errors'
+import { monotoneCubic } from '../geotech/oedometer'
 import type { TimeReading } from './stages'
 
 /** Time factor at 90 % average consolidation, Terzaghi's theory (Tv90 ≈ 0.848; any consolidation text). */
@@ -202,33 +203,3 @@ export function analyseTimeCurve(readings: readonly TimeReading[], drainagePathM
   }
 }
 
-/** Monotone piecewise cubic Hermite interpolant (Fritsch & Carlson 1980) through increasing x. */
-function monotoneCubic(x: readonly number[], y: readonly number[]): (xx: number) => number {
-  const n = x.length
-  const delta: number[] = []
-  for (let i = 0; i < n - 1; i++) delta.push((y[i + 1]! - y[i]!) / (x[i + 1]! - x[i]!))
-  const m: number[] = new Array<number>(n).fill(0)
-  m[0] = delta[0]!
-  m[n - 1] = delta[n - 2]!
-  for (let i = 1; i < n - 1; i++) {
-    const a = delta[i - 1]!
-    const b = delta[i]!
-    if (a * b <= 0) m[i] = 0
-    else {
-      const h0 = x[i]! - x[i - 1]!
-      const h1 = x[i + 1]! - x[i]!
-      const w1 = 2 * h1 + h0
-      const w2 = h1 + 2 * h0
-      m[i] = (w1 + w2) / (w1 / a + w2 / b)
-    }
-  }
-  return (xx) => {
-    let i = 0
-    while (i < n - 2 && x[i + 1]! < xx) i++
-    const h = x[i + 1]! - x[i]!
-    const t = (xx - x[i]!) / h
-    const t2 = t * t
-    const t3 = t2 * t
-    return (2 * t3 - 3 * t2 + 1) * y[i]! + (t3 - 2 * t2 + t) * h * m[i]! + (-2 * t3 + 3 * t2) * y[i + 1]! + (t3 - t2) * h * m[i + 1]!
-  }
-}
