@@ -301,6 +301,31 @@ describe('the stress workspace in Chromium', () => {
     await page.close()
   })
 
+  it('the reviewer excludes an oedometer test and the engineer sees its σ\'p flagged on the canvas, drawn but not fitted', async () => {
+    const reviewer = await signIn(demoEmail('reviewer'))
+    const tests = (await reviewer.get<{ tests: { id: string, stratumCode: string | null, adoption: { value: number } | null, label: string }[] }>(`/api/projects/${projectId}/tests/oedometer?limit=100`)).body.tests
+    const target = tests.find(t => t.stratumCode === 'EST' && t.adoption)!
+    expect(target).toBeDefined()
+    const flag = await reviewer.post<{ flag: { id: string, version: number } }>(`/api/projects/${projectId}/flags`, { targetType: 'oedometer-test', targetId: target.id, verdict: 'exclude', comment: 'Rounded curve: treat as disturbed until the repeat test is in.' })
+    expect(flag.status).toBe(201)
+    try {
+      const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
+      const modelId = models.find(m => m.name === name)!.id
+      const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
+      await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+      await page.getByTestId('model-workspace').waitFor()
+      const layer = page.getByTestId('point-layer')
+      await expect.poll(async () => Number(await layer.getAttribute('data-flagged-out')), { timeout: 15_000 }).toBeGreaterThanOrEqual(1)
+      await page.getByTestId('fit-panel').getByText(/excluded by reviewers: drawn, never fitted/).waitFor()
+      await screenshot(page, 'stress-model-reviewer-flag')
+      await page.close()
+    }
+    finally {
+      // Leave the demo data as the other tests expect it.
+      await reviewer.patch(`/api/projects/${projectId}/flags/${flag.body.flag.id}`, { status: 'resolved', version: flag.body.flag.version })
+    }
+  })
+
   it('a designer sees the model read-only', async () => {
     const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
     const modelId = models.find(m => m.name === name)!.id
