@@ -326,6 +326,32 @@ describe('the stress workspace in Chromium', () => {
     }
   })
 
+  it('the engineer adopts the estuarine clay\'s compressibility as the mean of its oedometer tests', async () => {
+    const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
+    const modelId = models.find(m => m.name === name)!.id
+    const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
+    await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await page.getByTestId('model-workspace').waitFor()
+    await page.getByTestId('band-select').selectOption('2')
+    const compressible = page.getByTestId('band-compressible')
+    if (!(await compressible.isChecked())) await compressible.check()
+    await page.getByTestId('compressibility-from-tests').click()
+    const source = page.getByTestId('compressibility-source')
+    await source.waitFor()
+    const n = Number((await source.textContent())!.match(/mean of (\d+)/)![1])
+    // The demo has six EST tests, one of them very poor; a reviewer exclusion would lower n further.
+    expect(n).toBeGreaterThanOrEqual(4)
+    expect(n).toBeLessThanOrEqual(6)
+    // Scenario truth for the estuarine clay: Cc 0.85, e0 2.10 (within the demo's generated scatter).
+    const cc = Number(await page.getByLabel('Cc', { exact: true }).inputValue())
+    expect(cc).toBeGreaterThan(0.75)
+    expect(cc).toBeLessThan(0.95)
+    expect(Number(await page.getByLabel('e0', { exact: true }).inputValue())).toBeCloseTo(2.1, 1)
+    await screenshot(page, 'stress-model-compressibility-mean')
+    await page.getByTestId('undo').click()
+    await page.close()
+  })
+
   it('a designer sees the model read-only', async () => {
     const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
     const modelId = models.find(m => m.name === name)!.id

@@ -3,7 +3,7 @@ import { isGeotechError } from '#shared/geotech/errors'
 import { OedometerListQuerySchema } from '#shared/schemas/lab'
 import { useDb } from '../../../../../db/client'
 import { investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users } from '../../../../../db/schema'
-import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson } from '../../../../../services/lab'
+import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson, timeAnalysis, timeSummary } from '../../../../../services/lab'
 
 /**
  * The project's oedometer tests with their sample, point and logged stratum, the σ'p in force (if adopted) and a
@@ -39,19 +39,26 @@ export default defineEventHandler(async (event) => {
   const tests = rows.map((r) => {
     const { stages, ...test } = testJson(r)
     const insitu = insituAt(ctx, sampleDepth(r.sample))
-    let reading: { casagrande: number | null, deltaEOverE0: number | null, qualityClass: string | null, error: string | null }
+    let reading: { casagrande: number | null, deltaEOverE0: number | null, qualityClass: string | null, cc: number | null, cr: number | null, cv: number | null, calpha: number | null, error: string | null }
     try {
       const out = interpretTest(r.test, insitu.effectiveStress)
+      const casagrande = out.results.find(m => m.method === 'casagrande')?.preconsolidation ?? null
+      // cv and Cα of the virgin range, where settlement happens (median of its stages).
+      const time = timeSummary(timeAnalysis(r.test), casagrande).virgin
       reading = {
-        casagrande: out.results.find(m => m.method === 'casagrande')?.preconsolidation ?? null,
+        casagrande,
         deltaEOverE0: out.sampleQuality?.deltaEOverE0 ?? null,
         qualityClass: out.sampleQuality?.class ?? null,
+        cc: out.cc,
+        cr: out.cr,
+        cv: time.cv,
+        calpha: time.calpha,
         error: null,
       }
     }
     catch (err) {
       if (!isGeotechError(err)) throw err
-      reading = { casagrande: null, deltaEOverE0: null, qualityClass: null, error: err.message }
+      reading = { casagrande: null, deltaEOverE0: null, qualityClass: null, cc: null, cr: null, cv: null, calpha: null, error: err.message }
     }
     const stratumCode = stratumAtLogged(intervals.get(r.point.id) ?? [], insitu.depth)
     return { ...test, stageCount: stages.length, stratumCode, effectiveStress: insitu.effectiveStress, reading, adoption: adopted.get(r.test.id) ?? null }
