@@ -1,6 +1,6 @@
 import { createHash, randomUUID } from 'node:crypto'
 import busboy from 'busboy'
-import { and, count, desc, eq, isNull, type SQL } from 'drizzle-orm'
+import { and, count, desc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
 import { ATTACHMENT_TYPES, attachmentKind, type AttachmentContentType, type AttachmentOwnerType, type AttachmentView, MAX_ATTACHMENT_BYTES, THUMBNAIL_MAX_PX } from '#shared/schemas/attachments'
@@ -295,4 +295,39 @@ export async function sendStoredObject(event: H3Event, key: string, opts: { cont
   })
   if (stored.size !== undefined) setResponseHeader(event, 'content-length', stored.size)
   return sendStream(event, stored.body)
+}
+
+type OwnerTx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
+
+/**
+ * Before a point, sample or oedometer test is deleted: its attachments, and
+ * those of everything deleted with it (a point's samples and their tests, a
+ * sample's tests), move to the project level with a caption saying where they
+ * came from. A lab report or photo is never lost with the record it was filed
+ * under, and no row is left pointing at an owner that no longer exists. Runs in
+ * the deleting transaction, so it commits or rolls back with the delete.
+ */
+export async function rehomeAttachmentsOf(tx: OwnerTx, args: { projectId: string, actorId: string, ownerType: Exclude<AttachmentOwnerType, 'project'>, ownerId: string, label: string }): Promise<number> {
+  const { projectId, ownerType, ownerId } = args
+  const owned: SQL[] = [and(eq(attachments.ownerType, ownerType), eq(attachments.ownerId, ownerId))!]
+  if (ownerType === 'point') {
+    const sampleIds = (await tx.select({ id: samples.id }).from(samples).where(eq(samples.pointId, ownerId))).map(s => s.id)
+    if (sampleIds.length) {
+      owned.push(and(eq(attachments.ownerType, 'sample'), inArray(attachments.ownerId, sampleIds))!)
+      const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(inArray(oedometerTests.sampleId, sampleIds))).map(t => t.id)
+      if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), inArray(attachments.ownerId, testIds))!)
+    }
+  }
+  else if (ownerType === 'sample') {
+    const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(eq(oedometerTests.sampleId, ownerId))).map(t => t.id)
+    if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), inArray(attachments.ownerId, testIds))!)
+  }
+  const rows = await tx.select().from(attachments).where(and(eq(attachments.projectId, projectId), or(...owned))).for('update')
+  for (const row of rows) {
+    const from = `Moved to the project when ${args.label} was deleted.`
+    const caption = (row.caption ? `${from} ${row.caption}` : from).slice(0, 500)
+    const [after] = await tx.update(attachments).set({ ownerType: 'project', ownerId: null, caption }).where(eq(attachments.id, row.id)).returning()
+    await recordAudit({ actorId: args.actorId, projectId, action: 'update', entity: 'attachment', entityId: row.id, before: auditRecord(row), after: auditRecord(after!) }, tx)
+  }
+  return rows.length
 }

@@ -8,6 +8,7 @@ import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
 import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { testBody } from '../helpers/lab'
 import { startServer, type RunningServer } from '../helpers/server'
 
 interface View {
@@ -259,6 +260,60 @@ describe('attachments', () => {
     expect(mine.map(e => e.action)).toEqual(['delete', 'create'])
     expect(mine[1]!.after).toMatchObject({ filename: 'box 1.png', sha256: png.sha256, ownerType: 'point', ownerId: pointId })
     expect(JSON.stringify(audit.body)).not.toMatch(/objectKey|thumbnailKey/)
+  })
+
+  it('moves the files of a deleted point, sample or test to the project with a caption saying where they came from', async () => {
+    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A2', kind: 'borehole', easting: 5, northing: 6, groundElevation: 2.4, finalDepth: 20 })
+    const p2 = pt.body.point.id
+    const mkSample = async (identifier: string, top: number) => (await geo.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${p2}/samples`, { identifier, top, bottom: top + 0.45, type: 'thin-walled-tube' })).body.sample.id
+    const s1 = await mkSample('U1', 4)
+    const s2 = await mkSample('U2', 7)
+    const t1 = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, testBody(s2, 'OED-A2'))
+    expect(t1.status).toBe(201)
+    const testId = t1.body.test.id
+    const up = async (name: string, fields: Record<string, string>) => {
+      const r = await attach<{ attachment: View }>(geo, projectId, name, TINY_PDF, fields)
+      expect(r.status).toBe(201)
+      return r.body.attachment.id
+    }
+    const onTest = await up('oed.pdf', { ownerType: 'test', ownerId: testId, caption: 'Lab sheet' })
+    const onSample = await up('u1.pdf', { ownerType: 'sample', ownerId: s1 })
+    const onPoint = await up('log.pdf', { ownerType: 'point', ownerId: p2, caption: 'Driller log' })
+    const keysBefore = await storedKeys(projectId)
+    const byId = async () => new Map((await geo.get<{ attachments: View[] }>(`${base}?limit=100`)).body.attachments.map(a => [a.id, a]))
+
+    // A test deleted on its own: its file moves up to the project.
+    expect((await owner.delete(`/api/projects/${projectId}/tests/oedometer/${testId}`)).status).toBe(200)
+    let all = await byId()
+    expect(all.get(onTest)).toMatchObject({ ownerType: 'project', ownerId: null, caption: 'Moved to the project when the oedometer test on BH-A2 U2 was deleted. Lab sheet' })
+    expect(all.get(onSample)).toMatchObject({ ownerType: 'sample', ownerId: s1 })
+
+    // A point deleted with its samples: the point's and the sample's files move too.
+    expect((await geo.delete(`/api/projects/${projectId}/points/${p2}`)).status).toBe(200)
+    all = await byId()
+    expect(all.get(onPoint)).toMatchObject({ ownerType: 'project', ownerId: null, caption: 'Moved to the project when point BH-A2 was deleted. Driller log' })
+    expect(all.get(onSample)).toMatchObject({ ownerType: 'project', ownerId: null, caption: 'Moved to the project when point BH-A2 was deleted.' })
+    expect(await storedKeys(projectId)).toEqual(keysBefore)
+    expect((await fetchBytes(geo, all.get(onSample)!.downloadUrl)).bytes.toString('latin1')).toBe(TINY_PDF)
+
+    const audit = await owner.get<{ events: { action: string, entity: string, entityId: string, before: { ownerType: string }, after: { ownerType: string } }[] }>(`/api/projects/${projectId}/audit?limit=100`)
+    const moved = audit.body.events.filter(e => e.entity === 'attachment' && e.action === 'update' && e.entityId === onSample)
+    expect(moved.map(e => [e.before.ownerType, e.after.ownerType])).toEqual([['sample', 'project']])
+    for (const id of [onTest, onSample, onPoint]) expect((await geo.delete(`${base}/${id}`)).status).toBe(200)
+  })
+
+  it('moves a deleted sample\'s files and those of its tests', async () => {
+    const s = await geo.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U9', top: 9, bottom: 9.45, type: 'piston' })
+    const sampleId = s.body.sample.id
+    const t = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, testBody(sampleId, 'OED-U9'))
+    const a = await attach<{ attachment: View }>(geo, projectId, 't.pdf', TINY_PDF, { ownerType: 'test', ownerId: t.body.test.id })
+    const b = await attach<{ attachment: View }>(geo, projectId, 's.pdf', TINY_PDF, { ownerType: 'sample', ownerId: sampleId })
+    expect((await geo.delete(`/api/projects/${projectId}/points/${pointId}/samples/${sampleId}`)).status).toBe(200)
+    const list = await geo.get<{ attachments: View[] }>(`${base}?ownerType=project&limit=100`)
+    const captions = new Map(list.body.attachments.map(x => [x.id, x.caption]))
+    expect(captions.get(a.body.attachment.id)).toBe('Moved to the project when sample U9 of BH-A1 was deleted.')
+    expect(captions.get(b.body.attachment.id)).toBe('Moved to the project when sample U9 of BH-A1 was deleted.')
+    for (const id of [a.body.attachment.id, b.body.attachment.id]) expect((await geo.delete(`${base}/${id}`)).status).toBe(200)
   })
 
   it('seeded the demo project with a lab report, core-box photos and a field sheet', async () => {

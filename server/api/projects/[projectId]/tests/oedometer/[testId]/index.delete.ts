@@ -2,15 +2,17 @@ import { eq } from 'drizzle-orm'
 import { OedometerTestParams } from '#shared/schemas/lab'
 import { useDb } from '../../../../../../db/client'
 import { oedometerTests } from '../../../../../../db/schema'
+import { rehomeAttachmentsOf } from '../../../../../../services/attachments'
 import { recordAudit } from '../../../../../../services/audit'
 import { requireTest } from '../../../../../../services/lab'
 
-/** Deletes a test and its adoption history (audited with the test row). */
+/** Deletes a test and its adoption history (audited with the test row); its files move to the project. */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'tests.write')
   const { testId } = validateParams(event, OedometerTestParams)
   await useDb().transaction(async (tx) => {
-    const { test } = await requireTest(project.id, testId, tx, { lock: true })
+    const { test, sample, point } = await requireTest(project.id, testId, tx, { lock: true })
+    await rehomeAttachmentsOf(tx, { projectId: project.id, actorId: user.id, ownerType: 'test', ownerId: test.id, label: `the oedometer test on ${point.identifier} ${sample.identifier}` })
     await tx.delete(oedometerTests).where(eq(oedometerTests.id, test.id))
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'delete', entity: 'oedometer-test', entityId: testId, before: test }, tx)
   })
