@@ -1,6 +1,5 @@
 import type { FlagTarget } from '#shared/review/flags'
 import type { OedometerListItem, PreconsolidationPointRow } from '~/composables/useLabTests'
-import type { IntervalRow, PointDetail } from '~/composables/usePoint'
 import type { PointListItem } from '~/composables/usePoints'
 import type { ReviewFlag } from '~/composables/useReviewFlags'
 
@@ -14,9 +13,6 @@ export interface FlagTargetInfo {
 export function flagTargetKey(type: FlagTarget, id: string): string {
   return `${type}|${id}`
 }
-
-/** Points fetched at a time while looking for the holes that own flagged intervals. */
-const BATCH = 6
 
 function kPa(v: number): string {
   return `${Math.abs(v) >= 10 ? Math.round(v) : v.toFixed(1)} kPa`
@@ -32,8 +28,8 @@ function clip(text: string, n = 110): string {
 /**
  * Describes flagged records for the review list ("Log interval · BH-02 3.25–6.90 m")
  * with a link to their page. It reads only the sources the flags need (lab tests,
- * σ'p points, the points list and the logs of the holes concerned), once each,
- * in the browser; the lab lists are also what the reviewer picks new targets from.
+ * σ'p points, the points list), once each, in the browser — a flagged interval
+ * comes with its hole from the flag list itself; the lab lists are also what the reviewer picks new targets from.
  */
 export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<readonly ReviewFlag[]>) {
   const info = shallowRef(new Map<string, FlagTargetInfo>())
@@ -41,8 +37,6 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<r
   const tests = shallowRef<OedometerListItem[] | null>(null)
   const sigma = shallowRef<PreconsolidationPointRow[] | null>(null)
   let points: PointListItem[] | null = null
-  const details = new Map<string, PointDetail>()
-  const owners = new Map<string, { point: PointListItem, interval: IntervalRow }>()
 
   const base = () => `/api/projects/${toValue(projectId)}`
 
@@ -65,36 +59,16 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<r
     points = all
     return all
   }
-  /** Reads logs hole by hole (boreholes and pits first) until every wanted interval has its hole. */
-  async function findIntervals(wanted: Set<string>) {
-    const missing = () => [...wanted].filter(id => !owners.has(id))
-    if (!missing().length) return
-    const list = await loadPoints()
-    const order = [...list].sort((a, b) => Number(a.kind === 'cpt') - Number(b.kind === 'cpt') || a.identifier.localeCompare(b.identifier))
-    const todo = order.filter(p => !details.has(p.id))
-    for (let i = 0; i < todo.length && missing().length; i += BATCH) {
-      const batch = todo.slice(i, i + BATCH)
-      const got = await Promise.all(batch.map(p => api<PointDetail>(`${base()}/points/${p.id}`).catch(() => null)))
-      got.forEach((d, k) => {
-        if (!d) return
-        const p = batch[k]!
-        details.set(p.id, d)
-        for (const iv of d.intervals) owners.set(iv.id, { point: p, interval: iv })
-      })
-    }
-  }
-
   function describe(f: ReviewFlag): FlagTargetInfo {
     const pid = toValue(projectId)
     const dataPage = `/projects/${pid}/preconsolidation`
     if (f.targetType === 'log-interval') {
-      const o = owners.get(f.targetId)
-      if (!o) return { text: 'Log interval · no longer in the log', detail: 'The interval was changed or removed after it was flagged.', to: null }
-      const iv = o.interval
+      const iv = f.interval
+      if (!iv) return { text: 'Log interval · no longer in the log', detail: 'The interval was changed or removed after it was flagged.', to: null }
       return {
-        text: `Log interval · ${o.point.identifier} ${iv.top.toFixed(2)}–${metres(iv.bottom)}`,
+        text: `Log interval · ${iv.pointIdentifier} ${iv.top.toFixed(2)}–${metres(iv.bottom)}`,
         detail: clip([iv.uscs, iv.description].filter(Boolean).join(' · ')),
-        to: `/projects/${pid}/points/${o.point.id}`,
+        to: `/projects/${pid}/points/${iv.pointId}`,
       }
     }
     if (f.targetType === 'oedometer-test') {
@@ -140,7 +114,6 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<r
         types.has('oedometer-test') ? loadTests() : null,
         types.has('preconsolidation-point') || types.has('cpt-point') || types.has('vane-reading') ? loadSigma() : null,
         types.has('cpt-point') ? loadPoints() : null,
-        types.has('log-interval') ? findIntervals(new Set(list.filter(f => f.targetType === 'log-interval').map(f => f.targetId))) : null,
       ])
     }
     catch {

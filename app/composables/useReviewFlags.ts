@@ -17,6 +17,8 @@ export interface ReviewFlag {
   createdAt: string
   updatedAt: string
   resolvedAt: string | null
+  /** For a flagged log interval: its hole and depths, null once the interval is gone. */
+  interval?: { id: string, top: number, bottom: number, uscs: string | null, description: string, pointId: string, pointIdentifier: string } | null
 }
 
 export interface ReviewReply {

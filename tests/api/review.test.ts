@@ -8,14 +8,18 @@ describe('reviewer flags', () => {
   let engineer: Client
   let projectId: string
   let intervalId: string
+  let pointId: string
+  let interval: { id: string, top: number, bottom: number, uscs: string | null }
 
   beforeAll(async () => {
     reviewer = await signIn(demoEmail('reviewer'))
     engineer = await signIn(demoEmail('engineer'))
     projectId = await demoProjectId(reviewer)
     const pts = await reviewer.get<{ points: { id: string }[] }>(`/api/projects/${projectId}/points?q=BH-02`)
-    const d = await reviewer.get<{ intervals: { id: string }[] }>(`/api/projects/${projectId}/points/${pts.body.points[0]!.id}`)
-    intervalId = d.body.intervals[2]!.id
+    pointId = pts.body.points[0]!.id
+    const d = await reviewer.get<{ intervals: { id: string, top: number, bottom: number, uscs: string | null }[] }>(`/api/projects/${projectId}/points/${pointId}`)
+    interval = d.body.intervals[2]!
+    intervalId = interval.id
   })
 
   it('flags a log interval, threads replies, resolves and reopens, with the audit trail', async () => {
@@ -36,6 +40,15 @@ describe('reviewer flags', () => {
 
     const list = await engineer.get<{ flags: (Flag & { replyCount: number })[] }>(`/api/projects/${projectId}/flags?targetType=log-interval&status=open`)
     expect(list.body.flags.find(x => x.id === flag.id)!.replyCount).toBe(2)
+  })
+
+  it('lists a flagged interval with its hole and depths, so the list needs no look-up per hole; other targets carry none', async () => {
+    const list = await reviewer.get<{ flags: (Flag & { targetType: string, interval?: { pointId: string, pointIdentifier: string, top: number, bottom: number, uscs: string | null } | null })[] }>(`/api/projects/${projectId}/flags?limit=500`)
+    const onInterval = list.body.flags.filter(f => f.targetType === 'log-interval' && f.targetId === intervalId)
+    expect(onInterval.length).toBeGreaterThan(0)
+    for (const f of onInterval) expect(f.interval).toEqual(expect.objectContaining({ pointId, pointIdentifier: 'BH-02', top: interval.top, bottom: interval.bottom, uscs: interval.uscs }))
+    const others = list.body.flags.filter(f => f.targetType !== 'log-interval')
+    for (const f of others) expect(f).not.toHaveProperty('interval')
   })
 
   it('an engineer cannot flag (403) but can reply; a target outside the project is 404; a reason is required (400)', async () => {
