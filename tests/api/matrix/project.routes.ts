@@ -7,6 +7,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'PATCH', path: '/api/projects/:projectId', allowed: ['owner'], ok: 200, prepare: async () => ({ body: { description: 'Matrix test description' } }) },
   { method: 'GET', path: '/api/projects/:projectId/members', allowed: ALL, ok: 200 },
   { method: 'GET', path: '/api/projects/:projectId/audit', allowed: ALL, ok: 200 },
+  { method: 'GET', path: '/api/projects/:projectId/site-reference', allowed: ALL, ok: 200 },
   {
     method: 'POST', path: '/api/projects/:projectId/members', allowed: ['owner'], ok: 201,
     prepare: async (ctx) => {
