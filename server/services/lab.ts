@@ -26,7 +26,8 @@ type Db = ReturnType<typeof useDb> | Tx
 // ---------------------------------------------------------------------------
 
 export interface StressModelInfo {
-  source: 'draft' | 'logs'
+  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
+  source: 'draft' | 'logs' | 'given'
   modelId: string | null
   modelName: string | null
   /** How σ'v0 was obtained, in words for the page. */
@@ -55,14 +56,19 @@ export async function stressContext(projectId: string): Promise<StressContext> {
     const [m] = await useDb().select({ name: siteModels.name }).from(siteModels).where(eq(siteModels.id, modelId))
     modelName = m?.name ?? null
   }
-  const evaluate = runEngine(() => createStressEvaluator(toStressInput(definition)))
-  const bounds = stratumBounds(definition)
-  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
   const description = source === 'draft'
     ? `Site model "${modelName ?? 'unnamed'}" (its current draft).`
     : `No site model yet: strata at their mean logged thickness, hydrostatic pore pressure below the median standing level (${definition.groundwater.waterTableDepth} m).`
+  return stressContextOf(definition, { source, modelId, modelName, description })
+}
+
+/** The evaluator for a given definition (a working copy sent by the canvas, or a saved version). */
+export function stressContextOf(definition: SiteModelDefinition, info: StressModelInfo): StressContext {
+  const evaluate = runEngine(() => createStressEvaluator(toStressInput(definition)))
+  const bounds = stratumBounds(definition)
+  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
   return {
-    info: { source, modelId, modelName, description },
+    info,
     definition,
     base,
     at: (depth) => {

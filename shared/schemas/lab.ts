@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { OEDOMETER_TEST_TYPES } from '../investigation/types'
 import { STAGE_CONVENTIONS } from '../lab/stages'
+import { SiteModelDefinitionSchema } from '../site-model/definition'
 import { UuidSchema } from './common'
 
 /**
@@ -109,6 +110,19 @@ export const PreconsolidationPointsQuerySchema = z.object({
   spacing,
   /** Also every CPT row as compact arrays, for the canvas's dense layer. */
   dense: flag,
+})
+
+/**
+ * The same points through a stress model sent in the body: the canvas's working
+ * copy (unsaved edits included) or a saved version being viewed, so CPT σ'p
+ * follow the σv on screen rather than the project's latest saved draft.
+ */
+export const PreconsolidationPointsEvaluateSchema = z.object({
+  definition: SiteModelDefinitionSchema,
+  spacing,
+  dense: z.boolean().default(false),
+  /** How the page names the model, for the answer's description ("Site model X, unsaved edits"). */
+  label: z.string().trim().max(200).default('the stress model on screen'),
 })
 
 export const CptInterpretationQuerySchema = z.object({ spacing })

@@ -1,5 +1,5 @@
 import { testBody } from '../../helpers/lab'
-import { ALL, freshPoint, freshSample, LOG_WRITERS, MODEL_WRITERS, ok, type Ctx, type RouteCase } from './types'
+import { ALL, freshPoint, freshSample, LOG_WRITERS, MODEL_WRITERS, next, ok, type Ctx, type RouteCase } from './types'
 
 const CPT_BODY = { areaRatio: 0.8, depth: [1.02, 1.04, 1.06], qc: [300, 310, 320], fs: [5, 5, 6], u2: [1, 2, 3] }
 
@@ -24,6 +24,14 @@ export const ROUTES: RouteCase[] = [
     prepare: async ctx => ({ path: `${(await freshTest(ctx)).url}/adoptions`, body: { method: 'typed', value: 80, reason: 'matrix check' } }),
   },
   { method: 'GET', path: '/api/projects/:projectId/preconsolidation-points', allowed: ALL, ok: 200 },
+  {
+    method: 'POST', path: '/api/projects/:projectId/preconsolidation-points/evaluate', allowed: ALL, ok: 200,
+    prepare: async (ctx) => {
+      const m = await ok(ctx.owner.post<{ model: { id: string } }>(`/api/projects/${ctx.projectId}/models`, { name: `evaluate ${next()}` }))
+      const got = await ok(ctx.owner.get<{ model: { draft: unknown } }>(`/api/projects/${ctx.projectId}/models/${m.model.id}`), 200)
+      return { body: { definition: got.model.draft } }
+    },
+  },
   {
     method: 'GET', path: '/api/projects/:projectId/points/:pointId/cpt/interpretation', allowed: ALL, ok: 200,
     prepare: async (ctx) => { const p = await freshPoint(ctx, 'cpt'); await ok(ctx.owner.request('PUT', `${p.url}/cpt`, CPT_BODY), 200); return { path: `${p.url}/cpt/interpretation` } },
