@@ -1,4 +1,7 @@
 import type { FlagVerdict } from '#shared/review/flags'
+import { toStressInput } from '#shared/site-model/convert'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { stableJson } from '~/utils/siteModelEdits'
 import type { PointFlag, SigmaPoint } from '~/utils/stressHistory'
 
 interface DenseCpt {
@@ -15,7 +18,7 @@ interface PointsAnswer {
   counts: Record<string, number>
   warnings: string[]
   spacing: number
-  stressModel: { source: 'draft' | 'logs', modelId: string | null, modelName: string | null, description: string }
+  stressModel: { source: 'draft' | 'logs' | 'given', modelId: string | null, modelName: string | null, description: string }
   dense?: { strata: string[], cpt: DenseCpt[] }
 }
 
@@ -62,32 +65,75 @@ function syntheticRows(n: number, maxDepth: number): { depth: number[], value: n
   return { depth, value }
 }
 
-function mergeDense(cpt: DenseCpt[], extra: { depth: number[], value: number[] } | null): DenseLayer {
-  let n = extra?.depth.length ?? 0
-  for (const c of cpt) n += c.depth.length
-  if (!n) return EMPTY_DENSE
+/** Rows sorted by depth (depth and value as parallel arrays). */
+interface SortedRows { depth: Float32Array, value: Float32Array }
+
+function sortRows(depth: ArrayLike<number>, value: ArrayLike<number>): SortedRows {
+  const n = depth.length
   const order = new Uint32Array(n)
+  for (let i = 0; i < n; i++) order[i] = i
+  order.sort((a, b) => depth[a]! - depth[b]!)
   const z = new Float32Array(n)
   const v = new Float32Array(n)
+  for (let i = 0; i < n; i++) { z[i] = depth[order[i]!]!; v[i] = value[order[i]!]! }
+  return { depth: z, value: v }
+}
+
+/**
+ * The soundings' rows and the (already sorted) synthetic rows merged by depth in
+ * one pass: only the few thousand real rows are sorted again when the points are
+ * asked again after an edit.
+ */
+function mergeDense(cpt: DenseCpt[], extra: SortedRows | null): DenseLayer {
+  let m = 0
+  for (const c of cpt) m += c.depth.length
+  const extraN = extra?.depth.length ?? 0
+  const n = m + extraN
+  if (!n) return EMPTY_DENSE
+  const rz = new Float64Array(m)
+  const rv = new Float64Array(m)
   let k = 0
   for (const c of cpt) {
-    for (let i = 0; i < c.depth.length; i++) { z[k] = c.depth[i]!; v[k] = c.preconsolidation[i]!; k++ }
+    for (let i = 0; i < c.depth.length; i++) { rz[k] = c.depth[i]!; rv[k] = c.preconsolidation[i]!; k++ }
   }
-  if (extra) for (let i = 0; i < extra.depth.length; i++) { z[k] = extra.depth[i]!; v[k] = extra.value[i]!; k++ }
-  for (let i = 0; i < n; i++) order[i] = i
-  order.sort((a, b) => z[a]! - z[b]!)
+  const real = sortRows(rz, rv)
   const depth = new Float32Array(n)
   const preconsolidation = new Float32Array(n)
-  for (let i = 0; i < n; i++) { depth[i] = z[order[i]!]!; preconsolidation[i] = v[order[i]!]! }
-  return { depth, preconsolidation, count: n, soundings: cpt.length, synthetic: extra?.depth.length ?? 0 }
+  let i = 0
+  let j = 0
+  for (let o = 0; o < n; o++) {
+    if (j >= extraN || (i < m && real.depth[i]! <= extra!.depth[j]!)) { depth[o] = real.depth[i]!; preconsolidation[o] = real.value[i]!; i++ }
+    else { depth[o] = extra!.depth[j]!; preconsolidation[o] = extra!.value[j]!; j++ }
+  }
+  return { depth, preconsolidation, count: n, soundings: cpt.length, synthetic: extraN }
+}
+
+/**
+ * What CPT σ'p depend on in a definition: the stresses (strata, unit weights,
+ * water, surcharge) and each band's stratum code and cone factor. Trends and
+ * compressibility do not move them, so editing those asks nothing again.
+ */
+function stressKey(def: SiteModelDefinition): string {
+  try {
+    return stableJson({ stress: toStressInput(def), k: def.strata.map(s => [s.code, s.cptFactor]) })
+  }
+  catch {
+    return ''
+  }
 }
 
 /**
  * The project's σ'p points from all sources, the open reviewer flags that bear on
  * them, and the dense CPT layer; fetched in the browser only. `bench` adds that
  * many synthetic dense rows (benchmarks only).
+ *
+ * With `definition`, the points are computed through that model (POST
+ * …/preconsolidation-points/evaluate): the canvas passes the definition on screen,
+ * so CPT σ'p follow unsaved edits of the stresses (asked again after `delay` ms,
+ * the previous points kept until the new ones arrive) and a saved version shows
+ * its own. Without it, the project's stress model in force is used.
  */
-export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number> } = {}) {
+export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number>, definition?: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, label?: MaybeRefOrGetter<string>, delay?: number } = {}) {
   const points = shallowRef<SigmaPoint[]>([])
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
@@ -104,7 +150,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     try {
       const base = `/api/projects/${id}`
       const [pts, flagList, tests] = await Promise.all([
-        api<PointsAnswer>(`${base}/preconsolidation-points?dense=1`),
+        askPoints(base),
         api<{ flags: FlagRow[] }>(`${base}/flags?status=open&limit=500`),
         api<{ tests: { id: string, adoption: { id: string } | null }[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] })),
       ])
@@ -117,12 +163,8 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
         if (!target) continue
         map.set(target, [...(map.get(target) ?? []), { id: f.id, verdict: f.verdict, comment: f.comment, author: f.author, targetType: f.targetType }])
       }
-      const n = Math.max(0, Math.min(2_000_000, Math.round(toValue(options.bench) ?? 0)))
-      points.value = pts.points
       flags.value = map
-      dense.value = mergeDense(pts.dense?.cpt ?? [], n ? syntheticRows(n, toValue(options.maxDepth) ?? 22) : null)
-      warnings.value = pts.warnings
-      stressModel.value = pts.stressModel
+      applyPoints(pts)
     }
     catch (err) {
       error.value = apiErrorMessage(err)
@@ -130,7 +172,66 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     finally {
       loading.value = false
     }
+    // An edit made while this was being read is asked for now.
+    const def = toValue(options.definition)
+    if (def && stressKey(def) !== lastKey) void refreshPoints()
   }
+
+  /** Points, through the given definition when there is one (the answer to the newest request wins). */
+  let asked = 0
+  let lastKey = ''
+  function askPoints(base: string): Promise<PointsAnswer> {
+    const def = toValue(options.definition)
+    if (!def) return api<PointsAnswer>(`${base}/preconsolidation-points?dense=1`)
+    lastKey = stressKey(def)
+    return api<PointsAnswer>(`${base}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined } })
+  }
+  let synthetic: { key: string, rows: SortedRows } | null = null
+  function syntheticSorted(): SortedRows | null {
+    const n = Math.max(0, Math.min(2_000_000, Math.round(toValue(options.bench) ?? 0)))
+    if (!n) return null
+    const maxDepth = toValue(options.maxDepth) ?? 22
+    const key = `${n}:${maxDepth}`
+    if (synthetic?.key !== key) {
+      const r = syntheticRows(n, maxDepth)
+      synthetic = { key, rows: sortRows(r.depth, r.value) }
+    }
+    return synthetic.rows
+  }
+  function applyPoints(pts: PointsAnswer) {
+    points.value = pts.points
+    dense.value = mergeDense(pts.dense?.cpt ?? [], syntheticSorted())
+    warnings.value = pts.warnings
+    stressModel.value = pts.stressModel
+  }
+  /** After an edit of the stresses: the points again, the flags as they are. */
+  async function refreshPoints() {
+    const id = toValue(projectId)
+    if (!id || import.meta.server) return
+    const mine = ++asked
+    try {
+      const pts = await askPoints(`/api/projects/${id}`)
+      if (mine !== asked) return
+      applyPoints(pts)
+      error.value = ''
+    }
+    catch (err) {
+      if (mine === asked) error.value = apiErrorMessage(err)
+    }
+  }
+  let timer: ReturnType<typeof setTimeout> | null = null
+  watch(() => {
+    const def = toValue(options.definition)
+    return def ? stressKey(def) : ''
+  }, (key) => {
+    if (!key || key === lastKey || loading.value) return
+    if (timer) clearTimeout(timer)
+    timer = setTimeout(() => {
+      timer = null
+      void refreshPoints()
+    }, options.delay ?? 350)
+  })
+  onBeforeUnmount(() => { if (timer) clearTimeout(timer) })
 
   onMounted(load)
   watch(() => toValue(projectId), () => void load())
