@@ -190,9 +190,10 @@ export function demoStagesExample(record: InvestigationRecord = generateDemoInve
   const sample = plannedOedometerSample(record, plan)
   const test = sample?.oedometer
   if (!sample || !test) throw new Error('The demo investigation has no oedometer test on the BH-05 crust tube.')
+  const e0 = test.e0
   const last = test.stages[test.stages.length - 1]!
-  const unload = { stress: last.stress / 4, voidRatio: last.voidRatio + demoStratum('CRUST').compressibility.cr * Math.log10(4) }
-  const stages = [...test.stages, unload].map(s => ({ stress: s.stress, strain: Math.round(strainPercent(s.voidRatio, test.e0) * 1000) / 1000 }))
+  const unload = { stress: last.stress / 4, voidRatio: last.voidRatio + demoStratum('CRUST').compressibility!.cr * Math.log10(4) }
+  const stages = [...test.stages, unload].map(s => ({ stress: s.stress, strain: Math.round(strainPercent(s.voidRatio, e0) * 1000) / 1000 }))
   const lines = [DEMO_STAGES_COLUMNS.join(','), ...stages.map((s, i) => `${i + 1},${s.stress},${s.strain.toFixed(3)}`)]
-  return { csv: `${lines.join('\n')}\n`, sample: sample.identifier, e0: test.e0, stages }
+  return { csv: `${lines.join('\n')}\n`, sample: sample.identifier, e0, stages }
 }
