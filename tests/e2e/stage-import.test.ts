@@ -78,6 +78,9 @@ describe('oedometer stage upload in Chromium', () => {
           expect((await api.post(`${labBase}/${listed.id}/adoptions`, { method, value, reason })).status).toBe(201)
         }
       }
+      const restored = (await api.get<{ test: TestJson, adoption: Adoption | null }>(`${labBase}/${listed.id}`)).body
+      expect(restored.test.stages).toEqual(original.test.stages)
+      expect(restored.adoption?.value ?? null).toBe(original.adoption?.value ?? null)
     }
   })
 })
