@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, getTableColumns, inArray } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, inArray, isNull, sql } from 'drizzle-orm'
 import { GeotechError, isGeotechError } from '#shared/geotech/errors'
 import { checkCompressionIndex, type CompressionIndexCheck } from '#shared/geotech/insitu'
 import { interpretOedometer, type OedometerInterpretation, type OedometerMethod } from '#shared/geotech/oedometer'
@@ -10,9 +10,9 @@ import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#sha
 import { useDb } from '../db/client'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, siteModels, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
-import type { Tx } from './audit'
+import { recordAudit, type Tx } from './audit'
 import { currentDefinition } from './site-models'
-import { notFound } from './versioned'
+import { notFound, versionedUpdate } from './versioned'
 
 export type OedometerTestRow = typeof oedometerTests.$inferSelect
 export type SampleRow = typeof samples.$inferSelect
@@ -179,6 +179,63 @@ export function prepareSpecimen(fields: SpecimenFields): { e0: number, e0Compute
     const stages = convertStages(fields.convention, fields.stages, { e0, specimenHeight: fields.specimenHeight })
     return { e0, e0Computed, stages, notes }
   })
+}
+
+/** The 409 of a test edited from a stale version, with the current test for the page to show. */
+export function staleTest(ctx: TestContext): never {
+  throw createError({
+    statusCode: 409,
+    statusMessage: 'Conflict',
+    message: 'This test was changed by someone else since you opened it. Review their version and apply your change again.',
+    data: { current: testJson(ctx) },
+  })
+}
+
+/**
+ * Replaces a test's stages (an import from a file), in the caller's transaction: the version the
+ * client read must still be current (409 otherwise), the stages are converted like the form's,
+ * time readings stay on a stage that keeps its place and its σ', the version is bumped, and the
+ * σ'p adopted from the old curve is withdrawn (kept in the history), each write audited.
+ */
+export async function replaceTestStages(tx: Tx, args: { projectId: string, actorId: string, testId: string, version: number, convention: StageConvention, stages: { stress: number, value: number }[], filename: string }) {
+  const ctx = await requireTest(args.projectId, args.testId, tx, { lock: true })
+  const before = ctx.test
+  if (before.version !== args.version) staleTest(ctx)
+  let readingsKept = 0
+  const stages: StageEntry[] = args.stages.map((s, i) => {
+    const old = before.stages[i]
+    if (old?.readings?.length && old.stress === s.stress) {
+      readingsKept++
+      return { ...s, readings: old.readings }
+    }
+    return s
+  })
+  const prepared = prepareSpecimen({ specimenHeight: before.specimenHeight, initialWaterContent: before.initialWaterContent, specificGravity: before.specificGravity, e0: before.e0, convention: args.convention, stages })
+  const row = await versionedUpdate({
+    entity: 'Oedometer test',
+    update: () => tx.update(oedometerTests).set({ convention: args.convention, stages: prepared.stages, version: sql`${oedometerTests.version} + 1` })
+      .where(and(eq(oedometerTests.id, before.id), eq(oedometerTests.version, args.version))).returning(),
+    current: async () => before,
+  })
+  await recordAudit({
+    actorId: args.actorId,
+    projectId: args.projectId,
+    action: 'import',
+    entity: 'oedometer-stages',
+    entityId: before.id,
+    before: { version: before.version, convention: before.convention, stages: before.stages },
+    after: { filename: args.filename, rows: args.stages.length, readingsKept, version: row.version, convention: row.convention, stages: row.stages },
+  }, tx)
+  let withdrawn: AdoptionRow | null = null
+  if (JSON.stringify(prepared.stages) !== JSON.stringify(before.stages)) {
+    const [w] = await tx.update(preconsolidationAdoptions).set({ supersededAt: new Date() })
+      .where(and(eq(preconsolidationAdoptions.oedometerTestId, before.id), isNull(preconsolidationAdoptions.supersededAt))).returning()
+    if (w) {
+      withdrawn = w
+      await recordAudit({ actorId: args.actorId, projectId: args.projectId, action: 'withdraw', entity: 'preconsolidation-adoption', entityId: w.id, before: { ...w, supersededAt: null }, after: w }, tx)
+    }
+  }
+  return { test: { ...ctx, test: row }, readingsKept, withdrawn }
 }
 
 // ---------------------------------------------------------------------------

@@ -5,8 +5,10 @@
  */
 import { investigationToAgs } from '../ags4/investigation'
 import type { InvestigationRecord, LogIntervalRecord, PointRecord } from '../investigation/types'
+import { strainPercent } from '../lab/stages'
 import { isUscsGroupSymbol } from '../strata/uscs'
-import { generateDemoInvestigation } from './generate'
+import { DEMO_OEDOMETER_PLAN, generateDemoInvestigation, plannedOedometerSample } from './generate'
+import { demoStratum } from './site'
 
 export const DEMO_IMPORT_COLUMNS = ['point', 'top', 'bottom', 'description', 'uscs', 'stratum'] as const
 
@@ -171,4 +173,27 @@ export function demoImportAgs(): string {
     recipient: 'Saltmarsh Lane project team',
     description: 'BH-01 and BH-02 with two deliberate logging errors',
   })
+}
+
+/** The demo test the stages example belongs to: the crust tube of BH-05. */
+export const DEMO_STAGES_TEST = { point: 'BH-05', stratum: 'CRUST' } as const
+export const DEMO_STAGES_COLUMNS = ['stage', 'effective stress (kPa)', 'strain (%)'] as const
+
+/**
+ * The laboratory's reissued stage sheet for the BH-05 crust test: the demo curve as vertical strain in %
+ * of the initial height (ε = 100·(e0 − e)/(1 + e0)), with one final unloading stage to a quarter of the
+ * last load that the first issue left out, swelling along the crust's Cr of the demo ground model.
+ * docs/examples/saltmarsh-lane-oedometer-stages.csv is this text.
+ */
+export function demoStagesExample(record: InvestigationRecord = generateDemoInvestigation()): { csv: string, sample: string, e0: number, stages: { stress: number, strain: number }[] } {
+  const plan = DEMO_OEDOMETER_PLAN.find(p => p.point === DEMO_STAGES_TEST.point && p.stratum === DEMO_STAGES_TEST.stratum)!
+  const sample = plannedOedometerSample(record, plan)
+  const test = sample?.oedometer
+  if (!sample || !test) throw new Error('The demo investigation has no oedometer test on the BH-05 crust tube.')
+  const e0 = test.e0
+  const last = test.stages[test.stages.length - 1]!
+  const unload = { stress: last.stress / 4, voidRatio: last.voidRatio + demoStratum('CRUST').compressibility!.cr * Math.log10(4) }
+  const stages = [...test.stages, unload].map(s => ({ stress: s.stress, strain: Math.round(strainPercent(s.voidRatio, e0) * 1000) / 1000 }))
+  const lines = [DEMO_STAGES_COLUMNS.join(','), ...stages.map((s, i) => `${i + 1},${s.stress},${s.strain.toFixed(3)}`)]
+  return { csv: `${lines.join('\n')}\n`, sample: sample.identifier, e0, stages }
 }

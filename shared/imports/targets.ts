@@ -1,6 +1,10 @@
 import { isUscsGroupSymbol } from '../geotech/plasticity'
 import { checkIntervals } from '../investigation/intervals'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/types'
+import { isGeotechError } from '../geotech/errors'
+import { convertStages, STAGE_CONVENTION_LABELS, type SpecimenBasis, type StageConvention } from '../lab/stages'
+import { VaneInputSchema } from '../schemas/investigation'
+import { StageInputSchema } from '../schemas/lab'
 
 /**
  * Tabular imports (CSV, XLSX): what each target table needs, how file columns
@@ -9,7 +13,7 @@ import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/t
  * it on the whole file; the browser may run it for the preview.
  */
 
-export const IMPORT_TARGETS = ['points', 'intervals', 'samples', 'index-tests', 'groundwater', 'cpt'] as const
+export const IMPORT_TARGETS = ['points', 'intervals', 'samples', 'index-tests', 'groundwater', 'cpt', 'oedometer-stages', 'vane'] as const
 export type ImportTarget = (typeof IMPORT_TARGETS)[number]
 
 type FieldType = 'number' | 'text' | 'date' | 'datetime' | { enum: readonly string[] } | 'uscs'
@@ -80,6 +84,20 @@ export const TARGET_FIELDS: Record<ImportTarget, ImportField[]> = {
     f('fs', 'fs (kPa)', 'number', true, ['sleeve friction', 'fs (kpa)']),
     f('u2', 'u2 (kPa)', 'number', true, ['pore pressure', 'u2 (kpa)']),
   ],
+  // One test's loading stages: σ' and exactly one of e / ε / Δh (the mapped one sets the convention).
+  'oedometer-stages': [
+    f('stage', 'Stage', 'number', false, ['stage no', 'stage number', 'increment', 'step', 'no']),
+    f('stress', 'Effective stress σ\' (kPa)', 'number', true, ['effective stress', 'sigma', 'stress', 'stress (kpa)', 'pressure', 'load', 'sigma v']),
+    f('voidRatio', STAGE_CONVENTION_LABELS['void-ratio'], 'number', false, ['e', 'void ratio']),
+    f('strain', STAGE_CONVENTION_LABELS.strain, 'number', false, ['strain', 'strain %', 'axial strain', 'vertical strain']),
+    f('dial', STAGE_CONVENTION_LABELS.dial, 'number', false, ['compression', 'dial', 'dial reading', 'final dial', 'settlement', 'dh', 'compression (mm)']),
+  ],
+  'vane': [
+    f('point', 'Point', 'text', true, ['identifier', 'hole', 'borehole', 'loca_id']),
+    f('depth', 'Depth (m)', 'number', true, ['z', 'test depth']),
+    f('peak', 'Peak su (kPa)', 'number', true, ['peak', 'su', 'su peak', 'peak strength', 'cu', 'su,fv', 'peak su']),
+    f('remoulded', 'Remoulded su (kPa)', 'number', false, ['remoulded', 'remolded', 'su remoulded', 'residual', 'remoulded strength', 'remolded su']),
+  ],
 }
 
 export const TARGET_LABELS: Record<ImportTarget, string> = {
@@ -89,7 +107,21 @@ export const TARGET_LABELS: Record<ImportTarget, string> = {
   'index-tests': 'Index tests',
   'groundwater': 'Groundwater observations',
   'cpt': 'CPT sounding (one point)',
+  'oedometer-stages': 'Oedometer stages (one test)',
+  'vane': 'Field vane readings',
 }
+
+/** The stage fields of an oedometer-stages file and the convention each one means. */
+export const STAGE_VALUE_FIELDS: Record<StageConvention, 'voidRatio' | 'strain' | 'dial'> = { 'void-ratio': 'voidRatio', 'strain': 'strain', 'dial': 'dial' }
+
+/** The stage convention of an oedometer-stages mapping: the one value column that is mapped (null when none or several are). */
+export function stageConventionOf(mapping: ImportMapping): StageConvention | null {
+  const mapped = (Object.keys(STAGE_VALUE_FIELDS) as StageConvention[]).filter(c => mapping[STAGE_VALUE_FIELDS[c]])
+  return mapped.length === 1 ? mapped[0]! : null
+}
+
+/** Most stages a test holds (the same bound as the test form). */
+export const MAX_STAGES = 300
 
 export type ImportMapping = Record<string, string>
 
@@ -126,6 +158,12 @@ export function checkMapping(target: ImportTarget, headers: readonly string[], m
       if (field.required) problems.push(`${field.label} is required: choose the column that holds it.`)
     }
     else if (!headers.includes(header)) problems.push(`Column "${header}" (for ${field.label}) is not in the file.`)
+  }
+  if (target === 'oedometer-stages') {
+    const mapped = Object.values(STAGE_VALUE_FIELDS).filter(k => mapping[k])
+    const labels = Object.values(STAGE_VALUE_FIELDS).map(k => TARGET_FIELDS[target].find(x => x.key === k)!.label)
+    if (mapped.length === 0) problems.push(`Choose the column of the stage values: one of ${labels.join(', ')}.`)
+    if (mapped.length > 1) problems.push(`Map only one of ${labels.join(', ')}: it sets how the stages are read.`)
   }
   return problems
 }
@@ -171,6 +209,10 @@ export interface ImportContext {
   strata: Set<string>
   /** For a CPT import: the sounding's point final depth. */
   cptFinalDepth?: number
+  /** For an oedometer-stages import: e0 and the specimen height of the test the stages belong to. */
+  oedometerBasis?: SpecimenBasis
+  /** For a vane import: readings already in the project, as `point@depth` (depth in mm, rounded). */
+  vaneDepths?: Set<string>
 }
 
 export interface ValidatedImport {
@@ -284,4 +326,85 @@ function checkReferences(target: ImportTarget, records: Record<string, ParsedVal
       prev = rec.depth
     })
   }
+  if (target === 'oedometer-stages') checkStages(records, rowNumbers, mapping, ctx, errors)
+  if (target === 'vane') checkVane(records, rowNumbers, mapping, ctx, errors, pointOf)
+}
+
+/** Key of a vane reading: the point and the depth to the millimetre. */
+export const vaneKey = (point: string, depth: number) => `${point}@${Math.round(depth * 1000)}`
+
+/**
+ * An oedometer-stages file, row by row, with the same rules as the test form: each stage goes
+ * through `convertStages` (σ' > 0, void ratio above 0 after conversion) and `StageInputSchema`
+ * (the bounds of the form); the stage numbers, when given, run in test order.
+ */
+function checkStages(records: Record<string, ParsedValue>[], rowNumbers: number[], mapping: ImportMapping, ctx: ImportContext, errors: RowError[]) {
+  const convention = stageConventionOf(mapping)
+  if (!convention) return
+  if (convention !== 'void-ratio' && !ctx.oedometerBasis) throw new Error('An oedometer-stages check needs the test\'s e0 and specimen height.')
+  const basis = ctx.oedometerBasis ?? { e0: 1, specimenHeight: 1 }
+  const key = STAGE_VALUE_FIELDS[convention]
+  const fields = TARGET_FIELDS['oedometer-stages']
+  const label = (k: string) => fields.find(x => x.key === k)!.label
+  const col = (k: string) => mapping[k] ?? label(k)
+  const hasError = (row: number, column: string) => errors.some(e => e.row === row && e.column === column)
+  let prevStage: { n: number, row: number } | null = null
+  records.forEach((rec, i) => {
+    const row = rowNumbers[i]!
+    if (i === MAX_STAGES) errors.push({ row, column: col('stress'), message: `A test holds at most ${MAX_STAGES} stages; this file has ${records.length}.` })
+    if (typeof rec.stage === 'number') {
+      if (!Number.isInteger(rec.stage) || rec.stage < 1) errors.push({ row, column: col('stage'), message: `Stage ${rec.stage} is not a whole number from 1 up.` })
+      else {
+        if (prevStage && rec.stage <= prevStage.n) errors.push({ row, column: col('stage'), message: `Stage ${rec.stage} does not follow stage ${prevStage.n} (file row ${prevStage.row}): list the stages in test order.` })
+        prevStage = { n: rec.stage, row }
+      }
+    }
+    const value = rec[key]
+    if (value === null && !hasError(row, col(key))) errors.push({ row, column: col(key), message: `${label(key)} is empty.` })
+    if (typeof rec.stress !== 'number' || typeof value !== 'number') return
+    const n = typeof rec.stage === 'number' && Number.isInteger(rec.stage) && rec.stage >= 1 ? rec.stage : i + 1
+    try {
+      convertStages(convention, [{ stress: rec.stress, value }], basis)
+    }
+    catch (err) {
+      if (!isGeotechError(err)) throw err
+      const column = err.code === 'stress-not-positive' ? col('stress') : col(key)
+      errors.push({ row, column, message: err.message.replace(/^Stage 1:/, `Stage ${n}:`) })
+      return
+    }
+    const shape = StageInputSchema.safeParse({ stress: rec.stress, value })
+    if (!shape.success) {
+      for (const issue of shape.error.issues) {
+        const k = issue.path[0] === 'stress' ? 'stress' : key
+        errors.push({ row, column: col(k), message: `Stage ${n}: ${k === 'stress' ? issue.message : `${label(key)} ${issue.message}`}.` })
+      }
+    }
+  })
+}
+
+/** Field vane rows: the point must exist, the reading fit the hole and the form's bounds, and not be there already. */
+function checkVane(records: Record<string, ParsedValue>[], rowNumbers: number[], mapping: ImportMapping, ctx: ImportContext, errors: RowError[], pointOf: (rec: Record<string, ParsedValue>, i: number) => { finalDepth: number } | null) {
+  const fields = TARGET_FIELDS.vane
+  const col = (k: string) => mapping[k] ?? fields.find(x => x.key === k)!.label
+  const seen = new Map<string, number>()
+  records.forEach((rec, i) => {
+    const row = rowNumbers[i]!
+    const p = pointOf(rec, i)
+    if (typeof rec.depth !== 'number' || typeof rec.peak !== 'number') return
+    const shape = VaneInputSchema.safeParse({ depth: rec.depth, peak: rec.peak, remoulded: rec.remoulded })
+    if (!shape.success) {
+      for (const issue of shape.error.issues) {
+        const k = String(issue.path[0])
+        // The depth's own messages name it; peak and remoulded messages need their label.
+        errors.push({ row, column: col(k), message: k === 'depth' ? `${issue.message}.` : `${fields.find(x => x.key === k)!.label} ${issue.message}.` })
+      }
+    }
+    if (!p) return
+    if (rec.depth > p.finalDepth) errors.push({ row, column: col('depth'), message: `Depth (${rec.depth} m) is below the hole's final depth (${p.finalDepth} m).` })
+    const k = vaneKey(String(rec.point), rec.depth)
+    const first = seen.get(k)
+    if (first !== undefined) errors.push({ row, column: col('depth'), message: `${String(rec.point)} at ${rec.depth} m appears twice in the file (first on row ${first}).` })
+    else seen.set(k, row)
+    if (ctx.vaneDepths?.has(k)) errors.push({ row, column: col('depth'), message: `${String(rec.point)} already has a vane reading at ${rec.depth} m.` })
+  })
 }

@@ -127,8 +127,8 @@ export const CptInputSchema = z.object({
 
 export const VaneInputSchema = z.object({
   depth: depth('Depth'),
-  peak: z.number().positive({ message: 'must be above 0 kPa' }).max(1000),
-  remoulded: z.number().min(0).max(1000).nullable().default(null),
+  peak: z.number().positive({ message: 'must be above 0 kPa' }).max(1000, { message: 'must be at most 1000 kPa' }),
+  remoulded: z.number().min(0, { message: 'must be 0 kPa or more' }).max(1000, { message: 'must be at most 1000 kPa' }).nullable().default(null),
 })
 
 export type PointInput = z.infer<typeof PointInputSchema>

@@ -32,7 +32,7 @@ export const TimeReadingSchema = z.object({
 
 export const StageInputSchema = z.object({
   stress: z.number({ error: 'σ\' must be a number' }).positive({ message: 'σ\' must be above 0 kPa' }).max(100_000, { message: 'σ\' must be at most 100 000 kPa' }),
-  value: z.number({ error: 'must be a number' }).min(-1000).max(1000),
+  value: z.number({ error: 'must be a number' }).min(-1000, { message: 'must be at least −1000' }).max(1000, { message: 'must be at most 1000' }),
   readings: z.array(TimeReadingSchema).max(400).optional(),
 })
 

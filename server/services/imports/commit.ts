@@ -1,9 +1,10 @@
 import { and, eq, inArray, sql } from 'drizzle-orm'
-import type { ImportContext, ImportTarget, ParsedValue } from '#shared/imports/targets'
+import { type ImportContext, type ImportTarget, type ParsedValue, stageConventionOf, STAGE_VALUE_FIELDS, vaneKey } from '#shared/imports/targets'
 import { useDb } from '../../db/client'
-import { groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, strata } from '../../db/schema'
+import { groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, strata, vaneReadings } from '../../db/schema'
 import { recordAudit, type Tx } from '../audit'
 import { replaceCptSounding } from '../cpt'
+import { replaceTestStages } from '../lab'
 
 type Rec = Record<string, ParsedValue | undefined>
 
@@ -35,7 +36,7 @@ const numOrNull = (v: ParsedValue | undefined) => (typeof v === 'number' ? v : n
  * whole log of every point the file names; other targets add rows (index tests
  * replace a sample's existing set).
  */
-export async function writeImport(tx: Tx, args: { projectId: string, actorId: string, target: ImportTarget, records: Rec[], filename: string, cptPointId?: string, areaRatio?: number }, ctx: Awaited<ReturnType<typeof importContext>>): Promise<number> {
+export async function writeImport(tx: Tx, args: { projectId: string, actorId: string, target: ImportTarget, records: Rec[], filename: string, cptPointId?: string, areaRatio?: number, testId?: string, testVersion?: number, mapping?: Record<string, string> }, ctx: Awaited<ReturnType<typeof importContext>>): Promise<number> {
   const { projectId, target, records } = args
   const pid = (r: Rec) => ctx.pointIds.get(str(r.point))!
   const CHUNK = 2000
@@ -92,6 +93,16 @@ export async function writeImport(tx: Tx, args: { projectId: string, actorId: st
       await replaceCptSounding({ actorId: args.actorId, projectId, pointId: args.cptPointId! }, { areaRatio: args.areaRatio!, depth, qc, fs, u2 }, tx)
       break
     }
+    case 'oedometer-stages': {
+      const convention = stageConventionOf(args.mapping ?? {})!
+      const key = STAGE_VALUE_FIELDS[convention]
+      // The stage replacement records its own audit entry (before and after), so it returns here.
+      await replaceTestStages(tx, { projectId, actorId: args.actorId, testId: args.testId!, version: args.testVersion!, convention, stages: records.map(r => ({ stress: num(r.stress), value: num(r[key]) })), filename: args.filename })
+      return records.length
+    }
+    case 'vane':
+      await insertChunks(records.map(r => ({ pointId: pid(r), depth: num(r.depth), peak: num(r.peak), remoulded: numOrNull(r.remoulded) })), c => tx.insert(vaneReadings).values(c))
+      break
   }
   await recordAudit({ actorId: args.actorId, projectId, action: 'import', entity: target, entityId: args.cptPointId ?? null, after: { filename: args.filename, rows: records.length } }, tx)
   return records.length
@@ -100,4 +111,11 @@ export async function writeImport(tx: Tx, args: { projectId: string, actorId: st
 export async function pointInProject(projectId: string, pointId: string) {
   const [p] = await useDb().select().from(investigationPoints).where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, projectId)))
   return p
+}
+
+/** Vane readings already in the project, keyed like the import's duplicate check. */
+export async function vaneDepths(projectId: string): Promise<Set<string>> {
+  const rows = await useDb().select({ point: investigationPoints.identifier, depth: vaneReadings.depth }).from(vaneReadings)
+    .innerJoin(investigationPoints, eq(investigationPoints.id, vaneReadings.pointId)).where(eq(investigationPoints.projectId, projectId))
+  return new Set(rows.map(r => vaneKey(r.point, r.depth)))
 }

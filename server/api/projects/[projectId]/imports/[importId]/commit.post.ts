@@ -1,12 +1,14 @@
 import { eq } from 'drizzle-orm'
+import { roleCan } from '#shared/auth/roles'
 import { checkMapping, validateRows } from '#shared/imports/targets'
 import { ImportCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
 import { useDb } from '../../../../../db/client'
 import { importFiles, importMappings } from '../../../../../db/schema'
-import { importContext, pointInProject, writeImport } from '../../../../../services/imports/commit'
+import { importContext, pointInProject, vaneDepths, writeImport } from '../../../../../services/imports/commit'
 import type { UploadFormat } from '../../../../../services/imports/files'
 import { loadImportFile, tableOrThrow } from '../../../../../services/imports/preview'
 import { notFound } from '../../../../../services/versioned'
+import { requireTest, staleTest } from '../../../../../services/lab'
 
 const MAX_REPORTED = 500
 
@@ -16,7 +18,7 @@ const MAX_REPORTED = 500
  * the row-level report (file row, column, message). `dryRun` only reports.
  */
 export default defineEventHandler(async (event) => {
-  const { user, project } = await requireProjectRole(event, 'logs.write')
+  const { user, project, role } = await requireProjectRole(event, 'logs.write')
   const { importId } = validateParams(event, ImportParamsSchema)
   const body = await validateBody(event, ImportCommitSchema)
   const file = await loadImportFile(project.id, importId)
@@ -33,6 +35,16 @@ export default defineEventHandler(async (event) => {
     if (!cptPoint) notFound('Point')
     ctx.cptFinalDepth = cptPoint.finalDepth
   }
+  // Test data (oedometer stages, vane readings) is written by the roles that may enter tests.
+  if ((body.target === 'oedometer-stages' || body.target === 'vane') && !roleCan(role, 'tests.write')) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `Your role (${role}) cannot enter test data.` })
+  }
+  if (body.target === 'oedometer-stages') {
+    const test = await requireTest(project.id, body.testId!)
+    if (test.test.version !== body.testVersion) staleTest(test)
+    ctx.oedometerBasis = { e0: test.test.e0, specimenHeight: test.test.specimenHeight }
+  }
+  if (body.target === 'vane') ctx.vaneDepths = await vaneDepths(project.id)
   const result = validateRows(body.target, table.headers, table.rows, body.mapping, ctx, table.rowNumbers)
   if (result.errors.length) {
     throw createError({
@@ -45,7 +57,7 @@ export default defineEventHandler(async (event) => {
   if (body.dryRun) return { dryRun: true, rowCount: table.rows.length, errors: [] }
 
   const written = await useDb().transaction(async (tx) => {
-    const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records: result.records, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio }, ctx)
+    const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records: result.records, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio, testId: body.testId, testVersion: body.testVersion, mapping: body.mapping }, ctx)
     if (body.saveMapping) {
       await tx.insert(importMappings).values({ projectId: project.id, target: body.target, mapping: body.mapping, savedBy: user.id })
         .onConflictDoUpdate({ target: [importMappings.projectId, importMappings.target], set: { mapping: body.mapping, savedBy: user.id, updatedAt: new Date() } })
