@@ -1,4 +1,5 @@
-import type { Ref } from 'vue'
+import { ref, type Ref } from 'vue'
+import { apiErrorMessage } from './useApiError'
 
 export interface WriteOptions<T> {
   /** The notice shown when the write succeeds. */
