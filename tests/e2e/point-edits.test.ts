@@ -7,7 +7,7 @@ import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } fr
 import { type Browser, launch, screenshot, signInAs } from './helpers'
 
 interface Point { identifier: string, groundElevation: number, finalDepth: number, method: string, version: number }
-interface Detail { point: Point, samples: { identifier: string, top: number, bottom: number, recovery: number | null }[], vane: { depth: number, peak: number, remoulded: number | null }[] }
+interface Detail { point: Point, samples: { identifier: string, top: number, bottom: number, recovery: number | null, remarks: string }[], vane: { depth: number, peak: number, remoulded: number | null }[] }
 
 describe('editing a point, its samples and its vane readings in Chromium', () => {
   let browser: Browser
@@ -141,6 +141,30 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     await page.getByTestId('vane-table').filter({ hasText: '21.5' }).waitFor()
     await screenshot(page, 'vane-edited')
     expect((await detail()).vane).toEqual([expect.objectContaining({ depth: 5, peak: 21.5, remoulded: 6 })])
+    await page.close()
+  })
+
+  it('a sample saved meanwhile shows both sides; "use theirs" loads their values to edit again', async () => {
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await openPoint(page)
+    await page.getByRole('button', { name: 'Edit sample U-1' }).click()
+    const form = page.getByTestId('sample-edit-form')
+    await form.getByLabel('Remarks').fill('Slight smell')
+    const sample = (await geologist.get<{ samples: { id: string, version: number }[] }>(api())).body.samples[0]!
+    expect((await admin.patch(`${api()}/samples/${sample.id}`, { recovery: 70, remarks: 'Cutting shoe damaged', version: sample.version })).status).toBe(200)
+    await page.getByTestId('sample-save').click()
+    const conflict = form.getByTestId('row-conflict')
+    await conflict.waitFor()
+    expect(await conflict.locator('tr', { hasText: 'Remarks' }).textContent()).toBe('◆ RemarksSlight smellCutting shoe damaged')
+    // Only they changed the recovery: the form already shows it.
+    expect(await form.getByLabel('Recovery (%)').inputValue()).toBe('70')
+    await screenshot(page, 'sample-conflict')
+    await form.getByTestId('conflict-use-theirs').click()
+    expect(await form.getByLabel('Remarks').inputValue()).toBe('Cutting shoe damaged')
+    await form.getByLabel('Remarks').fill('Cutting shoe damaged; slight smell')
+    await page.getByTestId('sample-save').click()
+    await page.getByText('Sample U-1 saved.').waitFor()
+    expect((await detail()).samples).toEqual([expect.objectContaining({ recovery: 70, remarks: 'Cutting shoe damaged; slight smell', top: 4.2, bottom: 4.7 })])
     await page.close()
   })
 
