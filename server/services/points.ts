@@ -56,3 +56,35 @@ export function assertLogValid(intervals: { top: number, bottom: number }[], fin
     })
   }
 }
+
+/**
+ * 422 on the `finalDepth` field when a new final depth would leave anything
+ * logged at the point below the bottom of the hole (log intervals, samples,
+ * SPT, vane readings, groundwater depths), naming the deepest one.
+ */
+export async function assertFinalDepthHolds(tx: Tx, pointId: string, finalDepth: number) {
+  const deepest = (rows: { d: number | null }[]) => rows.reduce((m, r) => (r.d !== null && r.d > m ? r.d : m), Number.NEGATIVE_INFINITY)
+  const [log, sampleRows, spt, vane, water] = await Promise.all([
+    tx.select({ d: logIntervals.bottom }).from(logIntervals).where(eq(logIntervals.pointId, pointId)),
+    tx.select({ d: samples.bottom }).from(samples).where(eq(samples.pointId, pointId)),
+    tx.select({ d: sptResults.depth }).from(sptResults).where(eq(sptResults.pointId, pointId)),
+    tx.select({ d: vaneReadings.depth }).from(vaneReadings).where(eq(vaneReadings.pointId, pointId)),
+    tx.select({ d: groundwaterObservations.depth }).from(groundwaterObservations).where(eq(groundwaterObservations.pointId, pointId)),
+  ])
+  const checks = [
+    { what: 'the bottom of the deepest log interval', depth: deepest(log) },
+    { what: 'the bottom of the deepest sample', depth: deepest(sampleRows) },
+    { what: 'the deepest SPT', depth: deepest(spt) },
+    { what: 'the deepest vane reading', depth: deepest(vane) },
+    { what: 'the deepest groundwater observation', depth: deepest(water) },
+  ]
+  const worst = checks.filter(c => c.depth > finalDepth).sort((a, b) => b.depth - a.depth)[0]
+  if (!worst) return
+  const message = `must be at least ${worst.depth} m: ${worst.what} is at ${worst.depth} m.`
+  throw createError({
+    statusCode: 422,
+    statusMessage: 'Unprocessable Entity',
+    message: `The final depth (${finalDepth} m) is above ${worst.what} (${worst.depth} m).`,
+    data: { issues: [{ path: 'finalDepth', message }] },
+  })
+}

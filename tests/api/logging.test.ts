@@ -162,6 +162,85 @@ describe('logging API', () => {
     expect(cross.status).toBe(422)
   })
 
+  describe('editing a second hole', () => {
+    let url: string
+    let version: number
+    beforeAll(async () => {
+      const pt = await geologist.post<{ point: { id: string, version: number } }>(`/api/projects/${projectId}/points`, { identifier: 'WS-02', kind: 'borehole', easting: 80, northing: 25, groundElevation: 2.2, finalDepth: 12 })
+      expect(pt.status).toBe(201)
+      url = `/api/projects/${projectId}/points/${pt.body.point.id}`
+      version = pt.body.point.version
+    })
+
+    it('edits a vane reading: values read back, a stale version is 409 with the current row, bad input is 400, other callers are refused', async () => {
+      const made = await geologist.post<{ row: { id: string, version: number } }>(`${url}/vane`, { depth: 6, peak: 24, remoulded: 8 })
+      expect(made.status).toBe(201)
+      const rowUrl = `${url}/vane/${made.body.row.id}`
+
+      const edited = await geologist.patch<{ row: { depth: number, peak: number, remoulded: number | null, version: number } }>(rowUrl, { depth: 6.5, peak: 27.5, remoulded: null, version: made.body.row.version })
+      expect(edited.status).toBe(200)
+      expect(edited.body.row).toMatchObject({ depth: 6.5, peak: 27.5, remoulded: null, version: made.body.row.version + 1 })
+      const read = await viewer.get<{ vane: { id: string, depth: number, peak: number, remoulded: number | null }[] }>(url)
+      expect(read.body.vane).toEqual([expect.objectContaining({ id: made.body.row.id, depth: 6.5, peak: 27.5, remoulded: null })])
+
+      const stale = await owner.patch<{ message: string, data: { current: { peak: number, version: number } } }>(rowUrl, { depth: 6, peak: 20, remoulded: 5, version: made.body.row.version })
+      expect(stale.status).toBe(409)
+      expect(stale.body.data.current).toMatchObject({ peak: 27.5, version: made.body.row.version + 1 })
+
+      const bad = await geologist.patch<{ data: { issues: { path: string, message: string }[] } }>(rowUrl, { depth: -1, peak: 0, version: edited.body.row.version })
+      expect(bad.status).toBe(400)
+      expect(bad.body.data.issues.map(i => i.path).sort()).toEqual(['depth', 'peak'])
+      const deep = await geologist.patch(rowUrl, { depth: 12.5, peak: 20, version: edited.body.row.version })
+      expect(deep.status).toBe(422)
+
+      expect((await viewer.patch(rowUrl, { depth: 6, peak: 20, version: edited.body.row.version })).status).toBe(403)
+      const outsider = await createUser(owner, 'vaneoutsider')
+      expect((await outsider.client.patch(rowUrl, { depth: 6, peak: 20, version: edited.body.row.version })).status).toBe(404)
+      // The reading belongs to WS-02: reached through BH-01 it does not exist.
+      expect((await geologist.patch(`${base}/vane/${made.body.row.id}`, { depth: 6, peak: 20, version: edited.body.row.version })).status).toBe(404)
+
+      const after = await viewer.get<{ vane: { peak: number, version: number }[] }>(url)
+      expect(after.body.vane).toEqual([expect.objectContaining({ peak: 27.5, version: made.body.row.version + 1 })])
+    })
+
+    it('edits a sample; an identifier used at the point is 409 on its field', async () => {
+      const u1 = await geologist.post<{ sample: { id: string } }>(`${url}/samples`, { identifier: 'U1', top: 3, bottom: 3.45, type: 'thin-walled-tube' })
+      const u2 = await geologist.post<{ sample: { id: string, version: number } }>(`${url}/samples`, { identifier: 'U2', top: 5, bottom: 5.45, type: 'piston' })
+      expect([u1.status, u2.status]).toEqual([201, 201])
+      const sampleUrl = `${url}/samples/${u2.body.sample.id}`
+      const moved = await geologist.patch<{ sample: { top: number, bottom: number, recovery: number, version: number } }>(sampleUrl, { top: 5.5, bottom: 6.1, recovery: 88, version: u2.body.sample.version })
+      expect(moved.status).toBe(200)
+      expect(moved.body.sample).toMatchObject({ top: 5.5, bottom: 6.1, recovery: 88 })
+      const dup = await geologist.patch<{ message: string, data: { issues: { path: string }[], current?: unknown } }>(sampleUrl, { identifier: 'U1', version: moved.body.sample.version })
+      expect(dup.status).toBe(409)
+      expect(dup.body.message).toBe('Sample U1 already exists at this point.')
+      expect(dup.body.data.issues.map(i => i.path)).toEqual(['identifier'])
+      expect(dup.body.data.current).toBeUndefined()
+      const stale = await geologist.patch<{ data: { current: { top: number } } }>(sampleUrl, { top: 5, version: u2.body.sample.version })
+      expect(stale.status).toBe(409)
+      expect(stale.body.data.current.top).toBe(5.5)
+    })
+
+    it('refuses a final depth above what is logged, naming the deepest thing, and a used identifier on its field', async () => {
+      // Logged so far at WS-02: a vane reading at 6.5 m and a sample down to 6.1 m.
+      const spt = await geologist.post(`${url}/spt`, { depth: 9.5, blows: [2, 3, 3] })
+      expect(spt.status).toBe(201)
+      const shallow = await geologist.patch<{ message: string, data: { issues: { path: string, message: string }[] } }>(url, { finalDepth: 9, version })
+      expect(shallow.status).toBe(422)
+      expect(shallow.body.message).toBe('The final depth (9 m) is above the deepest SPT (9.5 m).')
+      expect(shallow.body.data.issues).toEqual([{ path: 'finalDepth', message: 'must be at least 9.5 m: the deepest SPT is at 9.5 m.' }])
+
+      const dup = await geologist.patch<{ data: { issues: { path: string }[] } }>(url, { identifier: 'BH-01', version })
+      expect(dup.status).toBe(409)
+      expect(dup.body.data.issues.map(i => i.path)).toEqual(['identifier'])
+
+      const okay = await geologist.patch<{ point: { finalDepth: number, groundElevation: number, method: string } }>(url, { finalDepth: 9.5, groundElevation: 2.35, method: 'Rotary open hole', version })
+      expect(okay.status).toBe(200)
+      const read = await viewer.get<{ point: { identifier: string, finalDepth: number, groundElevation: number, method: string } }>(url)
+      expect(read.body.point).toMatchObject({ identifier: 'WS-02', finalDepth: 9.5, groundElevation: 2.35, method: 'Rotary open hole' })
+    })
+  })
+
   it('lets a viewer read but not write, and audits every write', async () => {
     expect((await viewer.post(`/api/projects/${projectId}/points`, { identifier: 'BH-99', kind: 'borehole', easting: 0, northing: 0, groundElevation: 0, finalDepth: 5 })).status).toBe(403)
     const list = await viewer.get<{ points: { identifier: string }[], total: number }>(`/api/projects/${projectId}/points?q=bh`)
@@ -171,6 +250,6 @@ describe('logging API', () => {
     expect(kinds.body.points.map(p => p.identifier)).toEqual(['CPT-01'])
     const audit = await viewer.get<{ events: { entity: string }[] }>(`/api/projects/${projectId}/audit?limit=100`)
     const entities = new Set(audit.body.events.map(e => e.entity))
-    for (const e of ['point', 'log', 'sample', 'index-test', 'spt', 'groundwater', 'cpt', 'stratum']) expect(entities).toContain(e)
+    for (const e of ['point', 'log', 'sample', 'index-test', 'spt', 'groundwater', 'vane', 'cpt', 'stratum']) expect(entities).toContain(e)
   })
 })

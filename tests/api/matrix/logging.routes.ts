@@ -23,6 +23,7 @@ export const ROUTES: RouteCase[] = [  // Investigation points and their logs
   ]),
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/spt/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'spt'); return { path: r.url, body: { depth: 5, blows: [2, 2, 2], version: r.version } } } },
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/groundwater/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'groundwater'); return { path: r.url, body: { kind: 'standing', observedAt: '2025-04-02T09:00:00Z', depth: 1.7, version: r.version } } } },
+  { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/vane/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'vane'); return { path: r.url, body: { depth: 6, peak: 22, remoulded: 7, version: r.version } } } },
   { method: 'PUT', path: '/api/projects/:projectId/points/:pointId/cpt', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx, 'cpt')).url}/cpt`, body: CPT_BODY }) },
   {
     method: 'GET', path: '/api/projects/:projectId/points/:pointId/cpt', allowed: ALL, ok: 200,

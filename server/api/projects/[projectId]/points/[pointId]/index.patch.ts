@@ -1,9 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { PointUpdateSchema } from '#shared/schemas/investigation'
 import { useDb } from '../../../../../db/client'
-import { investigationPoints, logIntervals } from '../../../../../db/schema'
+import { investigationPoints } from '../../../../../db/schema'
 import { recordAudit } from '../../../../../services/audit'
-import { assertLogValid, requirePoint } from '../../../../../services/points'
+import { assertFinalDepthHolds, requirePoint } from '../../../../../services/points'
 import { versionedUpdate } from '../../../../../services/versioned'
 import { isUniqueViolation } from '../../../../../utils/db-errors'
 
@@ -14,11 +14,8 @@ export default defineEventHandler(async (event) => {
   try {
     const point = await useDb().transaction(async (tx) => {
       const before = await requirePoint(project.id, pointId, tx, { lock: true })
-      if (patch.finalDepth !== undefined && patch.finalDepth !== before.finalDepth) {
-        // A shallower final depth must still hold the whole log.
-        const intervals = await tx.select({ top: logIntervals.top, bottom: logIntervals.bottom }).from(logIntervals).where(eq(logIntervals.pointId, pointId))
-        assertLogValid(intervals, patch.finalDepth)
-      }
+      // A shallower final depth must still hold everything logged at the point.
+      if (patch.finalDepth !== undefined && patch.finalDepth < before.finalDepth) await assertFinalDepthHolds(tx, pointId, patch.finalDepth)
       const row = await versionedUpdate({
         entity: 'Point',
         update: () => tx.update(investigationPoints).set({ ...patch, version: sql`${investigationPoints.version} + 1` })
@@ -31,7 +28,7 @@ export default defineEventHandler(async (event) => {
     return { point }
   }
   catch (err) {
-    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${patch.identifier} already exists in this project.` })
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${patch.identifier} already exists in this project.`, data: { issues: [{ path: 'identifier', message: 'is already used by another point in this project' }] } })
     throw err
   }
 })

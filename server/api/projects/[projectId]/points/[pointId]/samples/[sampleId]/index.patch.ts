@@ -5,12 +5,14 @@ import { samples } from '../../../../../../../db/schema'
 import { recordAudit } from '../../../../../../../services/audit'
 import { requirePoint } from '../../../../../../../services/points'
 import { notFound, unprocessable, versionedUpdate } from '../../../../../../../services/versioned'
+import { isUniqueViolation } from '../../../../../../../utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
   const { pointId, sampleId } = validateParams(event, SampleParams)
   const { version, ...patch } = await validateBody(event, SampleUpdateSchema)
-  const sample = await useDb().transaction(async (tx) => {
+  try {
+    const sample = await useDb().transaction(async (tx) => {
     const point = await requirePoint(project.id, pointId, tx)
     const scope = and(eq(samples.id, sampleId), eq(samples.pointId, point.id))
     const [before] = await tx.select().from(samples).where(scope)
@@ -27,5 +29,10 @@ export default defineEventHandler(async (event) => {
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'sample', entityId: sampleId, before, after: row }, tx)
     return row
   })
-  return { sample }
+    return { sample }
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `Sample ${patch.identifier} already exists at this point.`, data: { issues: [{ path: 'identifier', message: 'is already used by another sample at this point' }] } })
+    throw err
+  }
 })

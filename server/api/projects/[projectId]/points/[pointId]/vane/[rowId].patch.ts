@@ -1,0 +1,12 @@
+import { VaneInputSchema, VersionSchema } from '#shared/schemas/investigation'
+import { updatePointRow } from '../../../../../../services/point-rows'
+
+const Body = VaneInputSchema.extend(VersionSchema.shape)
+
+export default defineEventHandler(async (event) => {
+  const { user, project } = await requireProjectRole(event, 'tests.write')
+  const { pointId, rowId } = validateParams(event, PointRowParams)
+  const { version, ...values } = await validateBody(event, Body)
+  const row = await updatePointRow('vane', { actorId: user.id, projectId: project.id, pointId }, rowId, version, values)
+  return { row }
+})
