@@ -1,5 +1,5 @@
 import type { FlagVerdict } from '#shared/review/flags'
-import type { PointFlag, SigmaPoint } from '~/utils/stressHistory'
+import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag, type SigmaPoint } from '~/utils/stressHistory'
 
 interface DenseCpt {
   pointId: string
@@ -84,12 +84,14 @@ function mergeDense(cpt: DenseCpt[], extra: { depth: number[], value: number[] }
 
 /**
  * The project's σ'p points from all sources, the open reviewer flags that bear on
- * them, and the dense CPT layer; fetched in the browser only. `bench` adds that
+ * them, the flagged tests that have no σ'p, and the dense CPT layer; fetched in
+ * the browser only. `bench` adds that
  * many synthetic dense rows (benchmarks only).
  */
 export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number> } = {}) {
   const points = shallowRef<SigmaPoint[]>([])
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
+  const flaggedTests = shallowRef<FlaggedTest[]>([])
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
   const warnings = ref<string[]>([])
   const stressModel = ref<PointsAnswer['stressModel'] | null>(null)
@@ -106,7 +108,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
       const [pts, flagList, tests] = await Promise.all([
         api<PointsAnswer>(`${base}/preconsolidation-points?dense=1`),
         api<{ flags: FlagRow[] }>(`${base}/flags?status=open&limit=500`),
-        api<{ tests: { id: string, adoption: { id: string } | null }[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] })),
+        api<{ tests: ListedTest[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] as ListedTest[] })),
       ])
       // A flag on an oedometer test bears on the σ'p adopted from it.
       const adoptionOfTest = new Map(tests.tests.filter(t => t.adoption).map(t => [t.id, t.adoption!.id]))
@@ -120,6 +122,8 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
       const n = Math.max(0, Math.min(2_000_000, Math.round(toValue(options.bench) ?? 0)))
       points.value = pts.points
       flags.value = map
+      // A flag on a test with no adopted σ'p has no point to ring: the canvas marks the test at its depth.
+      flaggedTests.value = flaggedUnadoptedTests(tests.tests, flagList.flags)
       dense.value = mergeDense(pts.dense?.cpt ?? [], n ? syntheticRows(n, toValue(options.maxDepth) ?? 22) : null)
       warnings.value = pts.warnings
       stressModel.value = pts.stressModel
@@ -134,5 +138,5 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
 
   onMounted(load)
   watch(() => toValue(projectId), () => void load())
-  return { points, flags, dense, warnings, stressModel, loading, error, refresh: load }
+  return { points, flags, flaggedTests, dense, warnings, stressModel, loading, error, refresh: load }
 }
