@@ -77,13 +77,6 @@ export function flaggedUnadoptedTests(tests: readonly ListedTest[], flags: reado
     .sort((a, b) => a.depth - b.depth || a.pointIdentifier.localeCompare(b.pointIdentifier))
 }
 
-/** The verdict a marker shows when a test has several flags: exclude before questionable before accepted. */
-export function strongestVerdict(flags: readonly PointFlag[]): FlagVerdict {
-  if (flags.some(f => f.verdict === 'exclude')) return 'exclude'
-  if (flags.some(f => f.verdict === 'questionable')) return 'questionable'
-  return 'accepted'
-}
-
 /** A row of the stress-profile answer. */
 export interface ProfilePoint {
   depth: number
