@@ -7,7 +7,7 @@ import type { ReferenceHole, UnitWeightReading, WaterReading } from '~/composabl
 import type { ProfileError } from '~/composables/useStressProfile'
 import type { TrendFits, WorkspaceEditor } from '~/composables/useTrendFits'
 import type { ModelUnits } from '~/composables/useModelUnits'
-import type { PointFlag, ProfilePoint, SigmaPoint } from '~/utils/stressHistory'
+import type { FlaggedTest, PointFlag, ProfilePoint, SigmaPoint } from '~/utils/stressHistory'
 
 /** The plotting band of the drawing (px from its top) that every track and the depth scale share. */
 export const MODEL_PLOT = { top: 44, bottom: 604 } as const
@@ -32,6 +32,8 @@ export interface ModelWorkspace {
   strata: ComputedRef<StratumRow[]>
   points: ShallowRef<SigmaPoint[]>
   flags: ShallowRef<Map<string, PointFlag[]>>
+  /** Flagged oedometer tests with no adopted σ'p: marked at their depth, never fitted. */
+  flaggedTests: ShallowRef<FlaggedTest[]>
   dense: ShallowRef<DenseLayer>
   fits: TrendFits
   holes: ComputedRef<ReferenceHole[]>

@@ -2,7 +2,7 @@ import type { FlagVerdict } from '#shared/review/flags'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { stableJson } from '~/utils/siteModelEdits'
-import type { PointFlag, SigmaPoint } from '~/utils/stressHistory'
+import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag, type SigmaPoint } from '~/utils/stressHistory'
 
 interface DenseCpt {
   pointId: string
@@ -124,7 +124,8 @@ function stressKey(def: SiteModelDefinition): string {
 
 /**
  * The project's σ'p points from all sources, the open reviewer flags that bear on
- * them, and the dense CPT layer; fetched in the browser only. `bench` adds that
+ * them, the flagged tests that have no σ'p, and the dense CPT layer; fetched in
+ * the browser only. `bench` adds that
  * many synthetic dense rows (benchmarks only).
  *
  * With `definition`, the points are computed through that model (POST
@@ -136,6 +137,7 @@ function stressKey(def: SiteModelDefinition): string {
 export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number>, definition?: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, label?: MaybeRefOrGetter<string>, delay?: number } = {}) {
   const points = shallowRef<SigmaPoint[]>([])
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
+  const flaggedTests = shallowRef<FlaggedTest[]>([])
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
   const warnings = ref<string[]>([])
   const stressModel = ref<PointsAnswer['stressModel'] | null>(null)
@@ -152,7 +154,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
       const [pts, flagList, tests] = await Promise.all([
         askPoints(base),
         api<{ flags: FlagRow[] }>(`${base}/flags?status=open&limit=500`),
-        api<{ tests: { id: string, adoption: { id: string } | null }[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] })),
+        api<{ tests: ListedTest[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] as ListedTest[] })),
       ])
       // A flag on an oedometer test bears on the σ'p adopted from it.
       const adoptionOfTest = new Map(tests.tests.filter(t => t.adoption).map(t => [t.id, t.adoption!.id]))
@@ -164,6 +166,8 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
         map.set(target, [...(map.get(target) ?? []), { id: f.id, verdict: f.verdict, comment: f.comment, author: f.author, targetType: f.targetType }])
       }
       flags.value = map
+      // A flag on a test with no adopted σ'p has no point to ring: the canvas marks the test at its depth.
+      flaggedTests.value = flaggedUnadoptedTests(tests.tests, flagList.flags)
       applyPoints(pts)
     }
     catch (err) {
@@ -235,5 +239,5 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
 
   onMounted(load)
   watch(() => toValue(projectId), () => void load())
-  return { points, flags, dense, warnings, stressModel, loading, error, refresh: load }
+  return { points, flags, flaggedTests, dense, warnings, stressModel, loading, error, refresh: load }
 }

@@ -1,5 +1,5 @@
-import type { Compressibility, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
-import { stratumBounds } from '#shared/site-model/definition'
+import type { Compressibility, CompressibilityKey, DepthTrend, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
+import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition'
 
 /**
  * Pure edits of a site-model definition, one function per gesture of the stress
@@ -95,7 +95,8 @@ export interface StratumChoice {
 
 /**
  * Gives band `i` another stratum of the project: its code, name and the strata
- * list's unit weights. The σ'p trend belonged to the old stratum's points, so it goes.
+ * list's unit weights. The σ'p trend belonged to the old stratum's points and the
+ * compressibility depth trends to its tests, so they go (the constants stay).
  */
 export function setBandStratum(def: SiteModelDefinition, i: number, choice: StratumChoice): SiteModelDefinition {
   const out = clone(def)
@@ -106,6 +107,7 @@ export function setBandStratum(def: SiteModelDefinition, i: number, choice: Stra
   s.unitWeight = choice.unitWeight
   s.unitWeightSaturated = choice.unitWeightSaturated
   delete s.trend
+  if (s.compressibility) delete s.compressibility.trends
   return out
 }
 
@@ -168,6 +170,29 @@ export function setCompressibility(def: SiteModelDefinition, i: number, patch: P
     if (key in patch && patch[key] === undefined) delete next[key]
   }
   s.compressibility = next
+  return out
+}
+
+/**
+ * One parameter of a band's compressibility becomes a depth trend (`trend`) or
+ * goes back to its constant (null). A trend needs schema version 2, so the
+ * definition moves to it; Cc, Cr and e0 start at 0, 0 and 1 when absent, and cv
+ * or Cα take the trend's mean as their constant when they have none.
+ */
+export function setCompressibilityTrend(def: SiteModelDefinition, i: number, key: CompressibilityKey, trend: DepthTrend | null): SiteModelDefinition {
+  const out = clone(def)
+  const s = band(out, i)
+  const c: Compressibility = { cc: 0, cr: 0, e0: 1, drainage: 'double', source: 'manual', ...s.compressibility }
+  const trends = { ...c.trends }
+  if (trend) {
+    trends[key] = JSON.parse(JSON.stringify(trend)) as DepthTrend
+    if ((key === 'cv' || key === 'calpha') && c[key] === undefined) c[key] = trend.value
+    out.schemaVersion = SITE_MODEL_SCHEMA_VERSION
+  }
+  else delete trends[key]
+  if (Object.keys(trends).length) c.trends = trends
+  else delete c.trends
+  s.compressibility = c
   return out
 }
 

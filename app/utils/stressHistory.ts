@@ -38,6 +38,45 @@ export interface PointFlag {
   targetType: string
 }
 
+/** An oedometer test as GET …/tests/oedometer lists it, as far as the canvas reads it. */
+export interface ListedTest {
+  id: string
+  depth: number
+  stratumCode: string | null
+  point: { identifier: string }
+  sample: { identifier: string }
+  reading: { qualityClass: string | null }
+  adoption: { id: string } | null
+}
+
+/**
+ * A test with open reviewer flags and no σ'p adopted from it (a disturbed
+ * specimen, say): it has no σ'p point, so the canvas marks it at its sample
+ * depth on the stress track's edge instead. Never fitted.
+ */
+export interface FlaggedTest {
+  testId: string
+  pointIdentifier: string
+  sampleIdentifier: string
+  depth: number
+  stratumCode: string | null
+  qualityClass: string | null
+  flags: PointFlag[]
+}
+
+/** The flagged tests without an adoption, shallowest first; a flag on an adopted test shows on its σ'p point instead. */
+export function flaggedUnadoptedTests(tests: readonly ListedTest[], flags: readonly (PointFlag & { targetId: string, status?: string })[]): FlaggedTest[] {
+  const byTest = new Map<string, PointFlag[]>()
+  for (const f of flags) {
+    if (f.targetType !== 'oedometer-test' || (f.status && f.status !== 'open')) continue
+    byTest.set(f.targetId, [...(byTest.get(f.targetId) ?? []), { id: f.id, verdict: f.verdict, comment: f.comment, author: f.author, targetType: f.targetType }])
+  }
+  return tests
+    .filter(t => !t.adoption && byTest.has(t.id))
+    .map(t => ({ testId: t.id, pointIdentifier: t.point.identifier, sampleIdentifier: t.sample.identifier, depth: t.depth, stratumCode: t.stratumCode, qualityClass: t.reading.qualityClass, flags: byTest.get(t.id)! }))
+    .sort((a, b) => a.depth - b.depth || a.pointIdentifier.localeCompare(b.pointIdentifier))
+}
+
 /** A row of the stress-profile answer. */
 export interface ProfilePoint {
   depth: number

@@ -1,5 +1,6 @@
 import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
+import { MAX_SETTLEMENT_LAYERS } from '#shared/schemas/calc'
 import { ModelIncompleteError } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { sublayerTable } from '#shared/site-model/sublayers'
@@ -23,10 +24,21 @@ function tableOrRefuse(def: SiteModelDefinition, maxThickness: number) {
 /**
  * The export document (docs/site-model-schema.md): its `layers`, `groundwater`,
  * `surcharge` and `gammaW` are the settlement API's input as they are, so a
- * client adds a `load` and posts it to /api/calc/settlement.
+ * client adds a `load` and posts it to /api/calc/settlement. Its `sublayers`
+ * ({ maxThickness }) is the settlement API's option of the same name, so the
+ * engine's sublayers are the slices a compressibility depth trend was cut into.
  */
 export function exportDocument(project: ProjectRow, model: { id: string, name: string }, v: VersionMeta & { definition: SiteModelDefinition }, maxThickness: number) {
   const { layers } = tableOrRefuse(v.definition, maxThickness)
+  // A stratum with compressibility depth trends comes as slices of maxThickness: thin slices can outnumber what the settlement API takes.
+  if (layers.length > MAX_SETTLEMENT_LAYERS) {
+    throw createError({
+      statusCode: 422,
+      statusMessage: 'Unprocessable Entity',
+      message: `At sublayers of ${maxThickness} m the depth trends of compressibility give ${layers.length} layers; the settlement API takes at most ${MAX_SETTLEMENT_LAYERS}. Ask for a larger maxThickness.`,
+      data: { code: 'too-many-layers' },
+    })
+  }
   return {
     schema: EXPORT_SCHEMA,
     schemaVersion: EXPORT_SCHEMA_VERSION,

@@ -94,9 +94,12 @@ export const SublayerOptionsSchema = z.union([
   z.object({ count: z.number().int().min(1).max(10_000) }),
 ])
 
+/** Most layers one settlement request may carry. */
+export const MAX_SETTLEMENT_LAYERS = 200
+
 export const SettlementRequestSchema = z.object({
   ...profileBase,
-  layers: z.array(SettlementLayerSchema).min(1, { message: 'needs at least one layer' }).max(200),
+  layers: z.array(SettlementLayerSchema).min(1, { message: 'needs at least one layer' }).max(MAX_SETTLEMENT_LAYERS),
   load: LoadSchema,
   sublayers: SublayerOptionsSchema.optional().describe('Default { maxThickness: 0.25 }'),
   time: z.object({ years: z.array(z.number().min(0)).min(1).max(1000) }).optional(),

@@ -1,7 +1,8 @@
-import type { PreconsolidationModel, SettlementLayer } from '../geotech/settlement'
+import { DEFAULT_MAX_SUBLAYER_THICKNESS, type PreconsolidationModel, type SettlementLayer } from '../geotech/settlement'
 import type { StressProfileInput } from '../geotech/stress'
 import { evaluateTrend, type TrendFit } from '../geotech/trends'
-import { type ModelStratum, type SiteModelDefinition, stratumBounds } from './definition'
+import { compressibilityAt, hasDepthTrend } from './compressibility'
+import { depthTrendProblems, type ModelStratum, type SiteModelDefinition, stratumBounds } from './definition'
 
 /**
  * From a site model to the engine's inputs. The stress-profile input is the
@@ -63,14 +64,28 @@ function interpolateKnots(knots: { depth: number, preconsolidation: number }[], 
 
 export class ModelIncompleteError extends Error {}
 
+export interface SettlementLayerOptions {
+  /**
+   * Slice thickness (m) for strata whose compressibility follows a depth trend:
+   * such a stratum is cut into equal slices no thicker than this, each carrying
+   * the trend's values at its mid-depth (default 0.25 m, the settlement API's
+   * default sublayer).
+   */
+  maxThickness?: number
+}
+
 /**
  * Settlement layers for the settlement API. A compressible stratum needs its
  * compressibility and a trend; σ'p forms map one to one (constant, pop, ocr;
  * linear in depth → linear top/bottom), crust and manual trends split the
- * stratum into sub-layers whose σ'p is linear between breakpoints.
+ * stratum into sub-layers whose σ'p is linear between breakpoints. A stratum
+ * with a compressibility depth trend is further cut into slices of at most
+ * `maxThickness`, each with Cc, Cr, e0, cv and Cα at its mid-depth, so the
+ * settlement engine's sublayers of the same thickness see the trend's values.
  */
-export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: (depth: number) => number): SettlementLayer[] {
+export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: (depth: number) => number, opts: SettlementLayerOptions = {}): SettlementLayer[] {
   const bounds = stratumBounds(def)
+  const maxThickness = opts.maxThickness ?? DEFAULT_MAX_SUBLAYER_THICKNESS
   const out: SettlementLayer[] = []
   def.strata.forEach((s, i) => {
     const { top, bottom } = bounds[i]!
@@ -82,19 +97,21 @@ export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: 
     const c = s.compressibility
     if (!c) throw new ModelIncompleteError(`Stratum "${s.name}" is compressible but has no adopted Cc, Cr and e0.`)
     if (!s.trend) throw new ModelIncompleteError(`Stratum "${s.name}" is compressible but has no σ'p trend.`)
-    const props = { compressible: true, cc: c.cc, cr: c.cr, e0: c.e0, ...(c.cv !== undefined ? { cv: c.cv } : {}), ...(c.calpha !== undefined ? { calpha: c.calpha } : {}), drainage: c.drainage }
-    const direct = directForm(s, top, bottom)
-    if (direct) {
-      out.push({ ...base, ...props, preconsolidation: direct })
-      return
+    const problem = depthTrendProblems(s, { top, bottom })[0]
+    if (problem) throw new ModelIncompleteError(`Stratum "${s.name}": ${problem.message}.`)
+    const props = (z: number) => {
+      const v = compressibilityAt(c, z)
+      return { compressible: true, cc: v.cc, cr: v.cr, e0: v.e0, ...(v.cv !== undefined ? { cv: v.cv } : {}), ...(v.calpha !== undefined ? { calpha: v.calpha } : {}), drainage: c.drainage }
     }
-    // Piecewise: a crust splits at its breakpoint (linear above, the model below as it is);
+    // σ'p pieces. Piecewise: a crust splits at its breakpoint (linear above, the model below as it is);
     // a hand-drawn trend splits at its knots (linear between them).
     const pieces: { a: number, b: number, form: PreconsolidationModel }[] = []
     const linearPiece = (a: number, b: number) => ({
       a, b, form: { type: 'linear' as const, top: trendPreconsolidation(s, a + 1e-9, effectiveStressAt(a))!, bottom: trendPreconsolidation(s, b - 1e-9, effectiveStressAt(b))! },
     })
-    if (s.trend.manual) {
+    const direct = directForm(s, top, bottom)
+    if (direct) pieces.push({ a: top, b: bottom, form: direct })
+    else if (s.trend.manual) {
       const cuts = [...new Set([top, bottom, ...s.trend.manual.knots.map(k => k.depth).filter(d => d > top && d < bottom)])].sort((x, y) => x - y)
       for (let j = 0; j + 1 < cuts.length; j++) pieces.push(linearPiece(cuts[j]!, cuts[j + 1]!))
     }
@@ -107,10 +124,34 @@ export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: 
       // A log-space fit: linear between the ends (a close, documented approximation over one stratum).
       pieces.push(linearPiece(top, bottom))
     }
-    pieces.forEach((piece, j) => {
-      out.push({ ...base, name: pieces.length > 1 ? `${s.name} (${j + 1}/${pieces.length})` : s.name, thickness: piece.b - piece.a, ...props, preconsolidation: piece.form })
+    // Slices: one per piece, or with a compressibility depth trend as many as the sublayering cuts.
+    const slices = hasDepthTrend(c) ? pieces.flatMap(p => slicePiece(p, maxThickness)) : pieces
+    if (direct && slices.length === 1) {
+      out.push({ ...base, ...props((top + bottom) / 2), preconsolidation: direct })
+      return
+    }
+    slices.forEach((piece, j) => {
+      out.push({ ...base, name: slices.length > 1 ? `${s.name} (${j + 1}/${slices.length})` : s.name, thickness: piece.b - piece.a, ...props((piece.a + piece.b) / 2), preconsolidation: piece.form })
     })
   })
+  return out
+}
+
+/**
+ * Equal slices of a σ'p piece, no thicker than `maxThickness` (the same count the
+ * sublayer table and the settlement engine use); a linear σ'p is cut at the slice
+ * ends, the other forms hold as they are.
+ */
+function slicePiece(p: { a: number, b: number, form: PreconsolidationModel }, maxThickness: number): { a: number, b: number, form: PreconsolidationModel }[] {
+  const h = p.b - p.a
+  const n = Math.max(1, Math.ceil(h / maxThickness - 1e-9))
+  const out: { a: number, b: number, form: PreconsolidationModel }[] = []
+  const at = (z: number) => (p.form.type === 'linear' ? p.form.top + ((p.form.bottom - p.form.top) * (z - p.a)) / h : 0)
+  for (let k = 0; k < n; k++) {
+    const a = p.a + (k * h) / n
+    const b = k === n - 1 ? p.b : p.a + ((k + 1) * h) / n
+    out.push({ a, b, form: p.form.type === 'linear' ? { type: 'linear', top: at(a), bottom: at(b) } : p.form })
+  }
   return out
 }
 

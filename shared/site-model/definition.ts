@@ -8,7 +8,13 @@ import { z } from 'zod'
  * versions; `schemaVersion` lets later releases read older snapshots.
  * docs/site-model-schema.md describes it for other tools.
  */
-export const SITE_MODEL_SCHEMA_VERSION = 1
+export const SITE_MODEL_SCHEMA_VERSION = 2
+/**
+ * Versions this release reads. 2 added depth trends of compressibility
+ * (`compressibility.trends`); a version-1 definition has none and reads and
+ * converts exactly as before.
+ */
+export const SITE_MODEL_SCHEMA_VERSIONS = [1, 2] as const
 
 export const TrendModelSchema = z.enum(['constant', 'linear', 'pop', 'ocr', 'crust'])
 
@@ -33,6 +39,32 @@ export const StratumTrendSchema = z.object({
 })
 export type StratumTrend = z.infer<typeof StratumTrendSchema>
 
+/** The compressibility parameters that may follow a depth trend instead of a constant. */
+export const COMPRESSIBILITY_KEYS = ['cc', 'cr', 'e0', 'cv', 'calpha'] as const
+export type CompressibilityKey = (typeof COMPRESSIBILITY_KEYS)[number]
+
+/**
+ * A parameter linear in depth within its stratum, fitted by least squares to the
+ * stratum's oedometer tests: value(z) = value + gradient·(z − referenceDepth).
+ * The reference depth is the mean depth of the fitted tests, so `value` is their
+ * mean and the trend does not move when a stratum break is dragged.
+ */
+export const DepthTrendSchema = z.object({
+  /** m below ground: the mean depth of the fitted tests. */
+  referenceDepth: z.number().min(0).max(500),
+  /** The parameter at the reference depth (the mean of the fitted tests). */
+  value: z.number(),
+  /** Change per metre of depth. */
+  gradient: z.number(),
+  n: z.number().int().min(3),
+  r2: z.number().min(0).max(1).nullable(),
+  /** Depth range of the fitted tests, m. */
+  testDepths: z.object({ top: z.number(), bottom: z.number() }),
+  /** The oedometer tests fitted. */
+  testIds: z.array(z.string()).max(1000),
+})
+export type DepthTrend = z.infer<typeof DepthTrendSchema>
+
 export const CompressibilitySchema = z.object({
   cc: z.number().min(0),
   cr: z.number().min(0),
@@ -43,6 +75,17 @@ export const CompressibilitySchema = z.object({
   /** How the values were adopted: the mean of the stratum's tests, or typed. */
   source: z.enum(['mean', 'manual']).default('manual'),
   n: z.number().int().min(0).optional(),
+  /**
+   * Schema version 2: parameters that follow a depth trend instead of the constant
+   * above (which stays as the alternative the engineer can switch back to).
+   */
+  trends: z.object({
+    cc: DepthTrendSchema.optional(),
+    cr: DepthTrendSchema.optional(),
+    e0: DepthTrendSchema.optional(),
+    cv: DepthTrendSchema.optional(),
+    calpha: DepthTrendSchema.optional(),
+  }).optional(),
 })
 export type Compressibility = z.infer<typeof CompressibilitySchema>
 
@@ -61,7 +104,7 @@ export const ModelStratumSchema = z.object({
 export type ModelStratum = z.infer<typeof ModelStratumSchema>
 
 export const SiteModelDefinitionSchema = z.object({
-  schemaVersion: z.literal(SITE_MODEL_SCHEMA_VERSION),
+  schemaVersion: z.union([z.literal(1), z.literal(2)]),
   surcharge: z.number().min(0).max(10_000).default(0),
   gammaW: z.number().min(9).max(10.5).default(9.81),
   groundwater: z.object({
@@ -71,6 +114,17 @@ export const SiteModelDefinitionSchema = z.object({
   strata: z.array(ModelStratumSchema).min(1, { message: 'needs at least one stratum' }).max(50),
   /** Reviewer flags that were in force when the version was saved. */
   flagsInForce: z.array(z.object({ flagId: z.string(), targetType: z.string(), targetId: z.string(), verdict: z.string() })).max(10_000).default([]),
+}).superRefine((def, ctx) => {
+  const bounds = stratumBounds(def)
+  def.strata.forEach((s, i) => {
+    const trends = s.compressibility?.trends
+    if (!trends || !Object.values(trends).some(Boolean)) return
+    if (def.schemaVersion < 2) {
+      ctx.addIssue({ code: 'custom', path: ['schemaVersion'], message: 'depth trends of compressibility need schemaVersion 2' })
+      return
+    }
+    for (const p of depthTrendProblems(s, bounds[i]!)) ctx.addIssue({ code: 'custom', path: ['strata', i, 'compressibility', 'trends', p.key], message: p.message })
+  })
 }).meta({ id: 'SiteModelDefinition' })
 export type SiteModelDefinition = z.infer<typeof SiteModelDefinitionSchema>
 
@@ -82,4 +136,39 @@ export function stratumBounds(def: Pick<SiteModelDefinition, 'strata'>): { top: 
     top = b.bottom
     return b
   })
+}
+
+/** Readable names of the compressibility parameters, for messages. */
+export const COMPRESSIBILITY_LABELS: Record<CompressibilityKey, string> = { cc: 'Cc', cr: 'Cr', e0: 'e0', cv: 'cv', calpha: 'Cα' }
+
+/** A depth trend's value at a depth. */
+export function depthTrendAt(t: Pick<DepthTrend, 'referenceDepth' | 'value' | 'gradient'>, depth: number): number {
+  return t.value + t.gradient * (depth - t.referenceDepth)
+}
+
+/**
+ * Where a stratum's depth trends leave the physical range: Cc, Cr, e0 and cv must
+ * stay above 0 and Cα at or above 0 from the stratum's top to its base (a linear
+ * trend is extreme at the ends). Such a trend is refused, never clamped: a clamped
+ * line would no longer be the fit whose n and R² are shown.
+ */
+export function depthTrendProblems(s: Pick<ModelStratum, 'name' | 'compressibility'>, bounds: { top: number, bottom: number }): { key: CompressibilityKey, message: string }[] {
+  const trends = s.compressibility?.trends
+  if (!trends) return []
+  const out: { key: CompressibilityKey, message: string }[] = []
+  for (const key of COMPRESSIBILITY_KEYS) {
+    const t = trends[key]
+    if (!t) continue
+    const strict = key !== 'calpha'
+    for (const [where, z] of [['top', bounds.top], ['base', bounds.bottom]] as const) {
+      const v = depthTrendAt(t, z)
+      if (strict ? v > 0 : v >= 0) continue
+      out.push({
+        key,
+        message: `the ${COMPRESSIBILITY_LABELS[key]} trend gives ${Number(v.toPrecision(3))} at the ${where} of ${s.name} (${z.toFixed(2)} m); it must stay ${strict ? 'above 0' : 'at or above 0'} through the stratum: keep the constant`,
+      })
+      break
+    }
+  }
+  return out
 }

@@ -31,11 +31,14 @@ export function preconsolidationAt(form: PreconsolidationModel, depth: number, t
 /**
  * The model's compressible strata cut into sublayers no thicker than
  * `maxThickness`, with σ'v0 and σ'p at each mid-depth and the adopted
- * compressibility: the table other settlement tools take.
+ * compressibility (a depth trend's values at each mid-depth): the table other
+ * settlement tools take.
  */
 export function sublayerTable(def: SiteModelDefinition, maxThickness = 0.25): { rows: SublayerRow[], layers: SettlementLayer[] } {
   const evaluate = createStressEvaluator(toStressInput(def))
-  const layers = toSettlementLayers(def, z => evaluate(z).effectiveStress)
+  // Strata with compressibility depth trends come sliced at the same thickness, so each
+  // sublayer below carries the trend's values at its own mid-depth.
+  const layers = toSettlementLayers(def, z => evaluate(z).effectiveStress, { maxThickness })
   const rows: SublayerRow[] = []
   let top = 0
   for (const layer of layers) {

@@ -4,10 +4,11 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import { SITE_MODEL_SCHEMA_VERSION, SiteModelDefinitionSchema, stratumBounds, type SiteModelDefinition } from '../../../shared/site-model/definition'
 import { computeStressProfile } from '../../../shared/geotech/stress'
 import { toStressInput } from '../../../shared/site-model/convert'
+import { depthTrendCandidates, type TestCompressibility } from '../../../shared/site-model/compressibility'
 import { HISTORY_LIMIT, localKey, useModelEditorStore } from '../../../app/stores/modelEditor'
 import {
   addPiezometer, diffDefinitions, modelBase, moveBoundary, movePiezometer, removeBoundary, setBandStratum, setCompressibility,
-  setTrend, setUnitWeight, setWaterTable, splitBand, stableJson,
+  setCompressibilityTrend, setTrend, setUnitWeight, setWaterTable, splitBand, stableJson,
 } from '../../../app/utils/siteModelEdits'
 
 /** The Saltmarsh Lane profile as a model built from the demo logs starts it (mean logged thicknesses). */
@@ -268,5 +269,36 @@ describe('the model editing session', () => {
     expect(s.draft!.groundwater.waterTableDepth).toBe(2.2)
     expect(localStorage.getItem(localKey(MODEL, 2))).toBeNull()
     expect(JSON.parse(localStorage.getItem(localKey(MODEL, 3))!).snapshot.draft.groundwater.waterTableDepth).toBe(2.2)
+  })
+
+  it('choosing a depth trend for Cc is one undoable edit that moves the draft to schema 2; constant and back walk the history', () => {
+    const s = useModelEditorStore()
+    const v1 = setCompressibility({ ...saltmarsh(), schemaVersion: 1 }, 2, { cc: 0.84, cr: 0.09, e0: 2.1, cv: 1.2, source: 'mean', n: 4 })
+    s.load(MODEL, v1, 4)
+    // Invented tests in the clay: Cc rising about 0.03 per metre.
+    const tests: TestCompressibility[] = [[4.5, 0.72], [6.8, 0.8], [9.6, 0.86], [12.9, 0.98]].map(([z, cc], k) => ({ id: `t${k}`, stratumCode: 'EST', depth: z!, qualityClass: 'good-to-fair', cc: cc!, cr: 0.09, e0: 2.1, cv: 1.2, calpha: null }))
+    const fit = depthTrendCandidates(tests, 'EST').cc
+    if (!fit.ok) throw new Error(fit.reason)
+    s.edit('Make Cc of EST follow depth', d => setCompressibilityTrend(d, 2, 'cc', fit.trend))
+    expect(s.draft!.schemaVersion).toBe(2)
+    expect(s.draft!.strata[2]!.compressibility!.trends!.cc).toEqual(fit.trend)
+    expect(s.draft!.strata[2]!.compressibility!.cc).toBe(0.84)
+    expect(SiteModelDefinitionSchema.safeParse(s.draft).success).toBe(true)
+    s.edit('Make Cc of EST constant', d => setCompressibilityTrend(d, 2, 'cc', null))
+    expect(s.draft!.strata[2]!.compressibility).not.toHaveProperty('trends')
+    expect(s.past.map(e => e.label)).toEqual(['Make Cc of EST follow depth', 'Make Cc of EST constant'])
+
+    s.undo()
+    expect(s.draft!.strata[2]!.compressibility!.trends!.cc!.gradient).toBe(fit.trend.gradient)
+    s.undo()
+    expect(s.draft!.strata[2]!.compressibility).not.toHaveProperty('trends')
+    expect(s.draft!.schemaVersion).toBe(1)
+    expect(s.dirty).toBe(false)
+    s.redo()
+    expect(s.draft!.strata[2]!.compressibility!.trends!.cc).toEqual(fit.trend)
+    expect(s.draft!.schemaVersion).toBe(2)
+    // Another stratum for the band drops the trend (it was fitted to the old stratum's tests), keeping the constants.
+    const other = setBandStratum(s.draft!, 2, { code: 'GLAC', name: 'Glacial clay', unitWeight: 20.5, unitWeightSaturated: 20.5 })
+    expect(other.strata[2]!.compressibility).toEqual({ cc: 0.84, cr: 0.09, e0: 2.1, cv: 1.2, drainage: 'double', source: 'mean', n: 4 })
   })
 })
