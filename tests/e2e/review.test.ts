@@ -177,7 +177,7 @@ describe('the reviewer\'s tools in Chromium', () => {
     await thread.getByTestId('thread-status').filter({ hasText: 'Resolved' }).waitFor()
     expect((await flagsOn(target.id))[0]!.status).toBe('resolved')
     // Still listed while its thread is open; gone from the open list once closed.
-    expect(await entry.getAttribute('data-status')).toBe('resolved')
+    await expect.poll(() => entry.getAttribute('data-status')).toBe('resolved')
     await entry.getByTestId('flag-toggle').click()
     await entry.waitFor({ state: 'detached' })
 
