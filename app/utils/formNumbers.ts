@@ -32,3 +32,31 @@ export function fieldIssues(error: z.ZodError, labels: Record<string, string>): 
 export function fmtNumber(v: number | null | undefined, digits = 1): string {
   return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(digits)
 }
+
+/** A point's header as typed (numbers and dates as text), the way PointInputSchema reads it. */
+export interface PointFormText {
+  identifier: string
+  kind: string
+  easting: string
+  northing: string
+  groundElevation: string
+  finalDepth: string
+  startedOn: string
+  endedOn: string
+  method: string
+  loggedBy: string
+  remarks?: string
+}
+
+/** The typed header as the point schema's input: numbers read, blank dates as null. */
+export function pointFormInput(form: PointFormText) {
+  return {
+    ...form,
+    easting: formNumber(form.easting),
+    northing: formNumber(form.northing),
+    groundElevation: formNumber(form.groundElevation),
+    finalDepth: formNumber(form.finalDepth),
+    startedOn: form.startedOn || null,
+    endedOn: form.endedOn || null,
+  }
+}
