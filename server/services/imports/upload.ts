@@ -39,7 +39,8 @@ export function readImportUpload(event: H3Event, maxBytes: number): Promise<Impo
     }
     bb.on('file', (name, stream, info) => {
       // The first part named "file" with a file name is the upload; any other part is skipped.
-      if (name !== 'file' || reading || !info.filename) {
+      const filename = info.filename
+      if (name !== 'file' || reading || !filename) {
         stream.resume()
         return
       }
@@ -52,7 +53,7 @@ export function readImportUpload(event: H3Event, maxBytes: number): Promise<Impo
       })
       stream.on('limit', () => fail(createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `The file is larger than ${(maxBytes / 1048576).toFixed(0)} MB, the limit for an import.` })))
       stream.on('end', () => {
-        if (!failed) file = { filename: info.filename, data: chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, size) }
+        if (!failed) file = { filename, data: chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, size) }
       })
     })
     bb.on('partsLimit', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: NO_FILE })))
