@@ -1,4 +1,5 @@
 import type { InvestigationRecord } from '#shared/investigation/types'
+import { float8ArrayParam } from '../db/binary'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
 import type { Tx } from './audit'
 
@@ -77,7 +78,7 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
   await inChunks(data.points.flatMap(p => p.vane.map(v => ({ ...v, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(vaneReadings).values(c))
   for (const p of data.points) {
     if (!p.cpt) continue
-    await tx.insert(cptSoundings).values({ pointId: pointIds.get(p.identifier)!, areaRatio: p.cpt.areaRatio, count: p.cpt.depth.length, depth: p.cpt.depth, qc: p.cpt.qc, fs: p.cpt.fs, u2: p.cpt.u2 })
+    await tx.insert(cptSoundings).values({ pointId: pointIds.get(p.identifier)!, areaRatio: p.cpt.areaRatio, count: p.cpt.depth.length, depth: float8ArrayParam(p.cpt.depth), qc: float8ArrayParam(p.cpt.qc), fs: float8ArrayParam(p.cpt.fs), u2: float8ArrayParam(p.cpt.u2) })
   }
   return { strataIds, pointIds, sampleIds }
 }

@@ -171,7 +171,8 @@ export function checkMapping(target: ImportTarget, headers: readonly string[], m
 type Cell = string | number | boolean | Date | null | undefined
 export type ParsedValue = string | number | null
 
-function parseCell(raw: Cell, type: FieldType): { value: ParsedValue, error?: string } {
+/** One cell as a field of `type`: its value, or why it is not one (an empty cell is null). */
+export function parseCell(raw: Cell, type: FieldType): { value: ParsedValue, error?: string } {
   if (raw === null || raw === undefined || (typeof raw === 'string' && raw.trim() === '')) return { value: null }
   if (type === 'number') {
     if (typeof raw === 'number') return Number.isFinite(raw) ? { value: raw } : { value: null, error: 'is not a finite number' }

@@ -122,6 +122,45 @@ describe('imports', () => {
     expect(got.body.qc[10]).toBe(310)
   })
 
+  it('checks a CPT file row by row with file row numbers and writes nothing, keeps the upload, then imports exact values with an audit entry', async () => {
+    const pts = await geo.get<{ points: { id: string }[] }>(`${base}/points?kind=cpt`)
+    const pointId = pts.body.points[0]!.id
+    const before = await geo.get<{ count: number }>(`${base}/points/${pointId}/cpt`)
+    const mapping = { depth: 'Depth (m)', qc: 'qc (kPa)', fs: 'fs (kPa)', u2: 'u2 (kPa)' }
+    const bad = 'Depth (m),qc (kPa),fs (kPa),u2 (kPa)\r\n0.02,301.5,5.01,-0.35\r\n\r\n0.04,3o2,5.02,-0.2\r\n0.03,303,,0.1\r\n'
+    const up = await upload<Preview>(geo, `${base}/imports`, 'cpt-bad.csv', bad)
+    expect(up.body.preview!.rowCount).toBe(3)
+    const r = await commit(up.body.importId, { target: 'cpt', mapping, pointId, areaRatio: 0.8 })
+    expect(r.status).toBe(422)
+    expect(r.body.data.errors).toEqual([
+      { row: 4, column: 'qc (kPa)', message: 'qc (kPa) "3o2" is not a number.' },
+      { row: 5, column: 'fs (kPa)', message: 'fs (kPa) is empty.' },
+      { row: 5, column: 'Depth (m)', message: 'Depth 0.03 m does not increase from the row above (0.04 m).' },
+    ])
+    expect((await geo.get<{ count: number }>(`${base}/points/${pointId}/cpt`)).body.count).toBe(before.body.count)
+    // A refused commit leaves the upload for another look.
+    expect((await geo.get(`${base}/imports/${up.body.importId}?target=cpt`)).status).toBe(200)
+
+    const good = 'Depth (m);qc (kPa);fs (kPa);u2 (kPa)\n0,5;301,5;5;-12,25\n1.0;1.5e3;0;-0.5\n\n2;-4;6.25;987654.125\n'
+    const up2 = await upload<Preview>(geo, `${base}/imports`, 'cpt-good.csv', good)
+    const done = await commit(up2.body.importId, { target: 'cpt', mapping, pointId, areaRatio: 0.75 })
+    expect(done.status).toBe(200)
+    expect(done.body.written).toBe(3)
+    const got = await geo.get<{ count: number, areaRatio: number, depth: number[], qc: number[], fs: number[], u2: number[] }>(`${base}/points/${pointId}/cpt`)
+    expect(got.body).toMatchObject({ count: 3, areaRatio: 0.75, depth: [0.5, 1, 2], qc: [301.5, 1500, -4], fs: [5, 0, 6.25], u2: [-12.25, -0.5, 987654.125] })
+    const audit = await geo.get<{ events: { action: string, entity: string, after: { filename?: string, rows?: number } | null }[] }>(`${base}/audit?limit=20`)
+    expect(audit.body.events.find(e => e.action === 'import' && e.entity === 'cpt')?.after).toEqual({ filename: 'cpt-good.csv', rows: 3 })
+
+    // Quoted cells take the general reader and give the same result.
+    const quoted = '"Depth (m)","qc (kPa)","fs (kPa)","u2 (kPa)"\n"0.1","300","5","-1"\n"0.2","310","6","-2"\n'
+    const up3 = await upload<Preview>(geo, `${base}/imports`, 'cpt-quoted.csv', quoted)
+    const done3 = await commit(up3.body.importId, { target: 'cpt', mapping, pointId, areaRatio: 0.8 })
+    expect(done3.status).toBe(200)
+    const got3 = await geo.get<{ depth: number[], u2: number[] }>(`${base}/points/${pointId}/cpt`)
+    expect(got3.body.depth).toEqual([0.1, 0.2])
+    expect(got3.body.u2).toEqual([-1, -2])
+  })
+
   it('refuses an empty file, a PDF, a binary, a non-UTF-8 text and a file over 25 MB with clear messages', async () => {
     const empty = await upload<{ message: string }>(geo, `${base}/imports`, 'empty.csv', '')
     expect(empty.status).toBe(422)
@@ -138,6 +177,29 @@ describe('imports', () => {
     expect(headerOnly.status).toBe(422)
     const big = await upload(geo, `${base}/imports`, 'big.csv', new Uint8Array(26 * 1024 * 1024).fill(65))
     expect(big.status).toBe(413)
+    // Streamed (chunked), so the body-size middleware cannot see its length: the upload stops reading at 25 MB.
+    const boundary = 'pastload-import-boundary'
+    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.csv"\r\nContent-Type: text/csv\r\n\r\na,b\n`)
+    const chunk = Buffer.alloc(1024 * 1024, 0x31)
+    let sent = 0
+    const body = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        if (sent === 0) controller.enqueue(head)
+        if (sent >= 27) {
+          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
+          controller.close()
+          return
+        }
+        sent += 1
+        controller.enqueue(chunk)
+      },
+    })
+    const streamed = await fetch(`${geo.base}${base}/imports`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
+    expect(streamed.status).toBe(413)
+    expect(((await streamed.json()) as { message: string }).message).toBe('The file is larger than 25 MB, the limit for an import.')
+    const noFile = await geo.post<{ message: string }>(`${base}/imports`, { file: 'x' })
+    expect(noFile.status).toBe(400)
+    expect(noFile.body.message).toBe('Send the file as multipart form data in a field named "file".')
   })
 
   it('lets only writers upload', async () => {

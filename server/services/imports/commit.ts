@@ -1,4 +1,5 @@
 import { and, eq, inArray, sql } from 'drizzle-orm'
+import type { CptColumns } from '#shared/imports/cpt-csv'
 import { type ImportContext, type ImportTarget, type ParsedValue, stageConventionOf, STAGE_VALUE_FIELDS, vaneKey } from '#shared/imports/targets'
 import { useDb } from '../../db/client'
 import { groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, strata, vaneReadings } from '../../db/schema'
@@ -34,10 +35,12 @@ const numOrNull = (v: ParsedValue | undefined) => (typeof v === 'number' ? v : n
 /**
  * Writes validated records in the caller's transaction. Intervals replace the
  * whole log of every point the file names; other targets add rows (index tests
- * replace a sample's existing set).
+ * replace a sample's existing set). A CPT import passes its columns as typed
+ * arrays when the fast CSV check produced them (`cpt`), else they come from the records.
  */
-export async function writeImport(tx: Tx, args: { projectId: string, actorId: string, target: ImportTarget, records: Rec[], filename: string, cptPointId?: string, areaRatio?: number, testId?: string, testVersion?: number, mapping?: Record<string, string> }, ctx: Awaited<ReturnType<typeof importContext>>): Promise<number> {
+export async function writeImport(tx: Tx, args: { projectId: string, actorId: string, target: ImportTarget, records: Rec[], cpt?: CptColumns, filename: string, cptPointId?: string, areaRatio?: number, testId?: string, testVersion?: number, mapping?: Record<string, string> }, ctx: Awaited<ReturnType<typeof importContext>>): Promise<number> {
   const { projectId, target, records } = args
+  let written = records.length
   const pid = (r: Rec) => ctx.pointIds.get(str(r.point))!
   const CHUNK = 2000
   const insertChunks = async <T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>) => {
@@ -78,19 +81,9 @@ export async function writeImport(tx: Tx, args: { projectId: string, actorId: st
       })), c => tx.insert(groundwaterObservations).values(c))
       break
     case 'cpt': {
-      const n = records.length
-      const depth = new Array<number>(n)
-      const qc = new Array<number>(n)
-      const fs = new Array<number>(n)
-      const u2 = new Array<number>(n)
-      for (let i = 0; i < n; i++) {
-        const r = records[i]!
-        depth[i] = num(r.depth)
-        qc[i] = num(r.qc)
-        fs[i] = num(r.fs)
-        u2[i] = num(r.u2)
-      }
-      await replaceCptSounding({ actorId: args.actorId, projectId, pointId: args.cptPointId! }, { areaRatio: args.areaRatio!, depth, qc, fs, u2 }, tx)
+      const cols = args.cpt ?? cptColumnsOf(records)
+      await replaceCptSounding({ actorId: args.actorId, projectId, pointId: args.cptPointId! }, { areaRatio: args.areaRatio!, ...cols }, tx)
+      written = cols.depth.length
       break
     }
     case 'oedometer-stages': {
@@ -104,8 +97,22 @@ export async function writeImport(tx: Tx, args: { projectId: string, actorId: st
       await insertChunks(records.map(r => ({ pointId: pid(r), depth: num(r.depth), peak: num(r.peak), remoulded: numOrNull(r.remoulded) })), c => tx.insert(vaneReadings).values(c))
       break
   }
-  await recordAudit({ actorId: args.actorId, projectId, action: 'import', entity: target, entityId: args.cptPointId ?? null, after: { filename: args.filename, rows: records.length } }, tx)
-  return records.length
+  await recordAudit({ actorId: args.actorId, projectId, action: 'import', entity: target, entityId: args.cptPointId ?? null, after: { filename: args.filename, rows: written } }, tx)
+  return written
+}
+
+/** The CPT columns of records checked by the general row check (XLSX, or a CSV with quoted fields). */
+function cptColumnsOf(records: Rec[]): CptColumns {
+  const n = records.length
+  const cols: CptColumns = { depth: new Float64Array(n), qc: new Float64Array(n), fs: new Float64Array(n), u2: new Float64Array(n) }
+  for (let i = 0; i < n; i++) {
+    const r = records[i]!
+    cols.depth[i] = num(r.depth)
+    cols.qc[i] = num(r.qc)
+    cols.fs[i] = num(r.fs)
+    cols.u2[i] = num(r.u2)
+  }
+  return cols
 }
 
 export async function pointInProject(projectId: string, pointId: string) {

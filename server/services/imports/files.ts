@@ -1,5 +1,6 @@
 import Papa from 'papaparse'
 import * as XLSX from 'xlsx-republish'
+import { isBlankLine, type PlainCsvText } from '#shared/imports/cpt-csv'
 
 /**
  * Reading uploaded files: the format is decided by content (never by the name
@@ -36,10 +37,22 @@ export function detectFormat(buf: Buffer, filename: string): UploadFormat {
   if (buf.subarray(0, 8).equals(Buffer.from([0xD0, 0xCF, 0x11, 0xE0, 0xA1, 0xB1, 0x1A, 0xE1]))) throw new UploadError(`${filename} is an old binary Excel file (.xls): save it as .xlsx or CSV and upload again.`, 'wrong-type')
   if (buf.subarray(0, 8192).includes(0)) throw new UploadError(`${filename} is not a text or spreadsheet file.`, 'wrong-type')
   const text = decodeText(buf, filename)
-  const first = text.split(/\r?\n/).find(l => l.trim() !== '') ?? ''
+  const first = firstNonBlankLine(text)
   if (/^"GROUP"\s*,/.test(first)) return 'ags4'
   if (first.trim() === '') throw new UploadError(`${filename} has no data (only blank lines).`, 'empty-file')
   return 'csv'
+}
+
+/** The first line (split on \n) that is not only whitespace, without splitting the whole text. */
+function firstNonBlankLine(text: string): string {
+  let start = 0
+  for (;;) {
+    const end = text.indexOf('\n', start)
+    const line = end < 0 ? text.slice(start) : text.slice(start, end)
+    if (line.trim() !== '') return line
+    if (end < 0) return ''
+    start = end + 1
+  }
 }
 
 /** UTF-8 text (a BOM is dropped); anything else is refused with a way out. */
@@ -65,7 +78,16 @@ export function readTable(buf: Buffer, format: 'csv' | 'xlsx', filename: string,
   let csvLineCount: number | null = null
   if (format === 'csv') {
     const text = decodeText(buf, filename)
-    const parsed = Papa.parse<string[]>(text, { skipEmptyLines: false, ...(previewRows ? { preview: previewRows + 50 } : {}) })
+    let parsed: Papa.ParseResult<string[]>
+    if (previewRows && !text.includes('"')) {
+      // Without quotes papaparse splits on the line break: the rows a preview keeps are those of the
+      // text's first lines, parsed with the line break it would guess for the whole text.
+      const newline = csvNewline(text)
+      parsed = Papa.parse<string[]>(firstLines(text, newline, previewRows + 50), { skipEmptyLines: false, newline, preview: previewRows + 50 })
+    }
+    else {
+      parsed = Papa.parse<string[]>(text, { skipEmptyLines: false, ...(previewRows ? { preview: previewRows + 50 } : {}) })
+    }
     if (previewRows) csvLineCount = countDataLines(text)
     const fatal = parsed.errors.find(e => e.type === 'Quotes')
     if (fatal) throw new UploadError(`${filename} row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`, 'malformed-csv')
@@ -96,23 +118,96 @@ export function readTable(buf: Buffer, format: 'csv' | 'xlsx', filename: string,
     rows.push(grid[i]!)
     rowNumbers.push(i + 1)
   }
-  const headers = head.map((c, i) => (c === null || String(c).trim() === '' ? `Column ${i + 1}` : String(c).trim()))
-  const dup = headers.find((h, i) => headers.indexOf(h) !== i)
-  if (dup) throw new UploadError(`${filename}: the column header "${dup}" appears twice.`, 'duplicate-header')
+  const headers = headerNames(head, filename)
   if (rows.length === 0) throw new UploadError(`${filename} has a header but no data rows.`, 'empty-file')
   // A preview's count is of non-blank lines after the header (quoted line breaks are rare in data files).
   const rowCount = csvLineCount !== null ? Math.max(rows.length, csvLineCount - headIndex - 1) : rows.length
   return { sheets, sheet: chosen, headers, rows: previewRows ? rows.slice(0, previewRows) : rows, rowNumbers, rowCount }
 }
 
+function headerNames(head: Cell[], filename: string): string[] {
+  const headers = head.map((c, i) => (c === null || c === undefined || String(c).trim() === '' ? `Column ${i + 1}` : String(c).trim()))
+  const dup = headers.find((h, i) => headers.indexOf(h) !== i)
+  if (dup) throw new UploadError(`${filename}: the column header "${dup}" appears twice.`, 'duplicate-header')
+  return headers
+}
+
+/** Non-blank lines (split on \n); a line that starts with a printable character is counted without slicing it. */
 function countDataLines(text: string): number {
   let n = 0
   let start = 0
   for (;;) {
     const end = text.indexOf('\n', start)
-    const line = end < 0 ? text.slice(start) : text.slice(start, end)
-    if (line.trim() !== '') n++
+    const stop = end < 0 ? text.length : end
+    const c = text.charCodeAt(start)
+    if (start < stop && ((c > 32 && c < 127) || text.slice(start, stop).trim() !== '')) n++
     if (end < 0) return n
     start = end + 1
+  }
+}
+
+/** The text up to (not including) its `count`-th line break, or all of it. */
+function firstLines(text: string, newline: string, count: number): string {
+  let at = -newline.length
+  for (let i = 0; i < count; i++) {
+    at = text.indexOf(newline, at + newline.length)
+    if (at < 0) return text
+  }
+  return text.slice(0, at)
+}
+
+/**
+ * The line break papaparse guesses for a text without quotes (its guessLineEndings:
+ * the first megabyte, \n unless \r comes first and most \r are followed by \n).
+ */
+export function csvNewline(text: string): '\n' | '\r\n' | '\r' {
+  const head = text.substring(0, 1024 * 1024)
+  if (!head.includes('\r')) return '\n'
+  const r = head.split('\r')
+  const n = head.split('\n')
+  if (n.length > 1 && n[0]!.length < r[0]!.length) return '\n'
+  let withN = 0
+  for (const part of r) if (part[0] === '\n') withN++
+  return withN >= r.length / 2 ? '\r\n' : '\r'
+}
+
+/**
+ * A CSV without quote characters, read as papaparse reads it (lines split on the
+ * guessed line break, cells on the guessed delimiter) with the same header rules
+ * as `readTable`, for a one-pass check of its columns. Null when the text has a
+ * quote character: then the general reader applies.
+ */
+export function openPlainCsv(buf: Buffer, filename: string): PlainCsvText | null {
+  const text = decodeText(buf, filename)
+  if (text.includes('"')) return null
+  const newline = csvNewline(text)
+  // papaparse guesses the delimiter from the first ten lines only.
+  const delimiter = Papa.parse<string[]>(firstLines(text, newline, 10), { skipEmptyLines: false, newline, preview: 1 }).meta.delimiter
+  let pos = 0
+  let row = 1
+  for (;;) {
+    let end = text.indexOf(newline, pos)
+    const last = end < 0
+    if (last) end = text.length
+    if (!isBlankLine(text, pos, end, delimiter)) {
+      const headers = headerNames(text.slice(pos, end).split(delimiter), filename)
+      const dataStart = last ? text.length : end + newline.length
+      if (!hasDataLine(text, dataStart, newline, delimiter)) throw new UploadError(`${filename} has a header but no data rows.`, 'empty-file')
+      return { text, newline, delimiter, headers, dataStart, dataRow: row + 1 }
+    }
+    if (last) throw new UploadError(`${filename} has no header row.`, 'empty-file')
+    pos = end + newline.length
+    row++
+  }
+}
+
+function hasDataLine(text: string, pos: number, newline: string, delimiter: string): boolean {
+  for (;;) {
+    let end = text.indexOf(newline, pos)
+    const last = end < 0
+    if (last) end = text.length
+    if (!isBlankLine(text, pos, end, delimiter)) return true
+    if (last) return false
+    pos = end + newline.length
   }
 }

@@ -1,14 +1,15 @@
 import { and, eq } from 'drizzle-orm'
 import { type ImportTarget, suggestMapping } from '#shared/imports/targets'
+import type { PlainCsvText } from '#shared/imports/cpt-csv'
 import { useDb } from '../../db/client'
 import { importFiles, importMappings } from '../../db/schema'
 import { notFound } from '../versioned'
-import { readTable, UploadError, type UploadFormat } from './files'
+import { openPlainCsv, readTable, UploadError, type UploadFormat } from './files'
 
 export const PREVIEW_ROWS = 20
 
 export async function loadImportFile(projectId: string, importId: string) {
-  const [file] = await useDb().select().from(importFiles).where(and(eq(importFiles.id, importId), eq(importFiles.projectId, projectId)))
+  const [file] = await useDb().select({ id: importFiles.id, filename: importFiles.filename, format: importFiles.format, content: importFiles.content }).from(importFiles).where(and(eq(importFiles.id, importId), eq(importFiles.projectId, projectId)))
   if (!file) notFound('Upload')
   return file
 }
@@ -17,6 +18,17 @@ export function tableOrThrow(content: Buffer, format: UploadFormat, filename: st
   if (format === 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'An AGS4 file is imported whole; it has no columns to map.' })
   try {
     return readTable(content, format, filename, sheet, previewRows)
+  }
+  catch (err) {
+    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+    throw err
+  }
+}
+
+/** A plain CSV (no quotes) for the one-pass CPT check, or null when the general reader must read it. */
+export function plainCsvOrThrow(content: Buffer, filename: string): PlainCsvText | null {
+  try {
+    return openPlainCsv(content, filename)
   }
   catch (err) {
     if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })

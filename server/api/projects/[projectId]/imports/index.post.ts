@@ -1,9 +1,11 @@
 import { lt } from 'drizzle-orm'
+import { preferFastCompression } from '../../../../db/binary'
 import { useDb } from '../../../../db/client'
 import { importFiles } from '../../../../db/schema'
 import { detectFormat, UploadError } from '../../../../services/imports/files'
 import { analyseAgs, asRowErrors } from '../../../../services/imports/ags'
 import { previewTable } from '../../../../services/imports/preview'
+import { readImportUpload } from '../../../../services/imports/upload'
 
 const MAX_BYTES = 25 * 1024 * 1024
 
@@ -13,10 +15,8 @@ const MAX_BYTES = 25 * 1024 * 1024
  */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const parts = await readMultipartFormData(event).catch(() => undefined)
-  const file = parts?.find(p => p.name === 'file' && p.filename)
-  if (!file) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'Send the file as multipart form data in a field named "file".' })
-  if (file.data.length > MAX_BYTES) throw createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `The file is ${(file.data.length / 1048576).toFixed(1)} MB; the limit is 25 MB.` })
+  // Streamed, with the 25 MB limit (413) enforced while reading.
+  const file = await readImportUpload(event, MAX_BYTES)
   const filename = (file.filename ?? 'upload').slice(0, 200)
   let format
   try {
@@ -29,7 +29,12 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   // Uploads nobody committed within a day are dropped.
   await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
-  const [row] = await db.insert(importFiles).values({ projectId: project.id, uploadedBy: user.id, filename, format, size: file.data.length, content: file.data }).returning({ id: importFiles.id })
+  // The bytes go in as a binary parameter (node-postgres sends a Buffer as is), compressed with lz4 where available.
+  const row = await db.transaction(async (tx) => {
+    await preferFastCompression(tx)
+    const [inserted] = await tx.insert(importFiles).values({ projectId: project.id, uploadedBy: user.id, filename, format, size: file.data.length, content: file.data }).returning({ id: importFiles.id })
+    return inserted
+  })
   const preview = format === 'ags4' ? null : await previewTable(project.id, { content: file.data, format, filename })
   const ags = format === 'ags4' ? agsPreview(file.data) : null
   setResponseStatus(event, 201)

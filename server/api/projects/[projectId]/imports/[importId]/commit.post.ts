@@ -1,12 +1,13 @@
 import { eq } from 'drizzle-orm'
 import { roleCan } from '#shared/auth/roles'
-import { checkMapping, validateRows } from '#shared/imports/targets'
+import { checkCptCsv, type CptColumns } from '#shared/imports/cpt-csv'
+import { checkMapping, type ParsedValue, type RowError, validateRows } from '#shared/imports/targets'
 import { ImportCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
 import { useDb } from '../../../../../db/client'
 import { importFiles, importMappings } from '../../../../../db/schema'
 import { importContext, pointInProject, vaneDepths, writeImport } from '../../../../../services/imports/commit'
 import type { UploadFormat } from '../../../../../services/imports/files'
-import { loadImportFile, tableOrThrow } from '../../../../../services/imports/preview'
+import { loadImportFile, plainCsvOrThrow, tableOrThrow } from '../../../../../services/imports/preview'
 import { notFound } from '../../../../../services/versioned'
 import { requireTest, staleTest } from '../../../../../services/lab'
 
@@ -22,9 +23,11 @@ export default defineEventHandler(async (event) => {
   const { importId } = validateParams(event, ImportParamsSchema)
   const body = await validateBody(event, ImportCommitSchema)
   const file = await loadImportFile(project.id, importId)
-  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet)
-
-  const mappingProblems = checkMapping(body.target, table.headers, body.mapping)
+  // A CPT sounding in a CSV without quotes is checked in one pass over the text, straight into typed columns.
+  const plain = body.target === 'cpt' && file.format === 'csv' ? plainCsvOrThrow(file.content, file.filename) : null
+  const table = plain ? null : tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet)
+  const headers = plain ? plain.headers : table!.headers
+  const mappingProblems = checkMapping(body.target, headers, body.mapping)
   if (mappingProblems.length) {
     throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: mappingProblems[0]!, data: { mappingProblems } })
   }
@@ -45,19 +48,32 @@ export default defineEventHandler(async (event) => {
     ctx.oedometerBasis = { e0: test.test.e0, specimenHeight: test.test.specimenHeight }
   }
   if (body.target === 'vane') ctx.vaneDepths = await vaneDepths(project.id)
-  const result = validateRows(body.target, table.headers, table.rows, body.mapping, ctx, table.rowNumbers)
-  if (result.errors.length) {
+  let records: Record<string, ParsedValue>[] = []
+  let cpt: CptColumns | undefined
+  let errors: RowError[]
+  let rowCount: number
+  if (plain) {
+    const checked = checkCptCsv(plain, body.mapping, ctx)
+    ;({ errors, rowCount } = checked)
+    cpt = checked.columns
+  }
+  else {
+    const result = validateRows(body.target, table!.headers, table!.rows, body.mapping, ctx, table!.rowNumbers)
+    ;({ errors, records } = result)
+    rowCount = table!.rows.length
+  }
+  if (errors.length) {
     throw createError({
       statusCode: 422,
       statusMessage: 'Unprocessable Entity',
-      message: `${result.errors.length} problem(s) in ${file.filename}; nothing was imported. First: row ${result.errors[0]!.row}, ${result.errors[0]!.column}: ${result.errors[0]!.message}`,
-      data: { errors: result.errors.slice(0, MAX_REPORTED), errorCount: result.errors.length, rowCount: table.rows.length },
+      message: `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: row ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
+      data: { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, rowCount },
     })
   }
-  if (body.dryRun) return { dryRun: true, rowCount: table.rows.length, errors: [] }
+  if (body.dryRun) return { dryRun: true, rowCount, errors: [] }
 
   const written = await useDb().transaction(async (tx) => {
-    const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records: result.records, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio, testId: body.testId, testVersion: body.testVersion, mapping: body.mapping }, ctx)
+    const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records, cpt, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio, testId: body.testId, testVersion: body.testVersion, mapping: body.mapping }, ctx)
     if (body.saveMapping) {
       await tx.insert(importMappings).values({ projectId: project.id, target: body.target, mapping: body.mapping, savedBy: user.id })
         .onConflictDoUpdate({ target: [importMappings.projectId, importMappings.target], set: { mapping: body.mapping, savedBy: user.id, updatedAt: new Date() } })

@@ -1,0 +1,126 @@
+import seedrandom from 'seedrandom'
+import { describe, expect, it } from 'vitest'
+import { checkCptCsv } from '../../../shared/imports/cpt-csv'
+import { validateRows } from '../../../shared/imports/targets'
+import { openPlainCsv, readTable, UploadError } from '../../../server/services/imports/files'
+
+const MAPPING = { depth: 'Depth (m)', qc: 'qc (kPa)', fs: 'fs (kPa)', u2: 'u2 (kPa)' }
+const HEAD = 'Depth (m),qc (kPa),fs (kPa),u2 (kPa)'
+
+function fast(csv: string, mapping: Record<string, string> = MAPPING, finalDepth = 30) {
+  const plain = openPlainCsv(Buffer.from(csv), 'cpt.csv')
+  if (!plain) throw new Error('expected a plain CSV')
+  return checkCptCsv(plain, mapping, { cptFinalDepth: finalDepth })
+}
+
+/** The general path: papaparse's table, then the row check on records. */
+function general(csv: string, mapping: Record<string, string> = MAPPING, finalDepth = 30) {
+  const table = readTable(Buffer.from(csv), 'csv', 'cpt.csv')
+  const r = validateRows('cpt', table.headers, table.rows, mapping, { points: new Map(), samples: new Set(), strata: new Set(), cptFinalDepth: finalDepth }, table.rowNumbers)
+  return { headers: table.headers, rowCount: table.rows.length, errors: r.errors, depth: r.records.map(x => x.depth), qc: r.records.map(x => x.qc), fs: r.records.map(x => x.fs), u2: r.records.map(x => x.u2) }
+}
+
+function expectSameAsGeneral(csv: string, mapping: Record<string, string> = MAPPING, finalDepth = 30) {
+  const g = general(csv, mapping, finalDepth)
+  const f = fast(csv, mapping, finalDepth)
+  expect(openPlainCsv(Buffer.from(csv), 'cpt.csv')!.headers).toEqual(g.headers)
+  expect(f.rowCount).toBe(g.rowCount)
+  expect(f.errors).toEqual(g.errors)
+  // Values agree wherever the general path read a number (a bad cell is null there, NaN here).
+  const cols = ['depth', 'qc', 'fs', 'u2'] as const
+  for (const c of cols) {
+    expect(Array.from(f.columns[c], v => (Number.isNaN(v) ? null : v))).toEqual(g[c])
+  }
+  return f
+}
+
+describe('checkCptCsv: the one-pass CPT check of a plain CSV', () => {
+  it('reads the columns into typed arrays with exact values', () => {
+    const f = expectSameAsGeneral(`${HEAD}\n0.02,301.5,5.01,0.196\n0.04,-12,0,-3.25\n`)
+    expect(f.errors).toEqual([])
+    expect(f.rowCount).toBe(2)
+    expect(f.columns.depth).toBeInstanceOf(Float64Array)
+    expect(Array.from(f.columns.depth)).toEqual([0.02, 0.04])
+    expect(Array.from(f.columns.qc)).toEqual([301.5, -12])
+    expect(Array.from(f.columns.u2)).toEqual([0.196, -3.25])
+  })
+
+  it('reports a bad number at its file row, counting blank lines and a header below blank lines', () => {
+    const csv = `\n\n${HEAD}\n0.1,300,5,1\n\n0.2,3O0,5,1\n0.3,300,5,1\n`
+    const f = expectSameAsGeneral(csv)
+    expect(f.errors).toEqual([{ row: 6, column: 'qc (kPa)', message: 'qc (kPa) "3O0" is not a number.' }])
+    expect(f.rowCount).toBe(3)
+  })
+
+  it('reads a decimal comma (with ; as the delimiter), an exponent, a plus sign and spaces as the general check does', () => {
+    const csv = 'Depth (m);qc (kPa);fs (kPa);u2 (kPa)\n0,5;1.5e2;+3; 4.5 \n1,25;2E-1;1 000;-0,5\n'
+    const f = expectSameAsGeneral(csv)
+    expect(f.errors).toEqual([])
+    expect(Array.from(f.columns.depth)).toEqual([0.5, 1.25])
+    expect(Array.from(f.columns.qc)).toEqual([150, 0.2])
+    expect(Array.from(f.columns.fs)).toEqual([3, 1000])
+    expect(Array.from(f.columns.u2)).toEqual([4.5, -0.5])
+  })
+
+  it('flags empty and missing cells, and depths that do not increase or pass the final depth, in field order per row', () => {
+    const csv = `u2 (kPa),qc (kPa),Depth (m),fs (kPa),extra\n1,300,1.0,5,x\n,,0.5\n2,310,0.5,6\n3,x,31,7\n`
+    const f = expectSameAsGeneral(csv)
+    expect(f.errors).toEqual([
+      { row: 3, column: 'qc (kPa)', message: 'qc (kPa) is empty.' },
+      { row: 3, column: 'fs (kPa)', message: 'fs (kPa) is empty.' },
+      { row: 3, column: 'u2 (kPa)', message: 'u2 (kPa) is empty.' },
+      { row: 3, column: 'Depth (m)', message: 'Depth 0.5 m does not increase from the row above (1 m).' },
+      { row: 4, column: 'Depth (m)', message: 'Depth 0.5 m does not increase from the row above (0.5 m).' },
+      { row: 5, column: 'qc (kPa)', message: 'qc (kPa) "x" is not a number.' },
+      { row: 5, column: 'Depth (m)', message: 'Depth 31 m is below the point\'s final depth (30 m).' },
+    ])
+  })
+
+  it('takes CRLF and CR line breaks and a tab delimiter as papaparse guesses them', () => {
+    expectSameAsGeneral(`${HEAD}\r\n0.1,1,2,3\r\n\r\n0.2,1,2,3\r\n`)
+    expectSameAsGeneral(`${HEAD}\r0.1,1,2,3\r0.2,1,2,3`)
+    expectSameAsGeneral(`${HEAD.replaceAll(',', '\t')}\n0.1\t1\t2\t3\n0.2\t1\t2\t3\n`)
+  })
+
+  it('reads digits past what a double holds exactly as Number() does', () => {
+    const f = expectSameAsGeneral(`${HEAD}\n0.1234567890123456789,12345678901234567,0.1,0.30000000000000004\n`)
+    expect(f.columns.depth[0]).toBe(0.1234567890123456789)
+    expect(f.columns.qc[0]).toBe(12345678901234567)
+    expect(f.columns.u2[0]).toBe(0.30000000000000004)
+  })
+
+  it('leaves a file with quote characters to the general reader, and refuses a header without data rows', () => {
+    expect(openPlainCsv(Buffer.from(`"Depth (m)",qc (kPa),fs (kPa),u2 (kPa)\n1,2,3,4\n`), 'q.csv')).toBeNull()
+    expect(() => openPlainCsv(Buffer.from(`${HEAD}\n\n  \n`), 'h.csv')).toThrow(UploadError)
+    expect(() => openPlainCsv(Buffer.from(`${HEAD}\n`), 'h.csv')).toThrow('h.csv has a header but no data rows.')
+    expect(() => openPlainCsv(Buffer.from('a,a\n1,2\n'), 'd.csv')).toThrow('the column header "a" appears twice')
+  })
+
+  it('agrees with the general path on random files (delimiters, line breaks, blank lines, bad and odd cells)', () => {
+    const rng = seedrandom('cpt-csv')
+    const pick = <T>(xs: readonly T[]) => xs[Math.floor(rng() * xs.length)]!
+    const cells = ['0', '1', '-1', '12.5', '-0.25', '.5', '5.', '1e3', ' 7 ', '+2', '', ' ', 'abc', '1,5', '0x1f', '-', '.', '00012.50', '99999999999999999', 'Infinity', '3.14159265358979', '-0']
+    for (let file = 0; file < 300; file++) {
+      const delimiter = pick([',', ';', '\t', '|'])
+      const newline = pick(['\n', '\r\n', '\r'])
+      const lines = [['Depth (m)', 'qc (kPa)', 'fs (kPa)', 'u2 (kPa)'].join(delimiter)]
+      let depth = 0
+      const n = 1 + Math.floor(rng() * 25)
+      for (let i = 0; i < n; i++) {
+        const r = rng()
+        if (r < 0.08) {
+          lines.push(pick(['', ' ', delimiter.repeat(3)]))
+          continue
+        }
+        depth += rng() < 0.9 ? 0.5 : -0.5
+        const row = [rng() < 0.85 ? String(depth) : pick(cells), pick(cells), pick(cells), pick(cells)]
+        const width = rng() < 0.1 ? Math.floor(rng() * 4) : 4
+        lines.push(row.slice(0, width).join(delimiter))
+      }
+      const csv = lines.join(newline) + (rng() < 0.5 ? newline : '')
+      const g = general(csv)
+      if (g.headers.length !== 4) continue
+      expectSameAsGeneral(csv, MAPPING, 8)
+    }
+  })
+})
