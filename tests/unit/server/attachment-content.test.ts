@@ -101,7 +101,7 @@ describe('demo attachments', () => {
     expect(sniffAttachment(a, 'box.png')).toBe('image/png')
     const meta = await sharp(a).metadata()
     expect([meta.width, meta.height, meta.format]).toEqual([1200, 800, 'png'])
-  })
+  }, 30_000) // two 1200 × 800 renders: seconds on a loaded 2-core machine
 
   it('writes a field sheet that is recognised as CSV', () => {
     const csv = demoFieldSheetCsv('BH-02')
