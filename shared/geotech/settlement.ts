@@ -420,24 +420,14 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
   }
 
   const counts = compiled.map(layer => sublayerCount(sublayering, layer.bottom - layer.top))
-  const total = counts.reduce((a, b) => a + b, 0)
-  const columns: SublayerColumns = {
-    effectiveStress: new Float64Array(total),
-    stressIncrease: new Float64Array(total),
-    preconsolidation: new Float64Array(total),
-    voidRatioChange: new Float64Array(total),
-    kind: new Uint8Array(total),
-  }
   const layerSettlement = new Float64Array(input.layers.length)
   let settlement = 0
   let halved = 0
-  let offset = 0
   compiled.forEach((layer, j) => {
     const n = counts[j]!
     const flags: LayerFlags = { raised: false, unloaded: false }
-    const s = compressLayer(model, layer, loadAt, n, columns, offset, flags)
+    const s = compressLayer(model, layer, loadAt, n, null, 0, flags)
     if (checkConvergence) halved += compressLayer(model, layer, loadAt, 2 * n, null, 0, { raised: false, unloaded: false })
-    offset += n
     layerSettlement[layer.index] = s
     settlement += s
     if (flags.raised) {
@@ -455,12 +445,29 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
     layers: input.layers.map((l, i) => ({ name: l.name, settlement: layerSettlement[i]! })),
     warnings,
   } as SettlementResult
-  // Rows are built on first read (then kept), so the numeric loops allocate nothing per sublayer.
+  // Rows are built on first read (then kept): the same loop runs again, this time filling the
+  // columns, so a caller that wants only the totals (many-run studies) pays for no rows at all.
   let rows: SublayerResult[] | undefined
+  const buildRows = (): SublayerResult[] => {
+    const total = counts.reduce((a, b) => a + b, 0)
+    const columns: SublayerColumns = {
+      effectiveStress: new Float64Array(total),
+      stressIncrease: new Float64Array(total),
+      preconsolidation: new Float64Array(total),
+      voidRatioChange: new Float64Array(total),
+      kind: new Uint8Array(total),
+    }
+    let offset = 0
+    compiled.forEach((layer, j) => {
+      compressLayer(model, layer, loadAt, counts[j]!, columns, offset, { raised: false, unloaded: false })
+      offset += counts[j]!
+    })
+    return materialiseRows(compiled, counts, columns)
+  }
   Object.defineProperty(result, 'sublayers', {
     enumerable: true,
     configurable: true,
-    get: () => (rows ??= materialiseRows(compiled, counts, columns)),
+    get: () => (rows ??= buildRows()),
     set: (value: SublayerResult[]) => {
       rows = value
     },

@@ -336,19 +336,23 @@ const SUM_SLOTS = 10
 
 /**
  * The single pass over the points, kept in its own small function so the optimised loop is not thrown
- * away by code after it that has not run yet. Writes weighted centred sums (West 1979) into `out`.
+ * away by code after it that has not run yet. Accumulates weighted sums shifted by the first point
+ * (the shifted-data form, Chan, Golub & LeVeque 1983), so an offset of depth or σ'p costs no accuracy
+ * for data like these, without a division per point; writes the means and centred sums into `out`.
  */
 function accumulateStraight(points: readonly TrendPoint[], logConstant: boolean, out: Float64Array): void {
-  let sumW = 0
+  let sw = 0
   let n = 0
-  let mz = 0
-  let my = 0
-  let szz = 0
-  let szy = 0
-  let syy = 0
+  let swz = 0
+  let swy = 0
+  let swzz = 0
+  let swzy = 0
+  let swyy = 0
   let sumAbsY = 0
   let top = Infinity
   let bottom = -Infinity
+  let z0 = Number.NaN
+  let y0 = 0
   const count = points.length
   for (let i = 0; i < count; i++) {
     const p = points[i]!
@@ -360,35 +364,41 @@ function accumulateStraight(points: readonly TrendPoint[], logConstant: boolean,
     if (!(y > 0 && y < Infinity)) throw badPreconsolidation(p, i, logConstant)
     if (w === 0) continue
     if (logConstant) y = Math.log(y)
+    if (n === 0) {
+      z0 = z
+      y0 = y
+    }
     n++
-    sumW += w
-    const f = w / sumW
-    const dz = z - mz
-    const dy = y - my
-    mz += f * dz
-    my += f * dy
-    szz += w * dz * (z - mz)
-    szy += w * dz * (y - my)
-    syy += w * dy * (y - my)
+    const dz = z - z0
+    const dy = y - y0
+    const wdz = w * dz
+    sw += w
+    swz += wdz
+    swy += w * dy
+    swzz += wdz * dz
+    swzy += wdz * dy
+    swyy += w * dy * dy
     sumAbsY += y < 0 ? -y : y
     if (z < top) top = z
     if (z > bottom) bottom = z
   }
+  const mz = n ? swz / sw : 0
+  const my = n ? swy / sw : 0
   out[SUM_N] = n
-  out[SUM_W] = sumW
-  out[SUM_MZ] = mz
-  out[SUM_MY] = my
-  out[SUM_SZZ] = szz
-  out[SUM_SZY] = szy
-  out[SUM_SYY] = syy
+  out[SUM_W] = sw
+  out[SUM_MZ] = n ? z0 + mz : 0
+  out[SUM_MY] = n ? y0 + my : 0
+  out[SUM_SZZ] = n ? Math.max(swzz - swz * mz, 0) : 0
+  out[SUM_SZY] = n ? swzy - swz * my : 0
+  out[SUM_SYY] = n ? Math.max(swyy - swy * my, 0) : 0
   out[SUM_ABS_Y] = sumAbsY
   out[SUM_TOP] = top
   out[SUM_BOTTOM] = bottom
 }
 
 /**
- * Constant and linear fits in one pass with no per-point allocation: weighted, centred running sums
- * (West 1979) keep the sums accurate for any offset of depth or σ'p. `logConstant` fits ln σ'p.
+ * Constant and linear fits in one pass with no per-point allocation: weighted sums shifted by the
+ * first point keep them accurate for any offset of depth or σ'p. `logConstant` fits ln σ'p.
  */
 function fitStraight(points: readonly TrendPoint[], model: 'constant' | 'linear', confidence: number, bandPoints: number, logConstant = false): TrendFit {
   const sums = new Float64Array(SUM_SLOTS)
