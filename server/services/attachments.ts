@@ -1,5 +1,4 @@
-import { createHash, randomUUID } from 'node:crypto'
-import busboy from 'busboy'
+import { randomUUID } from 'node:crypto'
 import { and, count, desc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
@@ -8,6 +7,7 @@ import { useDb } from '../db/client'
 import { attachments, investigationPoints, oedometerTests, samples, users } from '../db/schema'
 import { AttachmentContentError, sniffAttachment } from './attachment-content'
 import { recordAudit } from './audit'
+import { readMultipart } from './multipart'
 import { deleteObject, getObject, NOT_CONFIGURED, putObject, storageConfigured, StorageUnavailableError } from './storage'
 
 /**
@@ -37,60 +37,16 @@ export function cleanFilename(name: string | undefined): string {
  * 25 MB limit enforced while reading, so a body without a Content-Length cannot
  * grow past it. The SHA-256 is computed on the way.
  */
-export function readAttachmentUpload(event: H3Event): Promise<{ file: UploadedFile | null, fields: Record<string, string> }> {
-  const req = event.node.req
-  const type = req.headers['content-type'] ?? ''
-  if (!type.startsWith('multipart/form-data')) {
-    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'Send the file as multipart form data in a field named "file".' })
-  }
-  return new Promise((resolve, reject) => {
-    let bb: busboy.Busboy
-    try {
-      bb = busboy({ headers: req.headers, limits: { files: 1, fileSize: MAX_ATTACHMENT_BYTES, fields: 10, fieldSize: 4096, parts: 12 } })
-    }
-    catch {
-      reject(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The multipart body has no boundary.' }))
-      return
-    }
-    const fields: Record<string, string> = {}
-    let file: UploadedFile | null = null
-    let failed = false
-    const fail = (err: Error) => {
-      if (failed) return
-      failed = true
-      req.unpipe(bb)
-      // The rest of an oversized body is not worth reading: close the connection after the answer.
-      setResponseHeader(event, 'connection', 'close')
-      reject(err)
-    }
-    bb.on('field', (name, value) => { fields[name] = value })
-    bb.on('file', (name, stream, info) => {
-      if (name !== 'file') {
-        stream.resume()
-        return
-      }
-      const hash = createHash('sha256')
-      const chunks: Buffer[] = []
-      let size = 0
-      stream.on('data', (chunk: Buffer) => {
-        size += chunk.length
-        hash.update(chunk)
-        chunks.push(chunk)
-      })
-      stream.on('limit', () => fail(createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `The file is larger than ${MAX_ATTACHMENT_BYTES / MB} MB, the limit for an attachment.` })))
-      stream.on('end', () => {
-        if (failed) return
-        file = { filename: cleanFilename(info.filename), data: Buffer.concat(chunks, size), sha256: hash.digest('hex') }
-      })
-    })
-    bb.on('filesLimit', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'Send one file per upload.' })))
-    bb.on('error', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The multipart body could not be read.' })))
-    bb.on('close', () => {
-      if (!failed) resolve({ file, fields })
-    })
-    req.on('error', () => fail(createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The upload was interrupted.' })))
-    req.pipe(bb)
+export async function readAttachmentUpload(event: H3Event): Promise<{ file: UploadedFile | null, fields: Record<string, string> }> {
+  const { file, fields } = await readMultipart(event, {
+    maxBytes: MAX_ATTACHMENT_BYTES,
+    tooLarge: `The file is larger than ${MAX_ATTACHMENT_BYTES / MB} MB, the limit for an attachment.`,
+    notMultipart: 'Send the file as multipart form data in a field named "file".',
+    limits: { files: 1, fields: 10, fieldSize: 4096, parts: 12 },
+    tooManyParts: 'Send one file per upload.',
+    hash: true,
   })
+  return { file: file ? { filename: cleanFilename(file.filename), data: file.data, sha256: file.sha256! } : null, fields }
 }
 
 const OWNER_LABEL: Record<Exclude<AttachmentOwnerType, 'project'>, string> = { point: 'point', sample: 'sample', test: 'oedometer test' }

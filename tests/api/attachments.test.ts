@@ -180,6 +180,21 @@ describe('attachments', () => {
     expect(r.body).toMatchObject({ message: 'empty.pdf is empty (0 bytes).', data: { code: 'empty-file' } })
   })
 
+  it('refuses two files in one upload, and a body that is not multipart, with 400 and what to send', async () => {
+    const form = new FormData()
+    form.append('ownerType', 'project')
+    form.append('file', new Blob([TINY_PDF]), 'a.pdf')
+    form.append('file', new Blob([TINY_PDF]), 'b.pdf')
+    const two = await fetch(`${geo.base}${base}`, { method: 'POST', body: form, headers: { cookie: geo.cookie!, origin: geo.origin! } })
+    expect(two.status).toBe(400)
+    expect((await two.json() as ErrorBody).message).toBe('Send one file per upload.')
+    const json = await geo.post<ErrorBody>(base, { ownerType: 'project' })
+    expect(json.status).toBe(400)
+    expect(json.body.message).toBe('Send the file as multipart form data in a field named "file".')
+    const list = await geo.get<{ attachments: View[] }>(`${base}?limit=100`)
+    expect(list.body.attachments.map(a => a.filename)).not.toContain('b.pdf')
+  })
+
   it('refuses a file over 25 MB with 413, with or without a Content-Length', async () => {
     const big = new Uint8Array(26 * 1024 * 1024).fill(0x25)
     const r = await attach<ErrorBody>(geo, projectId, 'big.pdf', big)
