@@ -38,7 +38,8 @@ export async function signInAs(context: BrowserContext, email: string, password 
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.getByTestId('project-list').waitFor()
+  // The projects page is up (its list is empty, so hidden, for someone in no project yet).
+  await page.getByTestId('project-list').waitFor({ state: 'attached' })
   return page
 }
 

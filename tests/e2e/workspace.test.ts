@@ -71,6 +71,25 @@ describe('the signed-in workspace in Chromium', () => {
     await page.close()
   })
 
+  it('someone outside a project finds no trace of it on any of its pages', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const projectId = await demoProjectId(admin)
+    const outsider = await createUser(admin, 'outsider')
+    const page = await signInAs(browser.context, outsider.email, TEST_PASSWORD)
+    for (const path of ['', '/plan', '/strata', '/tests', '/preconsolidation', '/review', '/models']) {
+      await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
+      const box = page.getByTestId('project-not-found')
+      await box.waitFor()
+      expect(await box.textContent()).toContain('It does not exist, or you are not a member of it.')
+      expect(await page.getByText('Saltmarsh Lane').count()).toBe(0)
+      expect(await page.getByTestId('project-switcher').inputValue()).toBe('')
+    }
+    await screenshot(page, 'project-not-found')
+    await page.getByRole('link', { name: 'Back to projects' }).click()
+    await page.waitForURL(`${baseUrl()}/`)
+    await page.close()
+  })
+
   it('the site admin sees the new-project form; the account page lists tokens; sign-out works', async () => {
     const page = await signInAs(browser.context, demoEmail('owner'))
     await page.getByTestId('new-project').click()
