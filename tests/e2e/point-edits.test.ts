@@ -7,7 +7,7 @@ import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } fr
 import { type Browser, launch, screenshot, signInAs } from './helpers'
 
 interface Point { identifier: string, groundElevation: number, finalDepth: number, method: string, version: number }
-interface Detail { point: Point, samples: { identifier: string, top: number, bottom: number, recovery: number | null, remarks: string }[], vane: { depth: number, peak: number, remoulded: number | null }[] }
+interface Detail { point: Point, samples: { identifier: string, top: number, bottom: number, recovery: number | null, remarks: string }[], vane: { id: string, version: number, depth: number, peak: number, remoulded: number | null }[] }
 
 describe('editing a point, its samples and its vane readings in Chromium', () => {
   let browser: Browser
@@ -141,6 +141,27 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     await page.getByTestId('vane-table').filter({ hasText: '21.5' }).waitFor()
     await screenshot(page, 'vane-edited')
     expect((await detail()).vane).toEqual([expect.objectContaining({ depth: 5, peak: 21.5, remoulded: 6 })])
+    await page.close()
+  })
+
+  it('a vane reading saved meanwhile shows both sides; "keep mine" saves over it, keeping their other change', async () => {
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await openPoint(page)
+    await page.getByRole('tab', { name: /Vane/ }).click()
+    await page.getByRole('button', { name: 'Edit vane reading at 5 m' }).click()
+    await page.getByLabel('Peak (kPa)').fill('22')
+    const reading = (await detail()).vane[0]!
+    expect((await admin.patch(`${api()}/vane/${reading.id}`, { depth: 5, peak: 21.5, remoulded: 6.5, version: reading.version })).status).toBe(200)
+    await page.getByRole('button', { name: 'Save changes' }).click()
+    const conflict = page.getByTestId('row-conflict')
+    await conflict.waitFor()
+    expect(await conflict.locator('tr', { hasText: 'Peak' }).textContent()).toContain('◆')
+    // Only they changed the remoulded strength: the form already shows theirs.
+    expect(await page.getByLabel('Remoulded (kPa)').inputValue()).toBe('6.5')
+    await screenshot(page, 'vane-conflict')
+    await conflict.getByTestId('conflict-keep-mine').click()
+    await page.getByText('Vane reading at 5 m updated.').waitFor()
+    expect((await detail()).vane).toEqual([expect.objectContaining({ depth: 5, peak: 22, remoulded: 6.5 })])
     await page.close()
   })
 
