@@ -34,7 +34,8 @@ describe('field vane import in Chromium', () => {
     await page.getByTestId('import-file').setInputFiles(broken)
     await page.getByTestId('import-target').selectOption('vane')
     await page.getByTestId('import-mapping').waitFor()
-    expect(await page.locator('#map-peak').inputValue()).toBe('Peak su (kPa)')
+    // The mapping for the chosen target is suggested once the page has read the file for it.
+    await expect.poll(() => page.locator('#map-peak').inputValue()).toBe('Peak su (kPa)')
     await page.getByTestId('import-check').click()
     const report = page.getByTestId('import-report')
     await report.waitFor()
@@ -46,8 +47,10 @@ describe('field vane import in Chromium', () => {
     expect((await owner.get<{ vane: unknown[] }>(`/api/projects/${projectId}/points/${pointId}`)).body.vane).toHaveLength(0)
 
     await page.getByTestId('import-file').setInputFiles(good)
+    await page.getByRole('heading', { name: /^vane\.csv/ }).waitFor()
     await page.getByTestId('import-target').selectOption('vane')
     await page.getByTestId('import-mapping').waitFor()
+    await expect.poll(() => page.locator('#map-peak').inputValue()).toBe('Peak su (kPa)')
     await page.getByTestId('import-commit').click()
     await page.getByTestId('import-done').filter({ hasText: '3' }).waitFor()
 
