@@ -2,7 +2,7 @@ import type { OedometerLoop, OedometerPoint, OedometerResult, SampleQuality } fr
 import type { OedometerTestType } from '#shared/investigation/types'
 import type { StageConvention, TimeReading } from '#shared/lab/stages'
 import type { SecondaryResult, TaylorResult } from '#shared/lab/time-curve'
-import type { AdoptionMethod, PreconsolidationSource } from '#shared/schemas/lab'
+import type { AdoptionMethod, PreconsolidationPoint, PreconsolidationSource } from '#shared/schemas/lab'
 
 /** Rows of the laboratory API as they arrive in JSON (dates as strings). */
 export interface OedometerStage {
@@ -103,20 +103,8 @@ export interface OedometerInterpretationReply {
   caution: string
 }
 
-export interface PreconsolidationPointRow {
-  id: string
-  source: PreconsolidationSource
-  method: string
-  pointId: string
-  pointIdentifier: string
-  depth: number
-  preconsolidation: number
-  effectiveStress: number | null
-  stratumCode: string | null
-  qualityClass: string | null
-  adoptedBy: string | null
-  adoptedAt: string | null
-}
+/** One σ'p point as GET …/preconsolidation-points sends it. */
+export type PreconsolidationPointRow = PreconsolidationPoint
 
 export interface PreconsolidationPointsReply {
   points: PreconsolidationPointRow[]

@@ -1,4 +1,5 @@
 import type { FlagVerdict } from '#shared/review/flags'
+import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
 import type { ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { stratumBounds } from '#shared/site-model/definition'
 import { trendPreconsolidation } from '#shared/site-model/convert'
@@ -10,24 +11,11 @@ import { trendPreconsolidation } from '#shared/site-model/convert'
  * SI units.
  */
 
-export type PointSource = 'oedometer' | 'cpt' | 'vane'
-export const POINT_SOURCES: readonly PointSource[] = ['oedometer', 'cpt', 'vane']
+export type PointSource = PreconsolidationSource
+export const POINT_SOURCES: readonly PointSource[] = PRECONSOLIDATION_SOURCES
 
 /** One σ'p point as GET …/preconsolidation-points sends it. */
-export interface SigmaPoint {
-  id: string
-  source: PointSource
-  method: string
-  pointId: string
-  pointIdentifier: string
-  depth: number
-  preconsolidation: number
-  effectiveStress: number | null
-  stratumCode: string | null
-  qualityClass: string | null
-  adoptedBy: string | null
-  adoptedAt: string | null
-}
+export type SigmaPoint = PreconsolidationPoint
 
 /** An open reviewer flag as it bears on a point. */
 export interface PointFlag {

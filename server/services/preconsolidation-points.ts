@@ -2,30 +2,13 @@ import { and, asc, eq, isNotNull, isNull } from 'drizzle-orm'
 import { isGeotechError } from '#shared/geotech/errors'
 import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconsolidation, vanePreconsolidation, type CptProfile } from '#shared/geotech/insitu'
 import { cptPointId } from '#shared/review/flags'
-import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/schemas/lab'
+import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint as SharedPreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
 import { useDb } from '../db/client'
 import { cptSoundings, indexTests, investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users, vaneReadings } from '../db/schema'
 import { loggedIntervals, sampleDepth, type LoggedInterval, type StressContext, stratumAtLogged } from './lab'
 
-/** One σ'p point of the canvas, whatever its source. */
-export interface PreconsolidationPoint {
-  /** Adoption id (oedometer), `cpt:<pointId>:<depth mm>` (CPT) or `vane:<readingId>` (vane). */
-  id: string
-  source: PreconsolidationSource
-  /** Oedometer: the adoption's method. CPT: `k-qnet`. Vane: where the PI for μ came from (`pi-at-point`, `pi-of-stratum`, `uncorrected`). */
-  method: string
-  pointId: string
-  pointIdentifier: string
-  depth: number
-  preconsolidation: number
-  /** σ'v0 at that depth from the stress model in force; null outside it. */
-  effectiveStress: number | null
-  stratumCode: string | null
-  /** Sample quality class at adoption (oedometer only). */
-  qualityClass: string | null
-  adoptedBy: string | null
-  adoptedAt: Date | null
-}
+/** One σ'p point of the canvas, whatever its source (adoption time as a Date until serialised). */
+export type PreconsolidationPoint = SharedPreconsolidationPoint<Date>
 
 const round = (v: number, digits: number) => {
   const f = 10 ** digits

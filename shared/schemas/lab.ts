@@ -129,3 +129,26 @@ export const CptInterpretationQuerySchema = z.object({ spacing })
 
 export const PRECONSOLIDATION_SOURCES = ['oedometer', 'cpt', 'vane'] as const
 export type PreconsolidationSource = (typeof PRECONSOLIDATION_SOURCES)[number]
+
+/**
+ * One σ'p point, whatever its source, as the σ'p points routes send it: `TDate`
+ * is a Date on the server and the ISO string it becomes in JSON on the client.
+ */
+export interface PreconsolidationPoint<TDate = string> {
+  /** Adoption id (oedometer), `cpt:<pointId>:<depth mm>` (CPT) or `vane:<readingId>` (vane). */
+  id: string
+  source: PreconsolidationSource
+  /** Oedometer: the adoption's method. CPT: `k-qnet`. Vane: where the PI for μ came from (`pi-at-point`, `pi-of-stratum`, `uncorrected`). */
+  method: string
+  pointId: string
+  pointIdentifier: string
+  depth: number
+  preconsolidation: number
+  /** σ'v0 at that depth from the stress model used; null outside it. */
+  effectiveStress: number | null
+  stratumCode: string | null
+  /** Sample quality class at adoption (oedometer only). */
+  qualityClass: string | null
+  adoptedBy: string | null
+  adoptedAt: TDate | null
+}
