@@ -188,7 +188,9 @@ async function setupUser(admin, base, n, runId, password) {
   await must(admin.call(null, 'POST', '/api/users', { email, displayName: `Soak user ${n + 1}`, password }), 'creating a user')
   const u = new User(base, n)
   await must(u.call(null, 'POST', '/api/auth/login', { email, password }), 'signing in')
-  const { project } = await must(u.call(null, 'POST', '/api/projects', { jobNumber: `SOAK-${String(n + 1).padStart(3, '0')}`, name: `Soak site ${n + 1}` }), 'creating a project')
+  // Projects are created by a site admin, who makes the user an owner of theirs.
+  const { project } = await must(admin.call(null, 'POST', '/api/projects', { jobNumber: `SOAK-${String(n + 1).padStart(3, '0')}`, name: `Soak site ${n + 1}` }), 'creating a project')
+  await must(admin.call(null, 'POST', `/api/projects/${project.id}/members`, { email, role: 'owner' }), 'adding the user to the project')
   u.projectId = project.id
   const p = `/api/projects/${project.id}`
   const { point } = await must(u.call(null, 'POST', `${p}/points`, { identifier: 'BH-S1', kind: 'borehole', easting: 100 + n, northing: 200, groundElevation: 2.4, finalDepth: 20 }), 'creating a point')
@@ -369,8 +371,9 @@ async function main() {
 
     const v = await verify(cluster.url, users)
     const sameApp = app.exitCode === null && appExitedAt === null && app.pid === appPid
-    const uncaught = (appText.match(/uncaught|unhandled/gi) ?? []).length
-    const report = writeReport({ elapsed, v, sameApp, uncaught, base })
+    const uncaught = (appText.match(/uncaughtException|Uncaught /g) ?? []).length
+    const requestErrors = (appText.match(/\[request error\]/g) ?? []).length
+    const report = writeReport({ elapsed, v, sameApp, uncaught, requestErrors })
     writeFileSync(resolve(root, opt.out), report)
     log('soak', `Wrote ${opt.out}: ${v.acknowledged} acknowledged writes, ${v.lost.length} lost, ${v.refusedButPresent.length} refused but present; health back ${outage.healthBack !== null ? `${((outage.healthBack - outage.started) / 1000).toFixed(1)} s after PostgreSQL` : 'n/a'}; app restarted: ${sameApp ? 'no' : 'YES'}`)
     return v.lost.length === 0 && v.refusedButPresent.length === 0 && sameApp ? 0 : 1
@@ -385,7 +388,7 @@ function fmt(n) {
   return Number.isFinite(n) ? n.toFixed(0) : '–'
 }
 
-function writeReport({ elapsed, v, sameApp, uncaught }) {
+function writeReport({ elapsed, v, sameApp, uncaught, requestErrors }) {
   const rows = []
   let total = 0
   let ok = 0
@@ -443,7 +446,7 @@ lost). Compare runs on the same machine only.
 | writes acknowledged | ${v.acknowledged} |
 | acknowledged writes lost | ${v.lost.length}${v.lost.length ? ` (${v.lost.slice(0, 5).join('; ')})` : ''} |
 | writes refused or unanswered | ${v.refused}, of which present in the database: ${v.refusedButPresent.length}${v.refusedButPresent.length ? ` (${v.refusedButPresent.slice(0, 5).join('; ')})` : ''} |
-| "uncaught"/"unhandled" lines in the app log | ${uncaught} |
+| app log | ${uncaught} uncaught exception(s); ${requestErrors} request error(s) logged with a stack (the refused requests) |
 
 "network" is a request that got no HTTP answer (connection refused or cut, or no answer in ${REQUEST_TIMEOUT_MS / 1000} s). A 500 or 503
 while PostgreSQL is down counts as refused during the outage, not as lost.
