@@ -15,7 +15,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
 import { Client, demoEmail, signIn } from '../helpers/http'
-import { ROOT, startServer, type RunningServer } from '../helpers/server'
+import { ROOT, startServer } from '../helpers/server'
 
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED = 'true'
 
