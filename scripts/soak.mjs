@@ -79,7 +79,8 @@ function record(route, status, ms, startedAt) {
   if (!s) stats.set(route, s = { ms: [], statuses: {}, inOutage: {}, outside: {} })
   const key = String(status)
   s.statuses[key] = (s.statuses[key] ?? 0) + 1
-  const duringOutage = outage.stopRequested !== null && startedAt >= outage.stopRequested - 50 && (outage.healthBack === null || startedAt <= outage.healthBack)
+  // During the outage: the request was in flight at some moment between the stop and health answering again.
+  const duringOutage = outage.stopRequested !== null && startedAt + ms >= outage.stopRequested && (outage.healthBack === null || startedAt <= outage.healthBack)
   const bucket = duringOutage ? s.inOutage : s.outside
   bucket[key] = (bucket[key] ?? 0) + 1
   if (typeof status === 'number' && status < 400) s.ms.push(ms)
@@ -339,7 +340,7 @@ async function main() {
         let status
         try { status = (await fetch(`${base}/api/health`, { signal: AbortSignal.timeout(5000) })).status }
         catch { status = 'network' }
-        healthTimeline.push({ at, status })
+        healthTimeline.push({ at, status, ms: now() - at })
         if (outage.stopped !== null && outage.healthDown === null && status !== 200) outage.healthDown = at
         if (outage.started !== null && outage.healthBack === null && status === 200) outage.healthBack = at
         if (now() >= end && (OUTAGE === 0 || outage.healthBack !== null)) break
@@ -375,7 +376,7 @@ async function main() {
     const requestErrors = (appText.match(/\[request error\]/g) ?? []).length
     const report = writeReport({ elapsed, v, sameApp, uncaught, requestErrors })
     writeFileSync(resolve(root, opt.out), report)
-    log('soak', `Wrote ${opt.out}: ${v.acknowledged} acknowledged writes, ${v.lost.length} lost, ${v.refusedButPresent.length} refused but present; health back ${outage.healthBack !== null ? `${((outage.healthBack - outage.started) / 1000).toFixed(1)} s after PostgreSQL` : 'n/a'}; app restarted: ${sameApp ? 'no' : 'YES'}`)
+    log('soak', `Wrote ${opt.out}: ${v.acknowledged} acknowledged writes, ${v.lost.length} lost, ${v.refusedButPresent.length} refused but present; health back at ${outage.healthBack !== null ? `${(outage.healthBack / 1000).toFixed(1)} s` : 'n/a'}; app restarted: ${sameApp ? 'no' : 'YES'}`)
     return v.lost.length === 0 && v.refusedButPresent.length === 0 && sameApp ? 0 : 1
   }
   finally {
@@ -408,6 +409,7 @@ function writeReport({ elapsed, v, sameApp, uncaught, requestErrors }) {
     rows.push(`| ${route} | ${n} | ${fmt(pct(sorted, 50))} | ${fmt(pct(sorted, 95))} | ${fmt(pct(sorted, 99))} | ${statuses} |`)
   }
   const sortedAll = allMs.sort((a, b) => a - b)
+  const healthMs = healthTimeline.filter(h => h.status === 200 && (outage.stopRequested === null || h.at + h.ms < outage.stopRequested || (outage.healthBack !== null && h.at > outage.healthBack))).map(h => h.ms).sort((a, b) => a - b)
   const secs = elapsed / 1000
   const list = o => Object.keys(o).length ? Object.entries(o).sort().map(([k, c]) => `${c} × ${k}`).join(', ') : 'none'
   const s = x => (x === null ? '–' : `${(x / 1000).toFixed(1)} s`)
@@ -440,7 +442,8 @@ lost). Compare runs on the same machine only.
 | requests | ${total} (${(total / secs).toFixed(0)} req/s), ${ok} answered 2xx |
 | latency of 2xx answers, all routes | p50 ${fmt(pct(sortedAll, 50))} ms, p95 ${fmt(pct(sortedAll, 95))} ms, p99 ${fmt(pct(sortedAll, 99))} ms |
 | outage | PostgreSQL stop asked at ${s(outage.stopRequested)}, stopped ${s(outage.stopped)}, start asked ${s(outage.startRequested)}, up ${s(outage.started)} |
-| /api/health | first non-200 at ${s(outage.healthDown)}, 200 again at ${s(outage.healthBack)} (${outage.healthBack !== null && outage.started !== null ? `${((outage.healthBack - outage.started) / 1000).toFixed(1)} s after PostgreSQL was up` : '–'}), without an app restart: ${sameApp ? 'yes (same process throughout)' : 'NO'} |
+| /api/health | first non-200 at ${s(outage.healthDown)}, 200 again at ${s(outage.healthBack)} (${outage.healthBack !== null && outage.startRequested !== null ? `${((outage.healthBack - outage.startRequested) / 1000).toFixed(1)} s after PostgreSQL's start was asked` : '–'}), without an app restart: ${sameApp ? 'yes (same process throughout)' : 'NO'} |
+| /api/health outside the outage (one round trip, the baseline of this machine's load) | p50 ${fmt(pct(healthMs, 50))} ms, p95 ${fmt(pct(healthMs, 95))} ms over ${healthMs.length} probes |
 | refused during the outage (stop asked → health back) | ${list(refusedInOutage)} |
 | errors outside the outage | ${list(errorsOutside)} |
 | writes acknowledged | ${v.acknowledged} |
