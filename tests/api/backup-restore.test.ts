@@ -59,7 +59,8 @@ async function query<T extends pg.QueryResultRow>(url: string, text: string, val
 
 const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex')
 
-describe('backup and restore', () => {
+// Each restore runs pg_restore and a Node script: allow for a busy machine.
+describe('backup and restore', { timeout: 120_000 }, () => {
   const sourceUrl = process.env.DATABASE_URL!
   const tag = randomUUID().slice(0, 8)
   const folder = join(mkdtempSync(join(tmpdir(), 'pastload-backup-')), 'backup')

@@ -64,7 +64,7 @@ async function abortedUpload(c: Client, projectId: string): Promise<void> {
   })
 }
 
-describe('orphaned attachment objects', () => {
+describe('orphaned attachment objects', { timeout: 90_000 }, () => {
   let server: RunningServer
   let client: S3Client
   let db: pg.Client
