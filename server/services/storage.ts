@@ -1,5 +1,5 @@
 import type { Readable } from 'node:stream'
-import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, HeadObjectCommand, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3'
+import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3'
 
 /**
  * Object storage for attachments, over the S3 API. Configured only from the
@@ -149,6 +149,25 @@ export async function deleteObject(key: string): Promise<void> {
   catch (err) {
     if (isMissing(err)) return
     throw unreachable(err, `delete ${key}`)
+  }
+}
+
+export interface ListedObject {
+  key: string
+  lastModified: Date | undefined
+  size: number
+}
+
+/** One page (at most 1 000 keys) of the objects under `prefix`, and the token for the next page. */
+export async function listObjects(prefix: string, continuationToken?: string): Promise<{ objects: ListedObject[], next: string | undefined }> {
+  const { config, client } = connection()
+  try {
+    const r = await client.send(new ListObjectsV2Command({ Bucket: config.bucket, Prefix: prefix, ContinuationToken: continuationToken, MaxKeys: 1000 }))
+    const objects = (r.Contents ?? []).filter(o => o.Key).map(o => ({ key: o.Key!, lastModified: o.LastModified, size: o.Size ?? 0 }))
+    return { objects, next: r.IsTruncated ? r.NextContinuationToken : undefined }
+  }
+  catch (err) {
+    throw unreachable(err, `list ${prefix}`)
   }
 }
 
