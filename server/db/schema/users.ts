@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { boolean, index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
 
 export const users = pgTable('users', {
@@ -21,19 +21,28 @@ export const sessions = pgTable('sessions', {
   expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
 }, t => [index('sessions_user_idx').on(t.userId)])
 
-/** Personal API tokens for scripts: only a SHA-256 hash is stored; the token is shown once. */
+export const API_TOKEN_SCOPES = ['read-write', 'read-only'] as const
+
+/**
+ * Personal API tokens for scripts: only a SHA-256 hash is stored; the token is shown once.
+ * Every token expires (at most a year after creation); tokens that existed before expiry
+ * was introduced got 90 days from the day the migration ran (the column default).
+ */
 export const apiTokens = pgTable('api_tokens', {
   id: uuid().primaryKey().defaultRandom(),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
   name: text().notNull(),
   tokenHash: text().notNull(),
   prefix: text().notNull(),
+  scope: text({ enum: API_TOKEN_SCOPES }).notNull().default('read-write'),
+  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().default(sql`now() + interval '90 days'`),
   lastUsedAt: timestamp({ withTimezone: true, mode: 'date' }),
   revokedAt: timestamp({ withTimezone: true, mode: 'date' }),
   createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
 }, t => [
   uniqueIndex('api_tokens_hash_idx').on(t.tokenHash),
   index('api_tokens_user_idx').on(t.userId),
+  check('api_tokens_scope_known', sql`${t.scope} in ('read-write', 'read-only')`),
 ])
 
 /** Failed sign-in attempts, kept for the rate limit (15-minute window). */
