@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { boolean, check, index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
 
 export const users = pgTable('users', {
@@ -45,13 +45,12 @@ export const apiTokens = pgTable('api_tokens', {
   check('api_tokens_scope_known', sql`${t.scope} in ('read-write', 'read-only')`),
 ])
 
-/** Failed sign-in attempts, kept for the rate limit (15-minute window). */
-export const loginAttempts = pgTable('login_attempts', {
-  id: uuid().primaryKey().defaultRandom(),
-  email: text().notNull(),
-  ip: text().notNull(),
-  attemptedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-}, t => [
-  index('login_attempts_email_idx').on(t.email, t.attemptedAt),
-  index('login_attempts_ip_idx').on(t.ip, t.attemptedAt),
-])
+/**
+ * Sign-in attempt counters for the throttle (server/services/login-throttle.ts): one row per
+ * (e-mail, IP) pair and one per IP, each counting the attempts of its current 15-minute window.
+ */
+export const loginThrottle = pgTable('login_throttle', {
+  key: text().primaryKey(),
+  attempts: integer().notNull(),
+  windowStart: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, t => [index('login_throttle_window_idx').on(t.windowStart)])
