@@ -196,8 +196,8 @@ describe('a token and its audit entry are one transaction', () => {
       const r = await client.post('/api/account/tokens', { name: marker })
       expect(r.status).toBeGreaterThanOrEqual(500)
       expect(await countFor(id)).toEqual(before)
-      const live = await pool.query('select count(*) as n from api_tokens where name = $1', [marker])
-      expect(Number(live.rows[0].n)).toBe(0)
+      const live = await pool.query<{ n: string }>('select count(*) as n from api_tokens where name = $1', [marker])
+      expect(Number(live.rows[0]!.n)).toBe(0)
     }
     finally {
       await pool.query(`drop trigger if exists ${fn} on audit_events`)
