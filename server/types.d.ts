@@ -1,4 +1,5 @@
 import type { SessionUser } from '#shared/schemas/auth'
+import type { ApiTokenScope } from '#shared/types/api-tokens'
 
 declare module 'h3' {
   interface H3EventContext {
@@ -6,6 +7,10 @@ declare module 'h3' {
     authVia: 'session' | 'token' | null
     sessionId?: string
     tokenRejected?: boolean
+    /** Why a bearer token was refused (unknown, revoked or expired): requireUser's 401 message. */
+    tokenRejectedMessage?: string
+    /** The scope of the API token that authenticated the request. */
+    tokenScope?: ApiTokenScope
   }
 }
 

@@ -1,4 +1,4 @@
-import { authenticateToken } from '../services/api-tokens'
+import { applyBearerToken } from '../services/api-tokens'
 
 /**
  * Puts the caller on `event.context`: a Lucia session from the cookie (renewed
@@ -9,13 +9,7 @@ export default defineEventHandler(async (event) => {
   event.context.authVia = null
   const header = getRequestHeader(event, 'authorization')
   if (header?.startsWith('Bearer ')) {
-    const user = await authenticateToken(header.slice(7).trim())
-    if (user) {
-      event.context.user = user
-      event.context.authVia = 'token'
-    }
-    // A bad token is not silently downgraded to a cookie session.
-    event.context.tokenRejected = !user
+    await applyBearerToken(event, header.slice(7).trim())
     return
   }
   const lucia = useLucia()

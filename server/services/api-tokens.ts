@@ -1,8 +1,11 @@
 import { createHash, randomBytes } from 'node:crypto'
 import { and, eq, isNull } from 'drizzle-orm'
+import type { H3Event } from 'h3'
 import type { SessionUser } from '#shared/schemas/auth'
+import type { ApiTokenScope } from '#shared/types/api-tokens'
 import { useDb } from '../db/client'
 import { apiTokens, users } from '../db/schema'
+import type { Tx } from './audit'
 
 const PREFIX = 'plt_'
 
@@ -11,22 +14,57 @@ export function hashToken(token: string): string {
   return createHash('sha256').update(token).digest('hex')
 }
 
-export async function createApiToken(userId: string, name: string) {
+export interface NewApiToken {
+  name: string
+  scope: ApiTokenScope
+  expiresAt: Date
+}
+
+/** Inserts a token inside the caller's transaction (its audit row goes in the same one). */
+export async function createApiToken(tx: Tx, userId: string, input: NewApiToken) {
   const token = PREFIX + randomBytes(32).toString('base64url')
-  const [row] = await useDb().insert(apiTokens).values({
+  const [row] = await tx.insert(apiTokens).values({
     userId,
-    name,
+    name: input.name,
+    scope: input.scope,
+    expiresAt: input.expiresAt,
     tokenHash: hashToken(token),
     prefix: token.slice(0, PREFIX.length + 6),
-  }).returning({ id: apiTokens.id, name: apiTokens.name, prefix: apiTokens.prefix, createdAt: apiTokens.createdAt })
+  }).returning({
+    id: apiTokens.id,
+    name: apiTokens.name,
+    prefix: apiTokens.prefix,
+    scope: apiTokens.scope,
+    createdAt: apiTokens.createdAt,
+    expiresAt: apiTokens.expiresAt,
+  })
   return { ...row!, token }
 }
 
-export async function authenticateToken(token: string): Promise<SessionUser | null> {
-  if (!token.startsWith(PREFIX) || token.length > 200) return null
+/** Revokes every live token of the user (a password change does this); returns how many. */
+export async function revokeAllTokens(tx: Tx, userId: string): Promise<number> {
+  const rows = await tx.update(apiTokens)
+    .set({ revokedAt: new Date() })
+    .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+    .returning({ id: apiTokens.id })
+  return rows.length
+}
+
+export type TokenCheck =
+  | { ok: true, user: SessionUser, scope: ApiTokenScope }
+  | { ok: false, message: string }
+
+const UNKNOWN = 'The API token is invalid or revoked.'
+
+/** Looks a bearer token up: its user and scope, or why it is refused (unknown, revoked, expired). */
+export async function authenticateToken(token: string): Promise<TokenCheck> {
+  if (!token.startsWith(PREFIX) || token.length > 200) return { ok: false, message: UNKNOWN }
   const db = useDb()
   const [row] = await db.select({
     tokenId: apiTokens.id,
+    scope: apiTokens.scope,
+    expiresAt: apiTokens.expiresAt,
+    revokedAt: apiTokens.revokedAt,
     id: users.id,
     email: users.email,
     displayName: users.displayName,
@@ -34,10 +72,32 @@ export async function authenticateToken(token: string): Promise<SessionUser | nu
   })
     .from(apiTokens)
     .innerJoin(users, eq(users.id, apiTokens.userId))
-    .where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt)))
+    .where(eq(apiTokens.tokenHash, hashToken(token)))
     .limit(1)
-  if (!row) return null
+  if (!row || row.revokedAt) return { ok: false, message: UNKNOWN }
+  if (row.expiresAt.getTime() <= Date.now()) {
+    return { ok: false, message: `The API token expired on ${row.expiresAt.toISOString().slice(0, 10)}; create a new one on the account page.` }
+  }
   await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(eq(apiTokens.id, row.tokenId))
-  const { tokenId: _tokenId, ...user } = row
-  return user
+  const { id, email, displayName, isSiteAdmin } = row
+  return { ok: true, user: { id, email, displayName, isSiteAdmin }, scope: row.scope }
+}
+
+/**
+ * Puts the caller of an `Authorization: Bearer` request on `event.context` (user, scope),
+ * or marks the token refused with the reason requireUser answers 401 with. A bad token is
+ * never silently downgraded to a cookie session.
+ */
+export async function applyBearerToken(event: H3Event, token: string): Promise<void> {
+  const check = await authenticateToken(token)
+  if (check.ok) {
+    event.context.user = check.user
+    event.context.authVia = 'token'
+    event.context.tokenScope = check.scope
+    event.context.tokenRejected = false
+  }
+  else {
+    event.context.tokenRejected = true
+    event.context.tokenRejectedMessage = check.message
+  }
 }

@@ -1,38 +1,56 @@
-import { and, count, eq, gt, lt, min, or } from 'drizzle-orm'
+import { sql } from 'drizzle-orm'
 import { useDb } from '../db/client'
-import { loginAttempts } from '../db/schema'
 
 export const WINDOW_MS = 15 * 60 * 1000
-export const MAX_FAILURES = 10
+/** Attempts allowed for one e-mail from one IP address within the window. */
+export const MAX_PER_PAIR = 10
+/**
+ * Attempts allowed from one IP address within the window, across e-mails: looser, so an office
+ * behind one address is not stopped by a colleague's typos, yet a guesser rotating e-mails is.
+ */
+export const MAX_PER_IP = 50
+
+const pairKey = (email: string, ip: string) => `pair:${ip}:${email}`
+const ipKey = (ip: string) => `ip:${ip}`
 
 /**
- * More than MAX_FAILURES failed sign-ins for one e-mail or one IP within the
- * window → refuse. Returns the seconds until the oldest counted failure leaves
- * the window (for Retry-After), or 0 when the caller may try.
+ * Takes one sign-in attempt for (e-mail, IP) before the password is checked. Both counters
+ * are raised in one statement (row locks held by INSERT … ON CONFLICT), so parallel attempts
+ * cannot all read "under the limit": exactly the allowed number go on to be evaluated.
+ * A counter whose window has passed starts again at 1. Returns the seconds to wait (for
+ * Retry-After) when a limit is passed, or 0 when the attempt may be evaluated.
+ *
+ * The throttle is per (e-mail, IP) pair, not per e-mail, so wrong guesses from one place
+ * cannot lock the real owner out from everywhere else.
  */
-export async function retryAfterSeconds(email: string, ip: string): Promise<number> {
-  const since = new Date(Date.now() - WINDOW_MS)
-  const db = useDb()
+export async function takeAttempt(email: string, ip: string): Promise<number> {
+  const windowSeconds = WINDOW_MS / 1000
+  const { rows } = await useDb().execute<{ key: string, attempts: number, wait: number }>(sql`
+    insert into login_throttle as t (key, attempts, window_start)
+    values (${ipKey(ip)}, 1, now()), (${pairKey(email, ip)}, 1, now())
+    on conflict (key) do update set
+      attempts = case when t.window_start <= now() - make_interval(secs => ${windowSeconds}) then 1 else t.attempts + 1 end,
+      window_start = case when t.window_start <= now() - make_interval(secs => ${windowSeconds}) then now() else t.window_start end
+    returning t.key, t.attempts,
+      ceil(extract(epoch from (t.window_start + make_interval(secs => ${windowSeconds}) - now())))::int as wait`)
   let wait = 0
-  for (const where of [eq(loginAttempts.email, email), eq(loginAttempts.ip, ip)]) {
-    const [row] = await db.select({ n: count(), oldest: min(loginAttempts.attemptedAt) })
-      .from(loginAttempts)
-      .where(and(where, gt(loginAttempts.attemptedAt, since)))
-    if (row && row.n >= MAX_FAILURES && row.oldest) {
-      const seconds = Math.ceil((new Date(row.oldest).getTime() + WINDOW_MS - Date.now()) / 1000)
-      wait = Math.max(wait, seconds, 1)
-    }
+  for (const row of rows) {
+    const limit = row.key.startsWith('ip:') ? MAX_PER_IP : MAX_PER_PAIR
+    if (row.attempts > limit) wait = Math.max(wait, row.wait, 1)
   }
   return wait
 }
 
-export async function recordFailure(email: string, ip: string): Promise<void> {
-  await useDb().insert(loginAttempts).values({ email, ip })
-}
-
-/** A successful sign-in clears that e-mail's failures (not the IP's: others may share it). */
-export async function clearFailures(email: string): Promise<void> {
-  const since = new Date(Date.now() - WINDOW_MS)
+/**
+ * A successful sign-in clears its pair's counter and gives its attempt back to the IP's
+ * (others may share the address). Windows that have passed are swept at the same time.
+ */
+export async function recordSuccess(email: string, ip: string): Promise<void> {
+  const windowSeconds = WINDOW_MS / 1000
   const db = useDb()
-  await db.delete(loginAttempts).where(or(eq(loginAttempts.email, email), lt(loginAttempts.attemptedAt, since)))
+  await db.execute(sql`
+    delete from login_throttle
+    where key = ${pairKey(email, ip)} or window_start <= now() - make_interval(secs => ${windowSeconds})`)
+  await db.execute(sql`
+    update login_throttle set attempts = greatest(attempts - 1, 0) where key = ${ipKey(ip)}`)
 }

@@ -11,8 +11,20 @@ import { projectMembers, projects } from '../db/schema'
 export function requireUser(event: H3Event): SessionUser {
   const user = event.context.user
   if (!user) {
-    const message = event.context.tokenRejected ? 'The API token is invalid or revoked.' : 'Sign in first.'
+    const message = event.context.tokenRejected ? (event.context.tokenRejectedMessage ?? 'The API token is invalid or revoked.') : 'Sign in first.'
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message })
+  }
+  return user
+}
+
+/**
+ * The caller signed in with a browser session (403 for an API token): managing tokens and
+ * changing the password must not be possible with a token that leaked.
+ */
+export function requireSessionUser(event: H3Event, action: string): SessionUser {
+  const user = requireUser(event)
+  if (event.context.authVia !== 'session') {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `${action} needs a signed-in browser session; an API token cannot do it.` })
   }
   return user
 }

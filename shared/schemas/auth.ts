@@ -22,9 +22,35 @@ export const CreateUserSchema = z.object({
 })
 export type CreateUserInput = z.infer<typeof CreateUserSchema>
 
+export const TOKEN_DEFAULT_DAYS = 90
+export const TOKEN_MAX_DAYS = 365
+const DAY_MS = 24 * 60 * 60 * 1000
+
+/**
+ * A new API token: a name, an expiry (either a number of days, or the moment it stops
+ * working; at most a year ahead; 90 days when neither is given) and whether it may only read.
+ */
 export const CreateTokenSchema = z.object({
-  name: z.string().trim().min(1, { message: 'is required' }).max(80),
-})
+  name: z.string().trim().min(1, { message: 'is required' }).max(80)
+    // A NUL byte or half a surrogate pair cannot be stored or shown.
+    .refine(v => !/[\u0000\p{Cs}]/u.test(v), { message: 'contains a character that cannot be stored' }),
+  expiresInDays: z.number().int({ message: 'must be a whole number of days' })
+    .min(1, { message: 'must be at least 1 day' })
+    .max(TOKEN_MAX_DAYS, { message: `must be at most ${TOKEN_MAX_DAYS} days (one year)` })
+    .optional(),
+  expiresAt: z.iso.datetime({ offset: true, message: 'must be a date and time (ISO 8601)' })
+    .refine(v => Date.parse(v) > Date.now(), { message: 'must be in the future' })
+    .refine(v => Date.parse(v) <= Date.now() + TOKEN_MAX_DAYS * DAY_MS, { message: `must be at most ${TOKEN_MAX_DAYS} days (one year) ahead` })
+    .optional(),
+  readOnly: z.boolean().default(false),
+}).refine(v => v.expiresInDays === undefined || v.expiresAt === undefined, { path: ['expiresAt'], message: 'give either expiresInDays or expiresAt, not both' })
+export type CreateTokenInput = z.infer<typeof CreateTokenSchema>
+
+/** When a token created now with these choices stops working. */
+export function tokenExpiry(input: Pick<CreateTokenInput, 'expiresInDays' | 'expiresAt'>, now = Date.now()): Date {
+  if (input.expiresAt !== undefined) return new Date(input.expiresAt)
+  return new Date(now + (input.expiresInDays ?? TOKEN_DEFAULT_DAYS) * DAY_MS)
+}
 
 /** What the client knows about the signed-in user. */
 export interface SessionUser {

@@ -80,13 +80,68 @@ describe('rate limit', () => {
     expect((await other.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })).status).toBe(200)
   })
 
-  it('refuses an IP after 10 failures across different e-mails', async () => {
-    const c = new Client()
-    c.forwardedFor = '203.0.113.20'
+  it('throttles the (e-mail, IP) pair only: the owner still signs in from another address', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { email } = await createUser(admin, 'pair')
+    const attacker = new Client()
+    attacker.forwardedFor = '198.51.100.1'
     for (let i = 0; i < 10; i++) {
+      expect((await attacker.post('/api/auth/login', { email, password: `guess-${i}-wrong` })).status).toBe(401)
+    }
+    const blocked = await attacker.post<{ message: string }>('/api/auth/login', { email, password: TEST_PASSWORD })
+    expect(blocked.status).toBe(429)
+    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(800)
+    expect(blocked.body.message).toMatch(/^Too many failed sign-ins\. Try again in \d+ minute\(s\)\.$/)
+    const owner = new Client()
+    owner.forwardedFor = '198.51.100.2'
+    expect((await owner.post('/api/auth/login', { email, password: TEST_PASSWORD })).status).toBe(200)
+    expect((await owner.get('/api/auth/me')).status).toBe(200)
+    // The owner's success does not lift the throttle on the guessing address.
+    expect((await attacker.post('/api/auth/login', { email, password: TEST_PASSWORD })).status).toBe(429)
+  })
+
+  it('evaluates exactly ten of 40 parallel wrong attempts and answers 429 to the rest', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { email } = await createUser(admin, 'burst')
+    const replies = await Promise.all(Array.from({ length: 40 }, (_, i) => {
+      const c = new Client()
+      c.forwardedFor = '198.51.100.3'
+      return c.post('/api/auth/login', { email, password: `burst-guess-${i}` })
+    }))
+    const statuses = replies.map(r => r.status)
+    expect(statuses.filter(s => s === 401)).toHaveLength(10)
+    expect(statuses.filter(s => s === 429)).toHaveLength(30)
+    for (const r of replies.filter(x => x.status === 429)) expect(Number(r.headers.get('retry-after'))).toBeGreaterThan(800)
+  })
+
+  it('refuses an IP after 50 attempts across different e-mails, looser than the pair limit', async () => {
+    const c = new Client()
+    c.forwardedFor = '198.51.100.4'
+    for (let i = 0; i < 50; i++) {
       expect((await c.post('/api/auth/login', { email: `probe${i}@nowhere.example`, password: 'wrong-password-1' })).status).toBe(401)
     }
-    expect((await c.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })).status).toBe(429)
+    const r = await c.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })
+    expect(r.status).toBe(429)
+    expect(Number(r.headers.get('retry-after'))).toBeGreaterThan(800)
+    // Another address is not affected.
+    const other = new Client()
+    other.forwardedFor = '198.51.100.5'
+    expect((await other.post('/api/auth/login', { email: demoEmail('designer'), password: 'pastload-demo-2026' })).status).toBe(200)
+  })
+
+  it('gives byte-identical bodies for an unknown e-mail and a wrong password', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { email } = await createUser(admin, 'same')
+    const a = new Client()
+    a.forwardedFor = '198.51.100.6'
+    const b = new Client()
+    b.forwardedFor = '198.51.100.7'
+    const unknown = await a.request('POST', '/api/auth/login', { email: 'nobody-here@test.example', password: 'wrong-password-123' })
+    const wrong = await b.request('POST', '/api/auth/login', { email, password: 'wrong-password-123' })
+    expect(unknown.status).toBe(401)
+    expect(wrong.status).toBe(401)
+    expect(JSON.stringify(wrong.body)).toBe(JSON.stringify(unknown.body))
+    expect((wrong.body as { message: string }).message).toBe('E-mail or password is wrong.')
   })
 })
 

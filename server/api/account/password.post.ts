@@ -2,25 +2,32 @@ import { eq } from 'drizzle-orm'
 import { ChangePasswordSchema } from '#shared/schemas/auth'
 import { useDb } from '../../db/client'
 import { users } from '../../db/schema'
+import { revokeAllTokens } from '../../services/api-tokens'
 import { recordAudit } from '../../services/audit'
 import { hashPassword, verifyPassword } from '../../utils/password'
 
-/** Change one's own password; every other session of the user is signed out. */
+/**
+ * Change one's own password (from a browser session only): every API token of the user is
+ * revoked with it, and every other session is signed out.
+ */
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
+  const user = requireSessionUser(event, 'Changing the password')
   const body = await validateBody(event, ChangePasswordSchema)
   const db = useDb()
   const [row] = await db.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, user.id))
   if (!row || !(await verifyPassword(row.passwordHash, body.currentPassword))) {
     throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'The current password is wrong.', data: { issues: [{ path: 'currentPassword', message: 'is wrong' }] } })
   }
-  await db.update(users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(users.id, user.id))
+  const passwordHash = await hashPassword(body.newPassword)
+  const tokensRevoked = await db.transaction(async (tx) => {
+    await tx.update(users).set({ passwordHash }).where(eq(users.id, user.id))
+    const n = await revokeAllTokens(tx, user.id)
+    await recordAudit({ actorId: user.id, action: 'password-change', entity: 'user', entityId: user.id, after: { tokensRevoked: n } }, tx)
+    return n
+  })
   const lucia = useLucia()
   await lucia.invalidateUserSessions(user.id)
-  if (event.context.authVia === 'session') {
-    const session = await lucia.createSession(user.id, {})
-    writeSessionCookie(event, lucia.createSessionCookie(session.id))
-  }
-  await recordAudit({ actorId: user.id, action: 'password-change', entity: 'user', entityId: user.id })
-  return { ok: true }
+  const session = await lucia.createSession(user.id, {})
+  writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  return { ok: true, tokensRevoked }
 })

@@ -3,7 +3,7 @@ import { LoginSchema } from '#shared/schemas/auth'
 import { useDb } from '../../db/client'
 import { users } from '../../db/schema'
 import { recordAudit } from '../../services/audit'
-import { clearFailures, recordFailure, retryAfterSeconds } from '../../services/login-throttle'
+import { recordSuccess, takeAttempt } from '../../services/login-throttle'
 import { dummyPasswordHash, verifyPassword } from '../../utils/password'
 
 const WRONG = 'E-mail or password is wrong.'
@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const { email, password } = await validateBody(event, LoginSchema)
   const ip = clientIp(event)
 
-  const wait = await retryAfterSeconds(email, ip)
+  const wait = await takeAttempt(email, ip)
   if (wait > 0) {
     setResponseHeader(event, 'Retry-After', wait)
     throw createError({ statusCode: 429, statusMessage: 'Too Many Requests', message: `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute(s).` })
@@ -22,10 +22,9 @@ export default defineEventHandler(async (event) => {
   // Same work and the same answer for an unknown e-mail and a wrong password.
   const ok = await verifyPassword(user?.passwordHash ?? await dummyPasswordHash(), password)
   if (!user || !ok) {
-    await recordFailure(email, ip)
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: WRONG })
   }
-  await clearFailures(email)
+  await recordSuccess(email, ip)
 
   const lucia = useLucia()
   const session = await lucia.createSession(user.id, {})

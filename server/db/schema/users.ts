@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { boolean, index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
 
 export const users = pgTable('users', {
@@ -21,28 +21,36 @@ export const sessions = pgTable('sessions', {
   expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
 }, t => [index('sessions_user_idx').on(t.userId)])
 
-/** Personal API tokens for scripts: only a SHA-256 hash is stored; the token is shown once. */
+export const API_TOKEN_SCOPES = ['read-write', 'read-only'] as const
+
+/**
+ * Personal API tokens for scripts: only a SHA-256 hash is stored; the token is shown once.
+ * Every token expires (at most a year after creation); tokens that existed before expiry
+ * was introduced got 90 days from the day the migration ran (the column default).
+ */
 export const apiTokens = pgTable('api_tokens', {
   id: uuid().primaryKey().defaultRandom(),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
   name: text().notNull(),
   tokenHash: text().notNull(),
   prefix: text().notNull(),
+  scope: text({ enum: API_TOKEN_SCOPES }).notNull().default('read-write'),
+  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().default(sql`now() + interval '90 days'`),
   lastUsedAt: timestamp({ withTimezone: true, mode: 'date' }),
   revokedAt: timestamp({ withTimezone: true, mode: 'date' }),
   createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
 }, t => [
   uniqueIndex('api_tokens_hash_idx').on(t.tokenHash),
   index('api_tokens_user_idx').on(t.userId),
+  check('api_tokens_scope_known', sql`${t.scope} in ('read-write', 'read-only')`),
 ])
 
-/** Failed sign-in attempts, kept for the rate limit (15-minute window). */
-export const loginAttempts = pgTable('login_attempts', {
-  id: uuid().primaryKey().defaultRandom(),
-  email: text().notNull(),
-  ip: text().notNull(),
-  attemptedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-}, t => [
-  index('login_attempts_email_idx').on(t.email, t.attemptedAt),
-  index('login_attempts_ip_idx').on(t.ip, t.attemptedAt),
-])
+/**
+ * Sign-in attempt counters for the throttle (server/services/login-throttle.ts): one row per
+ * (e-mail, IP) pair and one per IP, each counting the attempts of its current 15-minute window.
+ */
+export const loginThrottle = pgTable('login_throttle', {
+  key: text().primaryKey(),
+  attempts: integer().notNull(),
+  windowStart: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, t => [index('login_throttle_window_idx').on(t.windowStart)])

@@ -9,13 +9,16 @@ const Params = z.object({ tokenId: UuidSchema })
 
 /** Revokes one of the caller's tokens; it is refused (401) from the next request on. */
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
+  const user = requireSessionUser(event, 'Revoking an API token')
   const { tokenId } = validateParams(event, Params)
-  const [row] = await useDb().update(apiTokens)
-    .set({ revokedAt: new Date() })
-    .where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, user.id), isNull(apiTokens.revokedAt)))
-    .returning({ id: apiTokens.id, name: apiTokens.name })
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Token not found or already revoked.' })
-  await recordAudit({ actorId: user.id, action: 'delete', entity: 'api-token', entityId: row.id, before: { name: row.name } })
+  const revoked = await useDb().transaction(async (tx) => {
+    const [row] = await tx.update(apiTokens)
+      .set({ revokedAt: new Date() })
+      .where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, user.id), isNull(apiTokens.revokedAt)))
+      .returning({ id: apiTokens.id, name: apiTokens.name })
+    if (row) await recordAudit({ actorId: user.id, action: 'delete', entity: 'api-token', entityId: row.id, before: { name: row.name } }, tx)
+    return row
+  })
+  if (!revoked) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Token not found or already revoked.' })
   return { ok: true }
 })
