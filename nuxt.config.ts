@@ -4,7 +4,7 @@
 const PERMISSIONS_POLICY: Record<string, string[]> = {
   'accelerometer': [], 'autoplay': [], 'camera': [], 'display-capture': [], 'encrypted-media': [], 'fullscreen': [],
   'geolocation': [], 'gyroscope': [], 'magnetometer': [], 'microphone': [], 'midi': [], 'payment': [],
-  'picture-in-picture': [], 'publickey-credentials-get': [], 'screen-wake-lock': [], 'usb': [], 'web-share': [],
+  'picture-in-picture': [], 'publickey-credentials-get': [], 'screen-wake-lock': [], 'usb': [],
   'xr-spatial-tracking': [],
 }
 const PERMISSIONS_POLICY_HEADER = Object.keys(PERMISSIONS_POLICY).map(k => `${k}=()`).join(', ')
