@@ -1,4 +1,18 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
+
+// Browser features the product never uses are switched off for every page.
+const PERMISSIONS_POLICY: Record<string, string[]> = {
+  'accelerometer': [], 'autoplay': [], 'camera': [], 'display-capture': [], 'encrypted-media': [], 'fullscreen': [],
+  'geolocation': [], 'gyroscope': [], 'magnetometer': [], 'microphone': [], 'midi': [], 'payment': [],
+  'picture-in-picture': [], 'publickey-credentials-get': [], 'screen-wake-lock': [], 'usb': [],
+  'xr-spatial-tracking': [],
+}
+const PERMISSIONS_POLICY_HEADER = Object.keys(PERMISSIONS_POLICY).map(k => `${k}=()`).join(', ')
+const NON_PAGE_HEADERS = {
+  'cache-control': 'no-store',
+  'content-security-policy': "default-src 'none'; frame-ancestors 'none'",
+  'permissions-policy': PERMISSIONS_POLICY_HEADER,
+}
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   future: { compatibilityVersion: 4 },
@@ -6,7 +20,7 @@ export default defineNuxtConfig({
   // Separate build folders let two checkouts' builds run side by side (e.g. a UI build while tests run).
   buildDir: process.env.PASTLOAD_BUILD_DIR ?? '.nuxt',
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-security'],
   css: ['~/assets/css/main.css'],
   app: {
     head: {
@@ -22,6 +36,58 @@ export default defineNuxtConfig({
   runtimeConfig: {
     // Overridden at run time by NUXT_DATABASE_URL / DATABASE_URL (see server/db/client.ts).
     databaseUrl: '',
+  },
+  // Security headers (nuxt-security): a per-request nonce for every script and style element Nuxt renders
+  // (the entry, its preloads, the hydration payload), 'strict-dynamic' for the chunks they load, no 'unsafe-eval'.
+  // Only style *attributes* are allowed inline: pages rendered on the server carry Vue's :style bindings as
+  // style="…" attributes (D3 and Vue set styles through the CSSOM afterwards, which CSP does not restrict).
+  // The product has its own body limit, Origin check and sign-in throttle (server/middleware, services), so the
+  // module's request-size limiter, CORS handler, rate limiter and XSS filter stay off.
+  security: {
+    nonce: true,
+    sri: true,
+    removeLoggers: false,
+    hidePoweredBy: true,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'none'"],
+        'base-uri': ["'none'"],
+        'object-src': ["'none'"],
+        'frame-ancestors': ["'none'"],
+        'frame-src': ["'none'"],
+        'form-action': ["'self'"],
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        'style-src': ["'self'", "'nonce-{{nonce}}'"],
+        'style-src-attr': ["'unsafe-inline'"],
+        // data: for CSS-drawn fill patterns, blob: for the plot's PNG export (drawn from an SVG blob).
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'font-src': ["'self'"],
+        'connect-src': ["'self'"],
+        'manifest-src': ["'self'"],
+        'worker-src': ["'self'"],
+        'upgrade-insecure-requests': false,
+      },
+      crossOriginEmbedderPolicy: 'require-corp',
+      crossOriginOpenerPolicy: 'same-origin',
+      crossOriginResourcePolicy: 'same-origin',
+      referrerPolicy: 'same-origin',
+      xFrameOptions: 'DENY',
+      xContentTypeOptions: 'nosniff',
+      strictTransportSecurity: { maxAge: 15552000, includeSubdomains: false },
+      permissionsPolicy: PERMISSIONS_POLICY,
+    },
+    requestSizeLimiter: false,
+    rateLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    csrf: false,
+  },
+  routeRules: {
+    // Everything that is not a page: JSON replies and downloads are never cached, framed or run as a document.
+    '/api/**': { headers: NON_PAGE_HEADERS },
+    '/exports/**': { headers: NON_PAGE_HEADERS },
   },
   tailwindcss: {
     cssPath: false,

@@ -1,12 +1,16 @@
 // `npm start`: PostgreSQL (installed and created when missing), migrations, the
 // demo seed on an empty database, a build when stale, then the app on 127.0.0.1.
-// Ctrl-C / SIGTERM stops the app and the database server this script started.
+// If the app process dies it is started again after a growing pause (1 s, 2 s …
+// 30 s; it gives up at the sixth crash within ten minutes) while PostgreSQL and
+// the object store keep running. Ctrl-C / SIGTERM stops the app and the servers
+// this script started.
 import { spawn } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
 import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
+import { supervise } from './lib/supervise.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 const port = Number(process.env.PORT ?? 3000)
@@ -28,7 +32,7 @@ async function main() {
   }
 
   log('app', `Starting Pastload on http://127.0.0.1:${port}`)
-  const app = spawn(process.execPath, [`${process.env.PASTLOAD_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
+  const runApp = () => spawn(process.execPath, [`${process.env.PASTLOAD_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
     cwd: root,
     stdio: 'inherit',
     env: {
@@ -42,19 +46,20 @@ async function main() {
       NUXT_TELEMETRY_DISABLED: '1',
     },
   })
+  // The app is restarted when it dies (back-off, see lib/supervise.mjs); PostgreSQL and the store stay up.
+  const app = supervise(runApp)
   let stopping = false
   const shutdown = (signal) => {
     if (stopping) return
     stopping = true
     log('app', `${signal}: stopping…`)
-    app.kill('SIGTERM')
+    app.stop('SIGTERM')
   }
   process.on('SIGINT', () => shutdown('SIGINT'))
   process.on('SIGTERM', () => shutdown('SIGTERM'))
-  app.on('exit', (code) => {
-    stopAll()
-    process.exit(stopping ? 0 : (code ?? 1))
-  })
+  const { reason, code } = await app.done
+  stopAll()
+  process.exit(reason === 'stopped' ? 0 : code)
 }
 
 main().catch((err) => {

@@ -171,6 +171,27 @@ export async function listObjects(prefix: string, continuationToken?: string): P
   }
 }
 
+export type StorageHealth = 'ok' | 'down' | 'unconfigured'
+
+/**
+ * A fresh round trip to the bucket for `/api/health`, bounded by `timeoutMs`:
+ * 'unconfigured' when no bucket is set (attachments are off, nothing is down),
+ * 'down' when the bucket does not answer. Refreshes the remembered answer too.
+ */
+export async function storageHealth(timeoutMs = 3_000): Promise<StorageHealth> {
+  if (!storageConfigured()) return 'unconfigured'
+  const { config, client } = connection()
+  try {
+    await client.send(new HeadBucketCommand({ Bucket: config.bucket }), { abortSignal: AbortSignal.timeout(timeoutMs) })
+    probe = { at: Date.now(), ok: true }
+    return 'ok'
+  }
+  catch (err) {
+    unreachable(err, `head bucket ${config.bucket}`)
+    return 'down'
+  }
+}
+
 /**
  * Throws `StorageUnavailableError` unless the bucket answers. The answer is
  * remembered for a few seconds so listing attachments does not cost a round trip each time.

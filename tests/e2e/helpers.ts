@@ -4,6 +4,7 @@ import { mkdirSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { afterEach, expect } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import { baseUrl } from '../helpers/http'
 
@@ -14,6 +15,29 @@ export interface Browser {
   close: () => Promise<void>
 }
 
+/**
+ * Content-Security-Policy violations seen by any page of any browser launched in
+ * this file. Each one fails the test during which it happened (and `close()`
+ * fails on those seen after the last test), so every page must work under the CSP.
+ */
+const cspViolations: string[] = []
+const CSP_MARK = '[csp-violation]'
+
+function failOnCspViolations(when: string) {
+  if (cspViolations.length === 0) return
+  const seen = cspViolations.splice(0)
+  throw new Error(`Content-Security-Policy violation ${when}:\n${seen.join('\n')}`)
+}
+
+afterEach(() => failOnCspViolations(`in "${expect.getState().currentTestName ?? 'this test'}"`))
+
+function watchCsp(page: Page) {
+  page.on('console', (msg) => {
+    const text = msg.text()
+    if (text.startsWith(CSP_MARK) || /Content Security Policy/i.test(text)) cspViolations.push(`${page.url()}: ${text}`)
+  })
+}
+
 export async function launch(): Promise<Browser> {
   const dir = mkdtempSync(join(tmpdir(), 'pastload-chromium-'))
   const context = await chromium.launchPersistentContext(dir, {
@@ -21,11 +45,16 @@ export async function launch(): Promise<Browser> {
     viewport: { width: 1280, height: 800 },
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   })
+  // Runs before any page script; the browser reports each blocked load or inline use as a DOM event.
+  await context.addInitScript(`document.addEventListener('securitypolicyviolation', e => console.error(${JSON.stringify(CSP_MARK)} + ' ' + e.effectiveDirective + ' blocked ' + (e.blockedURI || 'inline') + ' at ' + (e.sourceFile || '') + ':' + e.lineNumber))`)
+  context.pages().forEach(watchCsp)
+  context.on('page', watchCsp)
   return {
     context,
     close: async () => {
       await context.close()
       rmSync(dir, { recursive: true, force: true })
+      failOnCspViolations('after the last test')
     },
   }
 }

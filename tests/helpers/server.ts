@@ -52,10 +52,12 @@ export async function startServer(env: Record<string, string> = {}): Promise<Run
   const deadline = Date.now() + 60_000
   for (;;) {
     if (child.exitCode !== null) throw new Error(`The test server exited (${child.exitCode}):\n${log}`)
-    if (Date.now() > deadline) throw new Error(`The test server did not become healthy in 60 s:\n${log}`)
+    if (Date.now() > deadline) throw new Error(`The test server's database check did not pass in 60 s:\n${log}`)
     try {
+      // Ready once the database answers: a server started with its object store down on purpose answers 503 here.
       const r = await fetch(`${url}/api/health`)
-      if (r.ok) break
+      const health = await r.json() as { db?: string }
+      if (health.db === 'ok') break
     }
     catch { /* not listening yet */ }
     await new Promise(r => setTimeout(r, 150))
