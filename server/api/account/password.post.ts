@@ -15,12 +15,8 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'The current password is wrong.', data: { issues: [{ path: 'currentPassword', message: 'is wrong' }] } })
   }
   await db.update(users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(users.id, user.id))
-  const lucia = useLucia()
-  await lucia.invalidateUserSessions(user.id)
-  if (event.context.authVia === 'session') {
-    const session = await lucia.createSession(user.id, {})
-    writeSessionCookie(event, lucia.createSessionCookie(session.id))
-  }
+  await useLucia().invalidateUserSessions(user.id)
+  if (event.context.authVia === 'session') await startSession(event, user.id)
   await recordAudit({ actorId: user.id, action: 'password-change', entity: 'user', entityId: user.id })
   return { ok: true }
 })
