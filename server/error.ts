@@ -24,6 +24,6 @@ export default defineNitroErrorHandler((error, event) => {
   error.data = unavailable ? { code: 'database-unavailable', retryAfter: DATABASE_RETRY_AFTER_SECONDS } : undefined
   error.unhandled = false
   error.fatal = false
+  // Its stack stays (h3 may have made it read-only): no later handler logs or sends it now.
   error.cause = undefined
-  error.stack = ''
 })

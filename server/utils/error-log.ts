@@ -21,10 +21,16 @@ function asObject(err: unknown): ErrorLike | null {
   return err && typeof err === 'object' ? err as ErrorLike : null
 }
 
-/** Drizzle's failed-query error: it carries the query text and its parameters (never logged). */
+/**
+ * The query text of Drizzle's failed-query error, which carries the query and its
+ * parameters (never logged). h3 keeps only the message of the errors it wraps,
+ * "Failed query: <text>\nparams: <values>": the text is taken from it then.
+ */
 function failedQueryText(e: ErrorLike): string | null {
   const q = (e as { query?: unknown }).query
-  return typeof q === 'string' && 'params' in e ? q : null
+  if (typeof q === 'string' && 'params' in e) return q
+  const m = typeof e.message === 'string' ? /^Failed query: ([\s\S]*?)\nparams: /.exec(e.message) : null
+  return m ? m[1]! : null
 }
 
 /** A PostgreSQL error from the server (pg's DatabaseError): five-character SQLSTATE plus severity. */
@@ -67,8 +73,6 @@ function describeOne(e: ErrorLike): string | null {
     return `PostgreSQL ${e.code as string}${names.length ? ` (${names.join(', ')})` : ''}: ${message}`
   }
   const name = typeof e.name === 'string' ? e.name : 'Error'
-  // h3 copies the wrapped error's message into its own: the wrapped one is described below.
-  if (name === 'H3Error' && e.cause) return null
   const message = typeof e.message === 'string' ? scrubText(e.message) : ''
   const code = typeof e.code === 'string' && /^[A-Z0-9_]{2,40}$/.test(e.code) ? ` [${e.code}]` : ''
   return `${name}${code}: ${message}`
@@ -91,6 +95,8 @@ export function describeError(err: unknown): string {
   const parts: string[] = []
   let e = asObject(err)
   for (let i = 0; e && i < MAX_CHAIN; e = asObject(e.cause), i++) {
+    // A wrapper repeating its cause's message (h3's) is described by the cause.
+    if (typeof e.message === 'string' && e.message === asObject(e.cause)?.message) continue
     const part = describeOne(e)
     if (part) parts.push(part)
   }

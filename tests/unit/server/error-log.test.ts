@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto'
 import { DrizzleQueryError } from 'drizzle-orm/errors'
+import { createError } from 'h3'
 import pg from 'pg'
 import { describe, expect, it } from 'vitest'
 import { isDatabaseUnavailable } from '../../../server/utils/db-errors'
@@ -41,6 +42,13 @@ describe('redacted error log', () => {
     expect(line).not.toContain(SESSION_HASH)
     expect(line).not.toContain(TOKEN)
     expect(line).toContain('Error [ECONNREFUSED]: connect ECONNREFUSED 127.0.0.1:5432')
+  })
+
+  it('takes the query text from the message when h3 has wrapped the failed query, dropping the values', () => {
+    const cause = pgError('refused', { code: 'P0001' })
+    const wrapped = createError(new DrizzleQueryError('select "id" from "sessions" where "sessions"."id" = $1', [SESSION_HASH], cause))
+    const line = redactedErrorReport('503 GET /api/auth/me', wrapped, false)
+    expect(line).toBe('503 GET /api/auth/me: query failed: select "id" from "sessions" where "sessions"."id" = $1 ← PostgreSQL P0001: refused')
   })
 
   it('keeps only stack frames, not a multi-line message that carries values', () => {
