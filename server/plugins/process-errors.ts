@@ -1,7 +1,12 @@
 import { logServerError } from '../utils/error-log'
 
-const onRejection = (err: unknown) => logServerError('unhandled rejection', err)
-const onException = (err: unknown) => logServerError('uncaught exception', err)
+type Listener = (err: unknown) => void
+type ProcessErrorEvent = 'unhandledRejection' | 'uncaughtException'
+
+const mine: Record<ProcessErrorEvent, Listener> = {
+  unhandledRejection: err => logServerError('unhandled rejection', err),
+  uncaughtException: err => logServerError('uncaught exception', err),
+}
 
 /**
  * Makes the redacted log the only one for errors nobody awaited. Nitro's server
@@ -11,11 +16,12 @@ const onException = (err: unknown) => logServerError('uncaught exception', err)
  * Like Nitro's, these listeners keep the server running.
  */
 function claimProcessErrors() {
-  for (const [type, mine] of [['unhandledRejection', onRejection], ['uncaughtException', onException]] as const) {
-    for (const listener of process.listeners(type)) {
-      if (listener !== mine) process.off(type, listener as (...args: unknown[]) => void)
+  for (const type of ['unhandledRejection', 'uncaughtException'] as const) {
+    const listeners = (): Listener[] => process.listeners(type) as unknown as Listener[]
+    for (const listener of listeners()) {
+      if (listener !== mine[type]) process.removeListener(type, listener)
     }
-    if (!process.listeners(type).includes(mine)) process.on(type, mine)
+    if (!listeners().includes(mine[type])) process.on(type, mine[type])
   }
 }
 
