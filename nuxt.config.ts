@@ -1,4 +1,5 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
+import { fileURLToPath } from 'node:url'
 
 // Browser features the product never uses are switched off for every page.
 const PERMISSIONS_POLICY: Record<string, string[]> = {
@@ -13,6 +14,7 @@ const NON_PAGE_HEADERS = {
   'content-security-policy': "default-src 'none'; frame-ancestors 'none'",
   'permissions-policy': PERMISSIONS_POLICY_HEADER,
 }
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   future: { compatibilityVersion: 4 },
@@ -98,6 +100,14 @@ export default defineNuxtConfig({
     // server also refuses to answer before its own readiness check (server/plugins/db.ts).
     experimental: { openAPI: false },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
+  },
+  hooks: {
+    // server/error.ts runs before Nuxt's page error handler and Nitro's JSON one: it logs an
+    // unexpected error once, redacted, and answers a lost database connection with 503.
+    'nitro:config'(config) {
+      const others = config.errorHandler === undefined ? [] : [config.errorHandler].flat()
+      config.errorHandler = [fileURLToPath(new URL('./server/error.ts', import.meta.url)), ...others]
+    },
   },
   vite: {
     optimizeDeps: { include: ['d3', 'zod'] },

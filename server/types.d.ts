@@ -5,6 +5,7 @@ declare module 'h3' {
   interface H3EventContext {
     user: SessionUser | null
     authVia: 'session' | 'token' | null
+    /** The stored session id: the SHA-256 of the cookie token, never the token. */
     sessionId?: string
     tokenRejected?: boolean
     /** Why a bearer token was refused (unknown, revoked or expired): requireUser's 401 message. */

@@ -1,5 +1,6 @@
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
+import { logServerError } from '../utils/error-log'
 import * as schema from './schema'
 
 export type Database = ReturnType<typeof createDatabase>['db']
@@ -15,7 +16,13 @@ function createDatabase(url: string) {
   // An idle client losing its connection (database restarted) must not crash the app;
   // the pool replaces it on the next checkout.
   pool.on('error', (err) => {
-    console.warn(`[pastload:db] idle connection lost: ${err.message}`)
+    logServerError('database: idle connection lost', err, { stack: false, level: 'warn' })
+  })
+  // A checked-out client (inside a transaction, between queries) has no pool listener: an
+  // 'error' event with no listener would be an uncaught exception. The query in flight or
+  // the next one fails and its request answers 503; this listener only keeps it quiet.
+  pool.on('connect', (client) => {
+    client.on('error', () => {})
   })
   return { pool, db: drizzle(pool, { schema, casing: 'snake_case' }) }
 }

@@ -13,14 +13,15 @@ export default defineEventHandler(async (event) => {
     return
   }
   const lucia = useLucia()
-  const sessionId = getCookie(event, lucia.sessionCookieName)
-  if (!sessionId) return
-  const { session, user } = await lucia.validateSession(sessionId)
-  if (!session) {
+  const { token, present } = sessionTokenFromCookie(event)
+  if (!present) return
+  // Only the token's hash is stored: look the hash up, answer with the token.
+  const { session, user } = token ? await lucia.validateSession(sessionIdFromToken(token)) : { session: null, user: null }
+  if (!session || !token) {
     writeSessionCookie(event, lucia.createBlankSessionCookie())
     return
   }
-  if (session.fresh) writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  if (session.fresh) writeSessionCookie(event, lucia.createSessionCookie(token))
   event.context.user = { id: user.id, email: user.email, displayName: user.displayName, isSiteAdmin: user.isSiteAdmin }
   event.context.sessionId = session.id
   event.context.authVia = 'session'

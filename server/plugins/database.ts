@@ -2,6 +2,7 @@ import { useDb } from '../db/client'
 import { applyMigrations } from '../db/migrate'
 import { seedDemoIfEmpty } from '../services/demo-seed'
 import { seedDemoAttachmentsAfterDemoSeed } from '../services/demo-seed-attachments'
+import { logServerError } from '../utils/error-log'
 import { markDatabaseFailed, markDatabaseReady } from '../utils/ready'
 
 // Applies migrations at start; a failing migration stops the server with its error.
@@ -18,7 +19,7 @@ export default defineNitroPlugin(() => {
   }
   start().then(markDatabaseReady, (err: unknown) => {
     markDatabaseFailed(err)
-    console.error('[pastload:db] start-up failed:', err instanceof Error ? (err.stack ?? err.message) : err)
+    logServerError('database start-up failed', err)
     process.exit(1)
   })
 })

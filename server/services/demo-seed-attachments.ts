@@ -6,6 +6,7 @@ import sharp from 'sharp'
 import { DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
 import type { Database } from '../db/client'
 import { investigationPoints, projects, users } from '../db/schema'
+import { logServerError } from '../utils/error-log'
 import { storeAttachment, type UploadedFile } from './attachments'
 import { storageConfigured } from './storage'
 
@@ -235,6 +236,6 @@ export async function seedDemoAttachmentsAfterDemoSeed(db: Database): Promise<vo
     console.info(`[pastload:db] ${n} demo attachments stored`)
   }
   catch (err) {
-    console.warn(`[pastload:db] demo attachments skipped: ${err instanceof Error ? err.message : String(err)}`)
+    logServerError('demo attachments skipped', err, { stack: false, level: 'warn' })
   }
 }

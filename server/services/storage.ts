@@ -1,5 +1,6 @@
 import type { Readable } from 'node:stream'
 import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3'
+import { logServerError } from '../utils/error-log'
 
 /**
  * Object storage for attachments, over the S3 API. Configured only from the
@@ -92,8 +93,7 @@ const UNREACHABLE = 'Object storage is not reachable right now, so attachments c
 
 function unreachable(err: unknown, action: string): StorageUnavailableError {
   probe = { at: Date.now(), ok: false }
-  const detail = err instanceof Error ? `${err.name}: ${err.message}` : String(err)
-  console.warn(`[pastload:storage] ${action} failed: ${detail}`)
+  logServerError(`storage: ${action} failed`, err, { stack: false, level: 'warn' })
   return new StorageUnavailableError(UNREACHABLE, 'unreachable')
 }
 

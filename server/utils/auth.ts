@@ -1,6 +1,7 @@
+import { createHash } from 'node:crypto'
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle'
 import type { H3Event } from 'h3'
-import { Lucia, TimeSpan, type Cookie } from 'lucia'
+import { Lucia, TimeSpan, generateIdFromEntropySize, type Cookie } from 'lucia'
 import { useDb } from '../db/client'
 import { sessions, users } from '../db/schema'
 
@@ -30,6 +31,33 @@ declare module 'lucia' {
     Lucia: ReturnType<typeof useLucia>
     DatabaseUserAttributes: DatabaseUserAttributes
   }
+}
+
+/**
+ * Sessions are stored under the SHA-256 of the cookie's token, never the token
+ * itself: a leaked sessions row or a logged session id cannot be replayed as a
+ * cookie. The token has 200 bits of entropy, so a fast hash is enough.
+ */
+export function sessionIdFromToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex')
+}
+
+/** A session token as Lucia makes its ids: 25 random bytes in lower-case base32 (40 characters). */
+const TOKEN_PATTERN = /^[a-z2-7]{40}$/
+
+/** The session token from the request's cookie, or null when absent or not shaped like one (never looked up). */
+export function sessionTokenFromCookie(event: H3Event): { token: string | null, present: boolean } {
+  const raw = getCookie(event, useLucia().sessionCookieName)
+  if (!raw) return { token: null, present: false }
+  return { token: TOKEN_PATTERN.test(raw) ? raw : null, present: true }
+}
+
+/** Starts a session for the user: the cookie carries a fresh token, the database only its hash. */
+export async function startSession(event: H3Event, userId: string): Promise<void> {
+  const lucia = useLucia()
+  const token = generateIdFromEntropySize(25)
+  await lucia.createSession(userId, {}, { sessionId: sessionIdFromToken(token) })
+  writeSessionCookie(event, lucia.createSessionCookie(token))
 }
 
 /** True when the request came over HTTPS (directly or through a trusted proxy). */

@@ -25,9 +25,7 @@ export default defineEventHandler(async (event) => {
     await recordAudit({ actorId: user.id, action: 'password-change', entity: 'user', entityId: user.id, after: { tokensRevoked: n } }, tx)
     return n
   })
-  const lucia = useLucia()
-  await lucia.invalidateUserSessions(user.id)
-  const session = await lucia.createSession(user.id, {})
-  writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  await useLucia().invalidateUserSessions(user.id)
+  await startSession(event, user.id)
   return { ok: true, tokensRevoked }
 })

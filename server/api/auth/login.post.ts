@@ -26,9 +26,7 @@ export default defineEventHandler(async (event) => {
   }
   await recordSuccess(email, ip)
 
-  const lucia = useLucia()
-  const session = await lucia.createSession(user.id, {})
-  writeSessionCookie(event, lucia.createSessionCookie(session.id))
+  await startSession(event, user.id)
   await recordAudit({ actorId: user.id, action: 'login', entity: 'session', entityId: null, after: { ip } })
   return { user: { id: user.id, email: user.email, displayName: user.displayName, isSiteAdmin: user.isSiteAdmin } }
 })

@@ -14,12 +14,15 @@ export const users = pgTable('users', {
   uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`),
 ])
 
-/** Lucia v3 sessions (see server/utils/auth.ts). */
+/** Lucia v3 sessions (see server/utils/auth.ts); the id is the SHA-256 of the cookie's token, never the token. */
 export const sessions = pgTable('sessions', {
   id: text().primaryKey(),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
   expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
-}, t => [index('sessions_user_idx').on(t.userId)])
+}, t => [
+  index('sessions_user_idx').on(t.userId),
+  check('sessions_id_is_sha256', sql`${t.id} ~ '^[0-9a-f]{64}$'`),
+])
 
 export const API_TOKEN_SCOPES = ['read-write', 'read-only'] as const
 

@@ -1,0 +1,1 @@
+ALTER TABLE "sessions" ADD CONSTRAINT "sessions_id_is_sha256" CHECK ("sessions"."id" ~ '^[0-9a-f]{64}$');
