@@ -5,7 +5,8 @@ import { int, str } from './common'
  * Request and response shapes of the public compute API (`/api/calc/*`), SI units.
  * These schemas are the contract: the routes validate with them, the OpenAPI
  * document is generated from them, and the engine's input types must accept
- * what they produce. Shape errors are 400; physically impossible values (a zero
+ * what they produce. Shape errors and values beyond their plausibility bounds
+ * (CALC_LIMITS) are 400; physically impossible values inside them (a zero
  * thickness, e0 ≤ 0, σ'v0 ≤ 0 …) pass the shape check and are refused by the
  * engine with 422 and a plain message.
  */
