@@ -58,13 +58,18 @@ function num(description: string, b: Bounds = {}) {
 }
 
 const L = CALC_LIMITS
-const depthM = { min: -L.length, max: L.length, unit: 'm' }
-const pressureKPa = { min: -L.pressure, max: L.pressure, unit: 'kPa' }
+/**
+ * A bound on the size only (−max to max): the sign, and any other physical limit
+ * (thickness > 0, e0 > 0, σ'p > 0), is the engine's to refuse with 422.
+ */
+const magnitude = (max: number, unit?: string): Bounds => ({ min: -max, max, unit })
+const depthM = magnitude(L.length, 'm')
+const pressureKPa = magnitude(L.pressure, 'kPa')
 const unitWeight = { min: L.unitWeight[0], max: L.unitWeight[1], unit: 'kN/m³' }
 
 export const CalcLayerSchema = z.object({
   name: str(80).min(1, { message: 'is required' }).describe('Stratum name, echoed in results'),
-  thickness: num('Layer thickness, m', { max: L.length, unit: 'm' }),
+  thickness: num('Layer thickness, m', magnitude(L.length, 'm')),
   unitWeight: num('Bulk unit weight above the water table, kN/m³', unitWeight),
   unitWeightSaturated: num('Saturated unit weight below the water table, kN/m³', unitWeight),
 })
@@ -107,7 +112,7 @@ export const StressProfileResponseSchema = z.object({
 }).meta({ id: 'StressProfileResponse' })
 
 export const PreconsolidationModelSchema = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('ocr'), value: num('OCR = σ\'p / σ\'v0', { max: L.ocr }) }),
+  z.object({ type: z.literal('ocr'), value: num('OCR = σ\'p / σ\'v0', magnitude(L.ocr)) }),
   z.object({ type: z.literal('pop'), value: num('POP = σ\'p − σ\'v0, kPa', pressureKPa) }),
   z.object({ type: z.literal('constant'), value: num('σ\'p, kPa', pressureKPa) }),
   z.object({ type: z.literal('linear'), top: num('σ\'p at the layer top, kPa', pressureKPa), bottom: num('σ\'p at the layer bottom, kPa', pressureKPa) }),
@@ -117,13 +122,13 @@ export const DrainageSchema = z.enum(['double', 'top', 'bottom'])
 
 export const SettlementLayerSchema = CalcLayerSchema.extend({
   compressible: z.boolean(),
-  cc: num('Compression index Cc', { max: L.cc }).optional(),
-  cr: num('Recompression index Cr', { max: L.cr }).optional(),
-  e0: num('Initial void ratio e0', { max: L.voidRatio }).optional(),
+  cc: num('Compression index Cc', magnitude(L.cc)).optional(),
+  cr: num('Recompression index Cr', magnitude(L.cr)).optional(),
+  e0: num('Initial void ratio e0', magnitude(L.voidRatio)).optional(),
   preconsolidation: PreconsolidationModelSchema.optional(),
-  cv: num('Coefficient of consolidation, m²/year', { max: L.cv, unit: 'm²/year' }).optional(),
+  cv: num('Coefficient of consolidation, m²/year', magnitude(L.cv, 'm²/year')).optional(),
   drainage: DrainageSchema.optional().describe('Drained faces of the layer (default double)'),
-  calpha: num('Secondary compression index Cα', { max: L.calpha }).optional(),
+  calpha: num('Secondary compression index Cα', magnitude(L.calpha)).optional(),
 }).superRefine((layer, ctx) => {
   if (!layer.compressible) return
   for (const key of ['cc', 'cr', 'e0', 'preconsolidation'] as const) {
@@ -131,8 +136,8 @@ export const SettlementLayerSchema = CalcLayerSchema.extend({
   }
 })
 
-const offsetM = { min: -L.offset, max: L.offset, unit: 'm' }
-const loadSize = { max: L.loadSize, unit: 'm' }
+const offsetM = magnitude(L.offset, 'm')
+const loadSize = magnitude(L.loadSize, 'm')
 const at2 = z.object({ x: num('m', offsetM), y: num('m', offsetM) }).describe('Plan point measured from the load centre, m')
 
 export const LoadSchema = z.discriminatedUnion('type', [
@@ -196,8 +201,8 @@ export const SettlementResponseSchema = z.object({
 export const OEDOMETER_METHOD_NAMES = ['casagrande', 'pachecoSilva', 'work', 'bilinear'] as const
 
 export const PreconsolidationRequestSchema = z.object({
-  points: z.array(z.object({ stress: num("σ', kPa", { min: -L.labStress, max: L.labStress, unit: 'kPa' }), voidRatio: num('e', { min: -L.voidRatio, max: L.voidRatio }) })).min(1).max(500),
-  e0: num('Initial void ratio', { max: L.voidRatio }).optional(),
+  points: z.array(z.object({ stress: num("σ', kPa", magnitude(L.labStress, 'kPa')), voidRatio: num('e', magnitude(L.voidRatio)) })).min(1).max(500),
+  e0: num('Initial void ratio', magnitude(L.voidRatio)).optional(),
   insituStress: num("In-situ σ'v0 of the sample, kPa (for sample quality)", pressureKPa).optional(),
   methods: z.array(z.enum(OEDOMETER_METHOD_NAMES)).min(1).max(4).optional(),
 }).meta({ id: 'PreconsolidationRequest' })

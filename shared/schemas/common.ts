@@ -14,7 +14,7 @@ export function isPlainText(v: string): boolean {
 }
 
 /** The one string type of every schema (see above); bounded by default, callers bound it tighter. */
-export const str = (max = 10_000) => z.string()
+export const str = (max = 10_000, error?: string) => z.string(error ? { error } : undefined)
   .refine(isPlainText, { message: PLAIN_TEXT_MESSAGE })
   .max(max, { message: `must be at most ${max} characters` })
 

@@ -89,7 +89,7 @@ export type OedometerTestUpdate = z.infer<typeof OedometerTestUpdateSchema>
 export const AdoptionInputSchema = z.object({
   method: z.enum(ADOPTION_METHODS),
   value: z.number({ error: 'σ\'p must be a number' }).positive({ message: 'σ\'p must be above 0 kPa' }).max(100_000),
-  reason: z.string({ error: 'a reason is required' }).trim().min(3, { message: 'a reason of at least 3 characters is required' }).max(1000),
+  reason: str(1000, 'a reason is required').trim().min(3, { message: 'a reason of at least 3 characters is required' }).max(1000),
 })
 export type AdoptionInput = z.infer<typeof AdoptionInputSchema>
 

@@ -13,8 +13,8 @@ import { ChangePasswordSchema, CreateTokenSchema, CreateUserSchema, LoginSchema 
 import { PreconsolidationRequestSchema, SettlementRequestSchema, StressProfileRequestSchema, TrendFitRequestSchema } from '../../shared/schemas/calc'
 import { ImportCommitSchema } from '../../shared/schemas/imports'
 import {
-  CptInputSchema, GroundwaterInputSchema, IndexTestInputSchema, LogReplaceSchema, PointInputSchema, PointUpdateSchema, SampleInputSchema,
-  SampleUpdateSchema, SptInputSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema,
+  CptSaveSchema, GroundwaterInputSchema, GroundwaterUpdateSchema, IndexTestSaveSchema, LogReplaceSchema, PointInputSchema, PointUpdateSchema,
+  SampleInputSchema, SampleUpdateSchema, SptInputSchema, SptUpdateSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema, VaneUpdateSchema,
 } from '../../shared/schemas/investigation'
 import { AdoptionInputSchema, OedometerTestInputSchema, OedometerTestUpdateSchema, PreconsolidationPointsEvaluateSchema } from '../../shared/schemas/lab'
 import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema } from '../../shared/schemas/models'
@@ -45,14 +45,14 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'PUT /api/projects/:projectId/points/:pointId/intervals': LogReplaceSchema,
   'POST /api/projects/:projectId/points/:pointId/samples': SampleInputSchema,
   'PATCH /api/projects/:projectId/points/:pointId/samples/:sampleId': SampleUpdateSchema,
-  'PUT /api/projects/:projectId/points/:pointId/samples/:sampleId/index-test': IndexTestInputSchema,
+  'PUT /api/projects/:projectId/points/:pointId/samples/:sampleId/index-test': IndexTestSaveSchema,
   'POST /api/projects/:projectId/points/:pointId/spt': SptInputSchema,
-  'PATCH /api/projects/:projectId/points/:pointId/spt/:rowId': SptInputSchema,
+  'PATCH /api/projects/:projectId/points/:pointId/spt/:rowId': SptUpdateSchema,
   'POST /api/projects/:projectId/points/:pointId/groundwater': GroundwaterInputSchema,
-  'PATCH /api/projects/:projectId/points/:pointId/groundwater/:rowId': GroundwaterInputSchema,
+  'PATCH /api/projects/:projectId/points/:pointId/groundwater/:rowId': GroundwaterUpdateSchema,
   'POST /api/projects/:projectId/points/:pointId/vane': VaneInputSchema,
-  'PATCH /api/projects/:projectId/points/:pointId/vane/:rowId': VaneInputSchema,
-  'PUT /api/projects/:projectId/points/:pointId/cpt': CptInputSchema,
+  'PATCH /api/projects/:projectId/points/:pointId/vane/:rowId': VaneUpdateSchema,
+  'PUT /api/projects/:projectId/points/:pointId/cpt': CptSaveSchema,
   'POST /api/projects/:projectId/imports/:importId/commit': ImportCommitSchema,
   'POST /api/projects/:projectId/strata': StratumInputSchema,
   'PATCH /api/projects/:projectId/strata/:stratumId': StratumUpdateSchema,
