@@ -41,10 +41,11 @@ function leaves(schema: z.ZodType, path = '', out: { path: string, kind: 'string
 }
 
 const isZod = (v: unknown): v is z.ZodType => typeof v === 'object' && v !== null && '_zod' in v
-const INPUTS: [string, z.ZodType][] = [
+const EXPORTS: [string, unknown][] = [
   ...Object.entries({ ...attachments, ...auth, ...calc, ...common, ...imports, ...investigation, ...lab, ...models, ...projects, ...review }),
   ['SiteModelDefinitionSchema', SiteModelDefinitionSchema],
-].filter((e): e is [string, z.ZodType] => isZod(e[1]) && e[0].endsWith('Schema') && !/Response|ApiError|Row|StressPoint/.test(e[0]))
+]
+const INPUTS = EXPORTS.filter((e): e is [string, z.ZodType] => isZod(e[1]) && e[0].endsWith('Schema') && !/Response|ApiError|Row|StressPoint/.test(e[0]))
 
 describe('every input schema is bounded', () => {
   it('finds the input schemas and their leaves', () => {
