@@ -1,45 +1,38 @@
 import { and, eq } from 'drizzle-orm'
-import type { FlagTarget } from '#shared/review/flags'
+import { parseFlagTarget, type FlagTarget } from '#shared/review/flags'
 import { useDb } from '../db/client'
 import { investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, reviewFlags, samples, vaneReadings } from '../db/schema'
 import { notFound } from './versioned'
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
-
 /** The flagged record must belong to the project (checked in the WHERE clause); anything else is 404. */
 export async function assertTargetInProject(projectId: string, type: FlagTarget, targetId: string): Promise<void> {
+  const target = parseFlagTarget(type, targetId)
+  if (!target) notFound('The flagged record')
   const db = useDb()
+  const id = target.id
   const inProject = eq(investigationPoints.projectId, projectId)
   let found = false
   if (type === 'preconsolidation-point') {
-    if (UUID.test(targetId)) found = (await db.select({ id: preconsolidationAdoptions.id }).from(preconsolidationAdoptions).where(and(eq(preconsolidationAdoptions.id, targetId), eq(preconsolidationAdoptions.projectId, projectId)))).length > 0
+    found = (await db.select({ id: preconsolidationAdoptions.id }).from(preconsolidationAdoptions).where(and(eq(preconsolidationAdoptions.id, id), eq(preconsolidationAdoptions.projectId, projectId)))).length > 0
   }
   else if (type === 'oedometer-test') {
-    if (UUID.test(targetId)) {
-      found = (await db.select({ id: oedometerTests.id }).from(oedometerTests)
-        .innerJoin(samples, eq(samples.id, oedometerTests.sampleId))
-        .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
-        .where(and(eq(oedometerTests.id, targetId), inProject))).length > 0
-    }
+    found = (await db.select({ id: oedometerTests.id }).from(oedometerTests)
+      .innerJoin(samples, eq(samples.id, oedometerTests.sampleId))
+      .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
+      .where(and(eq(oedometerTests.id, id), inProject))).length > 0
   }
   else if (type === 'log-interval') {
-    if (UUID.test(targetId)) {
-      found = (await db.select({ id: logIntervals.id }).from(logIntervals)
-        .innerJoin(investigationPoints, eq(investigationPoints.id, logIntervals.pointId))
-        .where(and(eq(logIntervals.id, targetId), inProject))).length > 0
-    }
+    found = (await db.select({ id: logIntervals.id }).from(logIntervals)
+      .innerJoin(investigationPoints, eq(investigationPoints.id, logIntervals.pointId))
+      .where(and(eq(logIntervals.id, id), inProject))).length > 0
   }
   else if (type === 'cpt-point') {
-    const m = /^cpt:([0-9a-f-]{36}):(\d+)$/i.exec(targetId)
-    if (m) found = (await db.select({ id: investigationPoints.id }).from(investigationPoints).where(and(eq(investigationPoints.id, m[1]!), inProject))).length > 0
+    found = (await db.select({ id: investigationPoints.id }).from(investigationPoints).where(and(eq(investigationPoints.id, id), inProject))).length > 0
   }
   else if (type === 'vane-reading') {
-    const m = /^vane:([0-9a-f-]{36})$/i.exec(targetId)
-    if (m) {
-      found = (await db.select({ id: vaneReadings.id }).from(vaneReadings)
-        .innerJoin(investigationPoints, eq(investigationPoints.id, vaneReadings.pointId))
-        .where(and(eq(vaneReadings.id, m[1]!), inProject))).length > 0
-    }
+    found = (await db.select({ id: vaneReadings.id }).from(vaneReadings)
+      .innerJoin(investigationPoints, eq(investigationPoints.id, vaneReadings.pointId))
+      .where(and(eq(vaneReadings.id, id), inProject))).length > 0
   }
   if (!found) notFound('The flagged record')
 }

@@ -9,5 +9,3 @@ export const SampleParams = PointParams.extend({ sampleId: UuidSchema })
 export const StratumParams = z.object({ projectId: UuidSchema, stratumId: UuidSchema })
 /** A row that belongs to a point (SPT, groundwater, vane) by its `rowId`. */
 export const PointRowParams = PointParams.extend({ rowId: UuidSchema })
-
-export const CptVersionSchema = z.object({ version: z.number().int().min(1).optional() })

@@ -12,7 +12,7 @@ export class GeotechError extends Error {
   readonly detail?: Record<string, unknown>
 
   constructor(code: string, message: string, options: { depth?: number, detail?: Record<string, unknown> } = {}) {
-    super(message)
+    super(plainNumbers(message))
     this.name = 'GeotechError'
     this.code = code
     this.depth = options.depth
@@ -22,4 +22,16 @@ export class GeotechError extends Error {
 
 export function isGeotechError(value: unknown): value is GeotechError {
   return value instanceof GeotechError
+}
+
+/**
+ * A message never shows `NaN` or `Infinity`: a value that is not a finite number
+ * reads as a plain phrase instead, wherever a message template put it.
+ */
+export function plainNumbers(message: string): string {
+  return message
+    .replace(/\(got (?:-?Infinity|NaN)(?: [^)]*)?\)/g, '(got a value that is not a finite number)')
+    .replace(/-Infinity\b/g, 'an infinitely large negative value')
+    .replace(/\bInfinity\b/g, 'an infinitely large value')
+    .replace(/\bNaN\b/g, 'a value that is not a number')
 }

@@ -3,6 +3,7 @@ import { checkIntervals } from '../investigation/intervals'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/types'
 import { isGeotechError } from '../geotech/errors'
 import { convertStages, STAGE_CONVENTION_LABELS, type SpecimenBasis, type StageConvention } from '../lab/stages'
+import { EARLIEST_DATE, isPlainText, LATEST_DATE, PLAIN_TEXT_MESSAGE } from '../schemas/common'
 import { VaneInputSchema } from '../schemas/investigation'
 import { StageInputSchema } from '../schemas/lab'
 
@@ -187,9 +188,13 @@ export function parseCell(raw: Cell, type: FieldType): { value: ParsedValue, err
   if (type === 'date' || type === 'datetime') {
     const d = raw instanceof Date ? raw : new Date(String(raw).trim())
     if (Number.isNaN(d.getTime())) return { value: null, error: `"${String(raw)}" is not a date (use YYYY-MM-DD${type === 'datetime' ? ' hh:mm' : ''})` }
-    return { value: type === 'date' ? d.toISOString().slice(0, 10) : d.toISOString() }
+    const iso = d.toISOString()
+    // The same calendar range as every date the API takes (shared/schemas/common.ts).
+    if (iso.slice(0, 10) < EARLIEST_DATE || iso.slice(0, 10) > LATEST_DATE) return { value: null, error: `"${String(raw)}" is not between ${EARLIEST_DATE} and ${LATEST_DATE}` }
+    return { value: type === 'date' ? iso.slice(0, 10) : iso }
   }
   const text = String(raw).trim()
+  if (!isPlainText(text)) return { value: null, error: PLAIN_TEXT_MESSAGE }
   if (type === 'uscs') {
     const sym = text.toUpperCase()
     return isUscsGroupSymbol(sym) ? { value: sym } : { value: null, error: `"${text}" is not an ASTM D2487 group symbol` }

@@ -18,3 +18,29 @@ export const VERDICT_LABELS: Record<FlagVerdict, string> = {
 export function cptPointId(pointId: string, depth: number): string {
   return `cpt:${pointId}:${Math.round(depth * 1000)}`
 }
+
+const UUID = '[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}'
+const UUID_ONLY = new RegExp(`^${UUID}$`, 'i')
+const CPT_TARGET = new RegExp(`^cpt:(${UUID}):(\\d{1,6})$`, 'i')
+const VANE_TARGET = new RegExp(`^vane:(${UUID})$`, 'i')
+/** A CPT point's depth in mm: at most 500 m (the deepest point a log may have). */
+const MAX_DEPTH_MM = 500_000
+
+/**
+ * What a flag's `targetId` names, read strictly: a row id for stored records,
+ * `cpt:<pointId>:<depth mm>` for a CPT-derived point and `vane:<readingId>` for a
+ * vane-derived one. Anything else (a wrong shape, an id that is not a uuid, a depth
+ * beyond 500 m) is null, so it is refused before any query.
+ */
+export function parseFlagTarget(type: FlagTarget, targetId: string): { id: string, depthMm?: number } | null {
+  if (type === 'cpt-point') {
+    const m = CPT_TARGET.exec(targetId)
+    const depthMm = m ? Number(m[2]) : Number.NaN
+    return m && depthMm <= MAX_DEPTH_MM ? { id: m[1]!.toLowerCase(), depthMm } : null
+  }
+  if (type === 'vane-reading') {
+    const m = VANE_TARGET.exec(targetId)
+    return m ? { id: m[1]!.toLowerCase() } : null
+  }
+  return UUID_ONLY.test(targetId) ? { id: targetId.toLowerCase() } : null
+}

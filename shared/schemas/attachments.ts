@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { UuidSchema } from './common'
+import { INT32_MAX, str, UuidSchema } from './common'
 
 /** What an attachment can belong to: the project itself, a point, a sample or an oedometer test. */
 export const ATTACHMENT_OWNER_TYPES = ['project', 'point', 'sample', 'test'] as const
@@ -34,7 +34,7 @@ export function attachmentKind(contentType: string): AttachmentKind | null {
 export const AttachmentFieldsSchema = z.object({
   ownerType: z.enum(ATTACHMENT_OWNER_TYPES).default('project'),
   ownerId: z.preprocess(v => (v === '' ? undefined : v), UuidSchema.optional()),
-  caption: z.string().trim().max(500, { message: 'must be at most 500 characters' }).default(''),
+  caption: str().trim().max(500, { message: 'must be at most 500 characters' }).default(''),
 }).refine(v => (v.ownerType === 'project') === (v.ownerId === undefined), {
   path: ['ownerId'],
   message: 'is required for a point, sample or test, and must be left out for the project itself',
@@ -44,7 +44,7 @@ export const AttachmentListQuerySchema = z.object({
   ownerType: z.enum(ATTACHMENT_OWNER_TYPES).optional(),
   ownerId: UuidSchema.optional(),
   limit: z.coerce.number().int().min(1).max(100).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
+  offset: z.coerce.number().int().min(0).max(INT32_MAX).default(0),
 })
 
 export const AttachmentParamsSchema = z.object({ projectId: UuidSchema, attachmentId: UuidSchema })

@@ -1,22 +1,22 @@
 import { z } from 'zod'
-import { EmailSchema, PasswordSchema } from './common'
+import { EmailSchema, PasswordSchema, str } from './common'
 
 export const LoginSchema = z.object({
   email: EmailSchema,
   // No length rule here: a wrong password of any length is the same 401.
-  password: z.string().min(1, { message: 'is required' }).max(256),
+  password: str().min(1, { message: 'is required' }).max(256),
 }).meta({ id: 'LoginRequest' })
 export type LoginInput = z.infer<typeof LoginSchema>
 
 export const ChangePasswordSchema = z.object({
-  currentPassword: z.string().min(1, { message: 'is required' }).max(256),
+  currentPassword: str().min(1, { message: 'is required' }).max(256),
   newPassword: PasswordSchema,
 }).refine(v => v.currentPassword !== v.newPassword, { path: ['newPassword'], message: 'must differ from the current password' })
 export type ChangePasswordInput = z.infer<typeof ChangePasswordSchema>
 
 export const CreateUserSchema = z.object({
   email: EmailSchema,
-  displayName: z.string().trim().min(1, { message: 'is required' }).max(120),
+  displayName: str().trim().min(1, { message: 'is required' }).max(120),
   password: PasswordSchema,
   isSiteAdmin: z.boolean().default(false),
 })
@@ -31,9 +31,7 @@ const DAY_MS = 24 * 60 * 60 * 1000
  * working; at most a year ahead; 90 days when neither is given) and whether it may only read.
  */
 export const CreateTokenSchema = z.object({
-  name: z.string().trim().min(1, { message: 'is required' }).max(80)
-    // A NUL byte or half a surrogate pair cannot be stored or shown.
-    .refine(v => !/[\u0000\p{Cs}]/u.test(v), { message: 'contains a character that cannot be stored' }),
+  name: str().trim().min(1, { message: 'is required' }).max(80),
   expiresInDays: z.number().int({ message: 'must be a whole number of days' })
     .min(1, { message: 'must be at least 1 day' })
     .max(TOKEN_MAX_DAYS, { message: `must be at most ${TOKEN_MAX_DAYS} days (one year)` })

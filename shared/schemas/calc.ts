@@ -1,44 +1,100 @@
 import { z } from 'zod'
+import { int, str } from './common'
 
 /**
  * Request and response shapes of the public compute API (`/api/calc/*`), SI units.
  * These schemas are the contract: the routes validate with them, the OpenAPI
  * document is generated from them, and the engine's input types must accept
- * what they produce. Shape errors are 400; physically impossible values (a zero
+ * what they produce. Shape errors and values beyond their plausibility bounds
+ * (CALC_LIMITS) are 400; physically impossible values inside them (a zero
  * thickness, e0 ≤ 0, σ'v0 ≤ 0 …) pass the shape check and are refused by the
  * engine with 422 and a plain message.
  */
 
-const num = (description: string) => z.number({ error: 'must be a number' }).describe(description)
+/**
+ * Plausibility bounds of the compute inputs (common practice for soft-ground work,
+ * set generously: a value beyond is a unit slip or a typing error, not a soil).
+ * They are shape checks (400). The physical limits inside them (a thickness or e0
+ * of 0 or less, σ'p below 0, uplift) stay with the engine, which answers 422.
+ */
+export const CALC_LIMITS = {
+  /** Depths, thicknesses and sublayer sizes, m: no log or profile goes deeper than 500 m. */
+  length: 500,
+  /** Pressures and stresses in the ground, kPa (10 MPa). */
+  pressure: 10_000,
+  /** Oedometer stage stresses, kPa (the laboratory API's own bound). */
+  labStress: 100_000,
+  /** Unit weights of soil, kN/m³. */
+  unitWeight: [5, 30],
+  /** Unit weight of water, kN/m³ (fresh to brackish and saline). */
+  gammaW: [9, 10.5],
+  /** Compression and recompression indexes. */
+  cc: 10,
+  cr: 5,
+  /** Void ratios. */
+  voidRatio: 15,
+  /** Coefficient of consolidation, m²/year. */
+  cv: 10_000,
+  /** Secondary compression index Cα. */
+  calpha: 1,
+  /** OCR. */
+  ocr: 100,
+  /** Load dimensions, m, and plan offsets from the load centre, m. */
+  loadSize: 10_000,
+  offset: 100_000,
+  /** Years (times of the time rate, design life). */
+  years: 10_000,
+} as const
+
+interface Bounds { min?: number, max?: number, unit?: string }
+
+/** A number with its description and plausibility bounds; each bound's message names it. */
+function num(description: string, b: Bounds = {}) {
+  const unit = b.unit ? ` ${b.unit}` : ''
+  let n = z.number({ error: 'must be a number' })
+  if (b.min !== undefined) n = n.min(b.min, { message: `must be at least ${b.min}${unit}` })
+  if (b.max !== undefined) n = n.max(b.max, { message: `must be at most ${b.max}${unit}` })
+  return n.describe(description)
+}
+
+const L = CALC_LIMITS
+/**
+ * A bound on the size only (−max to max): the sign, and any other physical limit
+ * (thickness > 0, e0 > 0, σ'p > 0), is the engine's to refuse with 422.
+ */
+const magnitude = (max: number, unit?: string): Bounds => ({ min: -max, max, unit })
+const depthM = magnitude(L.length, 'm')
+const pressureKPa = magnitude(L.pressure, 'kPa')
+const unitWeight = { min: L.unitWeight[0], max: L.unitWeight[1], unit: 'kN/m³' }
 
 export const CalcLayerSchema = z.object({
-  name: z.string().min(1, { message: 'is required' }).max(80).describe('Stratum name, echoed in results'),
-  thickness: num('Layer thickness, m'),
-  unitWeight: num('Bulk unit weight above the water table, kN/m³'),
-  unitWeightSaturated: num('Saturated unit weight below the water table, kN/m³'),
+  name: str(80).min(1, { message: 'is required' }).describe('Stratum name, echoed in results'),
+  thickness: num('Layer thickness, m', magnitude(L.length, 'm')),
+  unitWeight: num('Bulk unit weight above the water table, kN/m³', unitWeight),
+  unitWeightSaturated: num('Saturated unit weight below the water table, kN/m³', unitWeight),
 })
 
 export const PiezometerSchema = z.object({
-  depth: num('Depth of the control point, m'),
-  porePressure: num('Pore water pressure at that depth, kPa'),
+  depth: num('Depth of the control point, m', depthM),
+  porePressure: num('Pore water pressure at that depth, kPa', pressureKPa),
 })
 
 export const GroundwaterSchema = z.object({
-  waterTableDepth: num('Depth of the water table (u = 0), m'),
+  waterTableDepth: num('Depth of the water table (u = 0), m', depthM),
   piezometers: z.array(PiezometerSchema).max(200).optional()
     .describe('Piezometric control points: u is linear between them and hydrostatic below the last'),
 })
 
 const profileBase = {
-  surcharge: num('Uniform surface pressure already in place, kPa (default 0)').optional(),
-  gammaW: num('Unit weight of water, kN/m³ (default 9.81)').optional(),
+  surcharge: num('Uniform surface pressure already in place, kPa (default 0)', pressureKPa).optional(),
+  gammaW: num('Unit weight of water, kN/m³ (default 9.81)', { min: L.gammaW[0], max: L.gammaW[1], unit: 'kN/m³' }).optional(),
   groundwater: GroundwaterSchema,
 }
 
 export const StressProfileRequestSchema = z.object({
   ...profileBase,
   layers: z.array(CalcLayerSchema).min(1, { message: 'needs at least one layer' }).max(200),
-  depths: z.array(z.number()).max(20_000).optional().describe('Extra depths (m) to report besides the breakpoints'),
+  depths: z.array(num('m', depthM)).max(20_000).optional().describe('Extra depths (m) to report besides the breakpoints'),
 }).meta({ id: 'StressProfileRequest' })
 export type StressProfileRequest = z.infer<typeof StressProfileRequestSchema>
 
@@ -56,23 +112,23 @@ export const StressProfileResponseSchema = z.object({
 }).meta({ id: 'StressProfileResponse' })
 
 export const PreconsolidationModelSchema = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('ocr'), value: num('OCR = σ\'p / σ\'v0') }),
-  z.object({ type: z.literal('pop'), value: num('POP = σ\'p − σ\'v0, kPa') }),
-  z.object({ type: z.literal('constant'), value: num('σ\'p, kPa') }),
-  z.object({ type: z.literal('linear'), top: num('σ\'p at the layer top, kPa'), bottom: num('σ\'p at the layer bottom, kPa') }),
+  z.object({ type: z.literal('ocr'), value: num('OCR = σ\'p / σ\'v0', magnitude(L.ocr)) }),
+  z.object({ type: z.literal('pop'), value: num('POP = σ\'p − σ\'v0, kPa', pressureKPa) }),
+  z.object({ type: z.literal('constant'), value: num('σ\'p, kPa', pressureKPa) }),
+  z.object({ type: z.literal('linear'), top: num('σ\'p at the layer top, kPa', pressureKPa), bottom: num('σ\'p at the layer bottom, kPa', pressureKPa) }),
 ])
 
 export const DrainageSchema = z.enum(['double', 'top', 'bottom'])
 
 export const SettlementLayerSchema = CalcLayerSchema.extend({
   compressible: z.boolean(),
-  cc: num('Compression index Cc').optional(),
-  cr: num('Recompression index Cr').optional(),
-  e0: num('Initial void ratio e0').optional(),
+  cc: num('Compression index Cc', magnitude(L.cc)).optional(),
+  cr: num('Recompression index Cr', magnitude(L.cr)).optional(),
+  e0: num('Initial void ratio e0', magnitude(L.voidRatio)).optional(),
   preconsolidation: PreconsolidationModelSchema.optional(),
-  cv: num('Coefficient of consolidation, m²/year').optional(),
+  cv: num('Coefficient of consolidation, m²/year', magnitude(L.cv, 'm²/year')).optional(),
   drainage: DrainageSchema.optional().describe('Drained faces of the layer (default double)'),
-  calpha: num('Secondary compression index Cα').optional(),
+  calpha: num('Secondary compression index Cα', magnitude(L.calpha)).optional(),
 }).superRefine((layer, ctx) => {
   if (!layer.compressible) return
   for (const key of ['cc', 'cr', 'e0', 'preconsolidation'] as const) {
@@ -80,18 +136,20 @@ export const SettlementLayerSchema = CalcLayerSchema.extend({
   }
 })
 
-const at2 = z.object({ x: z.number(), y: z.number() }).describe('Plan point measured from the load centre, m')
+const offsetM = magnitude(L.offset, 'm')
+const loadSize = magnitude(L.loadSize, 'm')
+const at2 = z.object({ x: num('m', offsetM), y: num('m', offsetM) }).describe('Plan point measured from the load centre, m')
 
 export const LoadSchema = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('uniform'), pressure: num('kPa') }),
-  z.object({ type: z.literal('rectangle'), width: num('Along x, m'), length: num('Along y, m'), pressure: num('kPa'), at: at2.optional() }),
-  z.object({ type: z.literal('circle'), radius: num('m'), pressure: num('kPa'), at: at2.optional() }),
-  z.object({ type: z.literal('strip'), width: num('m'), pressure: num('kPa'), at: z.object({ x: z.number() }).optional() }),
+  z.object({ type: z.literal('uniform'), pressure: num('kPa', pressureKPa) }),
+  z.object({ type: z.literal('rectangle'), width: num('Along x, m', loadSize), length: num('Along y, m', loadSize), pressure: num('kPa', pressureKPa), at: at2.optional() }),
+  z.object({ type: z.literal('circle'), radius: num('m', loadSize), pressure: num('kPa', pressureKPa), at: at2.optional() }),
+  z.object({ type: z.literal('strip'), width: num('m', loadSize), pressure: num('kPa', pressureKPa), at: z.object({ x: num('m', offsetM) }).optional() }),
 ])
 
 export const SublayerOptionsSchema = z.union([
-  z.object({ maxThickness: z.number().positive({ message: 'must be positive' }) }),
-  z.object({ count: z.number().int().min(1).max(10_000) }),
+  z.object({ maxThickness: z.number().positive({ message: 'must be positive' }).max(L.length, { message: `must be at most ${L.length} m` }) }),
+  z.object({ count: int(1, 10_000) }),
 ])
 
 /** Most layers one settlement request may carry. */
@@ -102,8 +160,8 @@ export const SettlementRequestSchema = z.object({
   layers: z.array(SettlementLayerSchema).min(1, { message: 'needs at least one layer' }).max(MAX_SETTLEMENT_LAYERS),
   load: LoadSchema,
   sublayers: SublayerOptionsSchema.optional().describe('Default { maxThickness: 0.25 }'),
-  time: z.object({ years: z.array(z.number().min(0)).min(1).max(1000) }).optional(),
-  designLife: z.number().positive().optional().describe('Years after loading for secondary compression'),
+  time: z.object({ years: z.array(num('years', { min: 0, max: L.years, unit: 'years' })).min(1).max(1000) }).optional(),
+  designLife: z.number().positive().max(L.years, { message: `must be at most ${L.years} years` }).optional().describe('Years after loading for secondary compression'),
 }).meta({ id: 'SettlementRequest' })
 export type SettlementRequest = z.infer<typeof SettlementRequestSchema>
 
@@ -143,9 +201,9 @@ export const SettlementResponseSchema = z.object({
 export const OEDOMETER_METHOD_NAMES = ['casagrande', 'pachecoSilva', 'work', 'bilinear'] as const
 
 export const PreconsolidationRequestSchema = z.object({
-  points: z.array(z.object({ stress: num("σ', kPa"), voidRatio: num('e') })).min(1).max(500),
-  e0: num('Initial void ratio').optional(),
-  insituStress: num("In-situ σ'v0 of the sample, kPa (for sample quality)").optional(),
+  points: z.array(z.object({ stress: num("σ', kPa", magnitude(L.labStress, 'kPa')), voidRatio: num('e', magnitude(L.voidRatio)) })).min(1).max(500),
+  e0: num('Initial void ratio', magnitude(L.voidRatio)).optional(),
+  insituStress: num("In-situ σ'v0 of the sample, kPa (for sample quality)", pressureKPa).optional(),
   methods: z.array(z.enum(OEDOMETER_METHOD_NAMES)).min(1).max(4).optional(),
 }).meta({ id: 'PreconsolidationRequest' })
 export type PreconsolidationRequest = z.infer<typeof PreconsolidationRequestSchema>
@@ -167,10 +225,10 @@ export const TREND_MODEL_NAMES = ['constant', 'linear', 'pop', 'ocr', 'crust', '
 export const TrendFitRequestSchema = z.object({
   model: z.enum(TREND_MODEL_NAMES),
   points: z.array(z.object({
-    depth: num('m'),
-    preconsolidation: num("σ'p, kPa"),
-    effectiveStress: num("σ'v0 at the point, kPa (needed by pop, ocr and crust)").optional(),
-    weight: z.number().positive().optional(),
+    depth: num('m', depthM),
+    preconsolidation: num("σ'p, kPa", pressureKPa),
+    effectiveStress: num("σ'v0 at the point, kPa (needed by pop, ocr and crust)", pressureKPa).optional(),
+    weight: z.number().positive().max(1e6).optional(),
   })).min(1).max(50_000),
   logSpace: z.boolean().optional().describe("Fit ln σ'p instead of σ'p"),
 }).meta({ id: 'TrendFitRequest' })

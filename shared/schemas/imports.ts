@@ -1,24 +1,24 @@
 import { z } from 'zod'
 import { IMPORT_TARGETS } from '../imports/targets'
-import { UuidSchema } from './common'
+import { int, str, UuidSchema } from './common'
 
 export const ImportParamsSchema = z.object({ projectId: UuidSchema, importId: UuidSchema })
 
 export const ImportPreviewQuerySchema = z.object({
   target: z.enum(IMPORT_TARGETS).optional(),
-  sheet: z.string().max(120).optional(),
+  sheet: str().max(120).optional(),
 })
 
 export const ImportCommitSchema = z.object({
   target: z.enum(IMPORT_TARGETS),
-  mapping: z.record(z.string().max(60), z.string().max(200)),
-  sheet: z.string().max(120).optional(),
+  mapping: z.record(str().max(60), str().max(200)),
+  sheet: str().max(120).optional(),
   /** CPT only: the point the sounding belongs to, and its cone area ratio. */
   pointId: UuidSchema.optional(),
   areaRatio: z.number().gt(0).max(1).optional(),
   /** Oedometer stages only: the test whose stages the file replaces, and the version of it the client read (stale: 409). */
   testId: UuidSchema.optional(),
-  testVersion: z.number().int().min(1).optional(),
+  testVersion: int(1).optional(),
   /** Check everything and report, write nothing. */
   dryRun: z.boolean().default(false),
   /** Remember this mapping for the next file of this target. */

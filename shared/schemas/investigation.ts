@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/types'
 import { USCS_GROUP_SYMBOLS } from '../geotech/plasticity'
-import { UuidSchema } from './common'
+import { int, INT32_MAX, IsoDateSchema, IsoDateTimeSchema, str, UuidSchema } from './common'
 
 /**
  * Shapes of the logging API (points, intervals, samples, index tests, SPT,
@@ -10,30 +10,34 @@ import { UuidSchema } from './common'
  */
 
 const depth = (what: string) => z.number({ error: `${what} must be a number` }).min(0, { message: `${what} must be 0 m or deeper` }).max(500, { message: `${what} must be at most 500 m` })
-const text = (max = 2000) => z.string().trim().max(max)
-const isoDate = z.iso.date({ message: 'must be a date (YYYY-MM-DD)' })
+const text = (max = 2000) => str().trim().max(max)
+const isoDate = IsoDateSchema
+/** Plan coordinates, m: grid coordinates of a projected system stay within 10⁸ m (common practice). */
+const coordinate = z.number().min(-1e8, { message: 'must be at least −100 000 000 m' }).max(1e8, { message: 'must be at most 100 000 000 m' })
+/** CPT readings (kPa): a cone reads at most a few hundred MPa; 10⁶ kPa keeps a slipped unit out (common practice). */
+const cptReading = z.number().min(-1e6).max(1e6)
 
-export const VersionSchema = z.object({ version: z.number().int().min(1) })
+export const VersionSchema = z.object({ version: int(1) })
 
 export const UscsSchema = z.enum(USCS_GROUP_SYMBOLS, { error: 'is not an ASTM D2487 group symbol' })
 
 export const StratumInputSchema = z.object({
-  code: z.string().trim().min(1, { message: 'is required' }).max(16).regex(/^[A-Za-z0-9_-]+$/, { message: 'may use letters, digits, - and _' }),
-  name: z.string().trim().min(1, { message: 'is required' }).max(120),
+  code: str().trim().min(1, { message: 'is required' }).max(16).regex(/^[A-Za-z0-9_-]+$/, { message: 'may use letters, digits, - and _' }),
+  name: str().trim().min(1, { message: 'is required' }).max(120),
   description: text().default(''),
-  colour: z.string().min(1).max(40),
-  pattern: z.string().min(1).max(40),
+  colour: str().min(1).max(40),
+  pattern: str().min(1).max(40),
   unitWeight: z.number().min(5, { message: 'must be at least 5 kN/m³' }).max(30, { message: 'must be at most 30 kN/m³' }),
   unitWeightSaturated: z.number().min(5, { message: 'must be at least 5 kN/m³' }).max(30, { message: 'must be at most 30 kN/m³' }),
-  displayOrder: z.number().int().min(0).max(10_000).default(0),
+  displayOrder: int(0, 10_000).default(0),
 })
 export const StratumUpdateSchema = StratumInputSchema.partial().extend(VersionSchema.shape)
 
 export const PointInputSchema = z.object({
-  identifier: z.string().trim().min(1, { message: 'is required' }).max(40).regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { message: 'may use letters, digits and . _ / -' }),
+  identifier: str().trim().min(1, { message: 'is required' }).max(40).regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { message: 'may use letters, digits and . _ / -' }),
   kind: z.enum(POINT_KINDS),
-  easting: z.number(),
-  northing: z.number(),
+  easting: coordinate,
+  northing: coordinate,
   groundElevation: z.number().min(-1000).max(9000),
   finalDepth: z.number().positive({ message: 'must be deeper than 0 m' }).max(500),
   startedOn: isoDate.nullable().default(null),
@@ -45,8 +49,8 @@ export const PointInputSchema = z.object({
 export const PointUpdateSchema = z.object({
   identifier: PointInputSchema.shape.identifier.optional(),
   kind: z.enum(POINT_KINDS).optional(),
-  easting: z.number().optional(),
-  northing: z.number().optional(),
+  easting: coordinate.optional(),
+  northing: coordinate.optional(),
   groundElevation: z.number().min(-1000).max(9000).optional(),
   finalDepth: z.number().positive({ message: 'must be deeper than 0 m' }).max(500).optional(),
   startedOn: isoDate.nullable().optional(),
@@ -54,14 +58,14 @@ export const PointUpdateSchema = z.object({
   method: text(200).optional(),
   loggedBy: text(120).optional(),
   remarks: text().optional(),
-  version: z.number().int().min(1),
+  version: int(1),
 })
 
 export const PointListQuerySchema = z.object({
-  q: z.string().trim().max(60).optional(),
+  q: str().trim().max(60).optional(),
   kind: z.enum(POINT_KINDS).optional(),
   limit: z.coerce.number().int().min(1).max(500).default(200),
-  offset: z.coerce.number().int().min(0).default(0),
+  offset: z.coerce.number().int().min(0).max(INT32_MAX).default(0),
 })
 
 export const IntervalInputSchema = z.object({
@@ -76,7 +80,7 @@ export const IntervalInputSchema = z.object({
 
 /** The whole log of a hole, saved at once: rows with an id update, rows without are new, missing ones are deleted. */
 export const LogReplaceSchema = z.object({
-  intervals: z.array(IntervalInputSchema.extend({ id: UuidSchema.optional(), version: z.number().int().min(1).optional() })).max(2000),
+  intervals: z.array(IntervalInputSchema.extend({ id: UuidSchema.optional(), version: int(1).optional() })).max(2000),
 })
 
 export const IndexTestInputSchema = z.object({
@@ -87,7 +91,7 @@ export const IndexTestInputSchema = z.object({
 }).refine(t => t.liquidLimit === null || t.plasticLimit === null || t.plasticLimit <= t.liquidLimit, { path: ['plasticLimit'], message: 'must not exceed the liquid limit' })
 
 export const SampleInputSchema = z.object({
-  identifier: z.string().trim().min(1, { message: 'is required' }).max(40),
+  identifier: str().trim().min(1, { message: 'is required' }).max(40),
   top: depth('Top'),
   bottom: depth('Bottom'),
   type: z.enum(SAMPLE_TYPES),
@@ -95,23 +99,23 @@ export const SampleInputSchema = z.object({
   remarks: text().default(''),
 }).refine(s => s.bottom >= s.top, { path: ['bottom'], message: 'must not be above the top' })
 export const SampleUpdateSchema = z.object({
-  identifier: z.string().trim().min(1).max(40).optional(),
+  identifier: str().trim().min(1).max(40).optional(),
   top: depth('Top').optional(),
   bottom: depth('Bottom').optional(),
   type: z.enum(SAMPLE_TYPES).optional(),
   recovery: z.number().min(0).max(100).nullable().optional(),
   remarks: text().optional(),
-  version: z.number().int().min(1),
+  version: int(1),
 })
 
 export const SptInputSchema = z.object({
   depth: depth('Depth'),
-  blows: z.tuple([z.number().int().min(0).max(500), z.number().int().min(0).max(500), z.number().int().min(0).max(500)]),
+  blows: z.tuple([int(0, 500), int(0, 500), int(0, 500)]),
 })
 
 export const GroundwaterInputSchema = z.object({
   kind: z.enum(GROUNDWATER_KINDS),
-  observedAt: z.iso.datetime({ offset: true, message: 'must be a date and time (ISO 8601)' }),
+  observedAt: IsoDateTimeSchema,
   depth: depth('Depth').nullable().default(null),
   pressure: z.number().min(-100).max(10_000).nullable().default(null),
   remarks: text().default(''),
@@ -119,10 +123,10 @@ export const GroundwaterInputSchema = z.object({
 
 export const CptInputSchema = z.object({
   areaRatio: z.number().gt(0, { message: 'must be above 0' }).max(1, { message: 'must be at most 1' }),
-  depth: z.array(z.number()).min(2).max(500_000),
-  qc: z.array(z.number()).max(500_000),
-  fs: z.array(z.number()).max(500_000),
-  u2: z.array(z.number()).max(500_000),
+  depth: z.array(z.number().min(0).max(500)).min(2).max(500_000),
+  qc: z.array(cptReading).max(500_000),
+  fs: z.array(cptReading).max(500_000),
+  u2: z.array(cptReading).max(500_000),
 }).refine(c => c.qc.length === c.depth.length && c.fs.length === c.depth.length && c.u2.length === c.depth.length, { path: ['qc'], message: 'depth, qc, fs and u2 must have the same length' })
 
 export const VaneInputSchema = z.object({
@@ -136,3 +140,12 @@ export type IntervalInput = z.infer<typeof IntervalInputSchema>
 export type SampleInput = z.infer<typeof SampleInputSchema>
 export type GroundwaterInput = z.infer<typeof GroundwaterInputSchema>
 export type StratumInput = z.infer<typeof StratumInputSchema>
+
+/** Route bodies of the updates: the row's fields and the `version` the client read (stale: 409). */
+export const SptUpdateSchema = SptInputSchema.extend(VersionSchema.shape)
+export const GroundwaterUpdateSchema = z.intersection(GroundwaterInputSchema, VersionSchema)
+export const VaneUpdateSchema = VaneInputSchema.extend(VersionSchema.shape)
+/** An index test is created on the first save (no version yet) and updated with it afterwards. */
+export const IndexTestSaveSchema = z.intersection(IndexTestInputSchema, z.object({ version: int(1).optional() }))
+/** A CPT sounding replaced whole: send `version` when one exists. */
+export const CptSaveSchema = z.intersection(CptInputSchema, z.object({ version: int(1).optional() }))

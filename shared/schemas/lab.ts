@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { OEDOMETER_TEST_TYPES } from '../investigation/types'
 import { STAGE_CONVENTIONS } from '../lab/stages'
 import { SiteModelDefinitionSchema } from '../site-model/definition'
-import { UuidSchema } from './common'
+import { int, INT32_MAX, str, UuidSchema } from './common'
 
 /**
  * Shapes of the laboratory API: oedometer tests on samples, σ'p adoptions, and
@@ -23,7 +23,7 @@ export const ADOPTION_METHOD_LABELS: Record<AdoptionMethod, string> = {
   typed: 'Typed value',
 }
 
-const text = (max = 2000) => z.string().trim().max(max)
+const text = (max = 2000) => str().trim().max(max)
 
 export const TimeReadingSchema = z.object({
   minutes: z.number({ error: 'time must be a number' }).min(0, { message: 'time must be 0 min or later' }).max(1_000_000),
@@ -37,7 +37,7 @@ export const StageInputSchema = z.object({
 })
 
 const specimen = {
-  label: z.string().trim().min(1, { message: 'is required' }).max(80),
+  label: str().trim().min(1, { message: 'is required' }).max(80),
   testType: z.enum(OEDOMETER_TEST_TYPES),
   specimenHeight: z.number({ error: 'must be a number' }).min(2, { message: 'must be at least 2 mm' }).max(200, { message: 'must be at most 200 mm' }),
   initialWaterContent: z.number({ error: 'must be a number' }).gt(0, { message: 'must be above 0 %' }).max(1500).nullable(),
@@ -82,14 +82,14 @@ export const OedometerTestUpdateSchema = z.object({
   convention: specimen.convention.optional(),
   stages: specimen.stages.optional(),
   remarks: specimen.remarks.optional(),
-  version: z.number().int().min(1),
+  version: int(1),
 }).refine(t => t.convention === undefined || t.stages !== undefined, { path: ['stages'], message: 'changing the convention needs the stages in the new convention' })
 export type OedometerTestUpdate = z.infer<typeof OedometerTestUpdateSchema>
 
 export const AdoptionInputSchema = z.object({
   method: z.enum(ADOPTION_METHODS),
   value: z.number({ error: 'σ\'p must be a number' }).positive({ message: 'σ\'p must be above 0 kPa' }).max(100_000),
-  reason: z.string({ error: 'a reason is required' }).trim().min(3, { message: 'a reason of at least 3 characters is required' }).max(1000),
+  reason: str(1000, 'a reason is required').trim().min(3, { message: 'a reason of at least 3 characters is required' }).max(1000),
 })
 export type AdoptionInput = z.infer<typeof AdoptionInputSchema>
 
@@ -98,7 +98,7 @@ export const OedometerTestParams = z.object({ projectId: UuidSchema, testId: Uui
 export const OedometerListQuerySchema = z.object({
   pointId: UuidSchema.optional(),
   limit: z.coerce.number().int().min(1).max(500).default(200),
-  offset: z.coerce.number().int().min(0).default(0),
+  offset: z.coerce.number().int().min(0).max(INT32_MAX).default(0),
 })
 
 const flag = z.enum(['0', '1', 'true', 'false']).optional().transform(v => v === '1' || v === 'true')
@@ -122,7 +122,7 @@ export const PreconsolidationPointsEvaluateSchema = z.object({
   spacing,
   dense: z.boolean().default(false),
   /** How the page names the model, for the answer's description ("Site model X, unsaved edits"). */
-  label: z.string().trim().max(200).default('the stress model on screen'),
+  label: str().trim().max(200).default('the stress model on screen'),
 })
 
 export const CptInterpretationQuerySchema = z.object({ spacing })

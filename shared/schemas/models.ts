@@ -1,31 +1,31 @@
 import { z } from 'zod'
 import { SiteModelDefinitionSchema } from '../site-model/definition'
-import { UuidSchema } from './common'
+import { int, INT32_MAX, str, UuidSchema } from './common'
 
 export const ModelParamsSchema = z.object({ projectId: UuidSchema, modelId: UuidSchema })
 export const VersionParamsSchema = ModelParamsSchema.extend({ version: z.coerce.number().int().min(1).max(1_000_000) })
 
 export const CreateModelSchema = z.object({
-  name: z.string().trim().min(1, { message: 'is required' }).max(120),
-  description: z.string().trim().max(2000).default(''),
+  name: str().trim().min(1, { message: 'is required' }).max(120),
+  description: str().trim().max(2000).default(''),
   /** Start from a saved version of another (or the same) model; default: from the project's logs. */
-  from: z.object({ modelId: UuidSchema, version: z.number().int().min(1) }).optional(),
+  from: z.object({ modelId: UuidSchema, version: int(1) }).optional(),
 })
 
 export const SaveDraftSchema = z.object({
   draft: SiteModelDefinitionSchema,
   /** The draft revision the client read (409 when someone saved in between). */
-  version: z.number().int().min(1),
+  version: int(1),
 })
 
 export const SaveVersionSchema = z.object({
-  message: z.string().trim().min(3, { message: 'say what changed (3 characters or more)' }).max(2000),
-  version: z.number().int().min(1),
+  message: str().trim().min(3, { message: 'say what changed (3 characters or more)' }).max(2000),
+  version: int(1),
 })
 
 export const CompareQuerySchema = z.object({
-  a: z.coerce.number().int().min(1),
-  b: z.coerce.number().int().min(1),
+  a: z.coerce.number().int().min(1).max(INT32_MAX),
+  b: z.coerce.number().int().min(1).max(INT32_MAX),
 })
 
 export const ExportQuerySchema = z.object({

@@ -1,28 +1,28 @@
 import { z } from 'zod'
 import { PROJECT_ROLES, UNIT_SYSTEMS } from '../auth/roles'
-import { EmailSchema, UuidSchema } from './common'
+import { EmailSchema, str, UuidSchema } from './common'
 
-export const JobNumberSchema = z.string().trim()
+export const JobNumberSchema = str().trim()
   .min(2, { message: 'must be at least 2 characters' })
   .max(32, { message: 'must be at most 32 characters' })
   .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { message: 'may use letters, digits and . _ / - only' })
 
 export const CreateProjectSchema = z.object({
   jobNumber: JobNumberSchema,
-  name: z.string().trim().min(1, { message: 'is required' }).max(160),
-  client: z.string().trim().max(160).default(''),
+  name: str().trim().min(1, { message: 'is required' }).max(160),
+  client: str().trim().max(160).default(''),
   unitSystem: z.enum(UNIT_SYSTEMS).default('SI'),
-  description: z.string().trim().max(4000).default(''),
+  description: str().trim().max(4000).default(''),
 })
 export type CreateProjectInput = z.infer<typeof CreateProjectSchema>
 
 // No defaults here: a field left out of a PATCH stays as it is.
 export const UpdateProjectSchema = z.object({
   jobNumber: JobNumberSchema.optional(),
-  name: z.string().trim().min(1, { message: 'is required' }).max(160).optional(),
-  client: z.string().trim().max(160).optional(),
+  name: str().trim().min(1, { message: 'is required' }).max(160).optional(),
+  client: str().trim().max(160).optional(),
   unitSystem: z.enum(UNIT_SYSTEMS).optional(),
-  description: z.string().trim().max(4000).optional(),
+  description: str().trim().max(4000).optional(),
 }).refine(v => Object.values(v).some(x => x !== undefined), { message: 'nothing to change' })
 
 export const RoleSchema = z.enum(PROJECT_ROLES)

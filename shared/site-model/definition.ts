@@ -1,4 +1,15 @@
 import { z } from 'zod'
+import { int, str } from '../schemas/common'
+
+/**
+ * Plausibility bounds of a definition's numbers (common practice for soft-ground
+ * work, set generously; the same families as the compute API's, shared/schemas/calc.ts):
+ * depths ≤ 500 m, stresses ≤ 10 MPa, Cc ≤ 10, Cr ≤ 5, e0 ≤ 15, cv ≤ 10 000 m²/year,
+ * Cα ≤ 1. Fitted statistics and trend parameters are bounded only to keep them finite
+ * in arithmetic (a fit never gives 10⁹).
+ */
+const FIT_VALUE = 1e9
+const fitted = () => z.number().min(-FIT_VALUE).max(FIT_VALUE)
 
 /**
  * A site model: the stress model of one site as the engineer built it — strata
@@ -22,19 +33,19 @@ export const StratumTrendSchema = z.object({
   model: TrendModelSchema,
   crustBelow: z.enum(['constant', 'linear', 'pop', 'ocr']).optional(),
   logSpace: z.boolean().default(false),
-  parameters: z.record(z.string(), z.number()),
-  n: z.number().int().min(0),
-  r2: z.number().nullable(),
-  rmse: z.number().nullable(),
-  aic: z.number().nullable(),
-  aicc: z.number().nullable(),
+  parameters: z.record(str(40), fitted()),
+  n: int(0, 1_000_000),
+  r2: fitted().nullable(),
+  rmse: fitted().nullable(),
+  aic: fitted().nullable(),
+  aicc: fitted().nullable(),
   /** σ'p point ids fitted and left out (by the engineer or by reviewer flags). */
-  includedPointIds: z.array(z.string()).max(200_000),
-  excludedPointIds: z.array(z.string()).max(200_000),
+  includedPointIds: z.array(str(120)).max(200_000),
+  excludedPointIds: z.array(str(120)).max(200_000),
   /** A hand-drawn trend instead of a fit: knots (depth, σ'p), with the reason required. */
   manual: z.object({
-    knots: z.array(z.object({ depth: z.number(), preconsolidation: z.number() })).min(2).max(50),
-    reason: z.string().trim().min(3, { message: 'a manual trend needs a reason' }).max(1000),
+    knots: z.array(z.object({ depth: z.number().min(0).max(500), preconsolidation: z.number().min(0).max(10_000) })).min(2).max(50),
+    reason: str().trim().min(3, { message: 'a manual trend needs a reason' }).max(1000),
   }).optional(),
 })
 export type StratumTrend = z.infer<typeof StratumTrendSchema>
@@ -53,28 +64,29 @@ export const DepthTrendSchema = z.object({
   /** m below ground: the mean depth of the fitted tests. */
   referenceDepth: z.number().min(0).max(500),
   /** The parameter at the reference depth (the mean of the fitted tests). */
-  value: z.number(),
+  value: fitted(),
   /** Change per metre of depth. */
-  gradient: z.number(),
-  n: z.number().int().min(3),
+  gradient: fitted(),
+  n: int(3, 1_000_000),
   r2: z.number().min(0).max(1).nullable(),
   /** Depth range of the fitted tests, m. */
-  testDepths: z.object({ top: z.number(), bottom: z.number() }),
+  testDepths: z.object({ top: z.number().min(0).max(500), bottom: z.number().min(0).max(500) }),
   /** The oedometer tests fitted. */
-  testIds: z.array(z.string()).max(1000),
+  testIds: z.array(str(120)).max(1000),
 })
 export type DepthTrend = z.infer<typeof DepthTrendSchema>
 
 export const CompressibilitySchema = z.object({
-  cc: z.number().min(0),
-  cr: z.number().min(0),
-  e0: z.number().gt(0),
-  cv: z.number().gt(0).optional(),
-  calpha: z.number().min(0).optional(),
+  cc: z.number().min(0).max(10),
+  cr: z.number().min(0).max(5),
+  e0: z.number().gt(0).max(15),
+  /** m²/year. */
+  cv: z.number().gt(0).max(10_000).optional(),
+  calpha: z.number().min(0).max(1).optional(),
   drainage: z.enum(['double', 'top', 'bottom']).default('double'),
   /** How the values were adopted: the mean of the stratum's tests, or typed. */
   source: z.enum(['mean', 'manual']).default('manual'),
-  n: z.number().int().min(0).optional(),
+  n: int(0, 1_000_000).optional(),
   /**
    * Schema version 2: parameters that follow a depth trend instead of the constant
    * above (which stays as the alternative the engineer can switch back to).
@@ -90,8 +102,8 @@ export const CompressibilitySchema = z.object({
 export type Compressibility = z.infer<typeof CompressibilitySchema>
 
 export const ModelStratumSchema = z.object({
-  code: z.string().min(1).max(16),
-  name: z.string().min(1).max(120),
+  code: str(16).min(1),
+  name: str(120).min(1),
   thickness: z.number().gt(0, { message: 'must be thicker than 0 m' }).max(500),
   unitWeight: z.number().min(5).max(30),
   unitWeightSaturated: z.number().min(5).max(30),
@@ -113,7 +125,7 @@ export const SiteModelDefinitionSchema = z.object({
   }),
   strata: z.array(ModelStratumSchema).min(1, { message: 'needs at least one stratum' }).max(50),
   /** Reviewer flags that were in force when the version was saved. */
-  flagsInForce: z.array(z.object({ flagId: z.string(), targetType: z.string(), targetId: z.string(), verdict: z.string() })).max(10_000).default([]),
+  flagsInForce: z.array(z.object({ flagId: str(40), targetType: str(40), targetId: str(120), verdict: str(40) })).max(10_000).default([]),
 }).superRefine((def, ctx) => {
   const bounds = stratumBounds(def)
   def.strata.forEach((s, i) => {

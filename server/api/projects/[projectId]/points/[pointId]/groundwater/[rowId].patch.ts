@@ -1,8 +1,7 @@
-import { z } from 'zod'
-import { GroundwaterInputSchema } from '#shared/schemas/investigation'
+import { GroundwaterUpdateSchema } from '#shared/schemas/investigation'
 import { updatePointRow } from '../../../../../../services/point-rows'
 
-const Body = z.intersection(GroundwaterInputSchema, z.object({ version: z.number().int().min(1) }))
+const Body = GroundwaterUpdateSchema
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')

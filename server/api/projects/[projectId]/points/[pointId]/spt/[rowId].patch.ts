@@ -1,8 +1,7 @@
-import { z } from 'zod'
-import { SptInputSchema } from '#shared/schemas/investigation'
+import { SptUpdateSchema } from '#shared/schemas/investigation'
 import { updatePointRow } from '../../../../../../services/point-rows'
 
-const Body = SptInputSchema.extend({ version: z.number().int().min(1) })
+const Body = SptUpdateSchema
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')

@@ -1,7 +1,7 @@
-import { VaneInputSchema, VersionSchema } from '#shared/schemas/investigation'
+import { VaneUpdateSchema } from '#shared/schemas/investigation'
 import { updatePointRow } from '../../../../../../services/point-rows'
 
-const Body = VaneInputSchema.extend(VersionSchema.shape)
+const Body = VaneUpdateSchema
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'tests.write')

@@ -1,13 +1,12 @@
 import { and, eq, sql } from 'drizzle-orm'
-import { z } from 'zod'
-import { IndexTestInputSchema } from '#shared/schemas/investigation'
+import { IndexTestSaveSchema } from '#shared/schemas/investigation'
 import { useDb } from '../../../../../../../db/client'
 import { indexTests, samples } from '../../../../../../../db/schema'
 import { recordAudit } from '../../../../../../../services/audit'
 import { requirePoint } from '../../../../../../../services/points'
 import { notFound, versionedUpdate } from '../../../../../../../services/versioned'
 
-const Body = z.intersection(IndexTestInputSchema, z.object({ version: z.number().int().min(1).optional() }))
+const Body = IndexTestSaveSchema
 
 /** Creates or replaces a sample's index tests (send the version read when replacing). */
 export default defineEventHandler(async (event) => {
