@@ -1,4 +1,7 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
+import { cpSync } from 'node:fs'
+import { join, resolve } from 'node:path'
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   future: { compatibilityVersion: 4 },
@@ -32,6 +35,14 @@ export default defineNuxtConfig({
     // server also refuses to answer before its own readiness check (server/plugins/db.ts).
     experimental: { openAPI: false },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
+    // Packages imported only by worker threads are traced into .output/server/node_modules too.
+    externals: { traceInclude: ['xlsx-republish'] },
+    hooks: {
+      // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the bundle.
+      compiled(nitro) {
+        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true })
+      },
+    },
   },
   vite: {
     optimizeDeps: { include: ['d3', 'zod'] },
