@@ -35,10 +35,9 @@ export default defineNuxtConfig({
     // server also refuses to answer before its own readiness check (server/plugins/db.ts).
     experimental: { openAPI: false },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
-    // Packages imported only by worker threads are traced into .output/server/node_modules too.
-    externals: { traceInclude: ['xlsx-republish'] },
     hooks: {
-      // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the bundle.
+      // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
+      // bundle; the packages they import are traced into .output because the bundle imports them too.
       compiled(nitro) {
         cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true })
       },
