@@ -113,7 +113,7 @@ describe('input limits', () => {
   })
 
   it('refuses a workbook that unpacks past 50 MB with its unpacked size, while health keeps answering', async () => {
-    // About 59 MB of sheet XML (95 bytes a row) that compresses to a few hundred kilobytes.
+    // About 63 MB of sheet XML (101 bytes a row) that compresses to a few hundred kilobytes.
     const bomb = workbook(sheetOf(650_000))
     expect(bomb.length).toBeLessThan(2 * 1024 * 1024)
     let healthDuringUpload = 0
@@ -123,7 +123,7 @@ describe('input limits', () => {
     })
     expect(healthDuringUpload).toBe(200)
     expect(r.status).toBe(422)
-    expect(r.body.message).toBe('bomb.xlsx unpacks to 59 MB; the limit for a workbook is 50 MB. Split it or save the sheet you need as CSV.')
+    expect(r.body.message).toBe('bomb.xlsx unpacks to 63 MB; the limit for a workbook is 50 MB. Split it or save the sheet you need as CSV.')
     expect(r.body.data?.code).toBe('workbook-too-large')
   })
 
@@ -177,6 +177,7 @@ describe('input limits', () => {
     const asForm = await chunkedPost(`${baseUrl()}/api/auth/login`, { 'origin': baseUrl(), 'content-type': 'multipart/form-data; boundary=x' })
     expect(asForm.endedFirst).toBe(false)
     expect(asForm.status).toBe(413)
+    expect(asForm.body.message).toBe('The request body is larger than 1048576 bytes, the limit for this request.')
   })
 
   it('answers a small chunked JSON body as usual', async () => {
