@@ -91,12 +91,11 @@ type WorkerAnswer = WorkbookGrid | { refusal: 'unreadable' | 'no-such-sheet' | '
 /** Reads one sheet (the first unless named), at most `sheetRows` rows of it, in the pool. */
 export async function readWorkbookGrid(buf: Uint8Array, filename: string, sheet: string | undefined, sheetRows: number): Promise<WorkbookGrid> {
   checkUnpackedSize(buf, filename)
-  // A copy of its own, handed to the worker without a second copy.
-  const data = new Uint8Array(buf)
   const workers = workbookPool()
   let answer: WorkerAnswer
   try {
-    answer = await workers.run({ data, sheet, sheetRows }, { signal: AbortSignal.timeout(READ_TIMEOUT_MS), transferList: [data.buffer] })
+    // The bytes are copied to the worker (at most the 25 MB upload limit).
+    answer = await workers.run({ data: buf, sheet, sheetRows }, { signal: AbortSignal.timeout(READ_TIMEOUT_MS) })
   }
   catch (err) {
     throw refusalOf(err, filename)
