@@ -162,6 +162,13 @@ describe('input limits', () => {
     expect(huge.body.message).toBe('huge.csv has 250 001 data rows; an import takes at most 250 000. Split the file and import it in parts.')
   })
 
+  it('refuses an AGS4 file over the line limit before parsing it', async () => {
+    const ags = `"GROUP","PROJ"\r\n${'\r\n'.repeat(1_000_000)}`
+    const r = await upload<Refusal>(geo, `${base}/imports`, 'long.ags', ags, 'text/plain')
+    expect(r.status).toBe(422)
+    expect(r.body.message).toBe('long.ags has 1 000 001 lines; an AGS4 import takes at most 1 000 000. Split the file and import it in parts.')
+  })
+
   it('answers 413 to a chunked body past the limit as it arrives, signed in or not', async () => {
     const login = await chunkedPost(`${baseUrl()}/api/auth/login`, { origin: baseUrl() })
     expect(login.endedFirst).toBe(false)
