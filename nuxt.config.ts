@@ -1,4 +1,6 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
+import { cpSync } from 'node:fs'
+import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
 // Browser features the product never uses are switched off for every page.
@@ -100,6 +102,13 @@ export default defineNuxtConfig({
     // server also refuses to answer before its own readiness check (server/plugins/db.ts).
     experimental: { openAPI: false },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
+    hooks: {
+      // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
+      // bundle; the packages they import are traced into .output because the bundle imports them too.
+      compiled(nitro) {
+        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true })
+      },
+    },
   },
   hooks: {
     // server/error.ts runs before Nuxt's page error handler and Nitro's JSON one: it logs an

@@ -1,9 +1,10 @@
 import { randomUUID } from 'node:crypto'
-import { and, count, desc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm'
+import { and, count, desc, eq, isNull, or, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
 import { ATTACHMENT_TYPES, attachmentKind, type AttachmentContentType, type AttachmentOwnerType, type AttachmentView, MAX_ATTACHMENT_BYTES, THUMBNAIL_MAX_PX } from '#shared/schemas/attachments'
 import { useDb } from '../db/client'
+import { anyOf } from '../db/any'
 import { attachments, investigationPoints, oedometerTests, samples, users } from '../db/schema'
 import { AttachmentContentError, sniffAttachment } from './attachment-content'
 import { recordAudit } from './audit'
@@ -269,14 +270,14 @@ export async function rehomeAttachmentsOf(tx: OwnerTx, args: { projectId: string
   if (ownerType === 'point') {
     const sampleIds = (await tx.select({ id: samples.id }).from(samples).where(eq(samples.pointId, ownerId))).map(s => s.id)
     if (sampleIds.length) {
-      owned.push(and(eq(attachments.ownerType, 'sample'), inArray(attachments.ownerId, sampleIds))!)
-      const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(inArray(oedometerTests.sampleId, sampleIds))).map(t => t.id)
-      if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), inArray(attachments.ownerId, testIds))!)
+      owned.push(and(eq(attachments.ownerType, 'sample'), anyOf(attachments.ownerId, sampleIds))!)
+      const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(anyOf(oedometerTests.sampleId, sampleIds))).map(t => t.id)
+      if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds))!)
     }
   }
   else if (ownerType === 'sample') {
     const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(eq(oedometerTests.sampleId, ownerId))).map(t => t.id)
-    if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), inArray(attachments.ownerId, testIds))!)
+    if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds))!)
   }
   const rows = await tx.select().from(attachments).where(and(eq(attachments.projectId, projectId), or(...owned))).for('update')
   for (const row of rows) {

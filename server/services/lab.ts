@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, getTableColumns, inArray, isNull, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, isNull, sql } from 'drizzle-orm'
 import { GeotechError, isGeotechError } from '#shared/geotech/errors'
 import { checkCompressionIndex, type CompressionIndexCheck } from '#shared/geotech/insitu'
 import { interpretOedometer, type OedometerInterpretation, type OedometerMethod } from '#shared/geotech/oedometer'
@@ -8,6 +8,7 @@ import { analyseTimeCurve, MIN_TIME_READINGS, type SecondaryResult, type TaylorR
 import { toStressInput } from '#shared/site-model/convert'
 import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
 import { useDb } from '../db/client'
+import { anyOf } from '../db/any'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, siteModels, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
 import { recordAudit, type Tx } from './audit'
@@ -384,7 +385,7 @@ export async function loggedIntervals(pointIds: string[]): Promise<Map<string, L
   if (!pointIds.length) return out
   const rows = await useDb().select({ pointId: logIntervals.pointId, top: logIntervals.top, bottom: logIntervals.bottom, code: strata.code })
     .from(logIntervals).leftJoin(strata, eq(strata.id, logIntervals.stratumId))
-    .where(inArray(logIntervals.pointId, pointIds))
+    .where(anyOf(logIntervals.pointId, pointIds))
     .orderBy(asc(logIntervals.pointId), asc(logIntervals.top))
   for (const r of rows) {
     const list = out.get(r.pointId) ?? []

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, inArray } from 'drizzle-orm'
+import { and, asc, desc, eq } from 'drizzle-orm'
 import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
 import { type Database, useDb } from '../db/client'
+import { anyOf } from '../db/any'
 import type { Tx } from './audit'
 import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
 
@@ -15,9 +16,9 @@ export async function definitionFromLogs(projectId: string, db: Database | Tx = 
   const strataRows = await db.select().from(strata).where(eq(strata.projectId, projectId)).orderBy(asc(strata.displayOrder), asc(strata.code))
   const points = await db.select({ id: investigationPoints.id }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
   const ids = points.map(p => p.id)
-  const intervals = ids.length ? await db.select({ pointId: logIntervals.pointId, stratumId: logIntervals.stratumId, top: logIntervals.top, bottom: logIntervals.bottom }).from(logIntervals).where(inArray(logIntervals.pointId, ids)) : []
+  const intervals = ids.length ? await db.select({ pointId: logIntervals.pointId, stratumId: logIntervals.stratumId, top: logIntervals.top, bottom: logIntervals.bottom }).from(logIntervals).where(anyOf(logIntervals.pointId, ids)) : []
   const standing = ids.length
-    ? await db.select({ depth: groundwaterObservations.depth }).from(groundwaterObservations).where(and(inArray(groundwaterObservations.pointId, ids), eq(groundwaterObservations.kind, 'standing')))
+    ? await db.select({ depth: groundwaterObservations.depth }).from(groundwaterObservations).where(and(anyOf(groundwaterObservations.pointId, ids), eq(groundwaterObservations.kind, 'standing')))
     : []
   // Thickness of each stratum per hole, then the mean over the holes that log it.
   const perHole = new Map<string, Map<string, number>>()

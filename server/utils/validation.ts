@@ -1,4 +1,4 @@
-import type { H3Event } from 'h3'
+import { type H3Event, isError } from 'h3'
 import type { z } from 'zod'
 
 /** zod issues as the API returns them: `{ path: "layers.0.thickness", message }`. */
@@ -26,7 +26,9 @@ export async function validateBody<S extends z.ZodType>(event: H3Event, schema: 
   try {
     raw = await readBody(event)
   }
-  catch {
+  catch (err) {
+    // A body past the limit while it was read (server/middleware/01.body-limit.ts) keeps its 413.
+    if (isError(err) && err.statusCode === 413) throw err
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The request body is not valid JSON.' })
   }
   const result = schema.safeParse(raw ?? {})

@@ -31,6 +31,8 @@ export interface CheckedCpt {
   rowCount: number
   columns: CptColumns
   errors: RowError[]
+  /** Reading stopped at `maxRows` with more rows to come: nothing past them was read or checked. */
+  overLimit?: boolean
 }
 
 // Exact powers of ten: a mantissa below 2^53 divided by one of them is correctly rounded, as Number() is.
@@ -46,7 +48,7 @@ export function isBlankLine(text: string, s: number, e: number, delimiter: strin
 }
 
 /** `mapping` must already have passed `checkMapping` (every CPT field mapped to a header of the file). */
-export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number }): CheckedCpt {
+export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number, maxRows?: number }): CheckedCpt {
   const { text, newline, delimiter } = csv
   const fields = TARGET_FIELDS.cpt
   const headerOf = fields.map(f => mapping[f.key] ?? '')
@@ -75,6 +77,7 @@ export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cp
     const last = end < 0
     if (last) end = text.length
     if (!isBlankLine(text, pos, end, delimiter)) {
+      if (ctx.maxRows !== undefined && n >= ctx.maxRows) return { rowCount: n, columns: { depth: cols[0]!.subarray(0, n), qc: cols[1]!.subarray(0, n), fs: cols[2]!.subarray(0, n), u2: cols[3]!.subarray(0, n) }, errors, overLimit: true }
       let s = pos
       for (let c = 0; c <= lastColumn; c++) {
         // The cell is [s, e); past the line's last cell it is missing (s > end).

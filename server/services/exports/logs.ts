@@ -1,7 +1,8 @@
-import { asc, eq, inArray } from 'drizzle-orm'
+import { asc, eq } from 'drizzle-orm'
 import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
 import { useDb } from '../../db/client'
+import { anyOf } from '../../db/any'
 import type { InvestigationRecord } from '#shared/investigation/types'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../../db/schema'
 import type { ProjectRow } from '../../utils/guards'
@@ -15,12 +16,12 @@ export async function loadProjectLogs(projectId: string) {
   const byId = new Map(points.map(p => [p.id, p.identifier]))
   const [strataRows, intervals, sampleRows, spt, groundwater, vane, cpt] = await Promise.all([
     db.select().from(strata).where(eq(strata.projectId, projectId)).orderBy(asc(strata.displayOrder)),
-    none ? [] : db.select().from(logIntervals).where(inArray(logIntervals.pointId, ids)).orderBy(asc(logIntervals.pointId), asc(logIntervals.top)),
-    none ? [] : db.select({ sample: samples, index: indexTests }).from(samples).leftJoin(indexTests, eq(indexTests.sampleId, samples.id)).where(inArray(samples.pointId, ids)).orderBy(asc(samples.pointId), asc(samples.top)),
-    none ? [] : db.select().from(sptResults).where(inArray(sptResults.pointId, ids)).orderBy(asc(sptResults.pointId), asc(sptResults.depth)),
-    none ? [] : db.select().from(groundwaterObservations).where(inArray(groundwaterObservations.pointId, ids)).orderBy(asc(groundwaterObservations.pointId), asc(groundwaterObservations.observedAt)),
-    none ? [] : db.select().from(vaneReadings).where(inArray(vaneReadings.pointId, ids)).orderBy(asc(vaneReadings.pointId), asc(vaneReadings.depth)),
-    none ? [] : db.select().from(cptSoundings).where(inArray(cptSoundings.pointId, ids)),
+    none ? [] : db.select().from(logIntervals).where(anyOf(logIntervals.pointId, ids)).orderBy(asc(logIntervals.pointId), asc(logIntervals.top)),
+    none ? [] : db.select({ sample: samples, index: indexTests }).from(samples).leftJoin(indexTests, eq(indexTests.sampleId, samples.id)).where(anyOf(samples.pointId, ids)).orderBy(asc(samples.pointId), asc(samples.top)),
+    none ? [] : db.select().from(sptResults).where(anyOf(sptResults.pointId, ids)).orderBy(asc(sptResults.pointId), asc(sptResults.depth)),
+    none ? [] : db.select().from(groundwaterObservations).where(anyOf(groundwaterObservations.pointId, ids)).orderBy(asc(groundwaterObservations.pointId), asc(groundwaterObservations.observedAt)),
+    none ? [] : db.select().from(vaneReadings).where(anyOf(vaneReadings.pointId, ids)).orderBy(asc(vaneReadings.pointId), asc(vaneReadings.depth)),
+    none ? [] : db.select().from(cptSoundings).where(anyOf(cptSoundings.pointId, ids)),
   ])
   return { points, byId, strata: strataRows, intervals, samples: sampleRows, spt, groundwater, vane, cpt }
 }
@@ -69,7 +70,7 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
   const d = await loadProjectLogs(project.id)
   const db = useDb()
   const sampleIds = d.samples.map(s => s.sample.id)
-  const tests = sampleIds.length ? await db.select().from(oedometerTests).where(inArray(oedometerTests.sampleId, sampleIds)) : []
+  const tests = sampleIds.length ? await db.select().from(oedometerTests).where(anyOf(oedometerTests.sampleId, sampleIds)) : []
   const code = new Map(d.strata.map(s => [s.id, s.code]))
   const by = <T extends { pointId: string }>(rows: T[]) => {
     const m = new Map<string, T[]>()

@@ -3,14 +3,34 @@ import { standardDictionary } from '#shared/ags4/dictionary'
 import { agsToInvestigation } from '#shared/ags4/investigation'
 import { decodeAgs, parseAgs } from '#shared/ags4/parse'
 import type { AgsFile, AgsIssue } from '#shared/ags4/types'
+import { AGS_LINE_LIMIT, tooManyAgsLines } from '#shared/imports/limits'
 import { checkIntervals } from '#shared/investigation/intervals'
 import type { InvestigationRecord } from '#shared/investigation/types'
+import { asUploadRefusal } from './preview'
 
 /**
  * Reads an uploaded AGS4 file: the format rules (checked against the standard
  * dictionary plus the file's own DICT entries), the mapping to Pastload's model,
  * and the groups Pastload keeps but does not map.
  */
+/** `analyseAgs` with a file over the line limit refused (422) before it is parsed. */
+export function analyseAgsOrThrow(content: Buffer, filename: string) {
+  const lines = countLines(content)
+  if (lines > AGS_LINE_LIMIT) throw asUploadRefusal(tooManyAgsLines(filename, lines))
+  return analyseAgs(content)
+}
+
+/** Line breaks counted on the bytes (no decoding, no splitting), plus a last line without one. */
+function countLines(content: Buffer): number {
+  let n = 0
+  let at = content.indexOf(10)
+  while (at >= 0) {
+    n++
+    at = content.indexOf(10, at + 1)
+  }
+  return content.length > 0 && content[content.length - 1] !== 10 ? n + 1 : n
+}
+
 export function analyseAgs(content: Buffer) {
   const file = parseAgs(decodeAgs(new Uint8Array(content)))
   const ruleIssues = checkAgs(file, standardDictionary())

@@ -1,8 +1,10 @@
-import { and, eq, inArray, sql } from 'drizzle-orm'
+import { and, count, eq, sql } from 'drizzle-orm'
 import type { CptColumns } from '#shared/imports/cpt-csv'
 import { type ImportContext, type ImportTarget, type ParsedValue, stageConventionOf, STAGE_VALUE_FIELDS, vaneKey } from '#shared/imports/targets'
+import { checkPointLimit } from '#shared/imports/limits'
 import { useDb } from '../../db/client'
-import { groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, strata, vaneReadings } from '../../db/schema'
+import { anyOf } from '../../db/any'
+import { groundwaterObservations, indexTests, investigationPoints, logIntervals, projects, samples, strata, vaneReadings } from '../../db/schema'
 import { recordAudit, type Tx } from '../audit'
 import { replaceCptSounding } from '../cpt'
 import { replaceTestStages } from '../lab'
@@ -55,7 +57,7 @@ export async function writeImport(tx: Tx, args: { projectId: string, actorId: st
       break
     case 'intervals': {
       const pointIds = [...new Set(records.map(pid))]
-      if (pointIds.length) await tx.delete(logIntervals).where(inArray(logIntervals.pointId, pointIds))
+      if (pointIds.length) await tx.delete(logIntervals).where(anyOf(logIntervals.pointId, pointIds))
       await insertChunks(records.map(r => ({
         pointId: pid(r), top: num(r.top), bottom: num(r.bottom), description: str(r.description), uscs: strOrNull(r.uscs),
         stratumId: typeof r.stratum === 'string' ? ctx.strataIds.get(r.stratum) ?? null : null, moisture: strOrNull(r.moisture), consistency: strOrNull(r.consistency),
@@ -125,4 +127,16 @@ export async function vaneDepths(projectId: string): Promise<Set<string>> {
   const rows = await useDb().select({ point: investigationPoints.identifier, depth: vaneReadings.depth }).from(vaneReadings)
     .innerJoin(investigationPoints, eq(investigationPoints.id, vaneReadings.pointId)).where(eq(investigationPoints.projectId, projectId))
   return new Set(rows.map(r => vaneKey(r.point, r.depth)))
+}
+
+/**
+ * In the importing transaction: holds the project's row so two imports of
+ * points cannot both pass the point limit, then refuses (`ImportLimitError`)
+ * when `adding` points would bring the project past it.
+ */
+export async function holdPointLimit(tx: Tx, projectId: string, adding: number): Promise<void> {
+  if (adding <= 0) return
+  await tx.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).for('no key update')
+  const [row] = await tx.select({ n: count() }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
+  checkPointLimit(row?.n ?? 0, adding)
 }

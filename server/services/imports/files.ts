@@ -1,6 +1,8 @@
 import Papa from 'papaparse'
-import * as XLSX from 'xlsx-republish'
 import { isBlankLine, type PlainCsvText } from '#shared/imports/cpt-csv'
+import { IMPORT_ROW_LIMITS, tooManyRows, UPLOAD_ROW_LIMIT } from '#shared/imports/limits'
+import type { ImportTarget } from '#shared/imports/targets'
+import { readWorkbookGrid } from './workbook'
 
 /**
  * Reading uploaded files: the format is decided by content (never by the name
@@ -66,47 +68,46 @@ export function decodeText(buf: Buffer, filename: string): string {
   }
 }
 
-/** First row is the header; blank lines are skipped; headers must be present and unique. */
 /**
+ * First row is the header; blank lines are skipped; headers must be present and unique.
  * `previewRows` reads only the header and that many rows (plus a cheap count of
- * the rest), so a preview of a 200 000-row file does not parse it all.
+ * the rest), so a preview of a 200 000-row file does not parse it all. `target`
+ * (when known) sets the row limit; without it the largest target's applies. A
+ * file over it is refused before its rows are parsed; a workbook is read in a
+ * worker thread (`./workbook.ts`).
  */
-export function readTable(buf: Buffer, format: 'csv' | 'xlsx', filename: string, sheet?: string, previewRows?: number): Table & { rowCount: number } {
-  let sheets: string[] = []
-  let chosen: string | null = null
-  let grid: Cell[][]
-  let csvLineCount: number | null = null
-  if (format === 'csv') {
-    const text = decodeText(buf, filename)
-    let parsed: Papa.ParseResult<string[]>
-    if (previewRows && !text.includes('"')) {
-      // Without quotes papaparse splits on the line break: the rows a preview keeps are those of the
-      // text's first lines, parsed with the line break it would guess for the whole text.
-      const newline = csvNewline(text)
-      parsed = Papa.parse<string[]>(firstLines(text, newline, previewRows + 50), { skipEmptyLines: false, newline, preview: previewRows + 50 })
-    }
-    else {
-      parsed = Papa.parse<string[]>(text, { skipEmptyLines: false, ...(previewRows ? { preview: previewRows + 50 } : {}) })
-    }
-    if (previewRows) csvLineCount = countDataLines(text)
-    const fatal = parsed.errors.find(e => e.type === 'Quotes')
-    if (fatal) throw new UploadError(`${filename} row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`, 'malformed-csv')
-    grid = parsed.data
+export async function readTable(buf: Buffer, format: 'csv' | 'xlsx', filename: string, sheet?: string, previewRows?: number, target?: ImportTarget): Promise<Table & { rowCount: number }> {
+  if (format === 'csv') return readCsvTable(buf, filename, previewRows, target)
+  // The header and the limit's rows, and one more to tell that the sheet goes on.
+  const sheetRows = (target ? IMPORT_ROW_LIMITS[target] : UPLOAD_ROW_LIMIT) + 2
+  const book = await readWorkbookGrid(buf, filename, sheet, sheetRows)
+  if (book.truncated) throw tooManyRows(filename, sheetRows - 1, target ?? null, true)
+  return tableFromGrid(book.grid, book.sheets, book.sheet, filename, previewRows, null)
+}
+
+/** `readTable` for a CSV (on the calling thread: papaparse, with the row limit checked on a line count first). */
+export function readCsvTable(buf: Buffer, filename: string, previewRows?: number, target?: ImportTarget): Table & { rowCount: number } {
+  const rowLimit = target ? IMPORT_ROW_LIMITS[target] : UPLOAD_ROW_LIMIT
+  const text = decodeText(buf, filename)
+  // Counted before parsing: the header line and the data lines (a quoted line break counts twice, which only matters at the limit).
+  const lines = countDataLines(text)
+  if (lines - 1 > rowLimit) throw tooManyRows(filename, lines - 1, target ?? null)
+  let parsed: Papa.ParseResult<string[]>
+  if (previewRows && !text.includes('"')) {
+    // Without quotes papaparse splits on the line break: the rows a preview keeps are those of the
+    // text's first lines, parsed with the line break it would guess for the whole text.
+    const newline = csvNewline(text)
+    parsed = Papa.parse<string[]>(firstLines(text, newline, previewRows + 50), { skipEmptyLines: false, newline, preview: previewRows + 50 })
   }
   else {
-    let wb: XLSX.WorkBook
-    try {
-      wb = XLSX.read(buf, { type: 'buffer', cellDates: true, dense: true })
-    }
-    catch {
-      throw new UploadError(`${filename} could not be read as an Excel workbook.`, 'wrong-type')
-    }
-    sheets = wb.SheetNames
-    chosen = sheet && sheets.includes(sheet) ? sheet : sheets[0] ?? null
-    if (sheet && !sheets.includes(sheet)) throw new UploadError(`${filename} has no sheet named "${sheet}".`, 'no-such-sheet')
-    if (!chosen) throw new UploadError(`${filename} has no sheets.`, 'empty-file')
-    grid = XLSX.utils.sheet_to_json<Cell[]>(wb.Sheets[chosen]!, { header: 1, raw: true, blankrows: true, defval: null })
+    parsed = Papa.parse<string[]>(text, { skipEmptyLines: false, ...(previewRows ? { preview: previewRows + 50 } : {}) })
   }
+  const fatal = parsed.errors.find(e => e.type === 'Quotes')
+  if (fatal) throw new UploadError(`${filename} row ${(fatal.row ?? 0) + 1}: ${fatal.message}.`, 'malformed-csv')
+  return tableFromGrid(parsed.data, [], null, filename, previewRows, previewRows ? lines : null)
+}
+
+function tableFromGrid(grid: Cell[][], sheets: string[], chosen: string | null, filename: string, previewRows: number | undefined, csvLineCount: number | null): Table & { rowCount: number } {
   const blank = (r: Cell[]) => r.every(c => c === null || c === undefined || String(c).trim() === '')
   const headIndex = grid.findIndex(r => !blank(r))
   const head = grid[headIndex]

@@ -4,7 +4,9 @@ import type { PlainCsvText } from '#shared/imports/cpt-csv'
 import { useDb } from '../../db/client'
 import { importFiles, importMappings } from '../../db/schema'
 import { notFound } from '../versioned'
+import { ImportLimitError } from '#shared/imports/limits'
 import { openPlainCsv, readTable, UploadError, type UploadFormat } from './files'
+import { WorkbookRefusal } from './workbook'
 
 export const PREVIEW_ROWS = 20
 
@@ -14,14 +16,24 @@ export async function loadImportFile(projectId: string, importId: string) {
   return file
 }
 
-export function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string, previewRows?: number) {
+/** A refusal of the file as the JSON error it answers (422, or 503 while the workbook readers are all busy); anything else as it is. */
+export function asUploadRefusal(err: unknown): unknown {
+  if (err instanceof UploadError || err instanceof ImportLimitError) return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+  if (err instanceof WorkbookRefusal) {
+    return err.status === 503
+      ? createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: err.message, data: { code: err.code } })
+      : createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+  }
+  return err
+}
+
+export async function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string, previewRows?: number, target?: ImportTarget) {
   if (format === 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'An AGS4 file is imported whole; it has no columns to map.' })
   try {
-    return readTable(content, format, filename, sheet, previewRows)
+    return await readTable(content, format, filename, sheet, previewRows, target)
   }
   catch (err) {
-    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
-    throw err
+    throw asUploadRefusal(err)
   }
 }
 
@@ -31,14 +43,13 @@ export function plainCsvOrThrow(content: Buffer, filename: string): PlainCsvText
     return openPlainCsv(content, filename)
   }
   catch (err) {
-    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
-    throw err
+    throw asUploadRefusal(err)
   }
 }
 
 /** Headers, the first rows, and a mapping: the saved one for this target when its columns are all present, else a suggestion. */
 export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string) {
-  const table = tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet, PREVIEW_ROWS)
+  const table = await tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet, PREVIEW_ROWS)
   let mapping: Record<string, string> | null = null
   let mappingSource: 'saved' | 'suggested' | null = null
   if (target) {

@@ -2,7 +2,7 @@ import seedrandom from 'seedrandom'
 import { describe, expect, it } from 'vitest'
 import { checkCptCsv } from '../../../shared/imports/cpt-csv'
 import { validateRows } from '../../../shared/imports/targets'
-import { openPlainCsv, readTable, UploadError } from '../../../server/services/imports/files'
+import { openPlainCsv, readCsvTable, UploadError } from '../../../server/services/imports/files'
 
 const MAPPING = { depth: 'Depth (m)', qc: 'qc (kPa)', fs: 'fs (kPa)', u2: 'u2 (kPa)' }
 const HEAD = 'Depth (m),qc (kPa),fs (kPa),u2 (kPa)'
@@ -15,7 +15,7 @@ function fast(csv: string, mapping: Record<string, string> = MAPPING, finalDepth
 
 /** The general path: papaparse's table, then the row check on records. */
 function general(csv: string, mapping: Record<string, string> = MAPPING, finalDepth = 30) {
-  const table = readTable(Buffer.from(csv), 'csv', 'cpt.csv')
+  const table = readCsvTable(Buffer.from(csv), 'cpt.csv')
   const r = validateRows('cpt', table.headers, table.rows, mapping, { points: new Map(), samples: new Set(), strata: new Set(), cptFinalDepth: finalDepth }, table.rowNumbers)
   return { headers: table.headers, rowCount: table.rows.length, errors: r.errors, depth: r.records.map(x => x.depth), qc: r.records.map(x => x.qc), fs: r.records.map(x => x.fs), u2: r.records.map(x => x.u2) }
 }
@@ -122,5 +122,21 @@ describe('checkCptCsv: the one-pass CPT check of a plain CSV', () => {
       if (g.headers.length !== 4) continue
       expectSameAsGeneral(csv, MAPPING, 8)
     }
+  })
+
+  it('stops at the row limit without reading past it, blank lines not counted', () => {
+    const plain = openPlainCsv(Buffer.from(`${HEAD}\n0.1,1,1,1\n\n0.2,1,1,1\n0.3,1,1,1\n`), 'cpt.csv')!
+    const at = checkCptCsv(plain, MAPPING, { cptFinalDepth: 30, maxRows: 3 })
+    expect(at.overLimit).toBeUndefined()
+    expect(at.rowCount).toBe(3)
+    const over = checkCptCsv(plain, MAPPING, { cptFinalDepth: 30, maxRows: 2 })
+    expect(over.overLimit).toBe(true)
+    expect(Array.from(over.columns.depth)).toEqual([0.1, 0.2])
+  })
+
+  it('refuses a CSV over the target\'s row limit before parsing it, with the count', () => {
+    const csv = `${HEAD}\n${Array.from({ length: 1001 }, (_, i) => `${i},1,1,1`).join('\n')}\n`
+    expect(() => readCsvTable(Buffer.from(csv), 'stages.csv', undefined, 'oedometer-stages')).toThrow('stages.csv has 1 001 data rows; an import of oedometer stages takes at most 1 000. Split the file and import it in parts.')
+    expect(readCsvTable(Buffer.from(csv), 'stages.csv', undefined, 'cpt').rows).toHaveLength(1001)
   })
 })

@@ -3,7 +3,7 @@ import { preferFastCompression } from '../../../../db/binary'
 import { useDb } from '../../../../db/client'
 import { importFiles } from '../../../../db/schema'
 import { detectFormat, UploadError } from '../../../../services/imports/files'
-import { analyseAgs, asRowErrors } from '../../../../services/imports/ags'
+import { analyseAgsOrThrow, asRowErrors } from '../../../../services/imports/ags'
 import { previewTable } from '../../../../services/imports/preview'
 import { readImportUpload } from '../../../../services/imports/upload'
 
@@ -26,6 +26,9 @@ export default defineEventHandler(async (event) => {
     if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
     throw err
   }
+  // Read (and refused if over a limit) before anything is stored.
+  const preview = format === 'ags4' ? null : await previewTable(project.id, { content: file.data, format, filename })
+  const ags = format === 'ags4' ? agsPreview(file.data, filename) : null
   const db = useDb()
   // Uploads nobody committed within a day are dropped.
   await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
@@ -35,13 +38,11 @@ export default defineEventHandler(async (event) => {
     const [inserted] = await tx.insert(importFiles).values({ projectId: project.id, uploadedBy: user.id, filename, format, size: file.data.length, content: file.data }).returning({ id: importFiles.id })
     return inserted
   })
-  const preview = format === 'ags4' ? null : await previewTable(project.id, { content: file.data, format, filename })
-  const ags = format === 'ags4' ? agsPreview(file.data) : null
   setResponseStatus(event, 201)
   return { importId: row!.id, filename, format, size: file.data.length, preview, ags }
 })
 
-function agsPreview(content: Buffer) {
-  const a = analyseAgs(content)
+function agsPreview(content: Buffer, filename: string) {
+  const a = analyseAgsOrThrow(content, filename)
   return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), warnings: asRowErrors(a.warnings).slice(0, 500) }
 }

@@ -1,5 +1,6 @@
-import { asc, desc, eq, inArray } from 'drizzle-orm'
+import { asc, desc, eq } from 'drizzle-orm'
 import { useDb } from '../../../../db/client'
+import { anyOf } from '../../../../db/any'
 import { siteModels, siteModelVersions } from '../../../../db/schema'
 
 /** The project's site models with their latest saved version. */
@@ -10,7 +11,7 @@ export default defineEventHandler(async (event) => {
     .from(siteModels).where(eq(siteModels.projectId, project.id)).orderBy(asc(siteModels.name))
   const versions = models.length
     ? await db.select({ modelId: siteModelVersions.modelId, version: siteModelVersions.version, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, message: siteModelVersions.message })
-      .from(siteModelVersions).where(inArray(siteModelVersions.modelId, models.map(m => m.id))).orderBy(desc(siteModelVersions.version))
+      .from(siteModelVersions).where(anyOf(siteModelVersions.modelId, models.map(m => m.id))).orderBy(desc(siteModelVersions.version))
     : []
   return {
     models: models.map(m => ({ ...m, latest: versions.find(v => v.modelId === m.id) ?? null, versionCount: versions.filter(v => v.modelId === m.id).length })),

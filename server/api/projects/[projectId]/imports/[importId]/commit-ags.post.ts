@@ -4,8 +4,10 @@ import { ImportParamsSchema } from '#shared/schemas/imports'
 import { useDb } from '../../../../../db/client'
 import { importFiles, investigationPoints, strata } from '../../../../../db/schema'
 import { recordAudit } from '../../../../../services/audit'
-import { analyseAgs, asRowErrors } from '../../../../../services/imports/ags'
-import { loadImportFile } from '../../../../../services/imports/preview'
+import { checkPointLimit } from '#shared/imports/limits'
+import { analyseAgsOrThrow, asRowErrors } from '../../../../../services/imports/ags'
+import { holdPointLimit } from '../../../../../services/imports/commit'
+import { asUploadRefusal, loadImportFile } from '../../../../../services/imports/preview'
 import { writeInvestigation } from '../../../../../services/investigation-writer'
 
 const Body = z.object({ dryRun: z.boolean().default(false) })
@@ -22,7 +24,7 @@ export default defineEventHandler(async (event) => {
   const { dryRun } = await validateBody(event, Body)
   const file = await loadImportFile(project.id, importId)
   if (file.format !== 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `${file.filename} is not an AGS4 file; map its columns instead.` })
-  const a = analyseAgs(file.content)
+  const a = analyseAgsOrThrow(file.content, file.filename)
   const errors = asRowErrors(a.errors)
   const ids = a.data.points.map(p => p.identifier)
   const db = useDb()
@@ -30,6 +32,14 @@ export default defineEventHandler(async (event) => {
     const mine = await db.select({ identifier: investigationPoints.identifier }).from(investigationPoints).where(eq(investigationPoints.projectId, project.id))
     const taken = new Set(mine.map(r => r.identifier))
     for (const id of ids) if (taken.has(id)) errors.push({ row: 0, column: 'LOCA', message: `Point ${id} already exists in this project.`, rule: 'pastload' })
+    if (!errors.length) {
+      try {
+        checkPointLimit(mine.length, ids.length)
+      }
+      catch (err) {
+        throw asUploadRefusal(err)
+      }
+    }
   }
   if (errors.length) {
     throw createError({
@@ -41,10 +51,13 @@ export default defineEventHandler(async (event) => {
   }
   if (dryRun) return { dryRun: true, summary: a.summary, unknownGroups: a.unknownGroups, warnings: asRowErrors(a.warnings) }
   await db.transaction(async (tx) => {
+    await holdPointLimit(tx, project.id, ids.length)
     const existingStrata = new Map((await tx.select({ id: strata.id, code: strata.code }).from(strata).where(eq(strata.projectId, project.id))).map(s => [s.code, s.id]))
     await writeInvestigation(tx, project.id, a.data, existingStrata)
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'import', entity: 'ags4', after: { filename: file.filename, ...a.summary, unknownGroups: a.unknownGroups } }, tx)
     await tx.delete(importFiles).where(eq(importFiles.id, file.id))
+  }).catch((err: unknown) => {
+    throw asUploadRefusal(err)
   })
   return { dryRun: false, summary: a.summary, unknownGroups: a.unknownGroups, warnings: asRowErrors(a.warnings) }
 })

@@ -1,13 +1,14 @@
 import { eq } from 'drizzle-orm'
 import { roleCan } from '#shared/auth/roles'
 import { checkCptCsv, type CptColumns } from '#shared/imports/cpt-csv'
+import { checkPointLimit, IMPORT_ROW_LIMITS, tooManyRows } from '#shared/imports/limits'
 import { checkMapping, type ParsedValue, type RowError, validateRows } from '#shared/imports/targets'
 import { ImportCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
 import { useDb } from '../../../../../db/client'
 import { importFiles, importMappings } from '../../../../../db/schema'
-import { importContext, pointInProject, vaneDepths, writeImport } from '../../../../../services/imports/commit'
+import { holdPointLimit, importContext, pointInProject, vaneDepths, writeImport } from '../../../../../services/imports/commit'
 import type { UploadFormat } from '../../../../../services/imports/files'
-import { loadImportFile, plainCsvOrThrow, tableOrThrow } from '../../../../../services/imports/preview'
+import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from '../../../../../services/imports/preview'
 import { notFound } from '../../../../../services/versioned'
 import { requireTest, staleTest } from '../../../../../services/lab'
 
@@ -25,7 +26,8 @@ export default defineEventHandler(async (event) => {
   const file = await loadImportFile(project.id, importId)
   // A CPT sounding in a CSV without quotes is checked in one pass over the text, straight into typed columns.
   const plain = body.target === 'cpt' && file.format === 'csv' ? plainCsvOrThrow(file.content, file.filename) : null
-  const table = plain ? null : tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet)
+  // The target's row limit applies while reading: a file over it is refused before its rows are checked.
+  const table = plain ? null : await tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet, undefined, body.target)
   const headers = plain ? plain.headers : table!.headers
   const mappingProblems = checkMapping(body.target, headers, body.mapping)
   if (mappingProblems.length) {
@@ -53,7 +55,8 @@ export default defineEventHandler(async (event) => {
   let errors: RowError[]
   let rowCount: number
   if (plain) {
-    const checked = checkCptCsv(plain, body.mapping, ctx)
+    const checked = checkCptCsv(plain, body.mapping, { ...ctx, maxRows: IMPORT_ROW_LIMITS.cpt })
+    if (checked.overLimit) throw asUploadRefusal(tooManyRows(file.filename, IMPORT_ROW_LIMITS.cpt, 'cpt', true))
     ;({ errors, rowCount } = checked)
     cpt = checked.columns
   }
@@ -70,9 +73,18 @@ export default defineEventHandler(async (event) => {
       data: { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, rowCount },
     })
   }
+  const addingPoints = body.target === 'points' ? records.length : 0
+  try {
+    checkPointLimit(ctx.points.size, addingPoints)
+  }
+  catch (err) {
+    throw asUploadRefusal(err)
+  }
   if (body.dryRun) return { dryRun: true, rowCount, errors: [] }
 
   const written = await useDb().transaction(async (tx) => {
+    // Checked again under the project's lock: another import may have added points meanwhile.
+    await holdPointLimit(tx, project.id, addingPoints)
     const n = await writeImport(tx, { projectId: project.id, actorId: user.id, target: body.target, records, cpt, filename: file.filename, cptPointId: cptPoint?.id, areaRatio: body.areaRatio, testId: body.testId, testVersion: body.testVersion, mapping: body.mapping }, ctx)
     if (body.saveMapping) {
       await tx.insert(importMappings).values({ projectId: project.id, target: body.target, mapping: body.mapping, savedBy: user.id })
@@ -80,6 +92,8 @@ export default defineEventHandler(async (event) => {
     }
     await tx.delete(importFiles).where(eq(importFiles.id, file.id))
     return n
+  }).catch((err: unknown) => {
+    throw asUploadRefusal(err)
   })
   return { dryRun: false, written, target: body.target }
 })

@@ -1,7 +1,8 @@
-import { and, asc, eq, inArray, sql } from 'drizzle-orm'
+import { and, asc, eq, sql } from 'drizzle-orm'
 import { checkIntervals } from '#shared/investigation/intervals'
 import { LogReplaceSchema } from '#shared/schemas/investigation'
 import { useDb } from '../../../../../db/client'
+import { anyOf } from '../../../../../db/any'
 import { logIntervals, strata } from '../../../../../db/schema'
 import { recordAudit } from '../../../../../services/audit'
 import { assertLogValid, requirePoint } from '../../../../../services/points'
@@ -35,13 +36,13 @@ export default defineEventHandler(async (event) => {
 
     const stratumIds = [...new Set(intervals.map(iv => iv.stratumId).filter((s): s is string => !!s))]
     if (stratumIds.length) {
-      const found = await tx.select({ id: strata.id }).from(strata).where(and(eq(strata.projectId, project.id), inArray(strata.id, stratumIds)))
+      const found = await tx.select({ id: strata.id }).from(strata).where(and(eq(strata.projectId, project.id), anyOf(strata.id, stratumIds)))
       if (found.length !== stratumIds.length) unprocessable('A row names a stratum that is not in this project.')
     }
 
     const keep = new Set(intervals.flatMap(iv => (iv.id ? [iv.id] : [])))
     const removed = existing.filter(r => !keep.has(r.id)).map(r => r.id)
-    if (removed.length) await tx.delete(logIntervals).where(inArray(logIntervals.id, removed))
+    if (removed.length) await tx.delete(logIntervals).where(anyOf(logIntervals.id, removed))
     for (const { id, version: _v, ...values } of intervals) {
       if (id) {
         const before = byId.get(id)!
