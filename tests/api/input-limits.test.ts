@@ -254,4 +254,12 @@ describe('projects with more points than one query may carry parameters', () => 
     const { rows } = await db.query<{ n: string }>(`select count(*) as n from investigation_points where identifier = 'BH-NEW' and project_id = $1`, [base.split('/').pop()])
     expect(Number(rows[0]!.n)).toBe(0)
   })
+
+  it('refuses one more point created by hand in a full project, naming the limit', async () => {
+    const r = await geo.post<Refusal>(`${base}/points`, { identifier: 'BH-HAND', kind: 'borehole', easting: 1, northing: 1, groundElevation: 1, finalDepth: 10 })
+    expect(r.status).toBe(422)
+    expect(r.body.message).toBe('A project holds at most 20 000 points and this one is full; BH-HAND was not added.')
+    const { rows } = await db.query<{ n: string }>(`select count(*) as n from investigation_points where identifier = 'BH-HAND' and project_id = $1`, [base.split('/').pop()])
+    expect(Number(rows[0]!.n)).toBe(0)
+  })
 })

@@ -3,12 +3,15 @@ import { useDb } from '../../../../db/client'
 import { investigationPoints } from '../../../../db/schema'
 import { recordAudit } from '../../../../services/audit'
 import { isUniqueViolation } from '../../../../utils/db-errors'
+import { holdPointLimit } from '../../../../services/imports/commit'
+import { formatCount, ImportLimitError, PROJECT_POINT_LIMIT } from '#shared/imports/limits'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
   const body = await validateBody(event, PointInputSchema)
   try {
     const point = await useDb().transaction(async (tx) => {
+      await holdPointLimit(tx, project.id, 1)
       const [row] = await tx.insert(investigationPoints).values({ ...body, projectId: project.id }).returning()
       await recordAudit({ actorId: user.id, projectId: project.id, action: 'create', entity: 'point', entityId: row!.id, after: row }, tx)
       return row!
@@ -17,6 +20,7 @@ export default defineEventHandler(async (event) => {
     return { point }
   }
   catch (err) {
+    if (err instanceof ImportLimitError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `A project holds at most ${formatCount(PROJECT_POINT_LIMIT)} points and this one is full; ${body.identifier} was not added.`, data: { code: err.code } })
     if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${body.identifier} already exists in this project.` })
     throw err
   }
