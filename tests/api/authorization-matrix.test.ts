@@ -1,3 +1,4 @@
+/// <reference types="vite/client" />
 // Every project route × every role × a non-member × anonymous → expected status.
 // Routes are listed per domain in tests/api/matrix/*.routes.ts; a route file under
 // server/api/projects/ without an entry here fails the suite.
