@@ -359,6 +359,7 @@ describe('attachments', () => {
   })
 
   it('moves a deleted sample\'s files and those of its tests', async () => {
+    const { projectId, base, pointId } = await site()
     const s = await geo.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U9', top: 9, bottom: 9.45, type: 'piston' })
     const sampleId = s.body.sample.id
     const t = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, testBody(sampleId, 'OED-U9'))
