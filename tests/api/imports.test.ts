@@ -2,6 +2,7 @@
 // report → one transaction (any error: nothing written).
 import * as XLSX from 'xlsx-republish'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { createDemoCopy } from '../helpers/demo-project'
 import { type Client, demoEmail, signIn } from '../helpers/http'
 import { upload } from '../helpers/upload'
 
@@ -237,16 +238,20 @@ describe('imports', () => {
 })
 
 describe('the example file with the demo site\'s deliberate logging errors', () => {
+  let projectId: string
+  // A copy of the demo site of this block's own (the upload is stored with the project).
+  beforeAll(async () => {
+    projectId = await createDemoCopy('IMX')
+  })
+
   it('is reported row by row against a copy of the demo site, and the database is unchanged', async () => {
     const { readFileSync } = await import('node:fs')
     const { resolve } = await import('node:path')
     const { demoImportCsv, demoImportErrors } = await import('../../shared/demo/import-examples')
-    const { createDemoCopy } = await import('../helpers/demo-project')
     const csv = readFileSync(resolve(import.meta.dirname, '../../docs/examples/saltmarsh-lane-intervals-with-errors.csv'), 'utf8')
     // The shipped example is the generator's output, byte for byte.
     expect(csv).toBe(demoImportCsv())
     const geo = await signIn(demoEmail('geologist'))
-    const projectId = await createDemoCopy('IMX')
     const base = `/api/projects/${projectId}`
     const before = await geo.get<{ events: unknown[] }>(`${base}/audit?limit=100`)
     const up = await upload<{ importId: string }>(geo, `${base}/imports`, 'saltmarsh-lane-intervals-with-errors.csv', csv)

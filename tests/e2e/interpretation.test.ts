@@ -13,13 +13,17 @@ interface ListedTest { id: string, label: string, point: { identifier: string },
 
 describe('oedometer interpretation in Chromium', () => {
   let browser: Browser
-  beforeAll(async () => { browser = await launch() })
+  let copyId = ''
+  beforeAll(async () => {
+    browser = await launch()
+    // Adopting writes: the first test works in a copy of the demo site of this file's own.
+    copyId = await createDemoCopy('E2E-OED')
+  })
   afterAll(async () => { await browser?.close() })
 
   it('the engineer opens a demo test, sees the four constructions, adopts with a reason, and finds the point in the σ\'p data list', async () => {
     const api = await signIn(demoEmail('engineer'))
-    // Adopting writes: a copy of the demo site of this test's own.
-    const projectId = await createDemoCopy('E2E-OED')
+    const projectId = copyId
     const list = await api.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer`)
     expect(list.body.tests).toHaveLength(14)
     // A test the demo engineer already adopted, so the two disturbed ones stay open for the reviewer.

@@ -11,13 +11,16 @@ interface Adoption { method: string, value: number, reason: string }
 
 describe('oedometer stage upload in Chromium', () => {
   let browser: Browser
-  beforeAll(async () => { browser = await launch() })
+  let projectId = ''
+  beforeAll(async () => {
+    browser = await launch()
+    // Replacing stages writes: a copy of the demo site of this file's own.
+    projectId = await createDemoCopy('E2E-STG')
+  })
   afterAll(async () => { await browser?.close() })
 
   it('the engineer replaces a demo test\'s stages from the example sheet, checks the preview, commits, and the test page draws the new curve', async () => {
     const api = await signIn(demoEmail('engineer'))
-    // Replacing stages writes: a copy of the demo site of this test's own.
-    const projectId = await createDemoCopy('E2E-STG')
     const labBase = `/api/projects/${projectId}/tests/oedometer`
     const example = demoStagesExample()
     const list = await api.get<{ tests: { id: string, point: { identifier: string }, sample: { identifier: string } }[] }>(labBase)
