@@ -10,6 +10,8 @@ describe('the signed-in workspace in Chromium', () => {
   afterAll(async () => { await browser?.close() })
 
   it('shows the error for a wrong password and stays on the sign-in page', async () => {
+    // Signed out, whichever test used the browser before.
+    await browser.context.clearCookies()
     const page = await browser.context.newPage()
     await page.goto(`${baseUrl()}/login`)
     await page.getByLabel('E-mail').fill(demoEmail('engineer'))
