@@ -1,4 +1,4 @@
-// `npm test`: lint, typecheck, then unit, API and browser tests against a separate
+// `npm test`: lint, typecheck (the app, then tests/ through tests/tsconfig.json), then unit, API and browser tests against a separate
 // test database on its own port (never the demo data). Starts and stops the test
 // PostgreSQL itself; installs Debian's chromium for the browser tests when missing.
 import { execFileSync, spawnSync } from 'node:child_process'
@@ -37,6 +37,8 @@ async function main() {
   const only = process.argv.slice(2)
   if (!step('lint', 'npx', ['eslint', '.'])) return 1
   if (!step('typecheck', 'npx', ['nuxt', 'typecheck'])) return 1
+  // tests/ is outside the app's tsconfigs: its own project, on the types nuxt typecheck just generated.
+  if (!step('typecheck tests', 'npx', ['tsc', '--noEmit', '-p', 'tests'])) return 1
   ensureChromium()
   const cluster = await ensureCluster({
     projectRoot: root,

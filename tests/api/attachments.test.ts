@@ -56,30 +56,47 @@ describe('attachments', () => {
   let geo: Client
   let viewer: Client
   let outsider: Client
-  let projectId: string
+  let viewerEmail: string
   let otherProjectId: string
-  let pointId: string
   let otherPointId: string
   let otherSampleId: string
-  let base: string
   let photo: Buffer
-  let pdf: View
-  let png: View
-  let pdfKey: string
+  let seq = 0
+
+  /** A project of one test's own: the geologist and the viewer as members, one borehole BH-A1. */
+  async function site(): Promise<{ projectId: string, base: string, pointId: string }> {
+    seq += 1
+    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATT-${Date.now().toString(36)}${seq}`, name: 'Attachment test site' })
+    expect(p.status).toBe(201)
+    const projectId = p.body.project.id
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
+    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A1', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
+    expect(pt.status).toBe(201)
+    return { projectId, base: `/api/projects/${projectId}/attachments`, pointId: pt.body.point.id }
+  }
+
+  /** The oedometer report on the project, stored by the geologist (one object). */
+  async function storePdf(projectId: string): Promise<View> {
+    const r = await attach<{ attachment: View }>(geo, projectId, 'LR-03 oedometer.pdf', TINY_PDF, { ownerType: 'project', caption: 'Oedometer report' })
+    expect(r.status).toBe(201)
+    return r.body.attachment
+  }
+
+  /** A core-box photo of the point, stored by the geologist (two objects: the photo and its thumbnail). */
+  async function storePng(projectId: string, pointId: string): Promise<View> {
+    const r = await attach<{ attachment: View }>(geo, projectId, 'box 1.png', photo, { ownerType: 'point', ownerId: pointId, caption: 'Core box 1' })
+    expect(r.status).toBe(201)
+    return r.body.attachment
+  }
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATT-${Date.now().toString(36)}`, name: 'Attachment test site' })
-    projectId = p.body.project.id
-    base = `/api/projects/${projectId}/attachments`
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
     geo = await signIn(demoEmail('geologist'))
     const v = await createUser(owner, 'att-viewer')
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: v.email, role: 'viewer' })).status).toBe(201)
     viewer = v.client
+    viewerEmail = v.email
     outsider = (await createUser(owner, 'att-outsider')).client
-    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A1', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
-    pointId = pt.body.point.id
 
     const other = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATO-${Date.now().toString(36)}`, name: 'Another site' })
     otherProjectId = other.body.project.id
@@ -91,9 +108,10 @@ describe('attachments', () => {
   })
 
   it('stores a PDF report for the project: type from the content, SHA-256, no thumbnail, no storage key in the answer', async () => {
+    const { projectId, base } = await site()
     const r = await attach<{ attachment: View }>(geo, projectId, 'LR-03 oedometer.pdf', TINY_PDF, { ownerType: 'project', caption: 'Oedometer report' })
     expect(r.status).toBe(201)
-    pdf = r.body.attachment
+    const pdf = r.body.attachment
     expect(pdf).toMatchObject({ ownerType: 'project', ownerId: null, filename: 'LR-03 oedometer.pdf', contentType: 'application/pdf', kind: 'report', size: TINY_PDF.length, sha256: sha256(TINY_PDF), caption: 'Oedometer report', thumbnailUrl: null })
     expect(pdf.uploadedBy?.displayName).toBe('Ana Ferreira')
     expect(pdf.downloadUrl).toBe(`${base}/${pdf.id}/download`)
@@ -101,17 +119,18 @@ describe('attachments', () => {
     expect(keys).toHaveLength(1)
     expect(keys[0]).toMatch(new RegExp(`^projects/${projectId}/[0-9a-f-]{36}$`))
     expect(keys[0]).not.toContain('oedometer')
-    pdfKey = keys[0]!
     expect(JSON.stringify(r.body)).not.toContain(keys[0]!)
   })
 
   it('stores a photo of a point with a thumbnail of its own; the download returns the same bytes', async () => {
+    const { projectId, base, pointId } = await site()
     const r = await attach<{ attachment: View }>(geo, projectId, 'box 1.png', photo, { ownerType: 'point', ownerId: pointId, caption: 'Core box 1' })
     expect(r.status).toBe(201)
-    png = r.body.attachment
+    const png = r.body.attachment
     expect(png).toMatchObject({ ownerType: 'point', ownerId: pointId, contentType: 'image/png', kind: 'photo', size: photo.length, sha256: sha256(photo) })
     expect(png.thumbnailUrl).toBe(`${base}/${png.id}/thumbnail`)
-    expect(await storedKeys(projectId)).toHaveLength(3)
+    // The photo and its thumbnail.
+    expect(await storedKeys(projectId)).toHaveLength(2)
 
     const d = await fetchBytes(geo, png.downloadUrl)
     expect(d.status).toBe(200)
@@ -129,12 +148,15 @@ describe('attachments', () => {
   })
 
   it('has no thumbnail for a PDF (404)', async () => {
+    const { projectId, base } = await site()
+    const pdf = await storePdf(projectId)
     const r = await geo.get<ErrorBody>(`${base}/${pdf.id}/thumbnail`)
     expect(r.status).toBe(404)
     expect(r.body.message).toMatch(/no thumbnail/)
   })
 
   it('keeps field sheets: CSV and XLSX', async () => {
+    const { projectId, base } = await site()
     const csv = await attach<{ attachment: View }>(geo, projectId, 'levels.txt', 'point,depth\nBH-A1,1.6\nBH-A1,1.7\n')
     expect(csv.status).toBe(201)
     expect([csv.body.attachment.contentType, csv.body.attachment.kind]).toEqual(['text/csv', 'sheet'])
@@ -147,6 +169,9 @@ describe('attachments', () => {
   })
 
   it('lists by owner, newest first, in pages', async () => {
+    const { projectId, base, pointId } = await site()
+    const pdf = await storePdf(projectId)
+    const png = await storePng(projectId, pointId)
     const all = await viewer.get<{ attachments: View[], total: number, limit: number, offset: number }>(base)
     expect(all.status).toBe(200)
     expect(all.body.total).toBe(2)
@@ -162,6 +187,7 @@ describe('attachments', () => {
   })
 
   it('refuses a type it does not keep with 422 and a message naming it', async () => {
+    const { projectId } = await site()
     const gif = await attach<ErrorBody>(geo, projectId, 'site.gif', new Uint8Array([0x47, 0x49, 0x46, 0x38, 0x39, 0x61, 1, 0, 1, 0]))
     expect(gif.status).toBe(422)
     expect(gif.body.message).toMatch(/^site\.gif is a GIF image/)
@@ -171,16 +197,18 @@ describe('attachments', () => {
     const broken = await attach<ErrorBody>(geo, projectId, 'broken.png', photo.subarray(0, 200))
     expect(broken.status).toBe(422)
     expect(broken.body.message).toMatch(/starts like a PNG image but could not be read/)
-    expect(await storedKeys(projectId)).toHaveLength(3)
+    expect(await storedKeys(projectId)).toEqual([])
   })
 
   it('refuses an empty file with 422', async () => {
+    const { projectId } = await site()
     const r = await attach<ErrorBody>(geo, projectId, 'empty.pdf', new Uint8Array(0))
     expect(r.status).toBe(422)
     expect(r.body).toMatchObject({ message: 'empty.pdf is empty (0 bytes).', data: { code: 'empty-file' } })
   })
 
   it('refuses two files in one upload, and a body that is not multipart, with 400 and what to send', async () => {
+    const { base } = await site()
     const form = new FormData()
     form.append('ownerType', 'project')
     form.append('file', new Blob([TINY_PDF]), 'a.pdf')
@@ -196,6 +224,7 @@ describe('attachments', () => {
   })
 
   it('refuses a file over 25 MB with 413, with or without a Content-Length', async () => {
+    const { projectId, base } = await site()
     const big = new Uint8Array(26 * 1024 * 1024).fill(0x25)
     const r = await attach<ErrorBody>(geo, projectId, 'big.pdf', big)
     expect(r.status).toBe(413)
@@ -219,10 +248,11 @@ describe('attachments', () => {
     const res = await fetch(`${geo.base}${base}`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
     expect(res.status).toBe(413)
     expect(((await res.json()) as ErrorBody).message).toBe('The file is larger than 25 MB, the limit for an attachment.')
-    expect(await storedKeys(projectId)).toHaveLength(3)
+    expect(await storedKeys(projectId)).toEqual([])
   })
 
   it('checks the owner belongs to the project: another project\'s point or sample is 404', async () => {
+    const { projectId } = await site()
     const point = await attach<ErrorBody>(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'point', ownerId: otherPointId })
     expect(point.status).toBe(404)
     expect(point.body.message).toBe('The point to attach to was not found in this project.')
@@ -233,6 +263,7 @@ describe('attachments', () => {
   })
 
   it('validates the fields: an owner id for a point, none for the project, a bounded caption', async () => {
+    const { projectId, pointId } = await site()
     const noId = await attach<ErrorBody>(geo, projectId, 'x.pdf', TINY_PDF, { ownerType: 'point' })
     expect(noId.status).toBe(400)
     expect(noId.body.data?.issues?.[0]?.path).toBe('ownerId')
@@ -242,6 +273,9 @@ describe('attachments', () => {
   })
 
   it('answers 404 to a non-member everywhere, so neither the project nor the file can be probed', async () => {
+    const { projectId, base, pointId } = await site()
+    const pdf = await storePdf(projectId)
+    const png = await storePng(projectId, pointId)
     expect((await fetchBytes(outsider, pdf.downloadUrl)).status).toBe(404)
     expect((await fetchBytes(outsider, png.thumbnailUrl!)).status).toBe(404)
     expect((await outsider.get(base)).status).toBe(404)
@@ -252,6 +286,8 @@ describe('attachments', () => {
   })
 
   it('lets a viewer download but not upload or delete', async () => {
+    const { projectId, base } = await site()
+    const pdf = await storePdf(projectId)
     const d = await fetchBytes(viewer, pdf.downloadUrl)
     expect(d.status).toBe(200)
     expect(d.bytes.toString('latin1')).toBe(TINY_PDF)
@@ -261,6 +297,10 @@ describe('attachments', () => {
   })
 
   it('deletes the row and both stored objects, and audits upload and delete without storage keys', async () => {
+    const { projectId, base, pointId } = await site()
+    const pdf = await storePdf(projectId)
+    const [pdfKey] = await storedKeys(projectId)
+    const png = await storePng(projectId, pointId)
     expect(await storedKeys(projectId)).toHaveLength(3)
     const r = await geo.delete(`${base}/${png.id}`)
     expect(r.status).toBe(200)
@@ -278,6 +318,7 @@ describe('attachments', () => {
   })
 
   it('moves the files of a deleted point, sample or test to the project with a caption saying where they came from', async () => {
+    const { projectId, base } = await site()
     const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A2', kind: 'borehole', easting: 5, northing: 6, groundElevation: 2.4, finalDepth: 20 })
     const p2 = pt.body.point.id
     const mkSample = async (identifier: string, top: number) => (await geo.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${p2}/samples`, { identifier, top, bottom: top + 0.45, type: 'thin-walled-tube' })).body.sample.id
@@ -318,6 +359,7 @@ describe('attachments', () => {
   })
 
   it('moves a deleted sample\'s files and those of its tests', async () => {
+    const { projectId, base, pointId } = await site()
     const s = await geo.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U9', top: 9, bottom: 9.45, type: 'piston' })
     const sampleId = s.body.sample.id
     const t = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, testBody(sampleId, 'OED-U9'))
@@ -354,7 +396,15 @@ describe('attachments', () => {
   describe('when object storage is down or not configured', () => {
     let down: RunningServer
     let bare: RunningServer
+    let projectId: string
+    let base: string
+    let pdf: View
     beforeAll(async () => {
+      // A project of this block's own, with a report stored while the store was up.
+      const s = await site()
+      projectId = s.projectId
+      base = s.base
+      pdf = await storePdf(projectId)
       down = await startServer({ PASTLOAD_S3_ENDPOINT: 'http://127.0.0.1:9' })
       bare = await startServer({ PASTLOAD_S3_BUCKET: '' })
     })

@@ -1,7 +1,8 @@
 // CSV/XLSX imports over real HTTP: upload → preview and mapping → row-level
 // report → one transaction (any error: nothing written).
 import * as XLSX from 'xlsx-republish'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { createDemoCopy } from '../helpers/demo-project'
 import { type Client, demoEmail, signIn } from '../helpers/http'
 import { upload } from '../helpers/upload'
 
@@ -13,15 +14,35 @@ describe('imports', () => {
   let projectId: string
   let base: string
 
+  let owner: Client
+  let seq = 0
+
   beforeAll(async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `IMP-${Date.now().toString(36)}`, name: 'Import test site' })
+    owner = await signIn(demoEmail('owner'))
+    geo = await signIn(demoEmail('geologist'))
+  })
+
+  // Every test imports into a project of its own: the geologist as a member, the estuarine clay stratum, no points.
+  beforeEach(async () => {
+    seq += 1
+    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `IMP-${Date.now().toString(36)}${seq}`, name: 'Import test site' })
+    expect(p.status).toBe(201)
     projectId = p.body.project.id
     base = `/api/projects/${projectId}`
-    await owner.post(`${base}/members`, { email: demoEmail('geologist'), role: 'geologist' })
-    geo = await signIn(demoEmail('geologist'))
-    await geo.post(`${base}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'c', pattern: 'p', unitWeight: 16, unitWeightSaturated: 16 })
+    expect((await owner.post(`${base}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    expect((await geo.post(`${base}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'c', pattern: 'p', unitWeight: 16, unitWeightSaturated: 16 })).status).toBe(201)
   })
+
+  /** The three points the import tests refer to (BH-01 25 m, BH-02 22 m, CPT-01 22 m), entered one by one. */
+  async function seedPoints(): Promise<{ cptId: string }> {
+    const made: Record<string, string> = {}
+    for (const [identifier, kind, easting, finalDepth] of [['BH-01', 'borehole', 10, 25], ['BH-02', 'borehole', 60, 22], ['CPT-01', 'cpt', 35, 22]] as const) {
+      const r = await geo.post<{ point: { id: string } }>(`${base}/points`, { identifier, kind, easting, northing: 30, groundElevation: 2.5, finalDepth })
+      expect(r.status).toBe(201)
+      made[identifier] = r.body.point.id
+    }
+    return { cptId: made['CPT-01']! }
+  }
 
   async function commit(importId: string, body: Record<string, unknown>) {
     return geo.post<Report & { written: number }>(`${base}/imports/${importId}/commit`, body)
@@ -51,6 +72,7 @@ describe('imports', () => {
   })
 
   it('reports every bad row of an interval file with its file row number and writes nothing', async () => {
+    await seedPoints()
     const csv = [
       'point,top,bottom,description,uscs,stratum', // row 1
       'BH-01,0,1.2,Sandy GRAVEL fill,GW,', // 2
@@ -78,6 +100,7 @@ describe('imports', () => {
   })
 
   it('dry run reports without writing; a clean file then replaces the logs it names', async () => {
+    await seedPoints()
     const csv = 'point,top,bottom,description,uscs,stratum\nBH-01,0,1.2,Fill,GW,\nBH-01,1.2,25,Clay,CH,EST\n'
     const up = await upload<Preview>(geo, `${base}/imports`, 'ok.csv', csv)
     const mapping = { point: 'point', top: 'top', bottom: 'bottom', description: 'description', uscs: 'uscs', stratum: 'stratum' }
@@ -94,6 +117,7 @@ describe('imports', () => {
   })
 
   it('reads an XLSX workbook, including a chosen sheet', async () => {
+    await seedPoints()
     const wb = XLSX.utils.book_new()
     XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([['Notes'], ['Lab export']]), 'Cover')
     XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([['Point', 'Sample', 'Top', 'Bottom', 'Type'], ['BH-01', 'U1', 4.5, 4.95, 'thin-walled-tube'], ['BH-01', 'U2', 6, 6.45, 'piston']]), 'Samples')
@@ -110,6 +134,7 @@ describe('imports', () => {
   })
 
   it('imports a CPT sounding into one point', async () => {
+    await seedPoints()
     const pts = await geo.get<{ points: { id: string }[] }>(`${base}/points?kind=cpt`)
     const rows = Array.from({ length: 1100 }, (_, i) => `${(0.02 * (i + 1)).toFixed(2)},${300 + i},${5 + i * 0.01},${(9.81 * 0.02 * i).toFixed(3)}`)
     const up = await upload<Preview>(geo, `${base}/imports`, 'cpt-01.csv', `Depth (m),qc (kPa),fs (kPa),u2 (kPa)\n${rows.join('\n')}\n`)
@@ -123,9 +148,11 @@ describe('imports', () => {
   })
 
   it('checks a CPT file row by row with file row numbers and writes nothing, keeps the upload, then imports exact values with an audit entry', async () => {
-    const pts = await geo.get<{ points: { id: string }[] }>(`${base}/points?kind=cpt`)
-    const pointId = pts.body.points[0]!.id
+    const { cptId: pointId } = await seedPoints()
+    // A sounding already there, which a refused file must leave as it is.
+    expect((await geo.request('PUT', `${base}/points/${pointId}/cpt`, { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] })).status).toBe(200)
     const before = await geo.get<{ count: number }>(`${base}/points/${pointId}/cpt`)
+    expect(before.body.count).toBe(2)
     const mapping = { depth: 'Depth (m)', qc: 'qc (kPa)', fs: 'fs (kPa)', u2: 'u2 (kPa)' }
     const bad = 'Depth (m),qc (kPa),fs (kPa),u2 (kPa)\r\n0.02,301.5,5.01,-0.35\r\n\r\n0.04,3o2,5.02,-0.2\r\n0.03,303,,0.1\r\n'
     const up = await upload<Preview>(geo, `${base}/imports`, 'cpt-bad.csv', bad)
@@ -204,7 +231,6 @@ describe('imports', () => {
 
   it('lets only writers upload', async () => {
     const designer = await signIn(demoEmail('designer'))
-    const owner = await signIn(demoEmail('owner'))
     await owner.post(`${base}/members`, { email: demoEmail('designer'), role: 'designer' })
     const r = await upload(designer, `${base}/imports`, 'p.csv', 'a\n1\n')
     expect(r.status).toBe(403)
@@ -212,16 +238,20 @@ describe('imports', () => {
 })
 
 describe('the example file with the demo site\'s deliberate logging errors', () => {
-  it('is reported row by row against the demo project, and the database is unchanged', async () => {
+  let projectId: string
+  // A copy of the demo site of this block's own (the upload is stored with the project).
+  beforeAll(async () => {
+    projectId = await createDemoCopy('IMX')
+  })
+
+  it('is reported row by row against a copy of the demo site, and the database is unchanged', async () => {
     const { readFileSync } = await import('node:fs')
     const { resolve } = await import('node:path')
     const { demoImportCsv, demoImportErrors } = await import('../../shared/demo/import-examples')
-    const { demoProjectId } = await import('../helpers/http')
     const csv = readFileSync(resolve(import.meta.dirname, '../../docs/examples/saltmarsh-lane-intervals-with-errors.csv'), 'utf8')
     // The shipped example is the generator's output, byte for byte.
     expect(csv).toBe(demoImportCsv())
     const geo = await signIn(demoEmail('geologist'))
-    const projectId = await demoProjectId(geo)
     const base = `/api/projects/${projectId}`
     const before = await geo.get<{ events: unknown[] }>(`${base}/audit?limit=100`)
     const up = await upload<{ importId: string }>(geo, `${base}/imports`, 'saltmarsh-lane-intervals-with-errors.csv', csv)

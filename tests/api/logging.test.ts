@@ -1,7 +1,7 @@
 // Logging API over real HTTP: points, the whole-log save with its interval rules,
 // optimistic concurrency (409 with the current rows), samples, index tests, SPT,
 // groundwater, CPT, strata, and the audit trail.
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
 
 interface Interval { id: string, version: number, top: number, bottom: number, description: string, uscs: string | null }
@@ -13,16 +13,25 @@ describe('logging API', () => {
   let projectId: string
   let pointId: string
   let base: string
+  let viewerEmail: string
+  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `LOG-${Date.now().toString(36)}`, name: 'Logging test site' })
-    projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
     geologist = await signIn(demoEmail('geologist'))
     const v = await createUser(owner, 'logviewer')
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: v.email, role: 'viewer' })).status).toBe(201)
     viewer = v.client
+    viewerEmail = v.email
+  })
+
+  // Every test works in a project of its own, with the geologist and a viewer as members and borehole BH-01 (10 m, no log yet).
+  beforeEach(async () => {
+    seq += 1
+    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `LOG-${Date.now().toString(36)}${seq}`, name: 'Logging test site' })
+    expect(p.status).toBe(201)
+    projectId = p.body.project.id
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
     const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, {
       identifier: 'BH-01', kind: 'borehole', easting: 40, northing: 25, groundElevation: 2.6, finalDepth: 10, startedOn: '2025-03-03', endedOn: '2025-03-04', method: 'Cable percussion', loggedBy: 'A. Ferreira',
     })
@@ -30,6 +39,18 @@ describe('logging API', () => {
     pointId = pt.body.point.id
     base = `/api/projects/${projectId}/points/${pointId}`
   })
+
+  /** BH-01's log: three intervals down to its final depth, with a gap at 3.4–4 m. */
+  async function seedLog() {
+    const r = await geologist.request('PUT', `${base}/intervals`, {
+      intervals: [
+        { top: 0, bottom: 1.2, description: 'Dense grey sandy GRAVEL (MADE GROUND)', uscs: 'GW' },
+        { top: 1.2, bottom: 3.4, description: 'Stiff brown silty CLAY, desiccated', uscs: 'CL' },
+        { top: 4, bottom: 10, description: 'Very soft grey CLAY with shells', uscs: 'CH' },
+      ],
+    })
+    expect(r.status).toBe(200)
+  }
 
   it('refuses a duplicate identifier in the project (409) and bad dates (400)', async () => {
     const dup = await geologist.post(`/api/projects/${projectId}/points`, { identifier: 'BH-01', kind: 'borehole', easting: 0, northing: 0, groundElevation: 0, finalDepth: 5 })
@@ -65,6 +86,7 @@ describe('logging API', () => {
   })
 
   it('answers 409 with the current log when the rows changed since they were read', async () => {
+    await seedLog()
     const read = await geologist.get<{ intervals: Interval[] }>(base)
     const rows = read.body.intervals
     // Someone else edits row 2 first.
@@ -81,6 +103,7 @@ describe('logging API', () => {
   })
 
   it('versions a point: a stale PATCH is 409 with the current row; a shallower final depth must still hold the log', async () => {
+    await seedLog()
     const { body } = await geologist.get<{ point: { version: number } }>(base)
     const ok = await geologist.patch<{ point: { version: number, remarks: string } }>(base, { remarks: 'Water strike at 1.6 m', version: body.point.version })
     expect(ok.status).toBe(200)
@@ -142,6 +165,7 @@ describe('logging API', () => {
   })
 
   it('manages strata and links intervals to them; another project\'s stratum is refused', async () => {
+    await seedLog()
     const st = await geologist.post<{ stratum: { id: string, version: number } }>(`/api/projects/${projectId}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'clay-grey', pattern: 'clay', unitWeight: 16, unitWeightSaturated: 16, displayOrder: 2 })
     expect(st.status).toBe(201)
     expect((await geologist.post(`/api/projects/${projectId}/strata`, { code: 'EST', name: 'Copy', colour: 'x', pattern: 'y', unitWeight: 16, unitWeightSaturated: 16 })).status).toBe(409)
@@ -165,7 +189,8 @@ describe('logging API', () => {
   describe('editing a second hole', () => {
     let url: string
     let version: number
-    beforeAll(async () => {
+    // After the outer beforeEach: WS-02 in the test's own project.
+    beforeEach(async () => {
       const pt = await geologist.post<{ point: { id: string, version: number } }>(`/api/projects/${projectId}/points`, { identifier: 'WS-02', kind: 'borehole', easting: 80, northing: 25, groundElevation: 2.2, finalDepth: 12 })
       expect(pt.status).toBe(201)
       url = `/api/projects/${projectId}/points/${pt.body.point.id}`
@@ -242,6 +267,18 @@ describe('logging API', () => {
   })
 
   it('lets a viewer read but not write, and audits every write', async () => {
+    // One write of each kind, then the audit trail must name every one.
+    await seedLog()
+    const s = await geologist.post<{ sample: { id: string } }>(`${base}/samples`, { identifier: 'U1', top: 4.5, bottom: 4.95, type: 'thin-walled-tube' })
+    expect(s.status).toBe(201)
+    expect((await geologist.request('PUT', `${base}/samples/${s.body.sample.id}/index-test`, { liquidLimit: 82, plasticLimit: 31 })).status).toBe(200)
+    expect((await geologist.post(`${base}/spt`, { depth: 8, blows: [3, 5, 7] })).status).toBe(201)
+    expect((await geologist.post(`${base}/groundwater`, { kind: 'strike', observedAt: '2025-03-03T10:20:00+00:00', depth: 1.6 })).status).toBe(201)
+    expect((await geologist.post(`${base}/vane`, { depth: 6, peak: 24 })).status).toBe(201)
+    const cpt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'CPT-01', kind: 'cpt', easting: 60, northing: 30, groundElevation: 2.4, finalDepth: 22 })
+    expect(cpt.status).toBe(201)
+    expect((await geologist.request('PUT', `/api/projects/${projectId}/points/${cpt.body.point.id}/cpt`, { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] })).status).toBe(200)
+    expect((await geologist.post(`/api/projects/${projectId}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'clay-grey', pattern: 'clay', unitWeight: 16, unitWeightSaturated: 16 })).status).toBe(201)
     expect((await viewer.post(`/api/projects/${projectId}/points`, { identifier: 'BH-99', kind: 'borehole', easting: 0, northing: 0, groundElevation: 0, finalDepth: 5 })).status).toBe(403)
     const list = await viewer.get<{ points: { identifier: string }[], total: number }>(`/api/projects/${projectId}/points?q=bh`)
     expect(list.body.points.map(p => p.identifier)).toEqual(['BH-01'])

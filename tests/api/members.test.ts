@@ -1,4 +1,4 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
 
 interface Member { userId: string, email: string, role: string }
@@ -7,9 +7,16 @@ describe('projects and members', () => {
   let owner: Client
   let projectId: string
 
+  let seq = 0
+
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const r = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `T-${Date.now().toString(36)}`, name: 'Member test site', client: 'Test client' })
+  })
+
+  // A project of each test's own: one test steps the demo owner down, which must not reach the others.
+  beforeEach(async () => {
+    seq += 1
+    const r = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `T-${Date.now().toString(36)}${seq}`, name: 'Member test site', client: 'Test client' })
     expect(r.status).toBe(201)
     projectId = r.body.project.id
   })

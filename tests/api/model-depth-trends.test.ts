@@ -6,7 +6,8 @@ import * as XLSX from 'xlsx-republish'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { depthTrendCandidates, eligibleTests, type TestCompressibility } from '../../shared/site-model/compressibility'
 import { depthTrendAt, stratumBounds, type DepthTrend, type SiteModelDefinition } from '../../shared/site-model/definition'
-import { type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { type Client, demoEmail, signIn } from '../helpers/http'
 
 interface Model { id: string, version: number, draft: SiteModelDefinition }
 interface ListedTest { id: string, stratumCode: string | null, depth: number, e0: number, reading: { qualityClass: string | null, cc: number | null, cr: number | null, cv: number | null, calpha: number | null } }
@@ -17,18 +18,33 @@ const pop = (v: number) => ({ model: 'pop' as const, logSpace: false, parameters
 describe('compressibility depth trends: draft, version, export', () => {
   let eng: Client
   let base: string
-  let model: Model
   let ccTrend: DepthTrend
   let draft: SiteModelDefinition
   const estIndex = 2
+  let seq = 0
+
+  /** A new model of this file's copy of the demo site (its draft started from the logs). */
+  async function newModel(): Promise<Model> {
+    seq += 1
+    const r = await eng.post<{ model: Model }>(base, { name: `Cc with depth ${Date.now().toString(36)}-${seq}` })
+    expect(r.status).toBe(201)
+    return r.body.model
+  }
+
+  /** A new model whose draft carries the Cc trend, saved as version 1. */
+  async function savedWithTrend(): Promise<{ model: Model, put: { status: number, body: { model: Model } }, saved: { status: number } }> {
+    const model = await newModel()
+    const put = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft, version: model.version })
+    expect(put.status, JSON.stringify(put.body).slice(0, 400)).toBe(200)
+    const saved = await eng.post<{ version: { version: number } }>(`${base}/${model.id}/versions`, { message: 'EST Cc with depth', version: put.body.model.version })
+    return { model, put, saved }
+  }
 
   beforeAll(async () => {
     eng = await signIn(demoEmail('engineer'))
-    const projectId = await demoProjectId(eng)
+    const projectId = await createDemoCopy('CCT')
     base = `/api/projects/${projectId}/models`
-    const r = await eng.post<{ model: Model }>(base, { name: `Cc with depth ${Date.now().toString(36)}` })
-    expect(r.status).toBe(201)
-    model = r.body.model
+    const model = await newModel()
     // The trend the stratum panel offers: least squares on the estuarine clay's eligible demo tests.
     const list = await eng.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer?limit=100`)
     const tests: TestCompressibility[] = list.body.tests.map(t => ({ id: t.id, stratumCode: t.stratumCode, depth: t.depth, qualityClass: t.reading.qualityClass, cc: t.reading.cc, cr: t.reading.cr, e0: t.e0, cv: t.reading.cv, calpha: t.reading.calpha }))
@@ -51,11 +67,9 @@ describe('compressibility depth trends: draft, version, export', () => {
   })
 
   it('saves the draft with the trend and a version of it; the version export carries Cc at every slice\'s mid-depth', async () => {
-    const put = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft, version: model.version })
-    expect(put.status, JSON.stringify(put.body).slice(0, 400)).toBe(200)
+    const { model, put, saved } = await savedWithTrend()
     expect(put.body.model.draft.strata[estIndex]!.compressibility!.trends!.cc).toEqual(ccTrend)
-    const v = await eng.post<{ version: { version: number } }>(`${base}/${model.id}/versions`, { message: 'EST Cc with depth', version: put.body.model.version })
-    expect(v.status).toBe(201)
+    expect(saved.status).toBe(201)
 
     const exp = await eng.get<{ layers: ExportLayer[], sublayers: { maxThickness: number }, strata: SiteModelDefinition['strata'] }>(`${base}/${model.id}/versions/1/export?maxThickness=0.5`)
     expect(exp.status).toBe(200)
@@ -106,6 +120,7 @@ describe('compressibility depth trends: draft, version, export', () => {
   })
 
   it('a version-1 draft without trends is still taken; with a trend it is refused (400)', async () => {
+    const model = await newModel()
     const fresh = (await eng.get<{ model: Model }>(`${base}/${model.id}`)).body.model
     const v1 = { ...draft, schemaVersion: 1, strata: draft.strata.map((s, i) => (i === estIndex ? { ...s, compressibility: { cc: 0.85, cr: 0.09, e0: 2.1, cv: 1.2, drainage: 'double' as const, source: 'mean' as const } } : s)) }
     const ok = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft: v1, version: fresh.version })
@@ -117,6 +132,7 @@ describe('compressibility depth trends: draft, version, export', () => {
   })
 
   it('refuses a trend that turns non-positive within the stratum (400, naming the parameter and depth)', async () => {
+    const model = await newModel()
     const fresh = (await eng.get<{ model: Model }>(`${base}/${model.id}`)).body.model
     const { bottom } = stratumBounds(draft)[estIndex]!
     // Cr falling to 0 a metre above the clay's base.
@@ -129,6 +145,8 @@ describe('compressibility depth trends: draft, version, export', () => {
   })
 
   it('refuses an export whose slices would outnumber the settlement API\'s layers (422)', async () => {
+    const { model, saved } = await savedWithTrend()
+    expect(saved.status).toBe(201)
     const exp = await eng.get<{ message: string, data: { code: string } }>(`${base}/${model.id}/versions/1/export?maxThickness=0.05`)
     expect(exp.status).toBe(422)
     expect(exp.body.message).toMatch(/^At sublayers of 0\.05 m the depth trends of compressibility give \d+ layers; the settlement API takes at most 200/)

@@ -4,7 +4,8 @@
 import * as XLSX from 'xlsx-republish'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
 
 interface Model { id: string, version: number, draft: SiteModelDefinition, basedOn: number | null }
 
@@ -22,18 +23,34 @@ describe('site models', () => {
   let eng: Client
   let projectId: string
   let base: string
-  let model: Model
+  let seq = 0
+
+  /** A new model of this file's copy of the demo site, its draft started from the logs. */
+  async function freshModel(): Promise<Model> {
+    seq += 1
+    const r = await eng.post<{ model: Model }>(base, { name: `Embankment study ${Date.now().toString(36)}-${seq}`, description: 'Working model of the yard' })
+    expect(r.status).toBe(201)
+    return r.body.model
+  }
+
+  /** A new model whose draft is the demo definition, saved as version 1. */
+  async function savedModel(): Promise<Model> {
+    const m = await freshModel()
+    const put = await eng.request<{ model: Model }>('PUT', `${base}/${m.id}/draft`, { draft: demoDefinition(m.draft), version: m.version })
+    expect(put.status).toBe(200)
+    const v1 = await eng.post<{ version: { version: number } }>(`${base}/${m.id}/versions`, { message: 'First interpretation', version: put.body.model.version })
+    expect(v1.status).toBe(201)
+    return (await eng.get<{ model: Model }>(`${base}/${m.id}`)).body.model
+  }
 
   beforeAll(async () => {
     eng = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(eng)
+    projectId = await createDemoCopy('MOD')
     base = `/api/projects/${projectId}/models`
-    const r = await eng.post<{ model: Model }>(base, { name: `Embankment study ${Date.now().toString(36)}`, description: 'Working model of the yard' })
-    expect(r.status).toBe(201)
-    model = r.body.model
   })
 
   it('starts a draft from the logs: the demo strata in order with their logged thicknesses and the standing water level', async () => {
+    const model = await freshModel()
     expect(model.draft.strata.map(s => s.code)).toEqual(['MG', 'CRUST', 'EST', 'GLAC', 'SAND'])
     // Scenario: made ground 1.2 m, crust 2.2 m, estuarine clay 11.6 m (±0.5 m between holes).
     expect(model.draft.strata[0]!.thickness).toBeGreaterThan(0.8)
@@ -45,6 +62,7 @@ describe('site models', () => {
   })
 
   it('saves the draft with its revision, refuses a stale revision (409) and an impossible model (422)', async () => {
+    const model = await freshModel()
     const draft = demoDefinition(model.draft)
     const ok = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft, version: model.version })
     expect(ok.status).toBe(200)
@@ -57,10 +75,13 @@ describe('site models', () => {
     const bad = await eng.request<{ message: string }>('PUT', `${base}/${model.id}/draft`, { draft: uplift, version: ok.body.model.version })
     expect(bad.status).toBe(422)
     expect(bad.body.message).toMatch(/effective stress/i)
-    model = ok.body.model
   })
 
   it('saves immutable versions: any write to a saved version is 409; checkout starts a new draft from it', async () => {
+    const started = await freshModel()
+    const put1 = await eng.request<{ model: Model }>('PUT', `${base}/${started.id}/draft`, { draft: demoDefinition(started.draft), version: started.version })
+    expect(put1.status).toBe(200)
+    const model = put1.body.model
     const v1 = await eng.post<{ version: { version: number } }>(`${base}/${model.id}/versions`, { message: 'First interpretation', version: model.version })
     expect(v1.status).toBe(201)
     expect(v1.body.version.version).toBe(1)
@@ -87,10 +108,10 @@ describe('site models', () => {
     expect(co.status).toBe(200)
     expect(co.body.model.basedOn).toBe(1)
     expect(co.body.model.draft.surcharge).toBe(0)
-    model = co.body.model
   })
 
   it('exports a version that the settlement API takes as it is, with the same σ\'v0 and σ\'p at the same depths', async () => {
+    const model = await savedModel()
     const exp = await eng.get<Record<string, unknown> & { layers: { name: string }[], schema: string, version: { number: number } }>(`${base}/${model.id}/versions/1/export`)
     expect(exp.status).toBe(200)
     expect(exp.body.schema).toBe('pastload.site-model-export')
@@ -118,6 +139,7 @@ describe('site models', () => {
   })
 
   it('a viewer cannot save, a reviewer cannot edit the model, a non-member gets 404', async () => {
+    const model = await savedModel()
     const owner = await signIn(demoEmail('owner'))
     const viewer = await createUser(owner, 'modelviewer')
     await owner.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })

@@ -6,7 +6,8 @@
 // by the same Δγ·(z − top) while u is unchanged.
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { type Client, demoEmail, signIn } from '../helpers/http'
 
 interface Dense { strata: string[], cpt: { pointId: string, depth: number[], preconsolidation: (number | null)[], effectiveStress: (number | null)[], stratum: number[] }[] }
 interface Answer {
@@ -30,7 +31,8 @@ describe('σ\'p points through a given stress model', () => {
   beforeAll(async () => {
     c = await signIn(demoEmail('designer'))
     const engineer = await signIn(demoEmail('engineer'))
-    const projectId = await demoProjectId(c)
+    // The model it evaluates is made in this file's own copy of the demo site.
+    const projectId = await createDemoCopy('EVA')
     base = `/api/projects/${projectId}/preconsolidation-points`
     const m = await engineer.post<{ model: { id: string } }>(`/api/projects/${projectId}/models`, { name: `evaluate check ${Date.now().toString(36)}` })
     const model = await c.get<{ model: { draft: SiteModelDefinition } }>(`/api/projects/${projectId}/models/${m.body.model.id}`)

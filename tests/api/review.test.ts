@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { type Client, demoEmail, signIn } from '../helpers/http'
 
 interface Flag { id: string, version: number, status: string, verdict: string, targetId: string }
 
@@ -7,22 +8,23 @@ describe('reviewer flags', () => {
   let reviewer: Client
   let engineer: Client
   let projectId: string
-  let intervalId: string
   let pointId: string
-  let interval: { id: string, top: number, bottom: number, uscs: string | null }
+  let intervals: { id: string, top: number, bottom: number, uscs: string | null }[]
 
+  // A copy of the demo site of this file's own; each test flags an interval of BH-02 no other test touches.
   beforeAll(async () => {
     reviewer = await signIn(demoEmail('reviewer'))
     engineer = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(reviewer)
-    const pts = await reviewer.get<{ points: { id: string }[] }>(`/api/projects/${projectId}/points?q=BH-02`)
-    pointId = pts.body.points[0]!.id
+    projectId = await createDemoCopy('REV')
+    const pts = await reviewer.get<{ points: { id: string, identifier: string }[] }>(`/api/projects/${projectId}/points?q=BH-02`)
+    pointId = pts.body.points.find(p => p.identifier === 'BH-02')!.id
     const d = await reviewer.get<{ intervals: { id: string, top: number, bottom: number, uscs: string | null }[] }>(`/api/projects/${projectId}/points/${pointId}`)
-    interval = d.body.intervals[2]!
-    intervalId = interval.id
+    intervals = d.body.intervals
+    expect(intervals.length).toBeGreaterThanOrEqual(4)
   })
 
   it('flags a log interval, threads replies, resolves and reopens, with the audit trail', async () => {
+    const intervalId = intervals[0]!.id
     const f = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'questionable', comment: 'Description says shells but the sample log does not.' })
     expect(f.status).toBe(201)
     const flag = f.body.flag
@@ -43,15 +45,24 @@ describe('reviewer flags', () => {
   })
 
   it('lists a flagged interval with its hole and depths, so the list needs no look-up per hole; other targets carry none', async () => {
+    const interval = intervals[1]!
+    const intervalId = interval.id
+    const made = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'questionable', comment: 'Base of the unit looks high.' })
+    expect(made.status).toBe(201)
+    const test = (await reviewer.get<{ tests: { id: string }[] }>(`/api/projects/${projectId}/tests/oedometer?limit=1`)).body.tests[0]!
+    const onTest = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'oedometer-test', targetId: test.id, verdict: 'questionable', comment: 'Check the seating load.' })
+    expect(onTest.status).toBe(201)
     const list = await reviewer.get<{ flags: (Flag & { targetType: string, interval?: { pointId: string, pointIdentifier: string, top: number, bottom: number, uscs: string | null } | null })[] }>(`/api/projects/${projectId}/flags?limit=500`)
     const onInterval = list.body.flags.filter(f => f.targetType === 'log-interval' && f.targetId === intervalId)
-    expect(onInterval.length).toBeGreaterThan(0)
+    expect(onInterval.map(f => f.id)).toEqual([made.body.flag.id])
     for (const f of onInterval) expect(f.interval).toEqual(expect.objectContaining({ pointId, pointIdentifier: 'BH-02', top: interval.top, bottom: interval.bottom, uscs: interval.uscs }))
     const others = list.body.flags.filter(f => f.targetType !== 'log-interval')
+    expect(others.map(f => f.id)).toContain(onTest.body.flag.id)
     for (const f of others) expect(f).not.toHaveProperty('interval')
   })
 
   it('an engineer cannot flag (403) but can reply; a target outside the project is 404; a reason is required (400)', async () => {
+    const intervalId = intervals[2]!.id
     expect((await engineer.post(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'exclude', comment: 'engineer tries' })).status).toBe(403)
     expect((await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: '00000000-0000-4000-8000-000000000000', verdict: 'exclude', comment: 'not here' })).status).toBe(404)
     expect((await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'cpt-point', targetId: 'cpt:garbage', verdict: 'exclude', comment: 'bad id' })).status).toBe(404)
@@ -59,6 +70,7 @@ describe('reviewer flags', () => {
   })
 
   it('a saved model version records the flags in force', async () => {
+    const intervalId = intervals[3]!.id
     const f = await reviewer.post<{ flag: Flag }>(`/api/projects/${projectId}/flags`, { targetType: 'log-interval', targetId: intervalId, verdict: 'exclude', comment: 'Exclude while the log is rechecked.' })
     const m = await engineer.post<{ model: { id: string, version: number } }>(`/api/projects/${projectId}/models`, { name: `Flag check ${Date.now().toString(36)}` })
     const v = await engineer.post<{ version: { definition: { flagsInForce: { flagId: string, verdict: string }[] } } }>(`/api/projects/${projectId}/models/${m.body.model.id}/versions`, { message: 'With the exclusion', version: m.body.model.version })

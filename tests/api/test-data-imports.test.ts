@@ -1,6 +1,6 @@
 // Imports of test data over real HTTP: an oedometer test's stages from a file (one test, replaced in
 // one transaction, versioned and audited) and field vane readings (rows added, points checked).
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
 import { testBody } from '../helpers/lab'
 import { upload } from '../helpers/upload'
@@ -32,18 +32,27 @@ describe('test-data imports', () => {
   let base: string
   let pointId: string
   let sampleId: string
+  let viewerEmail: string
+  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TDI-${Date.now().toString(36)}`, name: 'Test data import site' })
+    const v = await createUser(owner, 'tdi-viewer')
+    viewer = v.client
+    viewerEmail = v.email
+    engineer = await signIn(demoEmail('engineer'))
+    reviewer = await signIn(demoEmail('reviewer'))
+  })
+
+  // A project of each test's own: the engineer, the reviewer and a viewer as members, borehole BH-T1 with tube U1.
+  beforeEach(async () => {
+    seq += 1
+    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TDI-${Date.now().toString(36)}${seq}`, name: 'Test data import site' })
+    expect(p.status).toBe(201)
     projectId = p.body.project.id
     base = `/api/projects/${projectId}`
     for (const role of ['engineer', 'reviewer'] as const) expect((await owner.post(`${base}/members`, { email: demoEmail(role), role })).status).toBe(201)
-    const v = await createUser(owner, 'tdi-viewer')
-    expect((await owner.post(`${base}/members`, { email: v.email, role: 'viewer' })).status).toBe(201)
-    viewer = v.client
-    engineer = await signIn(demoEmail('engineer'))
-    reviewer = await signIn(demoEmail('reviewer'))
+    expect((await owner.post(`${base}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
     const pt = await engineer.post<{ point: { id: string } }>(`${base}/points`, { identifier: 'BH-T1', kind: 'borehole', easting: 0, northing: 0, groundElevation: 2, finalDepth: 20 })
     pointId = pt.body.point.id
     const s = await engineer.post<{ sample: { id: string } }>(`${base}/points/${pointId}/samples`, { identifier: 'U1', top: 4.5, bottom: 5, type: 'thin-walled-tube' })
@@ -188,6 +197,7 @@ describe('test-data imports', () => {
   })
 
   it('refuses a vane file with an unknown point, a reading already there or a bad strength, adding nothing', async () => {
+    for (const [depth, peak] of [[4, 18.5], [5, 21], [6, 24.3]] as const) expect((await engineer.post(`${base}/points/${pointId}/vane`, { depth, peak })).status).toBe(201)
     const csv = 'hole,depth,su,sur\nBH-T1,7,20,\nBH-99,4,20,\nBH-T1,4,19,\nBH-T1,8,-3,\n'
     const up = await upload<{ importId: string }>(engineer, `${base}/imports`, 'vane-bad.csv', csv)
     const r = await engineer.post<Report>(`${base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'hole', depth: 'depth', peak: 'su', remoulded: 'sur' } })

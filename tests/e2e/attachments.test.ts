@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { testPhoto } from '../helpers/attach'
+import { attach, TINY_PDF, testPhoto } from '../helpers/attach'
 import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
 import { startServer } from '../helpers/server'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
@@ -69,12 +69,16 @@ describe('attachments in Chromium', () => {
 
   it('gives a viewer the files but no upload or delete controls', async () => {
     const admin = await signIn(demoEmail('owner'))
-    const projectId = await demoProjectId(admin)
+    // A project of this test's own with one report on it: adding the viewer leaves the demo's members alone.
+    const p = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATV-${Date.now().toString(36)}`, name: 'Attachment viewer test' })
+    expect(p.status).toBe(201)
+    const projectId = p.body.project.id
+    expect((await attach(admin, projectId, 'LR-01 oedometer.pdf', TINY_PDF, { ownerType: 'project' })).status).toBe(201)
     const viewer = await createUser(admin, 'att-viewer')
     expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
     const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
     await page.goto(`${baseUrl()}/projects/${projectId}`)
-    await page.getByTestId('attachment-list').waitFor()
+    await page.getByTestId('attachment-list').getByText('LR-01 oedometer.pdf').waitFor()
     expect(await page.getByTestId('attachment-upload').count()).toBe(0)
     expect(await page.getByTestId('attachment-list').getByRole('button', { name: 'Delete' }).count()).toBe(0)
     await page.close()

@@ -3,7 +3,8 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { depthTrendCandidates, eligibleTests, type TestCompressibility } from '../../shared/site-model/compressibility'
 import { depthTrendAt, stratumBounds, type SiteModelDefinition } from '../../shared/site-model/definition'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { type Browser, launch, SCREENSHOTS, screenshot, signInAs } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
@@ -26,30 +27,36 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
   let browser: Browser
   let engineer: Client
   let projectId = ''
-  let model: ModelRow
   let tests: ListedTest[] = []
   const estIndex = 2
+  let seq = 0
 
-  beforeAll(async () => {
-    mkdirSync(SCREENSHOTS, { recursive: true })
-    browser = await launch()
-    engineer = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(engineer)
-    const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `Saltmarsh Lane, Cc with depth ${Date.now().toString(36)}` })
+  /** A new model of the project: the estuarine clay compressible, with the scenario's POP and the mean compressibility as constants. */
+  async function newModel(): Promise<ModelRow> {
+    seq += 1
+    const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `Saltmarsh Lane, Cc with depth ${Date.now().toString(36)}-${seq}` })
     expect(created.status).toBe(201)
-    // The estuarine clay compressible, with the scenario's POP and the mean compressibility as constants.
     const draft: SiteModelDefinition = {
       ...created.body.model.draft,
       strata: created.body.model.draft.strata.map((s, i) => (i === estIndex ? { ...s, compressible: true, trend: pop, compressibility: { cc: 0.85, cr: 0.09, e0: 2.1, cv: 1.2, drainage: 'double', source: 'mean', n: 5 } } : s)),
     }
     const put = await engineer.request<{ model: ModelRow }>('PUT', `/api/projects/${projectId}/models/${created.body.model.id}/draft`, { draft, version: created.body.model.version })
     expect(put.status).toBe(200)
-    model = put.body.model
+    return put.body.model
+  }
+
+  // A copy of the demo site of this file's own; each test makes its own model of it.
+  beforeAll(async () => {
+    mkdirSync(SCREENSHOTS, { recursive: true })
+    browser = await launch()
+    engineer = await signIn(demoEmail('engineer'))
+    projectId = await createDemoCopy('E2E-CCT')
     tests = (await engineer.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer?limit=100`)).body.tests
   })
   afterAll(async () => { await browser?.close() })
 
   it('the engineer sets Cc of the estuarine clay to a depth trend, sees n and R², saves a version; the export\'s Cc varies with depth', async () => {
+    const model = await newModel()
     expect(model.draft.strata[estIndex]!.code).toBe('EST')
     const page = await signInAs(browser.context, demoEmail('engineer'))
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
@@ -114,6 +121,7 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
   })
 
   it('a disturbed test the reviewer flagged, with no σ\'p adopted, shows its mark on the stress track with the flag on hover', async () => {
+    const model = await newModel()
     const disturbed = tests.find(t => t.stratumCode === 'EST' && !t.adoption && t.reading.qualityClass === 'very-poor')!
     expect(disturbed).toBeDefined()
     // What the point layer draws before the flag: the flag must not change it (no σ'p point, no fit).
@@ -173,7 +181,7 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
       await page.close()
     }
     finally {
-      // Leave the demo data as the other tests expect it.
+      // Resolved again, so no other test of this file meets the exclusion.
       await reviewer.patch(`/api/projects/${projectId}/flags/${flag.body.flag.id}`, { status: 'resolved', version: flag.body.flag.version })
     }
   })

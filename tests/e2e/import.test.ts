@@ -2,16 +2,22 @@ import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoImportErrors } from '../../shared/demo/import-examples'
+import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { type Browser, launch, screenshot, signInAs } from './helpers'
 
 describe('import page in Chromium', () => {
   let browser: Browser
-  beforeAll(async () => { browser = await launch() })
+  let copyId = ''
+  beforeAll(async () => {
+    browser = await launch()
+    // The upload is stored with the project: the geologist's test works in a copy of the demo site of this file's own.
+    copyId = await createDemoCopy('E2E-IMP')
+  })
   afterAll(async () => { await browser?.close() })
 
   it('the geologist uploads the example file, maps it, and sees each deliberate error with its row', async () => {
-    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
+    const projectId = copyId
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(`${baseUrl()}/projects/${projectId}/import`)
     const file = resolve(import.meta.dirname, '../../docs/examples/saltmarsh-lane-intervals-with-errors.csv')

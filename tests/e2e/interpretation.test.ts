@@ -1,6 +1,7 @@
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, demoEmail, signIn } from '../helpers/http'
 import { asDial, bilinearCurve, ESTUARINE, testBody } from '../helpers/lab'
 import { type Browser, launch, screenshot, SCREENSHOTS, signInAs } from './helpers'
 
@@ -12,15 +13,20 @@ interface ListedTest { id: string, label: string, point: { identifier: string },
 
 describe('oedometer interpretation in Chromium', () => {
   let browser: Browser
-  beforeAll(async () => { browser = await launch() })
+  let copyId = ''
+  beforeAll(async () => {
+    browser = await launch()
+    // Adopting writes: the first test works in a copy of the demo site of this file's own.
+    copyId = await createDemoCopy('E2E-OED')
+  })
   afterAll(async () => { await browser?.close() })
 
   it('the engineer opens a demo test, sees the four constructions, adopts with a reason, and finds the point in the σ\'p data list', async () => {
     const api = await signIn(demoEmail('engineer'))
-    const projectId = await demoProjectId(api)
+    const projectId = copyId
     const list = await api.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer`)
     expect(list.body.tests).toHaveLength(14)
-    // A seeded test already adopted, so the two disturbed ones stay open for the reviewer.
+    // A test the demo engineer already adopted, so the two disturbed ones stay open for the reviewer.
     const target = list.body.tests.find(t => t.adoption && t.point.identifier === 'BH-02' && t.reading.casagrande !== null)!
     expect(target).toBeDefined()
 

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
@@ -42,11 +42,32 @@ describe('the field geologist\'s workspace in Chromium', () => {
   const pointPath = (id: string) => `/projects/${projectId}/points/${id}`
   const log = async (id: string) => (await geologist.get<{ intervals: Interval[] }>(`/api/projects/${projectId}/points/${id}`)).body.intervals
 
+  let seq = 0
+
+  /** The log PASTED describes, saved on BH-T1 through the API (for the tests that start from a saved log). */
+  async function seedLog() {
+    const rows = PASTED.trim().split('\r\n').map(r => r.split('\t'))
+    const codes: Record<string, string> = { 'MG': 'MG', 'CR': 'CR', 'EC': 'EC', 'Estuarine clay': 'EC' }
+    const intervals = rows.map(([top, bottom, description, uscs, stratum, moisture, consistency]) => ({
+      top: Number(top), bottom: Number(bottom), description, uscs: uscs!.toUpperCase(), stratumId: strata[codes[stratum!]!]!, moisture, consistency,
+    }))
+    const r = await geologist.request('PUT', `/api/projects/${projectId}/points/${boreholeId}/intervals`, { intervals })
+    expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200)
+    expect((await log(boreholeId)).length).toBe(4)
+  }
+
   beforeAll(async () => {
     browser = await launch()
     admin = await signIn(demoEmail('owner'))
+    geologist = await signIn(demoEmail('geologist'))
+  })
+
+  // Every test works in a project of its own: three strata, a borehole (with a tube, its index test and a
+  // standing level), a CPT with a dense sounding and a test pit; BH-T1's log is empty until a test seeds it.
+  beforeEach(async () => {
+    seq += 1
     const created = await admin.post<{ project: { id: string } }>('/api/projects', {
-      jobNumber: `TRN-LOG-${Date.now().toString(36)}`,
+      jobNumber: `TRN-LOG-${Date.now().toString(36)}${seq}`,
       name: 'Saltmarsh Lane logging trial',
       client: 'Harrow Estuary Logistics',
     })
@@ -55,7 +76,6 @@ describe('the field geologist\'s workspace in Chromium', () => {
     for (const role of ['geologist', 'engineer', 'designer'] as const) {
       expect((await admin.post(`/api/projects/${projectId}/members`, { email: demoEmail(role), role })).status).toBe(201)
     }
-    geologist = await signIn(demoEmail('geologist'))
     const P = `/api/projects/${projectId}`
     for (const [i, s] of [
       { code: 'MG', name: 'Made ground', colour: 'fill-ochre', pattern: 'made-ground', unitWeight: 19, unitWeightSaturated: 20 },
@@ -128,6 +148,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('marks an overlap in its cell as it is typed, refuses to save it, and undoes the edit', async () => {
+    await seedLog()
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(baseUrl() + pointPath(boreholeId))
     await page.getByTestId('graphic-log').waitFor()
@@ -164,6 +185,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('a save that meets a newer log shows both logs, and "keep mine" saves over it', async () => {
+    await seedLog()
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(baseUrl() + pointPath(boreholeId))
     await page.getByTestId('graphic-log').waitFor()
@@ -191,6 +213,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('an engineer can edit and save the log', async () => {
+    await seedLog()
     const page = await signInAs(browser.context, demoEmail('engineer'))
     await page.goto(baseUrl() + pointPath(boreholeId))
     await page.getByTestId('graphic-log').waitFor()
@@ -203,6 +226,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('a designer and a viewer read the log without any edit controls', async () => {
+    await seedLog()
     const viewer = await createUser(admin, 'viewer')
     expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
     for (const [email, password, name] of [[demoEmail('designer'), undefined, 'designer'], [viewer.email, TEST_PASSWORD, 'viewer']] as const) {
@@ -273,6 +297,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('the printable sheet carries the log, the key and the caution, without the app shell', async () => {
+    await seedLog()
     const page = await signInAs(browser.context, demoEmail('designer'))
     await page.goto(`${baseUrl()}${pointPath(boreholeId)}/sheet`)
     await page.getByTestId('log-sheet').waitFor()
@@ -303,6 +328,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('a problem only the server can see (the hole was shortened meanwhile) comes back on the cell', async () => {
+    await seedLog()
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(baseUrl() + pointPath(boreholeId))
     await page.getByTestId('graphic-log').waitFor()

@@ -1,7 +1,7 @@
 // The point page's edits in Chromium: the header's details, a sample's depths and
 // a vane reading, each versioned (a stale save shows both sides) and checked at
 // the field; a viewer sees none of the edit controls.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
 import { type Browser, launch, screenshot, signInAs } from './helpers'
@@ -16,6 +16,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   let projectId = ''
   let pointId = ''
   let viewerEmail = ''
+  let seq = 0
 
   const api = () => `/api/projects/${projectId}/points/${pointId}`
   const detail = async () => (await geologist.get<Detail>(api())).body
@@ -28,14 +29,18 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   beforeAll(async () => {
     browser = await launch()
     admin = await signIn(demoEmail('owner'))
-    const created = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TRN-EDIT-${Date.now().toString(36)}`, name: 'Saltmarsh Lane edits trial' })
+    geologist = await signIn(demoEmail('geologist'))
+    viewerEmail = (await createUser(admin, 'editviewer')).email
+  })
+
+  // Every test edits a project and a point of its own: WS-E1 with sample U-1 (4.00–4.45 m), an SPT at 9 m and a vane reading at 5 m.
+  beforeEach(async () => {
+    seq += 1
+    const created = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TRN-EDIT-${Date.now().toString(36)}${seq}`, name: 'Saltmarsh Lane edits trial' })
     expect(created.status).toBe(201)
     projectId = created.body.project.id
     expect((await admin.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    const viewer = await createUser(admin, 'editviewer')
-    viewerEmail = viewer.email
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
-    geologist = await signIn(demoEmail('geologist'))
+    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
     const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, {
       identifier: 'WS-E1', kind: 'borehole', easting: 22, northing: 31, groundElevation: 3.1, finalDepth: 15, startedOn: '2026-03-09', endedOn: '2026-03-09', method: 'Window sampler', loggedBy: 'A. Ferreira',
     })
@@ -185,14 +190,14 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     await form.getByLabel('Remarks').fill('Cutting shoe damaged; slight smell')
     await page.getByTestId('sample-save').click()
     await page.getByText('Sample U-1 saved.').waitFor()
-    expect((await detail()).samples).toEqual([expect.objectContaining({ recovery: 70, remarks: 'Cutting shoe damaged; slight smell', top: 4.2, bottom: 4.7 })])
+    expect((await detail()).samples).toEqual([expect.objectContaining({ recovery: 70, remarks: 'Cutting shoe damaged; slight smell', top: 4, bottom: 4.45 })])
     await page.close()
   })
 
   it('a viewer sees the point, its samples and vane readings without any edit controls', async () => {
     const page = await signInAs(browser.context, viewerEmail, TEST_PASSWORD)
     await openPoint(page)
-    expect(await fact(page, 'Method').textContent()).toBe('Rotary cored')
+    expect(await fact(page, 'Method').textContent()).toBe('Window sampler')
     expect(await page.getByTestId('point-edit').count()).toBe(0)
     expect(await page.getByTestId('sample-row').count()).toBe(1)
     expect(await page.getByTestId('sample-edit').count()).toBe(0)

@@ -1,7 +1,8 @@
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { type Browser, launch, screenshot, SCREENSHOTS, signInAs } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string }
@@ -21,9 +22,6 @@ describe('the reviewer\'s tools in Chromium', () => {
   let projectId = ''
   let pointId = ''
   let intervals: Interval[] = []
-  let target: Interval
-  let other: Interval
-  let flagId = ''
 
   const P = () => `/api/projects/${projectId}`
   const pointPage = () => `${baseUrl()}/projects/${projectId}/points/${pointId}`
@@ -33,27 +31,35 @@ describe('the reviewer\'s tools in Chromium', () => {
   const rowOf = (page: Page, iv: Interval) => page.getByTestId('log-row').nth(intervals.indexOf(iv))
   const item = (page: Page, id: string) => page.locator(`[data-testid="flag-item"][data-flag-id="${id}"]`)
 
+  /** A questionable flag with REASON on an interval, raised by the reviewer through the API; its id. */
+  async function flagInterval(iv: Interval): Promise<string> {
+    const r = await reviewer.post<{ flag: Flag }>(`${P()}/flags`, { targetType: 'log-interval', targetId: iv.id, verdict: 'questionable', comment: REASON })
+    expect(r.status).toBe(201)
+    return r.body.flag.id
+  }
+
   async function openPoint(page: Page) {
     await page.goto(pointPage())
     await page.getByTestId('graphic-log').waitFor()
     await page.getByTestId('log-row').nth(intervals.length - 1).waitFor()
   }
 
+  // A copy of the demo site of this file's own. Each test works on its own interval of BH-02
+  // (or its own disturbed test) and raises through the API whatever flag it starts from.
   beforeAll(async () => {
     browser = await launch()
     reviewer = await signIn(demoEmail('reviewer'))
-    projectId = await demoProjectId(reviewer)
+    projectId = await createDemoCopy('E2E-REV')
     const points = await reviewer.get<{ points: { id: string, identifier: string }[] }>(`${P()}/points?q=BH-02`)
     pointId = points.body.points.find(p => p.identifier === 'BH-02')!.id
     intervals = (await reviewer.get<{ intervals: Interval[] }>(`${P()}/points/${pointId}`)).body.intervals
     expect(intervals.length).toBeGreaterThanOrEqual(7)
-    // 3.25–6.90 m, the estuarine clay with shells, and the softer clay below it.
-    target = intervals[4]!
-    other = intervals[6]!
   })
   afterAll(async () => { await browser?.close() })
 
   it('the reviewer flags a log interval as questionable from the point page, giving a reason', async () => {
+    // 3.25–6.90 m, the estuarine clay with shells.
+    const target = intervals[4]!
     expect(await flagsOn(target.id)).toEqual([])
     const page = await signInAs(browser.context, demoEmail('reviewer'))
     await openPoint(page)
@@ -93,13 +99,14 @@ describe('the reviewer\'s tools in Chromium', () => {
 
     const saved = await flagsOn(target.id)
     expect(saved.map(f => [f.targetType, f.verdict, f.status, f.comment])).toEqual([['log-interval', 'questionable', 'open', REASON]])
-    flagId = saved[0]!.id
     await screenshot(page, 'review-point-flagged')
     await page.getByTestId('graphic-log').screenshot({ path: join(SCREENSHOTS, 'review-graphic-log.png') })
     await page.close()
   })
 
   it('the review list says what the flag is about and links to the point page', async () => {
+    const target = intervals[1]!
+    const flagId = await flagInterval(target)
     const page = await signInAs(browser.context, demoEmail('reviewer'))
     await page.goto(reviewPage())
     const entry = item(page, flagId)
@@ -120,6 +127,8 @@ describe('the reviewer\'s tools in Chromium', () => {
   })
 
   it('the engineer sees the badge on the point page, reads the reason and replies from the graphic log', async () => {
+    const target = intervals[2]!
+    const flagId = await flagInterval(target)
     const page = await signInAs(browser.context, demoEmail('engineer'))
     await openPoint(page)
     expect(await page.getByTestId('flag-interval').count()).toBe(0)
@@ -151,6 +160,10 @@ describe('the reviewer\'s tools in Chromium', () => {
   })
 
   it('the reviewer resolves it after a reload past someone else\'s change, and the open list no longer shows it', async () => {
+    const target = intervals[3]!
+    const flagId = await flagInterval(target)
+    const engineer = await signIn(demoEmail('engineer'))
+    expect((await engineer.post(`${P()}/flags/${flagId}/replies`, { body: REPLY })).status).toBe(201)
     const page = await signInAs(browser.context, demoEmail('reviewer'))
     await page.goto(reviewPage())
     const entry = item(page, flagId)
@@ -198,6 +211,8 @@ describe('the reviewer\'s tools in Chromium', () => {
   })
 
   it('a designer sees the flags and threads but no flag, reply or resolve controls', async () => {
+    // The softer clay below the shelly estuarine clay.
+    const other = intervals[6]!
     const reason = 'Silt partings are logged through the whole unit, yet T8 and T10 show none; keep it out of the fits until the log is checked.'
     // A question and an exclusion on one interval: the marks show the stronger, the exclusion.
     const asked = await reviewer.post<{ flag: Flag }>(`${P()}/flags`, { targetType: 'log-interval', targetId: other.id, verdict: 'questionable', comment: 'Is the base at 15.10 m from the log or from the CPT?' })

@@ -5,7 +5,8 @@
 // window), up to the answer's rounding.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { type Browser, launch, screenshot, signInAs } from './helpers'
 
 interface Answer { points: { id: string, source: string, stratumCode: string | null, depth: number, preconsolidation: number }[], stressModel: { source: string, description: string } }
@@ -18,7 +19,8 @@ describe('CPT σ\'p through the model on screen', () => {
   beforeAll(async () => {
     browser = await launch()
     engineer = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(engineer)
+    // The model it makes belongs to a copy of the demo site of this file's own.
+    projectId = await createDemoCopy('E2E-CPT')
   })
   afterAll(async () => { await browser?.close() })
 

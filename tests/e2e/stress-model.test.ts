@@ -6,7 +6,8 @@ import { computeStressProfile } from '../../shared/geotech/stress'
 import { toStressInput } from '../../shared/site-model/convert'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { ESTUARINE_POP } from '../../shared/demo/site'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { type Browser, launch, screenshot, signInAs } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
@@ -62,11 +63,19 @@ describe('the stress workspace in Chromium', () => {
   let projectId = ''
   const name = `Saltmarsh Lane stress model ${Date.now().toString(36)}`
 
+  // A copy of the demo site of this file's own; each test opens a model it made itself.
   beforeAll(async () => {
     browser = await launch()
     engineer = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(engineer)
+    projectId = await createDemoCopy('E2E-STR')
   })
+
+  /** A new model of the project (its draft from the logs), made by the engineer through the API; its id. */
+  async function newModel(suffix: string): Promise<string> {
+    const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `${name} (${suffix})` })
+    expect(created.status).toBe(201)
+    return created.body.model.id
+  }
   afterAll(async () => { await browser?.close() })
 
   it('the engineer builds a model: moves the water table, fits the estuarine clay with constant POP, saves a version and reopens it read-only', async () => {
@@ -309,8 +318,7 @@ describe('the stress workspace in Chromium', () => {
     const flag = await reviewer.post<{ flag: { id: string, version: number } }>(`/api/projects/${projectId}/flags`, { targetType: 'oedometer-test', targetId: target.id, verdict: 'exclude', comment: 'Rounded curve: treat as disturbed until the repeat test is in.' })
     expect(flag.status).toBe(201)
     try {
-      const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
-      const modelId = models.find(m => m.name === name)!.id
+      const modelId = await newModel('flagged')
       const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
       await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
       await page.getByTestId('model-workspace').waitFor()
@@ -321,14 +329,13 @@ describe('the stress workspace in Chromium', () => {
       await page.close()
     }
     finally {
-      // Leave the demo data as the other tests expect it.
+      // Resolved again, so no other test of this file meets the exclusion.
       await reviewer.patch(`/api/projects/${projectId}/flags/${flag.body.flag.id}`, { status: 'resolved', version: flag.body.flag.version })
     }
   })
 
   it('the engineer adopts the estuarine clay\'s compressibility as the mean of its oedometer tests', async () => {
-    const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
-    const modelId = models.find(m => m.name === name)!.id
+    const modelId = await newModel('compressibility')
     const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
     await page.getByTestId('model-workspace').waitFor()
@@ -353,8 +360,7 @@ describe('the stress workspace in Chromium', () => {
   })
 
   it('a designer sees the model read-only', async () => {
-    const models = (await engineer.get<{ models: { id: string, name: string }[] }>(`/api/projects/${projectId}/models`)).body.models
-    const modelId = models.find(m => m.name === name)!.id
+    const modelId = await newModel('designer')
     const page = await signInAs(browser.context, demoEmail('designer'))
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
     await page.getByTestId('model-workspace').waitFor()

@@ -10,6 +10,8 @@ describe('the signed-in workspace in Chromium', () => {
   afterAll(async () => { await browser?.close() })
 
   it('shows the error for a wrong password and stays on the sign-in page', async () => {
+    // Signed out, whichever test used the browser before.
+    await browser.context.clearCookies()
     const page = await browser.context.newPage()
     await page.goto(`${baseUrl()}/login`)
     await page.getByLabel('E-mail').fill(demoEmail('engineer'))
@@ -56,7 +58,10 @@ describe('the signed-in workspace in Chromium', () => {
 
   it('a viewer sees no create or edit controls anywhere', async () => {
     const admin = await signIn(demoEmail('owner'))
-    const projectId = await demoProjectId(admin)
+    // A project of this test's own: adding the viewer leaves the demo's members alone.
+    const p = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `WSV-${Date.now().toString(36)}`, name: 'Viewer controls check' })
+    expect(p.status).toBe(201)
+    const projectId = p.body.project.id
     const viewer = await createUser(admin, 'viewer')
     expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
 

@@ -1,4 +1,4 @@
-import { ALL, freshPoint, freshRow, freshSample, freshStratum, freshUpload, LOG_WRITERS, next, ok, type RouteCase } from './types'
+import { ALL, freshAgsUpload, freshPoint, freshRow, freshSample, freshStratum, freshUpload, LOG_WRITERS, next, ok, type RouteCase } from './types'
 
 const CPT_BODY = { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] }
 
@@ -14,13 +14,13 @@ export const ROUTES: RouteCase[] = [  // Investigation points and their logs
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const s = await freshSample(ctx); return { path: s.url, body: { recovery: 90, version: s.version } } } },
   { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshSample(ctx)).url }) },
   { method: 'PUT', path: '/api/projects/:projectId/points/:pointId/samples/:sampleId/index-test', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${(await freshSample(ctx)).url}/index-test`, body: { liquidLimit: 60, plasticLimit: 25 } }) },
-  ...(['spt', 'groundwater', 'vane'] as const).flatMap((kind): RouteCase[] => [
-    {
-      method: 'POST', path: `/api/projects/:projectId/points/:pointId/${kind}`, allowed: LOG_WRITERS, ok: 201,
-      prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/${kind}`, body: kind === 'spt' ? { depth: 3, blows: [2, 3, 4] } : kind === 'vane' ? { depth: 3, peak: 18 } : { kind: 'strike', observedAt: '2025-03-03T10:00:00Z', depth: 1.6 } }),
-    },
-    { method: 'DELETE', path: `/api/projects/:projectId/points/:pointId/${kind}/:rowId`, allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshRow(ctx, kind)).url }) },
-  ]),
+  // In-situ rows: SPT and groundwater are log writes (logs.write), vane readings test writes (tests.write): the same three roles.
+  { method: 'POST', path: '/api/projects/:projectId/points/:pointId/spt', allowed: LOG_WRITERS, ok: 201, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/spt`, body: { depth: 3, blows: [2, 3, 4] } }) },
+  { method: 'POST', path: '/api/projects/:projectId/points/:pointId/groundwater', allowed: LOG_WRITERS, ok: 201, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/groundwater`, body: { kind: 'strike', observedAt: '2025-03-03T10:00:00Z', depth: 1.6 } }) },
+  { method: 'POST', path: '/api/projects/:projectId/points/:pointId/vane', allowed: LOG_WRITERS, ok: 201, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/vane`, body: { depth: 3, peak: 18 } }) },
+  { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId/spt/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshRow(ctx, 'spt')).url }) },
+  { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId/groundwater/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshRow(ctx, 'groundwater')).url }) },
+  { method: 'DELETE', path: '/api/projects/:projectId/points/:pointId/vane/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshRow(ctx, 'vane')).url }) },
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/spt/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'spt'); return { path: r.url, body: { depth: 5, blows: [2, 2, 2], version: r.version } } } },
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/groundwater/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'groundwater'); return { path: r.url, body: { kind: 'standing', observedAt: '2025-04-02T09:00:00Z', depth: 1.7, version: r.version } } } },
   { method: 'PATCH', path: '/api/projects/:projectId/points/:pointId/vane/:rowId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const r = await freshRow(ctx, 'vane'); return { path: r.url, body: { depth: 6, peak: 22, remoulded: 7, version: r.version } } } },
@@ -33,6 +33,8 @@ export const ROUTES: RouteCase[] = [  // Investigation points and their logs
   { method: 'POST', path: '/api/projects/:projectId/imports', allowed: LOG_WRITERS, ok: 400 },
   { method: 'GET', path: '/api/projects/:projectId/imports/:importId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}?target=points` }) },
   { method: 'POST', path: '/api/projects/:projectId/imports/:importId/commit', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshUpload(ctx)}/commit`, body: { target: 'points', mapping: { identifier: 'Point', kind: 'Kind', easting: 'Easting', northing: 'Northing', groundElevation: 'Ground level', finalDepth: 'Final depth' }, dryRun: true } }) },
+  // An AGS4 file imported whole (logs.write); a dry run writes nothing, so the fixture can be reused by every caller.
+  { method: 'POST', path: '/api/projects/:projectId/imports/:importId/commit-ags', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: `${await freshAgsUpload(ctx)}/commit-ags`, body: { dryRun: true } }) },
   // Exports
   { method: 'GET', path: '/exports/:projectId/logs.xlsx', allowed: ALL, ok: 200 },
   // Strata

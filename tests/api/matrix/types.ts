@@ -1,5 +1,6 @@
 // Shared types and fixtures of the authorization matrix (tests/api/authorization-matrix.test.ts).
 // Each domain lists its routes in its own `*.routes.ts` file beside this one.
+import { investigationToAgs } from '../../../shared/ags4/investigation'
 import { PROJECT_ROLES, type ProjectRole } from '../../../shared/auth/roles'
 import { type Client, createUser } from '../../helpers/http'
 import { upload } from '../../helpers/upload'
@@ -74,5 +75,17 @@ export async function freshStratum(ctx: Ctx) {
 export async function freshUpload(ctx: Ctx): Promise<string> {
   const r = await upload<{ importId: string }>(ctx.owner, `/api/projects/${ctx.projectId}/imports`, 'points.csv', 'Point,Kind,Easting,Northing,Ground level,Final depth\nMX-1,borehole,1,2,3,10\n')
   if (r.status !== 201) throw new Error(`fixture upload failed: ${r.status}`)
+  return `/api/projects/${ctx.projectId}/imports/${r.body.importId}`
+}
+
+/** A fresh upload (owner) of a one-borehole AGS4 file whose point is new to the matrix project; the import's URL. */
+export async function freshAgsUpload(ctx: Ctx): Promise<string> {
+  const text = investigationToAgs({
+    project: { jobNumber: 'MX', name: 'Authorization matrix', client: '' },
+    strata: [],
+    points: [{ identifier: `AGS-${next()}`, kind: 'borehole', easting: 1, northing: 2, groundElevation: 3, finalDepth: 10, startedOn: null, endedOn: null, method: '', loggedBy: '', remarks: '', intervals: [], samples: [], spt: [], groundwater: [], cpt: null, vane: [] }],
+  })
+  const r = await upload<{ importId: string }>(ctx.owner, `/api/projects/${ctx.projectId}/imports`, 'matrix.ags', text, 'text/plain')
+  if (r.status !== 201) throw new Error(`fixture AGS4 upload failed: ${r.status} ${JSON.stringify(r.body)}`)
   return `/api/projects/${ctx.projectId}/imports/${r.body.importId}`
 }

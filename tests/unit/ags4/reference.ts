@@ -1,14 +1,17 @@
 /**
  * Where the AGS4 reference files live for the tests: ../shared/ags4/ beside
  * the project (see its README.md: test data and standard dictionaries of the
- * AGS Data Format Working Group's reference library, used read-only). A clone
- * without that folder skips these tests and says so.
+ * AGS Data Format Working Group's reference library, used read-only), or the
+ * folder PASTLOAD_AGS4_REFERENCE_DIR names. A clone without that folder skips
+ * these tests and says so; under CI=true reference-present.test.ts fails instead.
  */
 import { existsSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { decodeAgs } from '../../../shared/ags4/parse'
 
-export const REFERENCE_DIR = resolve(import.meta.dirname, '../../../../shared/ags4')
+export const REFERENCE_DIR = process.env.PASTLOAD_AGS4_REFERENCE_DIR
+  ? resolve(process.env.PASTLOAD_AGS4_REFERENCE_DIR)
+  : resolve(import.meta.dirname, '../../../../shared/ags4')
 export const hasReference = existsSync(REFERENCE_DIR)
 
 /** Says once, in the test output, why the reference-file tests did not run. */

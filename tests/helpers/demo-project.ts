@@ -1,0 +1,75 @@
+// A fresh project holding the demo scenario's investigation, for test files that write:
+// they change their own copy and never the seeded demo project, which read-only files share.
+// Built through the public API only: the demo project's AGS4 export imported into a new
+// project (strata, points, logs, samples, in-situ rows, CPT, groundwater, oedometer stages),
+// then each oedometer test's label and time readings and the engineer's σ'p adoptions
+// copied over, and the demo people added with their demo roles.
+import { DEMO_PEOPLE } from '../../shared/demo/scenario'
+import { type Client, demoEmail, demoProjectId, signIn } from './http'
+import { upload } from './upload'
+
+interface StoredStage { stress: number, entered: number, readings?: { minutes: number, dial: number }[] }
+interface DemoTest { id: string, version: number, label: string, convention: string, stages: StoredStage[], point: { identifier: string }, sample: { identifier: string } }
+interface Adoption { method: string, value: number, reason: string }
+
+let seq = 0
+
+async function must<T>(what: string, p: Promise<{ status: number, body: T }>, want = 200): Promise<T> {
+  const r = await p
+  if (r.status !== want) throw new Error(`${what}: ${r.status} ${JSON.stringify(r.body).slice(0, 400)}`)
+  return r.body
+}
+
+async function listTests(c: Client, projectId: string): Promise<{ id: string, point: { identifier: string }, sample: { identifier: string } }[]> {
+  return (await must('listing oedometer tests', c.get<{ tests: { id: string, point: { identifier: string }, sample: { identifier: string } }[] }>(`/api/projects/${projectId}/tests/oedometer?limit=500`))).tests
+}
+
+async function oneTest(c: Client, projectId: string, testId: string): Promise<{ test: DemoTest, adoption: Adoption | null }> {
+  return must('reading an oedometer test', c.get<{ test: DemoTest, adoption: Adoption | null }>(`/api/projects/${projectId}/tests/oedometer/${testId}`))
+}
+
+/**
+ * Creates a project with the demo scenario's content (see the file comment) and returns its id.
+ * The demo owner creates it (and owns it); the other demo people join with their demo roles.
+ */
+export async function createDemoCopy(tag: string): Promise<string> {
+  const owner = await signIn(demoEmail('owner'))
+  const engineer = await signIn(demoEmail('engineer'))
+  const demoId = await demoProjectId(owner)
+  seq += 1
+  const created = await must('creating the project', owner.post<{ project: { id: string } }>('/api/projects', {
+    jobNumber: `${tag}-${Date.now().toString(36)}${seq}`.slice(0, 40),
+    name: `Saltmarsh Lane copy (${tag})`,
+  }), 201)
+  const projectId = created.project.id
+  const base = `/api/projects/${projectId}`
+  const ownerEmail = demoEmail('owner')
+  for (const person of DEMO_PEOPLE) {
+    if (person.email === ownerEmail) continue
+    await must(`adding ${person.displayName}`, owner.post(`${base}/members`, { email: person.email, role: person.role }), 201)
+  }
+
+  const res = await fetch(`${owner.base}/exports/${demoId}/logs.ags`, { headers: { cookie: owner.cookie } })
+  if (res.status !== 200) throw new Error(`exporting the demo as AGS4: ${res.status}`)
+  const up = await upload<{ importId: string }>(owner, `${base}/imports`, 'saltmarsh-lane.ags', await res.text(), 'text/plain')
+  if (up.status !== 201) throw new Error(`uploading the demo AGS4 file: ${up.status} ${JSON.stringify(up.body).slice(0, 400)}`)
+  await must('importing the demo AGS4 file', owner.post(`${base}/imports/${up.body.importId}/commit-ags`, {}))
+
+  // Oedometer tests: the demo's labels and time readings, then its adoptions (by the engineer).
+  const key = (t: { point: { identifier: string }, sample: { identifier: string } }) => `${t.point.identifier}/${t.sample.identifier}`
+  const copies = new Map((await listTests(owner, projectId)).map(t => [key(t), t.id]))
+  for (const listed of await listTests(owner, demoId)) {
+    const { test, adoption } = await oneTest(owner, demoId, listed.id)
+    const copyId = copies.get(key(test))
+    if (!copyId) throw new Error(`the AGS4 copy has no oedometer test on ${key(test)}`)
+    const copy = (await oneTest(owner, projectId, copyId)).test
+    await must(`copying oedometer test ${test.label}`, owner.patch(`${base}/tests/oedometer/${copyId}`, {
+      label: test.label,
+      convention: test.convention,
+      stages: test.stages.map(s => ({ stress: s.stress, value: s.entered, ...(s.readings ? { readings: s.readings } : {}) })),
+      version: copy.version,
+    }))
+    if (adoption) await must(`adopting σ'p on ${test.label}`, engineer.post(`${base}/tests/oedometer/${copyId}/adoptions`, { method: adoption.method, value: adoption.value, reason: adoption.reason }), 201)
+  }
+  return projectId
+}
