@@ -9,6 +9,9 @@ export const ImportPreviewQuerySchema = z.object({
   sheet: str().max(120).optional(),
 })
 
+/** Importing an uploaded AGS4 file whole; a dry run checks and reports without writing. */
+export const AgsCommitSchema = z.object({ dryRun: z.boolean().default(false) })
+
 export const ImportCommitSchema = z.object({
   target: z.enum(IMPORT_TARGETS),
   mapping: z.record(str().max(60), str().max(200)),

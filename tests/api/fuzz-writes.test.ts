@@ -11,7 +11,7 @@ import type { z } from 'zod'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ChangePasswordSchema, CreateTokenSchema, CreateUserSchema, LoginSchema } from '../../shared/schemas/auth'
 import { PreconsolidationRequestSchema, SettlementRequestSchema, StressProfileRequestSchema, TrendFitRequestSchema } from '../../shared/schemas/calc'
-import { ImportCommitSchema } from '../../shared/schemas/imports'
+import { AgsCommitSchema, ImportCommitSchema } from '../../shared/schemas/imports'
 import {
   CptSaveSchema, GroundwaterInputSchema, GroundwaterUpdateSchema, IndexTestSaveSchema, LogReplaceSchema, PointInputSchema, PointUpdateSchema,
   SampleInputSchema, SampleUpdateSchema, SptInputSchema, SptUpdateSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema, VaneUpdateSchema,
@@ -54,6 +54,7 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'PATCH /api/projects/:projectId/points/:pointId/vane/:rowId': VaneUpdateSchema,
   'PUT /api/projects/:projectId/points/:pointId/cpt': CptSaveSchema,
   'POST /api/projects/:projectId/imports/:importId/commit': ImportCommitSchema,
+  'POST /api/projects/:projectId/imports/:importId/commit-ags': AgsCommitSchema,
   'POST /api/projects/:projectId/strata': StratumInputSchema,
   'PATCH /api/projects/:projectId/strata/:stratumId': StratumUpdateSchema,
   'POST /api/projects/:projectId/models': CreateModelSchema,
@@ -102,7 +103,7 @@ const CALC_BODIES: Record<string, Json> = {
 
 // Tables the fuzz must not see changed by a 4xx. Sessions and sign-in attempts change on
 // every sign-in by design; the migration journal never changes.
-const UNWATCHED = new Set(['sessions', 'login_attempts', '__drizzle_migrations'])
+const UNWATCHED = new Set(['sessions', 'login_throttle', '__drizzle_migrations'])
 
 async function fingerprintQuery(db: pg.Client): Promise<string> {
   const { rows } = await db.query<{ table_name: string, columns: string[] }>(

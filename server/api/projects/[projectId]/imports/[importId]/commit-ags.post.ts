@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
-import { z } from 'zod'
-import { ImportParamsSchema } from '#shared/schemas/imports'
+import { AgsCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
 import { useDb } from '../../../../../db/client'
 import { importFiles, investigationPoints, strata } from '../../../../../db/schema'
 import { recordAudit } from '../../../../../services/audit'
@@ -9,8 +8,6 @@ import { analyseAgsOrThrow, asRowErrors } from '../../../../../services/imports/
 import { holdPointLimit } from '../../../../../services/imports/commit'
 import { asUploadRefusal, loadImportFile } from '../../../../../services/imports/preview'
 import { writeInvestigation } from '../../../../../services/investigation-writer'
-
-const Body = z.object({ dryRun: z.boolean().default(false) })
 
 /**
  * Imports an uploaded AGS4 file whole, in one transaction: any rule error or a
@@ -21,7 +18,7 @@ const Body = z.object({ dryRun: z.boolean().default(false) })
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
   const { importId } = validateParams(event, ImportParamsSchema)
-  const { dryRun } = await validateBody(event, Body)
+  const { dryRun } = await validateBody(event, AgsCommitSchema)
   const file = await loadImportFile(project.id, importId)
   if (file.format !== 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `${file.filename} is not an AGS4 file; map its columns instead.` })
   const a = analyseAgsOrThrow(file.content, file.filename)
