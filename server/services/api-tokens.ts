@@ -1,8 +1,8 @@
 import { createHash, randomBytes } from 'node:crypto'
-import { and, eq, isNull } from 'drizzle-orm'
+import { and, desc, eq, isNull } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { SessionUser } from '#shared/schemas/auth'
-import type { ApiTokenScope } from '#shared/types/api-tokens'
+import type { ApiTokenRow, ApiTokenScope } from '#shared/types/api-tokens'
 import { useDb } from '../db/client'
 import { apiTokens, users } from '../db/schema'
 import type { Tx } from './audit'
@@ -20,6 +20,16 @@ export interface NewApiToken {
   expiresAt: Date
 }
 
+/** What a token shows of itself (never the secret or its hash). */
+const TOKEN_COLUMNS = {
+  id: apiTokens.id,
+  name: apiTokens.name,
+  prefix: apiTokens.prefix,
+  scope: apiTokens.scope,
+  createdAt: apiTokens.createdAt,
+  expiresAt: apiTokens.expiresAt,
+}
+
 /** Inserts a token inside the caller's transaction (its audit row goes in the same one). */
 export async function createApiToken(tx: Tx, userId: string, input: NewApiToken) {
   const token = PREFIX + randomBytes(32).toString('base64url')
@@ -30,15 +40,21 @@ export async function createApiToken(tx: Tx, userId: string, input: NewApiToken)
     expiresAt: input.expiresAt,
     tokenHash: hashToken(token),
     prefix: token.slice(0, PREFIX.length + 6),
-  }).returning({
-    id: apiTokens.id,
-    name: apiTokens.name,
-    prefix: apiTokens.prefix,
-    scope: apiTokens.scope,
-    createdAt: apiTokens.createdAt,
-    expiresAt: apiTokens.expiresAt,
-  })
+  }).returning(TOKEN_COLUMNS)
   return { ...row!, token }
+}
+
+/** The user's API tokens, newest first, with scope, expiry, last use and revocation. */
+export async function listApiTokens(userId: string): Promise<ApiTokenRow[]> {
+  const rows = await useDb().select({ ...TOKEN_COLUMNS, lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt })
+    .from(apiTokens).where(eq(apiTokens.userId, userId)).orderBy(desc(apiTokens.createdAt))
+  return rows.map(r => ({
+    ...r,
+    createdAt: r.createdAt.toISOString(),
+    expiresAt: r.expiresAt.toISOString(),
+    lastUsedAt: r.lastUsedAt?.toISOString() ?? null,
+    revokedAt: r.revokedAt?.toISOString() ?? null,
+  }))
 }
 
 /** Revokes every live token of the user (a password change does this); returns how many. */

@@ -20,13 +20,5 @@ export interface ApiTokenListReply {
 
 /** POST /api/account/tokens (201): the secret `token` is in this reply only. */
 export interface ApiTokenCreatedReply {
-  token: {
-    id: string
-    name: string
-    prefix: string
-    scope: ApiTokenScope
-    createdAt: string
-    expiresAt: string
-    token: string
-  }
+  token: Omit<ApiTokenRow, 'lastUsedAt' | 'revokedAt'> & { token: string }
 }

@@ -3,7 +3,7 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { closeDb, usePool } from '../../server/db/client'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
-import { dbRelay, type DbRelay } from '../helpers/db-relay'
+import { tcpRelay, type Relay } from '../helpers/relay'
 import { Client, TEST_PASSWORD, demoEmail, uniqueEmail } from '../helpers/http'
 import { startServer, type RunningServer } from '../helpers/server'
 
@@ -14,10 +14,10 @@ import { startServer, type RunningServer } from '../helpers/server'
 const DB_DOWN = 'The database is not reachable right now, so this request could not be completed. Try again in a few seconds.'
 
 let server: RunningServer
-let link: DbRelay
+let link: Relay
 
 beforeAll(async () => {
-  link = await dbRelay(process.env.DATABASE_URL!)
+  link = await tcpRelay(process.env.DATABASE_URL!)
   server = await startServer({ DATABASE_URL: link.url, PASTLOAD_SEED: 'none' })
 })
 

@@ -1,34 +1,7 @@
-import { Socket, createServer, type Server } from 'node:net'
 import { afterAll, describe, expect, it } from 'vitest'
-import { startServer, freePort, type RunningServer } from '../helpers/server'
+import { startServer, type RunningServer } from '../helpers/server'
+import { tcpRelay } from '../helpers/relay'
 import { baseUrl } from '../helpers/http'
-
-/** A loopback TCP relay to a test service (PostgreSQL, the object store) that can be cut and restored. */
-async function relay(target: URL) {
-  const port = await freePort()
-  const sockets = new Set<Socket>()
-  let server: Server | null = null
-  const open = () => new Promise<void>((res) => {
-    server = createServer((client) => {
-      const upstream = new Socket()
-      upstream.connect(Number(target.port), target.hostname)
-      client.pipe(upstream).pipe(client)
-      for (const s of [client, upstream]) {
-        sockets.add(s)
-        s.on('error', () => {})
-        s.on('close', () => sockets.delete(s))
-      }
-    })
-    server.listen(port, '127.0.0.1', () => res())
-  })
-  const cut = () => new Promise<void>((res) => {
-    for (const s of sockets) s.destroy()
-    if (server) server.close(() => res())
-    else res()
-  })
-  await open()
-  return { port, open, cut }
-}
 
 async function healthUntil(url: string, status: number): Promise<{ status: number, body: unknown }> {
   let last = { status: 0, body: {} as unknown }
@@ -56,11 +29,8 @@ describe('GET /api/health', () => {
   })
 
   it('answers 503 with db "down" while the database is unreachable, and recovers', async () => {
-    const dbUrl = new URL(process.env.DATABASE_URL!)
-    const link = await relay(dbUrl)
-    const viaRelay = new URL(dbUrl)
-    viaRelay.port = String(link.port)
-    server = await startServer({ DATABASE_URL: viaRelay.toString(), PASTLOAD_SEED: 'none' })
+    const link = await tcpRelay(process.env.DATABASE_URL!)
+    server = await startServer({ DATABASE_URL: link.url, PASTLOAD_SEED: 'none' })
     expect((await fetch(`${server.url}/api/health`)).status).toBe(200)
 
     await link.cut()
@@ -80,8 +50,7 @@ describe('GET /api/health', () => {
   })
 
   it('answers 503 with storage "down" while the object store is unreachable, and recovers without a restart', async () => {
-    const storeUrl = new URL(process.env.PASTLOAD_S3_ENDPOINT!)
-    const link = await relay(storeUrl)
+    const link = await tcpRelay(process.env.PASTLOAD_S3_ENDPOINT!)
     storageServer = await startServer({ PASTLOAD_S3_ENDPOINT: `http://127.0.0.1:${link.port}`, PASTLOAD_SEED: 'none' })
     const up = await fetch(`${storageServer.url}/api/health`)
     expect(up.status).toBe(200)

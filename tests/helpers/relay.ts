@@ -1,19 +1,19 @@
-// A loopback TCP relay to the test PostgreSQL that a test can cut and restore,
-// to take the database away from a server started through it.
+// A loopback TCP relay to a test service (PostgreSQL, the object store) that a test can
+// cut and restore, to take the service away from a server started through it.
 import { Socket, createServer, type Server } from 'node:net'
 import { freePort } from './server'
 
-export interface DbRelay {
+export interface Relay {
   port: number
-  /** The database URL through the relay. */
+  /** The service's URL through the relay. */
   url: string
   open: () => Promise<void>
   /** Drops every connection and refuses new ones until `open`. */
   cut: () => Promise<void>
 }
 
-export async function dbRelay(databaseUrl: string): Promise<DbRelay> {
-  const target = new URL(databaseUrl)
+export async function tcpRelay(serviceUrl: string): Promise<Relay> {
+  const target = new URL(serviceUrl)
   const port = await freePort()
   const sockets = new Set<Socket>()
   let server: Server | null = null
