@@ -3,6 +3,12 @@ import { defineConfig } from 'vitest/config'
 
 const root = fileURLToPath(new URL('./', import.meta.url))
 
+// PASTLOAD_TEST_SHUFFLE=<seed> shuffles the api and e2e files and tests with that seed while keeping the
+// layers' order (vitest's own --sequence.* flags replace each project's groupOrder): a check that no test
+// depends on another's leftovers or on the order of its `it`s.
+const shuffleSeed = process.env.PASTLOAD_TEST_SHUFFLE ? Number(process.env.PASTLOAD_TEST_SHUFFLE) : undefined
+const shuffle = shuffleSeed !== undefined && Number.isFinite(shuffleSeed) ? { files: true, tests: true } : false
+
 // Three layers (see DEVELOPERS.md): unit (pure engine and utilities, node),
 // api (real HTTP against the built server and a real PostgreSQL),
 // e2e (Chromium driving real pages). `sequence.groupOrder` makes vitest run them
@@ -16,6 +22,7 @@ export default defineConfig({
     },
   },
   test: {
+    sequence: shuffle ? { seed: shuffleSeed } : {},
     projects: [
       {
         extends: true,
@@ -32,7 +39,7 @@ export default defineConfig({
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
           environment: 'node',
-          sequence: { groupOrder: 1 },
+          sequence: { groupOrder: 1, shuffle },
           globalSetup: ['tests/setup/global-server.ts'],
           fileParallelism: false,
           testTimeout: 30_000,
@@ -45,7 +52,7 @@ export default defineConfig({
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
-          sequence: { groupOrder: 2 },
+          sequence: { groupOrder: 2, shuffle },
           globalSetup: ['tests/setup/global-server.ts'],
           fileParallelism: false,
           testTimeout: 60_000,
