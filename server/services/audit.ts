@@ -1,7 +1,5 @@
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { auditEvents } from '../db/schema'
-
-type Tx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
 
 export interface AuditEntry {
   actorId: string | null
@@ -36,5 +34,3 @@ function redact(value: unknown): unknown {
   }
   return copy
 }
-
-export type { Tx }
