@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
 import { ChangePasswordSchema } from '#shared/schemas/auth'
-import { useDb } from '~~/server/db/client'
 import { users } from '~~/server/db/schema'
 import { revokeAllTokens } from '~~/server/services/api-tokens'
 import { recordAudit } from '~~/server/services/audit'

@@ -1,6 +1,5 @@
 import { sql } from 'drizzle-orm'
 import { LoginSchema } from '#shared/schemas/auth'
-import { useDb } from '~~/server/db/client'
 import { users } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { recordSuccess, takeAttempt } from '~~/server/services/login-throttle'

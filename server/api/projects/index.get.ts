@@ -1,5 +1,4 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { projectMembers, projects } from '~~/server/db/schema'
 
 /** Projects the caller is a member of, with the caller's role in each. */

@@ -1,5 +1,4 @@
 import { CreateProjectSchema } from '#shared/schemas/projects'
-import { useDb } from '~~/server/db/client'
 import { projectMembers, projects } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { isUniqueViolation } from '~~/server/utils/db-errors'

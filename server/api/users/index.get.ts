@@ -1,6 +1,5 @@
 import { asc } from 'drizzle-orm'
 import { PageQuerySchema } from '#shared/schemas/common'
-import { useDb } from '~~/server/db/client'
 import { users } from '~~/server/db/schema'
 
 /** Site admins list accounts (paged). */

@@ -1,5 +1,4 @@
 import { CreateUserSchema } from '#shared/schemas/auth'
-import { useDb } from '~~/server/db/client'
 import { users } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { isUniqueViolation } from '~~/server/utils/db-errors'

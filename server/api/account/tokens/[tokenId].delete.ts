@@ -1,6 +1,5 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { ApiTokenParamsSchema } from '#shared/schemas/auth'
-import { useDb } from '~~/server/db/client'
 import { apiTokens } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 

@@ -1,6 +1,5 @@
 import { CreateTokenSchema, tokenExpiry } from '#shared/schemas/auth'
 import type { ApiTokenCreatedReply } from '#shared/types/api-tokens'
-import { useDb } from '~~/server/db/client'
 import { createApiToken } from '~~/server/services/api-tokens'
 import { recordAudit } from '~~/server/services/audit'
 

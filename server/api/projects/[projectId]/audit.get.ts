@@ -1,6 +1,5 @@
 import { desc, eq } from 'drizzle-orm'
 import { PageQuerySchema } from '#shared/schemas/common'
-import { useDb } from '~~/server/db/client'
 import { auditEvents, users } from '~~/server/db/schema'
 
 /** The project's audit trail, newest first, paged. */

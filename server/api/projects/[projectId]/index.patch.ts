@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
 import { UpdateProjectSchema } from '#shared/schemas/projects'
-import { useDb } from '~~/server/db/client'
 import { projects } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { isUniqueViolation } from '~~/server/utils/db-errors'

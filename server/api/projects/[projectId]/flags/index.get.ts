@@ -1,6 +1,5 @@
 import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm'
 import { FlagListQuerySchema } from '#shared/schemas/review'
-import { useDb } from '~~/server/db/client'
 import { investigationPoints, logIntervals, reviewFlags, reviewReplies, users } from '~~/server/db/schema'
 
 /**

@@ -1,5 +1,4 @@
 import { CreateFlagSchema } from '#shared/schemas/review'
-import { useDb } from '~~/server/db/client'
 import { reviewFlags } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { assertTargetInProject } from '~~/server/services/review'

@@ -1,6 +1,5 @@
 import { lt } from 'drizzle-orm'
 import { preferFastCompression } from '~~/server/db/binary'
-import { useDb } from '~~/server/db/client'
 import { importFiles } from '~~/server/db/schema'
 import { detectFormat, UploadError } from '~~/server/services/imports/files'
 import { analyseAgsOrThrow, asRowErrors } from '~~/server/services/imports/ags'

@@ -1,5 +1,4 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { projectMembers, users } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {

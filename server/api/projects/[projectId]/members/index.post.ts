@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { AddMemberSchema } from '#shared/schemas/projects'
-import { useDb } from '~~/server/db/client'
 import { projectMembers, users } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { unprocessableError } from '~~/server/services/http-errors'

@@ -1,5 +1,4 @@
 import { asc, desc, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { anyOf } from '~~/server/db/any'
 import { siteModels, siteModelVersions } from '~~/server/db/schema'
 

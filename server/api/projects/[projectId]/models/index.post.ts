@@ -1,5 +1,4 @@
 import { CreateModelSchema } from '#shared/schemas/models'
-import { useDb } from '~~/server/db/client'
 import { siteModels } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { requireModel, requireVersion } from '~~/server/services/model-versions'

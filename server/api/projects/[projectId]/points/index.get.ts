@@ -1,6 +1,5 @@
 import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm'
 import { PointListQuerySchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { cptSoundings, investigationPoints } from '~~/server/db/schema'
 
 /** The project's investigation points, filtered by identifier search and kind, paged. */

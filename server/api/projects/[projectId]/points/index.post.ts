@@ -1,5 +1,4 @@
 import { PointInputSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { investigationPoints } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { isUniqueViolation } from '~~/server/utils/db-errors'

@@ -1,5 +1,4 @@
 import { and, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { strata } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { notFound } from '~~/server/services/http-errors'

@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { StratumParamsSchema, StratumUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { strata } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { versionedUpdate } from '~~/server/services/http-errors'

@@ -1,5 +1,4 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { strata } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {

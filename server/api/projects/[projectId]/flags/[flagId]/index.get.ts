@@ -1,6 +1,5 @@
 import { and, asc, eq } from 'drizzle-orm'
 import { FlagParamsSchema } from '#shared/schemas/review'
-import { useDb } from '~~/server/db/client'
 import { reviewFlags, reviewReplies, users } from '~~/server/db/schema'
 import { notFound } from '~~/server/services/http-errors'
 

@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { FlagParamsSchema, UpdateFlagSchema } from '#shared/schemas/review'
-import { useDb } from '~~/server/db/client'
 import { reviewFlags } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { versionedUpdate } from '~~/server/services/http-errors'

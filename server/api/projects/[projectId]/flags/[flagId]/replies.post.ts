@@ -1,6 +1,5 @@
 import { and, eq } from 'drizzle-orm'
 import { FlagParamsSchema, ReplySchema } from '#shared/schemas/review'
-import { useDb } from '~~/server/db/client'
 import { reviewFlags, reviewReplies } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { notFound } from '~~/server/services/http-errors'

@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
 import { AgsCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
-import { useDb } from '~~/server/db/client'
 import { importFiles, investigationPoints, strata } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { checkPointLimit } from '#shared/imports/limits'

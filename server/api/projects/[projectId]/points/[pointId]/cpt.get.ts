@@ -1,5 +1,4 @@
 import { eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { cptSoundings } from '~~/server/db/schema'
 import { requirePoint } from '~~/server/services/points'
 import { notFound } from '~~/server/services/http-errors'

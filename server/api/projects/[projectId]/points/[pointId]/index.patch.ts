@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { PointParamsSchema, PointUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { investigationPoints } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { assertFinalDepthHolds, requirePoint } from '~~/server/services/points'

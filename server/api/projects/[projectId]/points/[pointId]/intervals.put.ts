@@ -1,7 +1,6 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
 import { checkIntervals } from '#shared/investigation/intervals'
 import { LogReplaceSchema, PointParamsSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { anyOf } from '~~/server/db/any'
 import { logIntervals, strata } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'

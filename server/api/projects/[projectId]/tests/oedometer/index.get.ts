@@ -1,7 +1,6 @@
 import { and, asc, count, eq, isNull, type SQL } from 'drizzle-orm'
 import { isGeotechError } from '#shared/geotech/errors'
 import { OedometerListQuerySchema } from '#shared/schemas/lab'
-import { useDb } from '~~/server/db/client'
 import { investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users } from '~~/server/db/schema'
 import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson, timeAnalysis, timeSummary } from '~~/server/services/lab'
 

@@ -1,5 +1,4 @@
 import { OedometerTestInputSchema } from '#shared/schemas/lab'
-import { useDb } from '~~/server/db/client'
 import { oedometerTests } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { prepareSpecimen, requireProjectSample, testJson } from '~~/server/services/lab'

@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { ModelParamsSchema, SaveVersionSchema } from '#shared/schemas/models'
-import { useDb } from '~~/server/db/client'
 import { siteModels, siteModelVersions } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { assertDefinitionComputable, nextVersionNumber, requireModel } from '~~/server/services/model-versions'

@@ -1,5 +1,4 @@
 import { PointParamsSchema, SampleInputSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { samples } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { requirePoint } from '~~/server/services/points'

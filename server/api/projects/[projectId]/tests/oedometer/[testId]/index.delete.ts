@@ -1,6 +1,5 @@
 import { eq } from 'drizzle-orm'
 import { OedometerTestParamsSchema } from '#shared/schemas/lab'
-import { useDb } from '~~/server/db/client'
 import { oedometerTests } from '~~/server/db/schema'
 import { rehomeAttachmentsOf } from '~~/server/services/attachments'
 import { recordAudit } from '~~/server/services/audit'

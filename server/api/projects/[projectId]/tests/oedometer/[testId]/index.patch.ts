@@ -1,6 +1,5 @@
 import { and, eq, isNull, sql } from 'drizzle-orm'
 import { OedometerTestParamsSchema, OedometerTestUpdateSchema } from '#shared/schemas/lab'
-import { useDb } from '~~/server/db/client'
 import { oedometerTests, preconsolidationAdoptions } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { prepareSpecimen, requireTest, testJson } from '~~/server/services/lab'

@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { VersionParamsSchema } from '#shared/schemas/models'
-import { useDb } from '~~/server/db/client'
 import { siteModels } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { requireModel, requireVersion } from '~~/server/services/model-versions'

@@ -1,5 +1,4 @@
 import { and, eq } from 'drizzle-orm'
-import { useDb } from '~~/server/db/client'
 import { samples } from '~~/server/db/schema'
 import { rehomeAttachmentsOf } from '~~/server/services/attachments'
 import { recordAudit } from '~~/server/services/audit'

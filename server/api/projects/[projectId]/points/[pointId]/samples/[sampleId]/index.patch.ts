@@ -1,6 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { SampleParamsSchema, SampleUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '~~/server/db/client'
 import { samples } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { requirePoint } from '~~/server/services/points'
