@@ -1,5 +1,3 @@
-import type { H3Error } from 'h3'
-
 /**
  * Optimistic concurrency for rows that carry a `version`: the update's WHERE
  * includes the version the client read and bumps it. No row back means either
@@ -32,6 +30,6 @@ export function notFound(what: string): never {
  * a model the engine cannot use). `message` says what and where; `data` carries a `code` or `issues`
  * the client can act on. Callers `throw` it (or return it from an error mapper).
  */
-export function unprocessableError(message: string, data?: Record<string, unknown>): H3Error {
+export function unprocessableError(message: string, data?: Record<string, unknown>) {
   return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data })
 }
