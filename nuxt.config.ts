@@ -37,10 +37,6 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
-  runtimeConfig: {
-    // Overridden at run time by NUXT_DATABASE_URL / DATABASE_URL (see server/db/client.ts).
-    databaseUrl: '',
-  },
   // Security headers (nuxt-security): a per-request nonce for every script and style element Nuxt renders
   // (the entry, its preloads, the hydration payload), 'strict-dynamic' for the chunks they load, no 'unsafe-eval'.
   // Only style *attributes* are allowed inline: pages rendered on the server carry Vue's :style bindings as
@@ -98,8 +94,10 @@ export default defineNuxtConfig({
     viewer: false,
   },
   nitro: {
-    // Migrations are applied by scripts/start.mjs before the server listens; the
-    // server also refuses to answer before its own readiness check (server/plugins/db.ts).
+    // The server applies the migrations itself when it starts (server/plugins/database.ts, then the demo seed
+    // when PASTLOAD_SEED=demo); requests wait until that is done (server/middleware/00.ready.ts). scripts/start.mjs
+    // only starts PostgreSQL and the object store and passes DATABASE_URL and PASTLOAD_MIGRATIONS_DIR. The database
+    // URL is read from DATABASE_URL (or NUXT_DATABASE_URL) by server/db/client.ts, not from runtimeConfig.
     experimental: { openAPI: false },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
     hooks: {

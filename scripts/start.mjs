@@ -1,5 +1,6 @@
-// `npm start`: PostgreSQL (installed and created when missing), migrations, the
-// demo seed on an empty database, a build when stale, then the app on 127.0.0.1.
+// `npm start`: PostgreSQL (installed and created when missing), the object store, a build when stale,
+// then the app on 127.0.0.1, which applies the migrations and seeds the demo on an
+// empty database as it starts (server/plugins/database.ts).
 // If the app process dies it is started again after a growing pause (1 s, 2 s …
 // 30 s; it gives up at the sixth crash within ten minutes) while PostgreSQL and
 // the object store keep running. Ctrl-C / SIGTERM stops the app and the servers

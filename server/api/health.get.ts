@@ -1,5 +1,4 @@
 import { sql } from 'drizzle-orm'
-import { useDb } from '../db/client'
 import { storageHealth } from '../services/storage'
 
 async function databaseHealth(): Promise<'ok' | 'down'> {

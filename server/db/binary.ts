@@ -1,5 +1,5 @@
 import { type SQL, sql } from 'drizzle-orm'
-import type { useDb } from './client'
+import type { Tx } from './client'
 
 /**
  * Large numeric arrays in PostgreSQL's binary wire format. node-postgres sends a
@@ -56,8 +56,6 @@ export function decodeFloat8Array(buf: Uint8Array): Float64Array {
 export function float8ArrayParam(values: ArrayLike<number>): SQL {
   return sql`${encodeFloat8Array(values)}::float8[]`
 }
-
-type Tx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
 
 let lz4Available: Promise<boolean> | undefined
 

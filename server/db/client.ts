@@ -5,6 +5,9 @@ import * as schema from './schema'
 
 export type Database = ReturnType<typeof createDatabase>['db']
 
+/** The transaction handed to `useDb().transaction(async (tx) => …)`; services take it to write in the caller's transaction. */
+export type Tx = Parameters<Parameters<Database['transaction']>[0]>[0]
+
 function createDatabase(url: string) {
   const pool = new pg.Pool({
     connectionString: url,

@@ -1,4 +1,3 @@
-import { useDb } from '../db/client'
 import { applyMigrations } from '../db/migrate'
 import { seedDemoIfEmpty } from '../services/demo-seed'
 import { seedDemoAttachmentsAfterDemoSeed } from '../services/demo-seed-attachments'

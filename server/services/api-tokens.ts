@@ -3,9 +3,8 @@ import { and, desc, eq, isNull } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { SessionUser } from '#shared/schemas/auth'
 import type { ApiTokenRow, ApiTokenScope } from '#shared/types/api-tokens'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { apiTokens, users } from '../db/schema'
-import type { Tx } from './audit'
 
 const PREFIX = 'plt_'
 

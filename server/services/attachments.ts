@@ -3,13 +3,14 @@ import { and, count, desc, eq, isNull, or, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import sharp from 'sharp'
 import { ATTACHMENT_TYPES, attachmentKind, type AttachmentContentType, type AttachmentOwnerType, type AttachmentView, MAX_ATTACHMENT_BYTES, THUMBNAIL_MAX_PX } from '#shared/schemas/attachments'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { attachments, investigationPoints, oedometerTests, samples, users } from '../db/schema'
 import { AttachmentContentError, sniffAttachment } from './attachment-content'
 import { recordAudit } from './audit'
 import { readMultipart } from './multipart'
 import { deleteObject, getObject, NOT_CONFIGURED, putObject, storageConfigured, StorageUnavailableError } from './storage'
+import { unprocessableError } from './http-errors'
 
 /**
  * Attachments: reading an upload within its size limit, checking what it is
@@ -216,7 +217,7 @@ export function requireStorage(): void {
 
 /** Turns the attachment errors into HTTP answers: unreadable content 422, storage down 503. */
 export function attachmentHttpError(err: unknown): unknown {
-  if (err instanceof AttachmentContentError) return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+  if (err instanceof AttachmentContentError) return unprocessableError(err.message, { code: err.code })
   if (err instanceof StorageUnavailableError) return createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: err.message, data: { code: `storage-${err.reason}` } })
   return err
 }
@@ -254,8 +255,6 @@ export async function sendStoredObject(event: H3Event, key: string, opts: { cont
   return sendStream(event, stored.body)
 }
 
-type OwnerTx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
-
 /**
  * Before a point, sample or oedometer test is deleted: its attachments, and
  * those of everything deleted with it (a point's samples and their tests, a
@@ -264,7 +263,7 @@ type OwnerTx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]
  * under, and no row is left pointing at an owner that no longer exists. Runs in
  * the deleting transaction, so it commits or rolls back with the delete.
  */
-export async function rehomeAttachmentsOf(tx: OwnerTx, args: { projectId: string, actorId: string, ownerType: Exclude<AttachmentOwnerType, 'project'>, ownerId: string, label: string }): Promise<number> {
+export async function rehomeAttachmentsOf(tx: Tx, args: { projectId: string, actorId: string, ownerType: Exclude<AttachmentOwnerType, 'project'>, ownerId: string, label: string }): Promise<number> {
   const { projectId, ownerType, ownerId } = args
   const owned: SQL[] = [and(eq(attachments.ownerType, ownerType), eq(attachments.ownerId, ownerId))!]
   if (ownerType === 'point') {

@@ -1,12 +1,18 @@
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { auditEvents } from '../db/schema'
 
-type Tx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
+/** The actions the audit log records: row writes, imports, σ'p adoptions, review-flag state, sign-in and password events. */
+export type AuditAction
+  = | 'create' | 'update' | 'delete'
+    | 'import'
+    | 'adopt' | 'withdraw'
+    | 'resolve' | 'reopen'
+    | 'login' | 'logout' | 'password-change'
 
 export interface AuditEntry {
   actorId: string | null
   projectId?: string | null
-  action: 'create' | 'update' | 'delete' | 'login' | 'logout' | 'password-change' | string
+  action: AuditAction
   entity: string
   entityId?: string | null
   before?: unknown
@@ -36,5 +42,3 @@ function redact(value: unknown): unknown {
   }
   return copy
 }
-
-export type { Tx }

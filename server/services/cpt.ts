@@ -1,10 +1,10 @@
 import { eq, sql } from 'drizzle-orm'
 import { float8ArrayParam, preferFastCompression } from '../db/binary'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { cptSoundings } from '../db/schema'
-import { recordAudit, type Tx } from './audit'
+import { recordAudit } from './audit'
 import { requirePoint } from './points'
-import { unprocessable } from './versioned'
+import { unprocessableError } from './http-errors'
 
 export interface CptArrays {
   areaRatio: number
@@ -17,11 +17,11 @@ export interface CptArrays {
 /** Depths must increase and stay within the hole; the sounding is replaced whole. */
 export function assertCptValid(c: CptArrays, finalDepth: number) {
   for (let i = 1; i < c.depth.length; i++) {
-    if (!(c.depth[i]! > c.depth[i - 1]!)) unprocessable(`CPT row ${i + 1}: depth ${c.depth[i]} m does not increase from ${c.depth[i - 1]} m.`)
+    if (!(c.depth[i]! > c.depth[i - 1]!)) throw unprocessableError(`CPT row ${i + 1}: depth ${c.depth[i]} m does not increase from ${c.depth[i - 1]} m.`)
   }
   const last = c.depth[c.depth.length - 1]!
-  if (c.depth[0]! < 0) unprocessable('CPT depths must be 0 m or deeper.')
-  if (last > finalDepth + 1e-6) unprocessable(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
+  if (c.depth[0]! < 0) throw unprocessableError('CPT depths must be 0 m or deeper.')
+  if (last > finalDepth + 1e-6) throw unprocessableError(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
 }
 
 export async function replaceCptSounding(ctx: { actorId: string, projectId: string, pointId: string }, c: CptArrays & { version?: number }, txIn?: Tx) {

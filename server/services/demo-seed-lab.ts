@@ -7,8 +7,9 @@ import type { InvestigationRecord, OedometerTestRecord } from '#shared/investiga
 import { specimenHeightAt } from '#shared/lab/stages'
 import { toStressInput } from '#shared/site-model/convert'
 import { oedometerTests, preconsolidationAdoptions, type OedometerStageJson } from '../db/schema'
-import { recordAudit, type Tx } from './audit'
+import { recordAudit } from './audit'
 import { definitionFromLogs } from './site-models'
+import type { Tx } from '../db/client'
 
 /** A common laboratory reading schedule for one 24 h stage, minutes (common practice). */
 const READING_MINUTES = [0, 0.1, 0.25, 0.5, 1, 2, 4, 8, 15, 30, 60, 120, 240, 480, 1440]

@@ -1,7 +1,7 @@
 import type { InvestigationRecord } from '#shared/investigation/types'
 import { float8ArrayParam } from '../db/binary'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
-import type { Tx } from './audit'
+import type { Tx } from '../db/client'
 
 const CHUNK = 1000
 

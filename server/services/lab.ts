@@ -7,13 +7,13 @@ import { convertStages, degreeOfSaturation, e0FromWaterContent, specimenHeightAt
 import { analyseTimeCurve, MIN_TIME_READINGS, type SecondaryResult, type TaylorResult } from '#shared/lab/time-curve'
 import { toStressInput } from '#shared/site-model/convert'
 import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, siteModels, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
-import { recordAudit, type Tx } from './audit'
+import { recordAudit } from './audit'
 import { currentDefinition } from './site-models'
-import { notFound, versionedUpdate } from './versioned'
+import { notFound, versionedUpdate } from './http-errors'
 
 export type OedometerTestRow = typeof oedometerTests.$inferSelect
 export type SampleRow = typeof samples.$inferSelect

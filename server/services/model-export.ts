@@ -5,6 +5,7 @@ import { ModelIncompleteError } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { sublayerTable } from '#shared/site-model/sublayers'
 import type { ProjectRow } from '../utils/guards'
+import { unprocessableError } from './http-errors'
 
 export const EXPORT_SCHEMA = 'pastload.site-model-export'
 export const EXPORT_SCHEMA_VERSION = 1
@@ -16,7 +17,7 @@ function tableOrRefuse(def: SiteModelDefinition, maxThickness: number) {
     return runEngine(() => sublayerTable(def, maxThickness))
   }
   catch (err) {
-    if (err instanceof ModelIncompleteError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: 'model-incomplete' } })
+    if (err instanceof ModelIncompleteError) throw unprocessableError(err.message, { code: 'model-incomplete' })
     throw err
   }
 }
@@ -32,12 +33,10 @@ export function exportDocument(project: ProjectRow, model: { id: string, name: s
   const { layers } = tableOrRefuse(v.definition, maxThickness)
   // A stratum with compressibility depth trends comes as slices of maxThickness: thin slices can outnumber what the settlement API takes.
   if (layers.length > MAX_SETTLEMENT_LAYERS) {
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: `At sublayers of ${maxThickness} m the depth trends of compressibility give ${layers.length} layers; the settlement API takes at most ${MAX_SETTLEMENT_LAYERS}. Ask for a larger maxThickness.`,
-      data: { code: 'too-many-layers' },
-    })
+    throw unprocessableError(
+      `At sublayers of ${maxThickness} m the depth trends of compressibility give ${layers.length} layers; the settlement API takes at most ${MAX_SETTLEMENT_LAYERS}. Ask for a larger maxThickness.`,
+      { code: 'too-many-layers' },
+    )
   }
   return {
     schema: EXPORT_SCHEMA,

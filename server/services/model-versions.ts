@@ -2,10 +2,9 @@ import { and, desc, eq } from 'drizzle-orm'
 import { buildStressModel } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { siteModels, siteModelVersions, users } from '../db/schema'
-import type { Tx } from './audit'
-import { notFound } from './versioned'
+import { notFound } from './http-errors'
 
 export async function requireModel(projectId: string, modelId: string, tx?: Tx) {
   const db = tx ?? useDb()

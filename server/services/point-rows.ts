@@ -3,7 +3,7 @@ import { useDb } from '../db/client'
 import { groundwaterObservations, sptResults, vaneReadings } from '../db/schema'
 import { recordAudit } from './audit'
 import { requirePoint } from './points'
-import { notFound, unprocessable, versionedUpdate } from './versioned'
+import { notFound, unprocessableError, versionedUpdate } from './http-errors'
 
 /**
  * Create, update and delete for the simple rows that hang off a point (SPT,
@@ -19,7 +19,7 @@ export type PointRowKind = keyof typeof TABLES
 type Row = { id: string, pointId: string, version: number, depth: number | null }
 
 function checkDepth(depth: number | null | undefined, finalDepth: number) {
-  if (depth !== null && depth !== undefined && depth > finalDepth) unprocessable(`The depth (${depth} m) is below the hole's final depth (${finalDepth} m).`)
+  if (depth !== null && depth !== undefined && depth > finalDepth) throw unprocessableError(`The depth (${depth} m) is below the hole's final depth (${finalDepth} m).`)
 }
 
 interface Ctx { actorId: string, projectId: string, pointId: string }

@@ -1,9 +1,8 @@
 import { and, asc, eq } from 'drizzle-orm'
 import { checkIntervals } from '#shared/investigation/intervals'
-import { useDb } from '../db/client'
+import { type Tx, useDb } from '../db/client'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, vaneReadings } from '../db/schema'
-import type { Tx } from './audit'
-import { notFound } from './versioned'
+import { notFound, unprocessableError } from './http-errors'
 
 export type PointRow = typeof investigationPoints.$inferSelect
 
@@ -48,12 +47,10 @@ export function assertLogValid(intervals: { top: number, bottom: number }[], fin
   const { issues } = checkIntervals(intervals, finalDepth)
   if (issues.length) {
     const first = issues[0]!
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: `Row ${first.index + 1}: ${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`,
-      data: { issues: issues.map(i => ({ path: `intervals.${i.index}.${i.field}`, message: i.message, index: i.index, field: i.field })) },
-    })
+    throw unprocessableError(
+      `Row ${first.index + 1}: ${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`,
+      { issues: issues.map(i => ({ path: `intervals.${i.index}.${i.field}`, message: i.message, index: i.index, field: i.field })) },
+    )
   }
 }
 
@@ -81,10 +78,8 @@ export async function assertFinalDepthHolds(tx: Tx, pointId: string, finalDepth:
   const worst = checks.filter(c => c.depth > finalDepth).sort((a, b) => b.depth - a.depth)[0]
   if (!worst) return
   const message = `must be at least ${worst.depth} m: ${worst.what} is at ${worst.depth} m.`
-  throw createError({
-    statusCode: 422,
-    statusMessage: 'Unprocessable Entity',
-    message: `The final depth (${finalDepth} m) is above ${worst.what} (${worst.depth} m).`,
-    data: { issues: [{ path: 'finalDepth', message }] },
-  })
+  throw unprocessableError(
+    `The final depth (${finalDepth} m) is above ${worst.what} (${worst.depth} m).`,
+    { issues: [{ path: 'finalDepth', message }] },
+  )
 }

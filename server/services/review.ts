@@ -2,7 +2,7 @@ import { and, eq } from 'drizzle-orm'
 import { parseFlagTarget, type FlagTarget } from '#shared/review/flags'
 import { useDb } from '../db/client'
 import { investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, reviewFlags, samples, vaneReadings } from '../db/schema'
-import { notFound } from './versioned'
+import { notFound } from './http-errors'
 
 /** The flagged record must belong to the project (checked in the WHERE clause); anything else is 404. */
 export async function assertTargetInProject(projectId: string, type: FlagTarget, targetId: string): Promise<void> {

@@ -1,8 +1,7 @@
 import { and, asc, desc, eq } from 'drizzle-orm'
 import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
-import { type Database, useDb } from '../db/client'
+import { type Database, type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
-import type { Tx } from './audit'
 import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
 
 export type SiteModelRow = typeof siteModels.$inferSelect

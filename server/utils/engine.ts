@@ -1,4 +1,5 @@
 import { isGeotechError } from '#shared/geotech/errors'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /**
  * Runs an engine call; a GeotechError (physically impossible input) becomes 422
@@ -11,12 +12,10 @@ export function runEngine<T>(fn: () => T): T {
   }
   catch (err) {
     if (isGeotechError(err)) {
-      throw createError({
-        statusCode: 422,
-        statusMessage: 'Unprocessable Entity',
-        message: err.message,
-        data: { code: err.code, ...(err.depth !== undefined ? { depth: err.depth } : {}), ...(err.detail ? { detail: err.detail } : {}) },
-      })
+      throw unprocessableError(
+        err.message,
+        { code: err.code, ...(err.depth !== undefined ? { depth: err.depth } : {}), ...(err.detail ? { detail: err.detail } : {}) },
+      )
     }
     throw err
   }
@@ -24,7 +23,3 @@ export function runEngine<T>(fn: () => T): T {
 
 /** Most sublayers one settlement request may ask for (keeps one call bounded in time and memory). */
 export const MAX_SUBLAYERS = 200_000
-
-export function refuse422(message: string, code: string): never {
-  throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data: { code } })
-}

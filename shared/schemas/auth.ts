@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { EmailSchema, PasswordSchema, str } from './common'
+import { EmailSchema, PasswordSchema, str, UuidSchema } from './common'
 
 export const LoginSchema = z.object({
   email: EmailSchema,
@@ -57,3 +57,6 @@ export interface SessionUser {
   displayName: string
   isSiteAdmin: boolean
 }
+
+/** Route params of one of the caller's API tokens. */
+export const ApiTokenParamsSchema = z.object({ tokenId: UuidSchema })

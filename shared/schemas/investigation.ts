@@ -149,3 +149,10 @@ export const VaneUpdateSchema = VaneInputSchema.extend(VersionSchema.shape)
 export const IndexTestSaveSchema = z.intersection(IndexTestInputSchema, z.object({ version: int(1).optional() }))
 /** A CPT sounding replaced whole: send `version` when one exists. */
 export const CptSaveSchema = z.intersection(CptInputSchema, z.object({ version: int(1).optional() }))
+
+/** Route params of a point and of the rows, samples and strata beneath it. */
+export const PointParamsSchema = z.object({ projectId: UuidSchema, pointId: UuidSchema })
+export const SampleParamsSchema = PointParamsSchema.extend({ sampleId: UuidSchema })
+export const StratumParamsSchema = z.object({ projectId: UuidSchema, stratumId: UuidSchema })
+/** A row that belongs to a point (SPT, groundwater, vane) by its `rowId`. */
+export const PointRowParamsSchema = PointParamsSchema.extend({ rowId: UuidSchema })

@@ -93,7 +93,7 @@ export const AdoptionInputSchema = z.object({
 })
 export type AdoptionInput = z.infer<typeof AdoptionInputSchema>
 
-export const OedometerTestParams = z.object({ projectId: UuidSchema, testId: UuidSchema })
+export const OedometerTestParamsSchema = z.object({ projectId: UuidSchema, testId: UuidSchema })
 
 export const OedometerListQuerySchema = z.object({
   pointId: UuidSchema.optional(),

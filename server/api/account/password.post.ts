@@ -1,10 +1,10 @@
 import { eq } from 'drizzle-orm'
 import { ChangePasswordSchema } from '#shared/schemas/auth'
-import { useDb } from '../../db/client'
-import { users } from '../../db/schema'
-import { revokeAllTokens } from '../../services/api-tokens'
-import { recordAudit } from '../../services/audit'
-import { hashPassword, verifyPassword } from '../../utils/password'
+import { users } from '~~/server/db/schema'
+import { revokeAllTokens } from '~~/server/services/api-tokens'
+import { recordAudit } from '~~/server/services/audit'
+import { hashPassword, verifyPassword } from '~~/server/utils/password'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /**
  * Change one's own password (from a browser session only): every API token of the user is
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const [row] = await db.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, user.id))
   if (!row || !(await verifyPassword(row.passwordHash, body.currentPassword))) {
-    throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'The current password is wrong.', data: { issues: [{ path: 'currentPassword', message: 'is wrong' }] } })
+    throw unprocessableError('The current password is wrong.', { issues: [{ path: 'currentPassword', message: 'is wrong' }] })
   }
   const passwordHash = await hashPassword(body.newPassword)
   const tokensRevoked = await db.transaction(async (tx) => {

@@ -1,10 +1,9 @@
 import { sql } from 'drizzle-orm'
 import { LoginSchema } from '#shared/schemas/auth'
-import { useDb } from '../../db/client'
-import { users } from '../../db/schema'
-import { recordAudit } from '../../services/audit'
-import { recordSuccess, takeAttempt } from '../../services/login-throttle'
-import { dummyPasswordHash, verifyPassword } from '../../utils/password'
+import { users } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { recordSuccess, takeAttempt } from '~~/server/services/login-throttle'
+import { dummyPasswordHash, verifyPassword } from '~~/server/utils/password'
 
 const WRONG = 'E-mail or password is wrong.'
 

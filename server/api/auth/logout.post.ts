@@ -1,4 +1,4 @@
-import { recordAudit } from '../../services/audit'
+import { recordAudit } from '~~/server/services/audit'
 
 export default defineEventHandler(async (event) => {
   const user = requireUser(event)

@@ -1,6 +1,7 @@
 import { RESULT_CAUTION } from '#shared/caution'
 import { computeSettlement } from '#shared/geotech/settlement'
 import { SettlementRequestSchema } from '#shared/schemas/calc'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /** 1-D primary consolidation settlement, optionally with time rate and secondary compression. */
 export default defineEventHandler(async (event) => {
@@ -14,7 +15,7 @@ export default defineEventHandler(async (event) => {
     return n + Math.ceil(l.thickness / max)
   }, 0)
   if (planned > MAX_SUBLAYERS) {
-    refuse422(`The sublayering asks for ${planned} sublayers; the limit is ${MAX_SUBLAYERS}. Use a larger maxThickness.`, 'too-many-sublayers')
+    throw unprocessableError(`The sublayering asks for ${planned} sublayers; the limit is ${MAX_SUBLAYERS}. Use a larger maxThickness.`, { code: 'too-many-sublayers' })
   }
   const result = runEngine(() => computeSettlement(body))
   return { ...result, caution: RESULT_CAUTION }

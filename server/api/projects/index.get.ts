@@ -1,6 +1,5 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '../../db/client'
-import { projectMembers, projects } from '../../db/schema'
+import { projectMembers, projects } from '~~/server/db/schema'
 
 /** Projects the caller is a member of, with the caller's role in each. */
 export default defineEventHandler(async (event) => {

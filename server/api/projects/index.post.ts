@@ -1,8 +1,7 @@
 import { CreateProjectSchema } from '#shared/schemas/projects'
-import { useDb } from '../../db/client'
-import { projectMembers, projects } from '../../db/schema'
-import { recordAudit } from '../../services/audit'
-import { isUniqueViolation } from '../../utils/db-errors'
+import { projectMembers, projects } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 /** A site admin creates a project and becomes its first owner. */
 export default defineEventHandler(async (event) => {

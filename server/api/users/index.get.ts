@@ -1,7 +1,6 @@
 import { asc } from 'drizzle-orm'
 import { PageQuerySchema } from '#shared/schemas/common'
-import { useDb } from '../../db/client'
-import { users } from '../../db/schema'
+import { users } from '~~/server/db/schema'
 
 /** Site admins list accounts (paged). */
 export default defineEventHandler(async (event) => {

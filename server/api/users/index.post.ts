@@ -1,9 +1,8 @@
 import { CreateUserSchema } from '#shared/schemas/auth'
-import { useDb } from '../../db/client'
-import { users } from '../../db/schema'
-import { recordAudit } from '../../services/audit'
-import { isUniqueViolation } from '../../utils/db-errors'
-import { hashPassword } from '../../utils/password'
+import { users } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
+import { hashPassword } from '~~/server/utils/password'
 
 /** Site admins create accounts; the new user changes the password on the account page. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm'
 import { check, date, doublePrecision, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../../../shared/investigation/types'
+import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '#shared/investigation/types'
 import { timestamps } from './columns'
 import { projects } from './projects'
 

@@ -1,5 +1,5 @@
 import { doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
-import { OEDOMETER_TEST_TYPES } from '../../../shared/investigation/types'
+import { OEDOMETER_TEST_TYPES } from '#shared/investigation/types'
 import { timestamps } from './columns'
 import { samples } from './investigation'
 import { projects } from './projects'

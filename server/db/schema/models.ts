@@ -1,5 +1,5 @@
 import { index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import type { SiteModelDefinition } from '../../../shared/site-model/definition'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { timestamps } from './columns'
 import { projects } from './projects'
 import { users } from './users'

@@ -1,5 +1,5 @@
 import { index, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { PROJECT_ROLES, UNIT_SYSTEMS } from '../../../shared/auth/roles'
+import { PROJECT_ROLES, UNIT_SYSTEMS } from '#shared/auth/roles'
 import { timestamps } from './columns'
 import { users } from './users'
 

@@ -1,5 +1,5 @@
 import { index, integer, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
-import { FLAG_TARGETS, FLAG_VERDICTS } from '../../../shared/review/flags'
+import { FLAG_TARGETS, FLAG_VERDICTS } from '#shared/review/flags'
 import { timestamps } from './columns'
 import { projects } from './projects'
 import { users } from './users'

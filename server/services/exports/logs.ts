@@ -1,11 +1,11 @@
 import { asc, eq } from 'drizzle-orm'
 import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
-import { useDb } from '../../db/client'
-import { anyOf } from '../../db/any'
+import { useDb } from '~~/server/db/client'
+import { anyOf } from '~~/server/db/any'
 import type { InvestigationRecord } from '#shared/investigation/types'
-import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../../db/schema'
-import type { ProjectRow } from '../../utils/guards'
+import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '~~/server/db/schema'
+import type { ProjectRow } from '~~/server/utils/guards'
 
 /** Everything logged in a project, one row per record, for the exports. */
 export async function loadProjectLogs(projectId: string) {

@@ -1,9 +1,9 @@
 import { and, eq } from 'drizzle-orm'
 import { type ImportTarget, suggestMapping } from '#shared/imports/targets'
 import type { PlainCsvText } from '#shared/imports/cpt-csv'
-import { useDb } from '../../db/client'
-import { importFiles, importMappings } from '../../db/schema'
-import { notFound } from '../versioned'
+import { useDb } from '~~/server/db/client'
+import { importFiles, importMappings } from '~~/server/db/schema'
+import { notFound, unprocessableError } from '../http-errors'
 import { ImportLimitError } from '#shared/imports/limits'
 import { openPlainCsv, readTable, UploadError, type UploadFormat } from './files'
 import { WorkbookRefusal } from './workbook'
@@ -18,17 +18,17 @@ export async function loadImportFile(projectId: string, importId: string) {
 
 /** A refusal of the file as the JSON error it answers (422, or 503 while the workbook readers are all busy); anything else as it is. */
 export function asUploadRefusal(err: unknown): unknown {
-  if (err instanceof UploadError || err instanceof ImportLimitError) return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+  if (err instanceof UploadError || err instanceof ImportLimitError) return unprocessableError(err.message, { code: err.code })
   if (err instanceof WorkbookRefusal) {
     return err.status === 503
       ? createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: err.message, data: { code: err.code } })
-      : createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+      : unprocessableError(err.message, { code: err.code })
   }
   return err
 }
 
 export async function tableOrThrow(content: Buffer, format: UploadFormat, filename: string, sheet?: string, previewRows?: number, target?: ImportTarget) {
-  if (format === 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: 'An AGS4 file is imported whole; it has no columns to map.' })
+  if (format === 'ags4') throw unprocessableError('An AGS4 file is imported whole; it has no columns to map.')
   try {
     return await readTable(content, format, filename, sheet, previewRows, target)
   }

@@ -1,16 +1,12 @@
 import { and, eq, isNull } from 'drizzle-orm'
-import { z } from 'zod'
-import { UuidSchema } from '#shared/schemas/common'
-import { useDb } from '../../../db/client'
-import { apiTokens } from '../../../db/schema'
-import { recordAudit } from '../../../services/audit'
-
-const Params = z.object({ tokenId: UuidSchema })
+import { ApiTokenParamsSchema } from '#shared/schemas/auth'
+import { apiTokens } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
 
 /** Revokes one of the caller's tokens; it is refused (401) from the next request on. */
 export default defineEventHandler(async (event) => {
   const user = requireSessionUser(event, 'Revoking an API token')
-  const { tokenId } = validateParams(event, Params)
+  const { tokenId } = validateParams(event, ApiTokenParamsSchema)
   const revoked = await useDb().transaction(async (tx) => {
     const [row] = await tx.update(apiTokens)
       .set({ revokedAt: new Date() })

@@ -1,5 +1,5 @@
 import type { ApiTokenListReply } from '#shared/types/api-tokens'
-import { listApiTokens } from '../../../services/api-tokens'
+import { listApiTokens } from '~~/server/services/api-tokens'
 
 /** The caller's API tokens, newest first, with scope and expiry (never the secret or its hash). */
 export default defineEventHandler(async (event): Promise<ApiTokenListReply> => {

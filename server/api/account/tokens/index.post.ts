@@ -1,8 +1,7 @@
 import { CreateTokenSchema, tokenExpiry } from '#shared/schemas/auth'
 import type { ApiTokenCreatedReply } from '#shared/types/api-tokens'
-import { useDb } from '../../../db/client'
-import { createApiToken } from '../../../services/api-tokens'
-import { recordAudit } from '../../../services/audit'
+import { createApiToken } from '~~/server/services/api-tokens'
+import { recordAudit } from '~~/server/services/audit'
 
 /** Creates a personal API token (expiry and scope chosen here); the secret is in this response only. */
 export default defineEventHandler(async (event): Promise<ApiTokenCreatedReply> => {

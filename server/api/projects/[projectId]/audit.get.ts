@@ -1,7 +1,6 @@
 import { desc, eq } from 'drizzle-orm'
 import { PageQuerySchema } from '#shared/schemas/common'
-import { useDb } from '../../../db/client'
-import { auditEvents, users } from '../../../db/schema'
+import { auditEvents, users } from '~~/server/db/schema'
 
 /** The project's audit trail, newest first, paged. */
 export default defineEventHandler(async (event) => {

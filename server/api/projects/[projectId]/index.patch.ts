@@ -1,9 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { UpdateProjectSchema } from '#shared/schemas/projects'
-import { useDb } from '../../../db/client'
-import { projects } from '../../../db/schema'
-import { recordAudit } from '../../../services/audit'
-import { isUniqueViolation } from '../../../utils/db-errors'
+import { projects } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'project.manage')

@@ -1,7 +1,7 @@
 import { RESULT_CAUTION } from '#shared/caution'
 import { PreconsolidationPointsQuerySchema } from '#shared/schemas/lab'
-import { stressContext } from '../../../services/lab'
-import { allPreconsolidationPoints } from '../../../services/preconsolidation-points'
+import { stressContext } from '~~/server/services/lab'
+import { allPreconsolidationPoints } from '~~/server/services/preconsolidation-points'
 
 /**
  * Every σ'p point of the project from all sources, with σ'v0 from the stress model in force:

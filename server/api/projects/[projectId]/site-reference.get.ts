@@ -1,4 +1,4 @@
-import { projectSiteReference } from '../../../services/site-reference'
+import { projectSiteReference } from '~~/server/services/site-reference'
 
 /** Logged stratum changes per hole, bulk unit weights and groundwater observations: the stress workspace's reference marks. */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { investigationToAgs } from '#shared/ags4/investigation'
-import { exportName, loadInvestigationRecord } from '../../../services/exports/logs'
+import { exportName, loadInvestigationRecord } from '~~/server/services/exports/logs'
 
 /** The project's investigation as an AGS4 transfer file. */
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { exportName, logsWorkbook } from '../../../services/exports/logs'
+import { exportName, logsWorkbook } from '~~/server/services/exports/logs'
 
 /** The project's logs as an XLSX workbook (one sheet per table). */
 export default defineEventHandler(async (event) => {

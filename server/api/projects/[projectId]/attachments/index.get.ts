@@ -1,6 +1,6 @@
 import { AttachmentListQuerySchema } from '#shared/schemas/attachments'
-import { attachmentHttpError, listAttachments, requireStorage } from '../../../../services/attachments'
-import { assertStorageReachable } from '../../../../services/storage'
+import { attachmentHttpError, listAttachments, requireStorage } from '~~/server/services/attachments'
+import { assertStorageReachable } from '~~/server/services/storage'
 
 /** The project's attachments, newest first, paged; filter by `ownerType` and `ownerId`. */
 export default defineEventHandler(async (event) => {

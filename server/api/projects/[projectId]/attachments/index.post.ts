@@ -1,6 +1,6 @@
 import { AttachmentFieldsSchema } from '#shared/schemas/attachments'
-import { formatIssues } from '../../../../utils/validation'
-import { attachmentHttpError, attachmentView, readAttachmentUpload, requireAttachmentOwner, requireStorage, storeAttachment } from '../../../../services/attachments'
+import { formatIssues } from '~~/server/utils/validation'
+import { attachmentHttpError, attachmentView, readAttachmentUpload, requireAttachmentOwner, requireStorage, storeAttachment } from '~~/server/services/attachments'
 
 /**
  * Attach a file (multipart: `file`, `ownerType`, `ownerId`, `caption`) to the

@@ -1,7 +1,6 @@
 import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm'
 import { FlagListQuerySchema } from '#shared/schemas/review'
-import { useDb } from '../../../../db/client'
-import { investigationPoints, logIntervals, reviewFlags, reviewReplies, users } from '../../../../db/schema'
+import { investigationPoints, logIntervals, reviewFlags, reviewReplies, users } from '~~/server/db/schema'
 
 /**
  * The project's review list, newest first, filtered by status, target type,

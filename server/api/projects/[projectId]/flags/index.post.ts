@@ -1,8 +1,7 @@
 import { CreateFlagSchema } from '#shared/schemas/review'
-import { useDb } from '../../../../db/client'
-import { reviewFlags } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
-import { assertTargetInProject } from '../../../../services/review'
+import { reviewFlags } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { assertTargetInProject } from '~~/server/services/review'
 
 /** A reviewer flags a σ'p point, test or log interval as questionable, excluded from fits, or accepted. */
 export default defineEventHandler(async (event) => {

@@ -1,11 +1,11 @@
 import { lt } from 'drizzle-orm'
-import { preferFastCompression } from '../../../../db/binary'
-import { useDb } from '../../../../db/client'
-import { importFiles } from '../../../../db/schema'
-import { detectFormat, UploadError } from '../../../../services/imports/files'
-import { analyseAgsOrThrow, asRowErrors } from '../../../../services/imports/ags'
-import { previewTable } from '../../../../services/imports/preview'
-import { readImportUpload } from '../../../../services/imports/upload'
+import { preferFastCompression } from '~~/server/db/binary'
+import { importFiles } from '~~/server/db/schema'
+import { detectFormat, UploadError } from '~~/server/services/imports/files'
+import { analyseAgsOrThrow, asRowErrors } from '~~/server/services/imports/ags'
+import { previewTable } from '~~/server/services/imports/preview'
+import { readImportUpload } from '~~/server/services/imports/upload'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 const MAX_BYTES = 25 * 1024 * 1024
 
@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     format = detectFormat(file.data, filename)
   }
   catch (err) {
-    if (err instanceof UploadError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: err.message, data: { code: err.code } })
+    if (err instanceof UploadError) throw unprocessableError(err.message, { code: err.code })
     throw err
   }
   // Read (and refused if over a limit) before anything is stored.

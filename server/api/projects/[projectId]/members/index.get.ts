@@ -1,6 +1,5 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '../../../../db/client'
-import { projectMembers, users } from '../../../../db/schema'
+import { projectMembers, users } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')

@@ -1,8 +1,8 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { AddMemberSchema } from '#shared/schemas/projects'
-import { useDb } from '../../../../db/client'
-import { projectMembers, users } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
+import { projectMembers, users } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /** An owner adds an existing user, found by e-mail, with a role. */
 export default defineEventHandler(async (event) => {
@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const [target] = await db.select({ id: users.id, displayName: users.displayName, email: users.email }).from(users).where(sql`lower(${users.email}) = ${email}`).limit(1)
   if (!target) {
-    throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `No Pastload account uses ${email}. A site admin can create it first.`, data: { issues: [{ path: 'email', message: 'no account with this e-mail' }] } })
+    throw unprocessableError(`No Pastload account uses ${email}. A site admin can create it first.`, { issues: [{ path: 'email', message: 'no account with this e-mail' }] })
   }
   const [existing] = await db.select().from(projectMembers).where(and(eq(projectMembers.projectId, project.id), eq(projectMembers.userId, target.id)))
   if (existing) {

@@ -1,7 +1,6 @@
 import { asc, desc, eq } from 'drizzle-orm'
-import { useDb } from '../../../../db/client'
-import { anyOf } from '../../../../db/any'
-import { siteModels, siteModelVersions } from '../../../../db/schema'
+import { anyOf } from '~~/server/db/any'
+import { siteModels, siteModelVersions } from '~~/server/db/schema'
 
 /** The project's site models with their latest saved version. */
 export default defineEventHandler(async (event) => {

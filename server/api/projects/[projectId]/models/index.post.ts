@@ -1,10 +1,9 @@
 import { CreateModelSchema } from '#shared/schemas/models'
-import { useDb } from '../../../../db/client'
-import { siteModels } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
-import { requireModel, requireVersion } from '../../../../services/model-versions'
-import { definitionFromLogs } from '../../../../services/site-models'
-import { isUniqueViolation } from '../../../../utils/db-errors'
+import { siteModels } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
+import { definitionFromLogs } from '~~/server/services/site-models'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 /** A new site model: its draft starts from the project's logs, or from a saved version. */
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,6 @@
 import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm'
 import { PointListQuerySchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../db/client'
-import { cptSoundings, investigationPoints } from '../../../../db/schema'
+import { cptSoundings, investigationPoints } from '~~/server/db/schema'
 
 /** The project's investigation points, filtered by identifier search and kind, paged. */
 export default defineEventHandler(async (event) => {

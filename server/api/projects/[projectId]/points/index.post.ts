@@ -1,10 +1,10 @@
 import { PointInputSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../db/client'
-import { investigationPoints } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
-import { isUniqueViolation } from '../../../../utils/db-errors'
-import { holdPointLimit } from '../../../../services/imports/commit'
+import { investigationPoints } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
+import { holdPointLimit } from '~~/server/services/imports/commit'
 import { formatCount, ImportLimitError, PROJECT_POINT_LIMIT } from '#shared/imports/limits'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
     return { point }
   }
   catch (err) {
-    if (err instanceof ImportLimitError) throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `A project holds at most ${formatCount(PROJECT_POINT_LIMIT)} points and this one is full; ${body.identifier} was not added.`, data: { code: err.code } })
+    if (err instanceof ImportLimitError) throw unprocessableError(`A project holds at most ${formatCount(PROJECT_POINT_LIMIT)} points and this one is full; ${body.identifier} was not added.`, { code: err.code })
     if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${body.identifier} already exists in this project.` })
     throw err
   }

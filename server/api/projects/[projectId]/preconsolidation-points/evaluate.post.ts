@@ -1,7 +1,7 @@
 import { RESULT_CAUTION } from '#shared/caution'
 import { PreconsolidationPointsEvaluateSchema } from '#shared/schemas/lab'
-import { stressContextOf } from '../../../../services/lab'
-import { allPreconsolidationPoints } from '../../../../services/preconsolidation-points'
+import { stressContextOf } from '~~/server/services/lab'
+import { allPreconsolidationPoints } from '~~/server/services/preconsolidation-points'
 
 /**
  * The project's σ'p points (as GET …/preconsolidation-points) with σv, u and σ'v0 from the stress

@@ -1,14 +1,13 @@
 import { and, eq, sql } from 'drizzle-orm'
-import { StratumUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../db/client'
-import { strata } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
-import { versionedUpdate } from '../../../../services/versioned'
-import { isUniqueViolation } from '../../../../utils/db-errors'
+import { StratumParamsSchema, StratumUpdateSchema } from '#shared/schemas/investigation'
+import { strata } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { versionedUpdate } from '~~/server/services/http-errors'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { stratumId } = validateParams(event, StratumParams)
+  const { stratumId } = validateParams(event, StratumParamsSchema)
   const { version, ...patch } = await validateBody(event, StratumUpdateSchema)
   const scope = and(eq(strata.id, stratumId), eq(strata.projectId, project.id))
   try {

@@ -1,6 +1,5 @@
 import { asc, eq } from 'drizzle-orm'
-import { useDb } from '../../../../db/client'
-import { strata } from '../../../../db/schema'
+import { strata } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')

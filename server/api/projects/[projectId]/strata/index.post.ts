@@ -1,8 +1,7 @@
 import { StratumInputSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../db/client'
-import { strata } from '../../../../db/schema'
-import { recordAudit } from '../../../../services/audit'
-import { isUniqueViolation } from '../../../../utils/db-errors'
+import { strata } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')

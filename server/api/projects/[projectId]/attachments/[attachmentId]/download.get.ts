@@ -1,5 +1,5 @@
 import { AttachmentParamsSchema } from '#shared/schemas/attachments'
-import { requireStorage, requireAttachment, sendStoredObject } from '../../../../../services/attachments'
+import { requireStorage, requireAttachment, sendStoredObject } from '~~/server/services/attachments'
 
 /** The file itself, always as a download with the content type decided at upload. */
 export default defineEventHandler(async (event) => {

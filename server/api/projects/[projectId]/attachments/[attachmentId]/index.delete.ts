@@ -1,5 +1,5 @@
 import { AttachmentParamsSchema } from '#shared/schemas/attachments'
-import { attachmentHttpError, removeAttachment, requireStorage } from '../../../../../services/attachments'
+import { attachmentHttpError, removeAttachment, requireStorage } from '~~/server/services/attachments'
 
 /** Deletes an attachment and its stored objects (audited). */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { AttachmentParamsSchema } from '#shared/schemas/attachments'
-import { requireStorage, requireAttachment, sendStoredObject } from '../../../../../services/attachments'
+import { requireStorage, requireAttachment, sendStoredObject } from '~~/server/services/attachments'
 
 /** A photo's thumbnail (JPEG, at most 320 px); other files have none (404). */
 export default defineEventHandler(async (event) => {

@@ -1,8 +1,7 @@
 import { and, asc, eq } from 'drizzle-orm'
 import { FlagParamsSchema } from '#shared/schemas/review'
-import { useDb } from '../../../../../db/client'
-import { reviewFlags, reviewReplies, users } from '../../../../../db/schema'
-import { notFound } from '../../../../../services/versioned'
+import { reviewFlags, reviewReplies, users } from '~~/server/db/schema'
+import { notFound } from '~~/server/services/http-errors'
 
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')

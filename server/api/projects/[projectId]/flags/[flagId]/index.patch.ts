@@ -1,9 +1,8 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { FlagParamsSchema, UpdateFlagSchema } from '#shared/schemas/review'
-import { useDb } from '../../../../../db/client'
-import { reviewFlags } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { versionedUpdate } from '../../../../../services/versioned'
+import { reviewFlags } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { versionedUpdate } from '~~/server/services/http-errors'
 
 /** Change a flag's verdict or comment, or resolve / reopen it. */
 export default defineEventHandler(async (event) => {

@@ -1,9 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { FlagParamsSchema, ReplySchema } from '#shared/schemas/review'
-import { useDb } from '../../../../../db/client'
-import { reviewFlags, reviewReplies } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { notFound } from '../../../../../services/versioned'
+import { reviewFlags, reviewReplies } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { notFound } from '~~/server/services/http-errors'
 
 /** A reply in a flag's thread (reviewers and the people whose work is flagged). */
 export default defineEventHandler(async (event) => {

@@ -1,13 +1,13 @@
 import { eq } from 'drizzle-orm'
 import { AgsCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
-import { useDb } from '../../../../../db/client'
-import { importFiles, investigationPoints, strata } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
+import { importFiles, investigationPoints, strata } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
 import { checkPointLimit } from '#shared/imports/limits'
-import { analyseAgsOrThrow, asRowErrors } from '../../../../../services/imports/ags'
-import { holdPointLimit } from '../../../../../services/imports/commit'
-import { asUploadRefusal, loadImportFile } from '../../../../../services/imports/preview'
-import { writeInvestigation } from '../../../../../services/investigation-writer'
+import { analyseAgsOrThrow, asRowErrors } from '~~/server/services/imports/ags'
+import { holdPointLimit } from '~~/server/services/imports/commit'
+import { asUploadRefusal, loadImportFile } from '~~/server/services/imports/preview'
+import { writeInvestigation } from '~~/server/services/investigation-writer'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /**
  * Imports an uploaded AGS4 file whole, in one transaction: any rule error or a
@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   const { importId } = validateParams(event, ImportParamsSchema)
   const { dryRun } = await validateBody(event, AgsCommitSchema)
   const file = await loadImportFile(project.id, importId)
-  if (file.format !== 'ags4') throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: `${file.filename} is not an AGS4 file; map its columns instead.` })
+  if (file.format !== 'ags4') throw unprocessableError(`${file.filename} is not an AGS4 file; map its columns instead.`)
   const a = analyseAgsOrThrow(file.content, file.filename)
   const errors = asRowErrors(a.errors)
   const ids = a.data.points.map(p => p.identifier)
@@ -39,12 +39,10 @@ export default defineEventHandler(async (event) => {
     }
   }
   if (errors.length) {
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: line ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
-      data: { errors: errors.slice(0, 500), errorCount: errors.length, unknownGroups: a.unknownGroups },
-    })
+    throw unprocessableError(
+      `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: line ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
+      { errors: errors.slice(0, 500), errorCount: errors.length, unknownGroups: a.unknownGroups },
+    )
   }
   if (dryRun) return { dryRun: true, summary: a.summary, unknownGroups: a.unknownGroups, warnings: asRowErrors(a.warnings) }
   await db.transaction(async (tx) => {

@@ -4,13 +4,12 @@ import { checkCptCsv, type CptColumns } from '#shared/imports/cpt-csv'
 import { checkPointLimit, IMPORT_ROW_LIMITS, tooManyRows } from '#shared/imports/limits'
 import { checkMapping, type ParsedValue, type RowError, validateRows } from '#shared/imports/targets'
 import { ImportCommitSchema, ImportParamsSchema } from '#shared/schemas/imports'
-import { useDb } from '../../../../../db/client'
-import { importFiles, importMappings } from '../../../../../db/schema'
-import { holdPointLimit, importContext, pointInProject, vaneDepths, writeImport } from '../../../../../services/imports/commit'
-import type { UploadFormat } from '../../../../../services/imports/files'
-import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from '../../../../../services/imports/preview'
-import { notFound } from '../../../../../services/versioned'
-import { requireTest, staleTest } from '../../../../../services/lab'
+import { importFiles, importMappings } from '~~/server/db/schema'
+import { holdPointLimit, importContext, pointInProject, vaneDepths, writeImport } from '~~/server/services/imports/commit'
+import type { UploadFormat } from '~~/server/services/imports/files'
+import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from '~~/server/services/imports/preview'
+import { notFound, unprocessableError } from '~~/server/services/http-errors'
+import { requireTest, staleTest } from '~~/server/services/lab'
 
 const MAX_REPORTED = 500
 
@@ -31,7 +30,7 @@ export default defineEventHandler(async (event) => {
   const headers = plain ? plain.headers : table!.headers
   const mappingProblems = checkMapping(body.target, headers, body.mapping)
   if (mappingProblems.length) {
-    throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message: mappingProblems[0]!, data: { mappingProblems } })
+    throw unprocessableError(mappingProblems[0]!, { mappingProblems })
   }
   const ctx = await importContext(project.id)
   let cptPoint: Awaited<ReturnType<typeof pointInProject>>
@@ -66,12 +65,10 @@ export default defineEventHandler(async (event) => {
     rowCount = table!.rows.length
   }
   if (errors.length) {
-    throw createError({
-      statusCode: 422,
-      statusMessage: 'Unprocessable Entity',
-      message: `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: row ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
-      data: { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, rowCount },
-    })
+    throw unprocessableError(
+      `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: row ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
+      { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, rowCount },
+    )
   }
   const addingPoints = body.target === 'points' ? records.length : 0
   try {

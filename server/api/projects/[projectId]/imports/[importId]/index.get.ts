@@ -1,5 +1,5 @@
 import { ImportParamsSchema, ImportPreviewQuerySchema } from '#shared/schemas/imports'
-import { loadImportFile, previewTable } from '../../../../../services/imports/preview'
+import { loadImportFile, previewTable } from '~~/server/services/imports/preview'
 
 /** The preview again, for another sheet or target (the mapping follows the target). */
 export default defineEventHandler(async (event) => {

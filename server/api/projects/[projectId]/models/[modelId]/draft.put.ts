@@ -1,10 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { ModelParamsSchema, SaveDraftSchema } from '#shared/schemas/models'
-import { useDb } from '../../../../../db/client'
-import { siteModels } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { assertDefinitionComputable, requireModel } from '../../../../../services/model-versions'
-import { versionedUpdate } from '../../../../../services/versioned'
+import { siteModels } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { assertDefinitionComputable, requireModel } from '~~/server/services/model-versions'
+import { versionedUpdate } from '~~/server/services/http-errors'
 
 /** Saves the editable draft (not a version); a stale revision is 409 with the current draft. */
 export default defineEventHandler(async (event) => {

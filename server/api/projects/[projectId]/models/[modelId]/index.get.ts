@@ -1,5 +1,5 @@
 import { ModelParamsSchema } from '#shared/schemas/models'
-import { listVersions, requireModel } from '../../../../../services/model-versions'
+import { listVersions, requireModel } from '~~/server/services/model-versions'
 
 /** The model with its draft and the list of saved versions. */
 export default defineEventHandler(async (event) => {

@@ -1,13 +1,13 @@
 import { eq } from 'drizzle-orm'
-import { useDb } from '../../../../../db/client'
-import { cptSoundings } from '../../../../../db/schema'
-import { requirePoint } from '../../../../../services/points'
-import { notFound } from '../../../../../services/versioned'
+import { cptSoundings } from '~~/server/db/schema'
+import { requirePoint } from '~~/server/services/points'
+import { notFound } from '~~/server/services/http-errors'
+import { PointParamsSchema } from '#shared/schemas/investigation'
 
 /** The whole CPT sounding as parallel arrays (kPa, m). */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const point = await requirePoint(project.id, pointId)
   const [row] = await useDb().select().from(cptSoundings).where(eq(cptSoundings.pointId, point.id))
   if (!row) notFound('CPT sounding')

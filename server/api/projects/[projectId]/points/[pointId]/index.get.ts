@@ -1,9 +1,10 @@
-import { pointDetail, requirePoint } from '../../../../../services/points'
+import { pointDetail, requirePoint } from '~~/server/services/points'
+import { PointParamsSchema } from '#shared/schemas/investigation'
 
 /** A point with its log, samples and index tests, SPT, groundwater and vane readings. */
 export default defineEventHandler(async (event) => {
   const { project, role } = await requireProjectRole(event, 'project.read')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const point = await requirePoint(project.id, pointId)
   return { ...(await pointDetail(point)), role }
 })

@@ -1,15 +1,14 @@
 import { and, eq, sql } from 'drizzle-orm'
-import { PointUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../../db/client'
-import { investigationPoints } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { assertFinalDepthHolds, requirePoint } from '../../../../../services/points'
-import { versionedUpdate } from '../../../../../services/versioned'
-import { isUniqueViolation } from '../../../../../utils/db-errors'
+import { PointParamsSchema, PointUpdateSchema } from '#shared/schemas/investigation'
+import { investigationPoints } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { assertFinalDepthHolds, requirePoint } from '~~/server/services/points'
+import { versionedUpdate } from '~~/server/services/http-errors'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const { version, ...patch } = await validateBody(event, PointUpdateSchema)
   try {
     const point = await useDb().transaction(async (tx) => {

@@ -1,12 +1,11 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
 import { checkIntervals } from '#shared/investigation/intervals'
-import { LogReplaceSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../../db/client'
-import { anyOf } from '../../../../../db/any'
-import { logIntervals, strata } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { assertLogValid, requirePoint } from '../../../../../services/points'
-import { unprocessable } from '../../../../../services/versioned'
+import { LogReplaceSchema, PointParamsSchema } from '#shared/schemas/investigation'
+import { anyOf } from '~~/server/db/any'
+import { logIntervals, strata } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { assertLogValid, requirePoint } from '~~/server/services/points'
+import { unprocessableError } from '~~/server/services/http-errors'
 
 /**
  * Saves a hole's whole log at once, as the log table edits it: rows with an id
@@ -15,7 +14,7 @@ import { unprocessable } from '../../../../../services/versioned'
  */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const { intervals } = await validateBody(event, LogReplaceSchema)
 
   return useDb().transaction(async (tx) => {
@@ -37,7 +36,7 @@ export default defineEventHandler(async (event) => {
     const stratumIds = [...new Set(intervals.map(iv => iv.stratumId).filter((s): s is string => !!s))]
     if (stratumIds.length) {
       const found = await tx.select({ id: strata.id }).from(strata).where(and(eq(strata.projectId, project.id), anyOf(strata.id, stratumIds)))
-      if (found.length !== stratumIds.length) unprocessable('A row names a stratum that is not in this project.')
+      if (found.length !== stratumIds.length) throw unprocessableError('A row names a stratum that is not in this project.')
     }
 
     const keep = new Set(intervals.flatMap(iv => (iv.id ? [iv.id] : [])))

@@ -1,9 +1,8 @@
 import { and, asc, count, eq, isNull, type SQL } from 'drizzle-orm'
 import { isGeotechError } from '#shared/geotech/errors'
 import { OedometerListQuerySchema } from '#shared/schemas/lab'
-import { useDb } from '../../../../../db/client'
-import { investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users } from '../../../../../db/schema'
-import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson, timeAnalysis, timeSummary } from '../../../../../services/lab'
+import { investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users } from '~~/server/db/schema'
+import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson, timeAnalysis, timeSummary } from '~~/server/services/lab'
 
 /**
  * The project's oedometer tests with their sample, point and logged stratum, the σ'p in force (if adopted) and a

@@ -1,8 +1,7 @@
 import { OedometerTestInputSchema } from '#shared/schemas/lab'
-import { useDb } from '../../../../../db/client'
-import { oedometerTests } from '../../../../../db/schema'
-import { recordAudit } from '../../../../../services/audit'
-import { prepareSpecimen, requireProjectSample, testJson } from '../../../../../services/lab'
+import { oedometerTests } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { prepareSpecimen, requireProjectSample, testJson } from '~~/server/services/lab'
 
 /** A new oedometer test on a sample of the project; stages converted to void ratios from the chosen convention. */
 export default defineEventHandler(async (event) => {

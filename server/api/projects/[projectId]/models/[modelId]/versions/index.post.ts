@@ -1,10 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { ModelParamsSchema, SaveVersionSchema } from '#shared/schemas/models'
-import { useDb } from '../../../../../../db/client'
-import { siteModels, siteModelVersions } from '../../../../../../db/schema'
-import { recordAudit } from '../../../../../../services/audit'
-import { assertDefinitionComputable, nextVersionNumber, requireModel } from '../../../../../../services/model-versions'
-import { flagsInForce } from '../../../../../../services/review'
+import { siteModels, siteModelVersions } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { assertDefinitionComputable, nextVersionNumber, requireModel } from '~~/server/services/model-versions'
+import { flagsInForce } from '~~/server/services/review'
 
 /**
  * Saves the current draft as the next immutable version, with the reviewer

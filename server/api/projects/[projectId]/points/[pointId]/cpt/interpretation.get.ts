@@ -2,10 +2,11 @@ import { RESULT_CAUTION } from '#shared/caution'
 import { DEFAULT_CONE_FACTOR } from '#shared/geotech/insitu'
 import { CptInterpretationQuerySchema } from '#shared/schemas/lab'
 import { stratumBounds } from '#shared/site-model/definition'
-import { loggedIntervals, stressContext } from '../../../../../../services/lab'
-import { requirePoint } from '../../../../../../services/points'
-import { cptResampled, cptSoundingRows, cptThroughModel } from '../../../../../../services/preconsolidation-points'
-import { notFound } from '../../../../../../services/versioned'
+import { loggedIntervals, stressContext } from '~~/server/services/lab'
+import { requirePoint } from '~~/server/services/points'
+import { cptResampled, cptSoundingRows, cptThroughModel } from '~~/server/services/preconsolidation-points'
+import { notFound } from '~~/server/services/http-errors'
+import { PointParamsSchema } from '#shared/schemas/investigation'
 
 /** Finite values rounded for the wire; NaN (a flagged row) becomes null. */
 function wire(values: Float64Array, digits: number): (number | null)[] {
@@ -19,7 +20,7 @@ function wire(values: Float64Array, digits: number): (number | null)[] {
  */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const { spacing } = validateQuery(event, CptInterpretationQuerySchema)
   const point = await requirePoint(project.id, pointId)
   const [sounding] = await cptSoundingRows(project.id, point.id)

@@ -1,19 +1,18 @@
-import { SampleInputSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../../../db/client'
-import { samples } from '../../../../../../db/schema'
-import { recordAudit } from '../../../../../../services/audit'
-import { requirePoint } from '../../../../../../services/points'
-import { unprocessable } from '../../../../../../services/versioned'
-import { isUniqueViolation } from '../../../../../../utils/db-errors'
+import { PointParamsSchema, SampleInputSchema } from '#shared/schemas/investigation'
+import { samples } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { requirePoint } from '~~/server/services/points'
+import { unprocessableError } from '~~/server/services/http-errors'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { pointId } = validateParams(event, PointParams)
+  const { pointId } = validateParams(event, PointParamsSchema)
   const body = await validateBody(event, SampleInputSchema)
   try {
     const sample = await useDb().transaction(async (tx) => {
       const point = await requirePoint(project.id, pointId, tx)
-      if (body.bottom > point.finalDepth) unprocessable(`The sample's bottom (${body.bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
+      if (body.bottom > point.finalDepth) throw unprocessableError(`The sample's bottom (${body.bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
       const [row] = await tx.insert(samples).values({ ...body, pointId: point.id }).returning()
       await recordAudit({ actorId: user.id, projectId: project.id, action: 'create', entity: 'sample', entityId: row!.id, after: row }, tx)
       return row!

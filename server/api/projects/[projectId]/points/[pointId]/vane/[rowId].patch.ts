@@ -1,11 +1,11 @@
-import { VaneUpdateSchema } from '#shared/schemas/investigation'
-import { updatePointRow } from '../../../../../../services/point-rows'
+import { PointRowParamsSchema, VaneUpdateSchema } from '#shared/schemas/investigation'
+import { updatePointRow } from '~~/server/services/point-rows'
 
 const Body = VaneUpdateSchema
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'tests.write')
-  const { pointId, rowId } = validateParams(event, PointRowParams)
+  const { pointId, rowId } = validateParams(event, PointRowParamsSchema)
   const { version, ...values } = await validateBody(event, Body)
   const row = await updatePointRow('vane', { actorId: user.id, projectId: project.id, pointId }, rowId, version, values)
   return { row }

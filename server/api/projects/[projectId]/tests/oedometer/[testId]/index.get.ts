@@ -1,10 +1,10 @@
-import { OedometerTestParams } from '#shared/schemas/lab'
-import { adoptionHistory, requireTest, testJson } from '../../../../../../services/lab'
+import { OedometerTestParamsSchema } from '#shared/schemas/lab'
+import { adoptionHistory, requireTest, testJson } from '~~/server/services/lab'
 
 /** One test with its stages as entered and converted, and the σ'p adopted for it (if any). */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
-  const { testId } = validateParams(event, OedometerTestParams)
+  const { testId } = validateParams(event, OedometerTestParamsSchema)
   const ctx = await requireTest(project.id, testId)
   const history = await adoptionHistory(testId)
   return { test: testJson(ctx), adoption: history.find(a => a.supersededAt === null) ?? null }

@@ -1,10 +1,9 @@
 import { and, eq, isNull, sql } from 'drizzle-orm'
-import { OedometerTestParams, OedometerTestUpdateSchema } from '#shared/schemas/lab'
-import { useDb } from '../../../../../../db/client'
-import { oedometerTests, preconsolidationAdoptions } from '../../../../../../db/schema'
-import { recordAudit } from '../../../../../../services/audit'
-import { prepareSpecimen, requireTest, testJson } from '../../../../../../services/lab'
-import { versionedUpdate } from '../../../../../../services/versioned'
+import { OedometerTestParamsSchema, OedometerTestUpdateSchema } from '#shared/schemas/lab'
+import { oedometerTests, preconsolidationAdoptions } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { prepareSpecimen, requireTest, testJson } from '~~/server/services/lab'
+import { versionedUpdate } from '~~/server/services/http-errors'
 
 /**
  * Edits a test (version → 409 with the current test). When the curve changes (stages, convention,
@@ -13,7 +12,7 @@ import { versionedUpdate } from '../../../../../../services/versioned'
  */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'tests.write')
-  const { testId } = validateParams(event, OedometerTestParams)
+  const { testId } = validateParams(event, OedometerTestParamsSchema)
   const { version, ...patch } = await validateBody(event, OedometerTestUpdateSchema)
   const result = await useDb().transaction(async (tx) => {
     const ctx = await requireTest(project.id, testId, tx, { lock: true })

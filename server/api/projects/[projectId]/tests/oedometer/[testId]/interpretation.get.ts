@@ -1,6 +1,6 @@
 import { RESULT_CAUTION } from '#shared/caution'
-import { OedometerTestParams } from '#shared/schemas/lab'
-import { adoptionHistory, ccCheck, insituAt, interpretTest, requireTest, sampleDepth, stressContext, testJson, timeAnalysis, timeSummary } from '../../../../../../services/lab'
+import { OedometerTestParamsSchema } from '#shared/schemas/lab'
+import { adoptionHistory, ccCheck, insituAt, interpretTest, requireTest, sampleDepth, stressContext, testJson, timeAnalysis, timeSummary } from '~~/server/services/lab'
 
 /**
  * The four σ'p constructions side by side with Cc, Cr, sample quality at σ'v0 (from the stress
@@ -10,7 +10,7 @@ import { adoptionHistory, ccCheck, insituAt, interpretTest, requireTest, sampleD
  */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
-  const { testId } = validateParams(event, OedometerTestParams)
+  const { testId } = validateParams(event, OedometerTestParamsSchema)
   const ctx = await requireTest(project.id, testId)
   const stress = await stressContext(project.id)
   const insitu = insituAt(stress, sampleDepth(ctx.sample))

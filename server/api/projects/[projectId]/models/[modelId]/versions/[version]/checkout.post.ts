@@ -1,9 +1,8 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { VersionParamsSchema } from '#shared/schemas/models'
-import { useDb } from '../../../../../../../db/client'
-import { siteModels } from '../../../../../../../db/schema'
-import { recordAudit } from '../../../../../../../services/audit'
-import { requireModel, requireVersion } from '../../../../../../../services/model-versions'
+import { siteModels } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
 
 /** Starts a new draft from a saved version (the old draft is kept in the audit log). */
 export default defineEventHandler(async (event) => {

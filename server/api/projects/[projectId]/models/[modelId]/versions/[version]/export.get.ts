@@ -1,7 +1,7 @@
 import { ExportQuerySchema, VersionParamsSchema } from '#shared/schemas/models'
-import { exportDocument, exportWorkbook } from '../../../../../../../services/model-export'
-import { requireModel, requireVersion } from '../../../../../../../services/model-versions'
-import { exportName } from '../../../../../../../services/exports/logs'
+import { exportDocument, exportWorkbook } from '~~/server/services/model-export'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
+import { exportName } from '~~/server/services/exports/logs'
 
 /** A saved version for other tools: JSON (the settlement API's input) or the XLSX sublayer table. */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { VersionParamsSchema } from '#shared/schemas/models'
-import { requireModel, requireVersion } from '../../../../../../../services/model-versions'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
 
 /** One saved version, read-only. */
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
 import { VersionParamsSchema } from '#shared/schemas/models'
-import { requireModel, requireVersion } from '../../../../../../../services/model-versions'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
 
 /** Saved versions are immutable: start a new draft from one instead. */
 export default defineEventHandler(async (event) => {

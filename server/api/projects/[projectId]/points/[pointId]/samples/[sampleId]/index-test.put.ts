@@ -1,17 +1,16 @@
 import { and, eq, sql } from 'drizzle-orm'
-import { IndexTestSaveSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../../../../db/client'
-import { indexTests, samples } from '../../../../../../../db/schema'
-import { recordAudit } from '../../../../../../../services/audit'
-import { requirePoint } from '../../../../../../../services/points'
-import { notFound, versionedUpdate } from '../../../../../../../services/versioned'
+import { IndexTestSaveSchema, SampleParamsSchema } from '#shared/schemas/investigation'
+import { indexTests, samples } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { requirePoint } from '~~/server/services/points'
+import { notFound, versionedUpdate } from '~~/server/services/http-errors'
 
 const Body = IndexTestSaveSchema
 
 /** Creates or replaces a sample's index tests (send the version read when replacing). */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'tests.write')
-  const { pointId, sampleId } = validateParams(event, SampleParams)
+  const { pointId, sampleId } = validateParams(event, SampleParamsSchema)
   const { version, ...values } = await validateBody(event, Body)
   const indexTest = await useDb().transaction(async (tx) => {
     const point = await requirePoint(project.id, pointId, tx)

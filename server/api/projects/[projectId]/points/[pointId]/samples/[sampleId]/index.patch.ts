@@ -1,15 +1,14 @@
 import { and, eq, sql } from 'drizzle-orm'
-import { SampleUpdateSchema } from '#shared/schemas/investigation'
-import { useDb } from '../../../../../../../db/client'
-import { samples } from '../../../../../../../db/schema'
-import { recordAudit } from '../../../../../../../services/audit'
-import { requirePoint } from '../../../../../../../services/points'
-import { notFound, unprocessable, versionedUpdate } from '../../../../../../../services/versioned'
-import { isUniqueViolation } from '../../../../../../../utils/db-errors'
+import { SampleParamsSchema, SampleUpdateSchema } from '#shared/schemas/investigation'
+import { samples } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { requirePoint } from '~~/server/services/points'
+import { notFound, unprocessableError, versionedUpdate } from '~~/server/services/http-errors'
+import { isUniqueViolation } from '~~/server/utils/db-errors'
 
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { pointId, sampleId } = validateParams(event, SampleParams)
+  const { pointId, sampleId } = validateParams(event, SampleParamsSchema)
   const { version, ...patch } = await validateBody(event, SampleUpdateSchema)
   try {
     const sample = await useDb().transaction(async (tx) => {
@@ -19,8 +18,8 @@ export default defineEventHandler(async (event) => {
     if (!before) notFound('Sample')
     const top = patch.top ?? before.top
     const bottom = patch.bottom ?? before.bottom
-    if (bottom < top) unprocessable('The sample\'s bottom must not be above its top.')
-    if (bottom > point.finalDepth) unprocessable(`The sample's bottom (${bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
+    if (bottom < top) throw unprocessableError('The sample\'s bottom must not be above its top.')
+    if (bottom > point.finalDepth) throw unprocessableError(`The sample's bottom (${bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
     const row = await versionedUpdate({
       entity: 'Sample',
       update: () => tx.update(samples).set({ ...patch, version: sql`${samples.version} + 1` }).where(and(scope, eq(samples.version, version))).returning(),

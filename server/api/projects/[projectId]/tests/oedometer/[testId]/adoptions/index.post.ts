@@ -1,12 +1,11 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { isGeotechError } from '#shared/geotech/errors'
 import type { OedometerInterpretation } from '#shared/geotech/oedometer'
-import { ADOPTION_METHOD_LABELS, AdoptionInputSchema, OedometerTestParams } from '#shared/schemas/lab'
-import { useDb } from '../../../../../../../db/client'
-import { preconsolidationAdoptions } from '../../../../../../../db/schema'
-import { recordAudit } from '../../../../../../../services/audit'
-import { refuse422 } from '../../../../../../../utils/engine'
-import { adoptionHistory, insituAt, interpretTest, isEngineMethod, requireTest, sampleDepth, stressContext } from '../../../../../../../services/lab'
+import { ADOPTION_METHOD_LABELS, AdoptionInputSchema, OedometerTestParamsSchema } from '#shared/schemas/lab'
+import { preconsolidationAdoptions } from '~~/server/db/schema'
+import { recordAudit } from '~~/server/services/audit'
+import { unprocessableError } from '~~/server/services/http-errors'
+import { adoptionHistory, insituAt, interpretTest, isEngineMethod, requireTest, sampleDepth, stressContext } from '~~/server/services/lab'
 
 /** A named construction's value may differ from the engine's by rounding only. */
 const MATCH_TOLERANCE = 0.01
@@ -18,7 +17,7 @@ const MATCH_TOLERANCE = 0.01
  */
 export default defineEventHandler(async (event) => {
   const { user, project } = await requireProjectRole(event, 'interpretation.write')
-  const { testId } = validateParams(event, OedometerTestParams)
+  const { testId } = validateParams(event, OedometerTestParamsSchema)
   const body = await validateBody(event, AdoptionInputSchema)
   const stress = await stressContext(project.id)
   const { adoption, superseded } = await useDb().transaction(async (tx) => {
@@ -35,9 +34,9 @@ export default defineEventHandler(async (event) => {
     if (out && isEngineMethod(body.method)) {
       const r = out.results.find(m => m.method === body.method)
       const label = ADOPTION_METHOD_LABELS[body.method]
-      if (!r) refuse422(`The ${label} construction gives no σ'p on this curve; adopt another method's value, or type one.`, 'method-without-result')
+      if (!r) throw unprocessableError(`The ${label} construction gives no σ'p on this curve; adopt another method's value, or type one.`, { code: 'method-without-result' })
       if (Math.abs(body.value / r.preconsolidation - 1) > MATCH_TOLERANCE) {
-        refuse422(`The ${label} σ'p of this curve is ${r.preconsolidation.toFixed(1)} kPa, not ${body.value} kPa. Adopt it as it is, or type your own value.`, 'value-does-not-match-method')
+        throw unprocessableError(`The ${label} σ'p of this curve is ${r.preconsolidation.toFixed(1)} kPa, not ${body.value} kPa. Adopt it as it is, or type your own value.`, { code: 'value-does-not-match-method' })
       }
     }
     const now = new Date()

@@ -25,6 +25,11 @@ export function notFound(what: string): never {
   throw createError({ statusCode: 404, statusMessage: 'Not Found', message: `${what} not found.` })
 }
 
-export function unprocessable(message: string, data?: Record<string, unknown>): never {
-  throw createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data })
+/**
+ * The one way to build a 422: input that is well-formed but cannot be accepted (a depth below the hole,
+ * a model the engine cannot use). `message` says what and where; `data` carries a `code` or `issues`
+ * the client can act on. Callers `throw` it (or return it from an error mapper).
+ */
+export function unprocessableError(message: string, data?: Record<string, unknown>) {
+  return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data })
 }
