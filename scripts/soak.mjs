@@ -11,7 +11,9 @@ import { spawn } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { createWriteStream, mkdirSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
-import { cpus } from 'node:os'
+import { cpus, loadavg } from 'node:os'
+// The machine's load before the soak adds its own: said beside the figures.
+const LOAD_BEFORE = loadavg()[0]
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { parseArgs } from 'node:util'
@@ -431,10 +433,10 @@ last acknowledged one.
 
 ## Last run
 
-Measured ${new Date().toISOString().slice(0, 10)} on a ${cpus().length}-core machine shared with other developers' builds and tests, with the
-load generator on the same cores as the app and PostgreSQL: absolute figures are lower than on a quiet
-machine (an earlier run on a quiet machine: 477 req/s, p50 101 ms, p99 303 ms, 0 errors, 0 of 19 286 writes
-lost). Compare runs on the same machine only.
+Measured ${new Date().toISOString().slice(0, 10)} on a ${cpus().length}-core machine (1-minute load average ${LOAD_BEFORE.toFixed(1)} before the
+soak started), with the load generator on the same cores as the app and PostgreSQL. An earlier run for
+reference: 477 req/s, p50 101 ms, p99 303 ms, 0 errors, 0 of 19 286 writes lost. Compare runs on the same
+machine only.
 
 | figure | value |
 |---|---|
