@@ -1,13 +1,25 @@
 import { fileURLToPath } from 'node:url'
+import seedrandom from 'seedrandom'
 import { defineConfig } from 'vitest/config'
+import { BaseSequencer, type TestSpecification } from 'vitest/node'
 
 const root = fileURLToPath(new URL('./', import.meta.url))
 
-// PASTLOAD_TEST_SHUFFLE=<seed> shuffles the api and e2e files and tests with that seed while keeping the
-// layers' order (vitest's own --sequence.* flags replace each project's groupOrder): a check that no test
-// depends on another's leftovers or on the order of its `it`s.
+// PASTLOAD_TEST_SHUFFLE=<seed> shuffles the files of each layer and the tests of the api and e2e files with
+// that seed while keeping the layers' order (vitest's own random file order and its --sequence.* flags ignore
+// or replace each project's groupOrder): a check that no test depends on another's leftovers or on the order
+// of its `it`s.
 const shuffleSeed = process.env.PASTLOAD_TEST_SHUFFLE ? Number(process.env.PASTLOAD_TEST_SHUFFLE) : undefined
-const shuffle = shuffleSeed !== undefined && Number.isFinite(shuffleSeed) ? { files: true, tests: true } : false
+const shuffle = shuffleSeed !== undefined && Number.isFinite(shuffleSeed)
+
+class LayeredShuffle extends BaseSequencer {
+  override async sort(files: TestSpecification[]): Promise<TestSpecification[]> {
+    const random = seedrandom(String(shuffleSeed))
+    const keyed = [...files].sort((a, b) => a.moduleId.localeCompare(b.moduleId)).map(spec => ({ spec, key: random() }))
+    keyed.sort((a, b) => (a.spec.project.config.sequence.groupOrder - b.spec.project.config.sequence.groupOrder) || (a.key - b.key))
+    return keyed.map(k => k.spec)
+  }
+}
 
 // Three layers (see DEVELOPERS.md): unit (pure engine and utilities, node),
 // api (real HTTP against the built server and a real PostgreSQL),
@@ -22,7 +34,7 @@ export default defineConfig({
     },
   },
   test: {
-    sequence: shuffle ? { seed: shuffleSeed } : {},
+    sequence: shuffle ? { seed: shuffleSeed, sequencer: LayeredShuffle } : {},
     projects: [
       {
         extends: true,

@@ -1,5 +1,5 @@
 import { ref, type Ref } from 'vue'
-import { apiErrorMessage } from '~/utils/apiErrors'
+import { apiErrorMessage } from '../utils/apiErrors'
 
 export interface WriteOptions<T> {
   /** The notice shown when the write succeeds. */
