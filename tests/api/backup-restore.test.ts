@@ -73,6 +73,7 @@ describe('backup and restore', { timeout: 120_000 }, () => {
   let photo: Buffer
   let pdfId: string
   let photoId: string
+  let photoKey: string
   let countsAtBackup: Record<string, number>
   let backupRun: Run
 
@@ -104,6 +105,9 @@ describe('backup and restore', { timeout: 120_000 }, () => {
     expect([a.status, b.status]).toEqual([201, 201])
     pdfId = a.body.attachment.id
     photoId = b.body.attachment.id
+    // Other files may have stored the same picture: the photo is found in the backup by its own key.
+    const [stored] = await query<{ object_key: string }>(sourceUrl, 'select object_key from attachments where id = $1', [photoId])
+    photoKey = stored!.object_key
     countsAtBackup = await tableCounts(sourceUrl)
     backupRun = await script('backup.mjs', ['--out', folder], {})
     expect(backupRun.code, backupRun.out).toBe(0)
@@ -122,8 +126,9 @@ describe('backup and restore', { timeout: 120_000 }, () => {
     const manifest = JSON.parse(readFileSync(join(folder, 'manifest.json'), 'utf8')) as { objects: { key: string, sha256: string }[], objectStore: { missing: string[] } }
     // The project is gone from the test database; its files are still in the bucket (the sweep removes them after an hour).
     expect((await owner.get(`/api/projects/${projectId}`)).status).toBe(404)
-    const photoEntry = manifest.objects.filter(o => o.sha256 === sha256(photo))
+    const photoEntry = manifest.objects.filter(o => o.key === photoKey)
     expect(photoEntry).toHaveLength(1)
+    expect(photoEntry[0]!.sha256).toBe(sha256(photo))
     expect(manifest.objects.filter(o => o.sha256 === sha256(TINY_PDF)).length).toBeGreaterThanOrEqual(1)
     expect(manifest.objectStore.missing).toEqual([])
     expect(readFileSync(join(folder, 'objects', photoEntry[0]!.key)).equals(photo)).toBe(true)
