@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
 import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { testBody } from '../helpers/lab'
+import { createPoint, createProject } from '../helpers/project'
 import { startServer, type RunningServer } from '../helpers/server'
 
 interface View {
@@ -61,19 +62,12 @@ describe('attachments', () => {
   let otherPointId: string
   let otherSampleId: string
   let photo: Buffer
-  let seq = 0
 
   /** A project of one test's own: the geologist and the viewer as members, one borehole BH-A1. */
   async function site(): Promise<{ projectId: string, base: string, pointId: string }> {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATT-${Date.now().toString(36)}${seq}`, name: 'Attachment test site' })
-    expect(p.status).toBe(201)
-    const projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
-    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A1', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
-    expect(pt.status).toBe(201)
-    return { projectId, base: `/api/projects/${projectId}/attachments`, pointId: pt.body.point.id }
+    const { id: projectId } = await createProject(owner, 'ATT', 'Attachment test site', ['geologist', { email: viewerEmail, role: 'viewer' }])
+    const pointId = await createPoint(geo, projectId, { identifier: 'BH-A1', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
+    return { projectId, base: `/api/projects/${projectId}/attachments`, pointId }
   }
 
   /** The oedometer report on the project, stored by the geologist (one object). */

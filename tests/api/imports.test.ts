@@ -4,6 +4,7 @@ import * as XLSX from 'xlsx-republish'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
 import { type Client, demoEmail, signIn } from '../helpers/http'
+import { createPoint, createProject } from '../helpers/project'
 import { upload } from '../helpers/upload'
 
 interface Preview { importId: string, format: string, preview: { headers: string[], rowCount: number, mapping: Record<string, string> | null } | null }
@@ -15,7 +16,6 @@ describe('imports', () => {
   let base: string
 
   let owner: Client
-  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
@@ -24,12 +24,9 @@ describe('imports', () => {
 
   // Every test imports into a project of its own: the geologist as a member, the estuarine clay stratum, no points.
   beforeEach(async () => {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `IMP-${Date.now().toString(36)}${seq}`, name: 'Import test site' })
-    expect(p.status).toBe(201)
-    projectId = p.body.project.id
-    base = `/api/projects/${projectId}`
-    expect((await owner.post(`${base}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    const project = await createProject(owner, 'IMP', 'Import test site', ['geologist'])
+    projectId = project.id
+    base = project.base
     expect((await geo.post(`${base}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'c', pattern: 'p', unitWeight: 16, unitWeightSaturated: 16 })).status).toBe(201)
   })
 
@@ -37,9 +34,7 @@ describe('imports', () => {
   async function seedPoints(): Promise<{ cptId: string }> {
     const made: Record<string, string> = {}
     for (const [identifier, kind, easting, finalDepth] of [['BH-01', 'borehole', 10, 25], ['BH-02', 'borehole', 60, 22], ['CPT-01', 'cpt', 35, 22]] as const) {
-      const r = await geo.post<{ point: { id: string } }>(`${base}/points`, { identifier, kind, easting, northing: 30, groundElevation: 2.5, finalDepth })
-      expect(r.status).toBe(201)
-      made[identifier] = r.body.point.id
+      made[identifier] = await createPoint(geo, projectId, { identifier, kind, easting, northing: 30, groundElevation: 2.5, finalDepth })
     }
     return { cptId: made['CPT-01']! }
   }
