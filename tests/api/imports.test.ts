@@ -5,7 +5,7 @@ import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
 import { type Client, demoEmail, signIn } from '../helpers/http'
 import { createPoint, createProject } from '../helpers/project'
-import { upload } from '../helpers/upload'
+import { upload, uploadChunked } from '../helpers/upload'
 
 interface Preview { importId: string, format: string, preview: { headers: string[], rowCount: number, mapping: Record<string, string> | null } | null }
 interface Report { message: string, data: { errors: { row: number, column: string, message: string }[] } }
@@ -200,23 +200,7 @@ describe('imports', () => {
     const big = await upload(geo, `${base}/imports`, 'big.csv', new Uint8Array(26 * 1024 * 1024).fill(65))
     expect(big.status).toBe(413)
     // Streamed (chunked), so the body-size middleware cannot see its length: the upload stops reading at 25 MB.
-    const boundary = 'pastload-import-boundary'
-    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.csv"\r\nContent-Type: text/csv\r\n\r\na,b\n`)
-    const chunk = Buffer.alloc(1024 * 1024, 0x31)
-    let sent = 0
-    const body = new ReadableStream<Uint8Array>({
-      pull(controller) {
-        if (sent === 0) controller.enqueue(head)
-        if (sent >= 27) {
-          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
-          controller.close()
-          return
-        }
-        sent += 1
-        controller.enqueue(chunk)
-      },
-    })
-    const streamed = await fetch(`${geo.base}${base}/imports`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
+    const streamed = await uploadChunked(geo, `${base}/imports`, 'big.csv', 'text/csv', 'a,b\n', 27)
     expect(streamed.status).toBe(413)
     expect(((await streamed.json()) as { message: string }).message).toBe('The file is larger than 25 MB, the limit for an import.')
     const noFile = await geo.post<{ message: string }>(`${base}/imports`, { file: 'x' })
