@@ -17,20 +17,6 @@ export const MANIFEST = 'manifest.json'
 export const DUMP = 'database.dump'
 export const OBJECTS = 'objects'
 
-/** The S3 settings from PASTLOAD_S3_* (same meaning as on the server), or null without a bucket. */
-export function s3SettingsFromEnv(env = process.env) {
-  const bucket = env.PASTLOAD_S3_BUCKET?.trim()
-  if (!bucket) return null
-  const id = env.PASTLOAD_S3_ACCESS_KEY_ID?.trim()
-  const secret = env.PASTLOAD_S3_SECRET_ACCESS_KEY?.trim()
-  return {
-    endpoint: env.PASTLOAD_S3_ENDPOINT?.trim() || undefined,
-    region: env.PASTLOAD_S3_REGION?.trim() || 'us-east-1',
-    bucket,
-    credentials: id && secret ? { accessKeyId: id, secretAccessKey: secret } : undefined,
-    forcePathStyle: ['1', 'true', 'yes'].includes((env.PASTLOAD_S3_FORCE_PATH_STYLE ?? '').trim().toLowerCase()),
-  }
-}
 
 async function s3Client(settings) {
   const { S3Client } = await import('@aws-sdk/client-s3')

@@ -1,5 +1,6 @@
 import type { Readable } from 'node:stream'
 import { DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3'
+import { type StorageConfig, storageConfigFromEnv } from '#shared/storage/config.js'
 import { logServerError } from '../utils/error-log'
 
 /**
@@ -12,36 +13,12 @@ import { logServerError } from '../utils/error-log'
 // The lockfile pins an SDK release that supports Node 20; its notice about future releases is not for operators.
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true'
 
-export interface StorageConfig {
-  /** Unset: the SDK's regional endpoint for the region. */
-  endpoint: string | undefined
-  region: string
-  bucket: string
-  /** Both unset: the SDK's default credential chain (e.g. an instance role). */
-  credentials: { accessKeyId: string, secretAccessKey: string } | undefined
-  forcePathStyle: boolean
-}
-
 export class StorageUnavailableError extends Error {
   constructor(message: string, readonly reason: 'not-configured' | 'unreachable') {
     super(message)
   }
 }
 
-/** The storage settings from the environment, or null when no bucket is configured. */
-export function storageConfigFromEnv(env: NodeJS.ProcessEnv = process.env): StorageConfig | null {
-  const bucket = env.PASTLOAD_S3_BUCKET?.trim()
-  if (!bucket) return null
-  const accessKeyId = env.PASTLOAD_S3_ACCESS_KEY_ID?.trim()
-  const secretAccessKey = env.PASTLOAD_S3_SECRET_ACCESS_KEY?.trim()
-  return {
-    endpoint: env.PASTLOAD_S3_ENDPOINT?.trim() || undefined,
-    region: env.PASTLOAD_S3_REGION?.trim() || 'us-east-1',
-    bucket,
-    credentials: accessKeyId && secretAccessKey ? { accessKeyId, secretAccessKey } : undefined,
-    forcePathStyle: ['1', 'true', 'yes'].includes((env.PASTLOAD_S3_FORCE_PATH_STYLE ?? '').trim().toLowerCase()),
-  }
-}
 
 export const NOT_CONFIGURED = 'Attachments are not available: object storage is not configured on this server (set PASTLOAD_S3_BUCKET and the other PASTLOAD_S3_* variables).'
 

@@ -6,26 +6,15 @@ import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
 import sharp from 'sharp'
 import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { AttachmentView } from '../../shared/schemas/attachments'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
 import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { testBody } from '../helpers/lab'
+import { createPoint, createProject } from '../helpers/project'
 import { startServer, type RunningServer } from '../helpers/server'
+import { uploadChunked } from '../helpers/upload'
 
-interface View {
-  id: string
-  ownerType: string
-  ownerId: string | null
-  filename: string
-  contentType: string
-  kind: string | null
-  size: number
-  sha256: string
-  caption: string
-  uploadedBy: { id: string, displayName: string } | null
-  createdAt: string
-  downloadUrl: string
-  thumbnailUrl: string | null
-}
+type View = AttachmentView
 interface ErrorBody { message: string, data?: { code?: string, issues?: { path: string }[] } }
 
 const sha256 = (b: Buffer | string) => createHash('sha256').update(b).digest('hex')
@@ -61,19 +50,12 @@ describe('attachments', () => {
   let otherPointId: string
   let otherSampleId: string
   let photo: Buffer
-  let seq = 0
 
   /** A project of one test's own: the geologist and the viewer as members, one borehole BH-A1. */
   async function site(): Promise<{ projectId: string, base: string, pointId: string }> {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATT-${Date.now().toString(36)}${seq}`, name: 'Attachment test site' })
-    expect(p.status).toBe(201)
-    const projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
-    const pt = await geo.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-A1', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
-    expect(pt.status).toBe(201)
-    return { projectId, base: `/api/projects/${projectId}/attachments`, pointId: pt.body.point.id }
+    const { id: projectId } = await createProject(owner, 'ATT', 'Attachment test site', ['geologist', { email: viewerEmail, role: 'viewer' }])
+    const pointId = await createPoint(geo, projectId, { identifier: 'BH-A1', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
+    return { projectId, base: `/api/projects/${projectId}/attachments`, pointId }
   }
 
   /** The oedometer report on the project, stored by the geologist (one object). */
@@ -229,23 +211,7 @@ describe('attachments', () => {
     const r = await attach<ErrorBody>(geo, projectId, 'big.pdf', big)
     expect(r.status).toBe(413)
     // Streamed (chunked) so the body-size middleware cannot see its length: the route stops reading at the limit.
-    const boundary = 'pastload-test-boundary'
-    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.4\n`)
-    const chunk = Buffer.alloc(1024 * 1024, 0x20)
-    let sent = 0
-    const body = new ReadableStream<Uint8Array>({
-      pull(controller) {
-        if (sent === 0) controller.enqueue(head)
-        if (sent >= 27) {
-          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
-          controller.close()
-          return
-        }
-        sent += 1
-        controller.enqueue(chunk)
-      },
-    })
-    const res = await fetch(`${geo.base}${base}`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
+    const res = await uploadChunked(geo, base, 'big.pdf', 'application/pdf', '%PDF-1.4\n', 27)
     expect(res.status).toBe(413)
     expect(((await res.json()) as ErrorBody).message).toBe('The file is larger than 25 MB, the limit for an attachment.')
     expect(await storedKeys(projectId)).toEqual([])

@@ -4,7 +4,8 @@ import * as XLSX from 'xlsx-republish'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
 import { type Client, demoEmail, signIn } from '../helpers/http'
-import { upload } from '../helpers/upload'
+import { createPoint, createProject } from '../helpers/project'
+import { upload, uploadChunked } from '../helpers/upload'
 
 interface Preview { importId: string, format: string, preview: { headers: string[], rowCount: number, mapping: Record<string, string> | null } | null }
 interface Report { message: string, data: { errors: { row: number, column: string, message: string }[] } }
@@ -15,7 +16,6 @@ describe('imports', () => {
   let base: string
 
   let owner: Client
-  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
@@ -24,12 +24,9 @@ describe('imports', () => {
 
   // Every test imports into a project of its own: the geologist as a member, the estuarine clay stratum, no points.
   beforeEach(async () => {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `IMP-${Date.now().toString(36)}${seq}`, name: 'Import test site' })
-    expect(p.status).toBe(201)
-    projectId = p.body.project.id
-    base = `/api/projects/${projectId}`
-    expect((await owner.post(`${base}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    const project = await createProject(owner, 'IMP', 'Import test site', ['geologist'])
+    projectId = project.id
+    base = project.base
     expect((await geo.post(`${base}/strata`, { code: 'EST', name: 'Estuarine clay', colour: 'c', pattern: 'p', unitWeight: 16, unitWeightSaturated: 16 })).status).toBe(201)
   })
 
@@ -37,9 +34,7 @@ describe('imports', () => {
   async function seedPoints(): Promise<{ cptId: string }> {
     const made: Record<string, string> = {}
     for (const [identifier, kind, easting, finalDepth] of [['BH-01', 'borehole', 10, 25], ['BH-02', 'borehole', 60, 22], ['CPT-01', 'cpt', 35, 22]] as const) {
-      const r = await geo.post<{ point: { id: string } }>(`${base}/points`, { identifier, kind, easting, northing: 30, groundElevation: 2.5, finalDepth })
-      expect(r.status).toBe(201)
-      made[identifier] = r.body.point.id
+      made[identifier] = await createPoint(geo, projectId, { identifier, kind, easting, northing: 30, groundElevation: 2.5, finalDepth })
     }
     return { cptId: made['CPT-01']! }
   }
@@ -205,23 +200,7 @@ describe('imports', () => {
     const big = await upload(geo, `${base}/imports`, 'big.csv', new Uint8Array(26 * 1024 * 1024).fill(65))
     expect(big.status).toBe(413)
     // Streamed (chunked), so the body-size middleware cannot see its length: the upload stops reading at 25 MB.
-    const boundary = 'pastload-import-boundary'
-    const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.csv"\r\nContent-Type: text/csv\r\n\r\na,b\n`)
-    const chunk = Buffer.alloc(1024 * 1024, 0x31)
-    let sent = 0
-    const body = new ReadableStream<Uint8Array>({
-      pull(controller) {
-        if (sent === 0) controller.enqueue(head)
-        if (sent >= 27) {
-          controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
-          controller.close()
-          return
-        }
-        sent += 1
-        controller.enqueue(chunk)
-      },
-    })
-    const streamed = await fetch(`${geo.base}${base}/imports`, { method: 'POST', body, duplex: 'half', headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': geo.cookie, 'origin': geo.origin! } } as RequestInit)
+    const streamed = await uploadChunked(geo, `${base}/imports`, 'big.csv', 'text/csv', 'a,b\n', 27)
     expect(streamed.status).toBe(413)
     expect(((await streamed.json()) as { message: string }).message).toBe('The file is larger than 25 MB, the limit for an import.')
     const noFile = await geo.post<{ message: string }>(`${base}/imports`, { file: 'x' })

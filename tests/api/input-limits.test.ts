@@ -8,6 +8,7 @@ import { strToU8, zipSync } from 'fflate'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { type Client, baseUrl, demoEmail, signIn } from '../helpers/http'
+import { createProject } from '../helpers/project'
 import { upload } from '../helpers/upload'
 
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
@@ -101,14 +102,10 @@ describe('input limits', () => {
   let owner: Client
   let geo: Client
   let base: string
-  let projectId: string
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `LIM-${Date.now().toString(36)}`, name: 'Input limits site' })
-    projectId = p.body.project.id
-    base = `/api/projects/${projectId}`
-    await owner.post(`${base}/members`, { email: demoEmail('geologist'), role: 'geologist' })
+    base = (await createProject(owner, 'LIM', 'Input limits site', ['geologist'])).base
     geo = await signIn(demoEmail('geologist'))
   })
 
@@ -214,10 +211,9 @@ describe('projects with more points than one query may carry parameters', () => 
 
   beforeAll(async () => {
     const owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `MANY-${Date.now().toString(36)}`, name: 'Many points site' })
-    const projectId = p.body.project.id
-    base = `/api/projects/${projectId}`
-    await owner.post(`${base}/members`, { email: demoEmail('engineer'), role: 'engineer' })
+    const project = await createProject(owner, 'MANY', 'Many points site', ['engineer'])
+    const projectId = project.id
+    base = project.base
     geo = await signIn(demoEmail('engineer'))
     // Past the import limit on purpose (straight into the database): what such a project reads must still answer.
     db = new pg.Client({ connectionString: process.env.DATABASE_URL })

@@ -1,6 +1,7 @@
 // Laboratory API over real HTTP: oedometer tests on samples (conventions, e0 from Gs·w, versions),
 // the interpretation on a synthetic curve with a known σ'p, the no-yield 422, adoptions and their
 // history, and the σ'p points of the demo project from all three sources.
+import { median } from 'simple-statistics'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { generateDemoInvestigation, DEMO_OEDOMETER_PLAN, plannedOedometerSample } from '../../shared/demo/generate'
 import { degreeOfConsolidation } from '../../shared/geotech/consolidation'
@@ -9,6 +10,7 @@ import { cptPointId } from '../../shared/review/flags'
 import { toStressInput } from '../../shared/site-model/convert'
 import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { asDial, bilinearCurve, demoDefinitionFromRecord, DOUBLING, ESTUARINE, testBody } from '../helpers/lab'
+import { createPoint, createProject } from '../helpers/project'
 
 interface TestJson {
   id: string
@@ -42,12 +44,6 @@ interface SigmaPoint { id: string, source: string, method: string, pointId: stri
 
 const MINUTES_PER_YEAR = 365.25 * 24 * 60
 
-function median(v: number[]): number {
-  const s = [...v].sort((a, b) => a - b)
-  const m = s.length >> 1
-  return s.length % 2 ? s[m]! : 0.5 * (s[m - 1]! + s[m]!)
-}
-
 describe('oedometer tests and σ\'p adoption', () => {
   let owner: Client
   let engineer: Client
@@ -59,19 +55,14 @@ describe('oedometer tests and σ\'p adoption', () => {
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `LAB-${Date.now().toString(36)}`, name: 'Laboratory test site' })
-    projectId = p.body.project.id
+    projectId = (await createProject(owner, 'LAB', 'Laboratory test site', ['engineer', 'geologist'])).id
     base = `/api/projects/${projectId}/tests/oedometer`
-    for (const role of ['engineer', 'geologist'] as const) {
-      expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail(role), role })).status).toBe(201)
-    }
     engineer = await signIn(demoEmail('engineer'))
     geologist = await signIn(demoEmail('geologist'))
     // One clay stratum, γ = γsat = 18 kN/m³, logged 0–20 m, standing water at 1.0 m.
     const st = await geologist.post<{ stratum: { id: string } }>(`/api/projects/${projectId}/strata`, { code: 'CLAY', name: 'Soft clay', colour: 'c', pattern: 'p', unitWeight: 18, unitWeightSaturated: 18 })
     expect(st.status).toBe(201)
-    const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-L1', kind: 'borehole', easting: 0, northing: 0, groundElevation: 2, finalDepth: 20 })
-    pointId = pt.body.point.id
+    pointId = await createPoint(geologist, projectId, { identifier: 'BH-L1' })
     const pointUrl = `/api/projects/${projectId}/points/${pointId}`
     expect((await geologist.request('PUT', `${pointUrl}/intervals`, { intervals: [{ top: 0, bottom: 20, description: 'Soft grey CLAY', uscs: 'CH', stratumId: st.body.stratum.id }] })).status).toBe(200)
     expect((await geologist.post(`${pointUrl}/groundwater`, { kind: 'standing', observedAt: '2025-03-04T08:00:00Z', depth: 1 })).status).toBe(201)

@@ -3,6 +3,7 @@
 // groundwater, CPT, strata, and the audit trail.
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { createPoint, createProject } from '../helpers/project'
 
 interface Interval { id: string, version: number, top: number, bottom: number, description: string, uscs: string | null }
 
@@ -14,7 +15,6 @@ describe('logging API', () => {
   let pointId: string
   let base: string
   let viewerEmail: string
-  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
@@ -26,17 +26,10 @@ describe('logging API', () => {
 
   // Every test works in a project of its own, with the geologist and a viewer as members and borehole BH-01 (10 m, no log yet).
   beforeEach(async () => {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `LOG-${Date.now().toString(36)}${seq}`, name: 'Logging test site' })
-    expect(p.status).toBe(201)
-    projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
-    const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, {
-      identifier: 'BH-01', kind: 'borehole', easting: 40, northing: 25, groundElevation: 2.6, finalDepth: 10, startedOn: '2025-03-03', endedOn: '2025-03-04', method: 'Cable percussion', loggedBy: 'A. Ferreira',
+    projectId = (await createProject(owner, 'LOG', 'Logging test site', ['geologist', { email: viewerEmail, role: 'viewer' }])).id
+    pointId = await createPoint(geologist, projectId, {
+      identifier: 'BH-01', easting: 40, northing: 25, groundElevation: 2.6, finalDepth: 10, startedOn: '2025-03-03', endedOn: '2025-03-04', method: 'Cable percussion', loggedBy: 'A. Ferreira',
     })
-    expect(pt.status).toBe(201)
-    pointId = pt.body.point.id
     base = `/api/projects/${projectId}/points/${pointId}`
   })
 

@@ -1,5 +1,6 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { createProject } from '../helpers/project'
 
 interface Member { userId: string, email: string, role: string }
 
@@ -7,18 +8,13 @@ describe('projects and members', () => {
   let owner: Client
   let projectId: string
 
-  let seq = 0
-
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
   })
 
   // A project of each test's own: one test steps the demo owner down, which must not reach the others.
   beforeEach(async () => {
-    seq += 1
-    const r = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `T-${Date.now().toString(36)}${seq}`, name: 'Member test site', client: 'Test client' })
-    expect(r.status).toBe(201)
-    projectId = r.body.project.id
+    projectId = (await createProject(owner, 'T', 'Member test site', [], { client: 'Test client' })).id
   })
 
   it('lists the demo project for each demo member with their role', async () => {

@@ -3,6 +3,7 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
 import { testBody } from '../helpers/lab'
+import { createPoint, createProject } from '../helpers/project'
 import { upload } from '../helpers/upload'
 
 interface Stage { stress: number, entered: number, voidRatio: number, readings?: { minutes: number, dial: number }[] }
@@ -33,7 +34,6 @@ describe('test-data imports', () => {
   let pointId: string
   let sampleId: string
   let viewerEmail: string
-  let seq = 0
 
   beforeAll(async () => {
     owner = await signIn(demoEmail('owner'))
@@ -46,15 +46,10 @@ describe('test-data imports', () => {
 
   // A project of each test's own: the engineer, the reviewer and a viewer as members, borehole BH-T1 with tube U1.
   beforeEach(async () => {
-    seq += 1
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TDI-${Date.now().toString(36)}${seq}`, name: 'Test data import site' })
-    expect(p.status).toBe(201)
-    projectId = p.body.project.id
-    base = `/api/projects/${projectId}`
-    for (const role of ['engineer', 'reviewer'] as const) expect((await owner.post(`${base}/members`, { email: demoEmail(role), role })).status).toBe(201)
-    expect((await owner.post(`${base}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
-    const pt = await engineer.post<{ point: { id: string } }>(`${base}/points`, { identifier: 'BH-T1', kind: 'borehole', easting: 0, northing: 0, groundElevation: 2, finalDepth: 20 })
-    pointId = pt.body.point.id
+    const project = await createProject(owner, 'TDI', 'Test data import site', ['engineer', 'reviewer', { email: viewerEmail, role: 'viewer' }])
+    projectId = project.id
+    base = project.base
+    pointId = await createPoint(engineer, projectId, { identifier: 'BH-T1' })
     const s = await engineer.post<{ sample: { id: string } }>(`${base}/points/${pointId}/samples`, { identifier: 'U1', top: 4.5, bottom: 5, type: 'thin-walled-tube' })
     sampleId = s.body.sample.id
   })

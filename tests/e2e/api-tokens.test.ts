@@ -1,8 +1,8 @@
 // The account page's token form: expiry by days or by date, the read-only choice, and the
 // list showing scope and expiry. Each test uses its own new account.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 /** yyyy-mm-dd, n days from today in the test machine's zone (the browser's too). */
 function dateAhead(days: number): string {
@@ -12,9 +12,7 @@ function dateAhead(days: number): string {
 }
 
 describe('API tokens on the account page', () => {
-  let browser: Browser
-  beforeAll(async () => { browser = await launch() })
-  afterAll(async () => { await browser?.close() })
+  const browser = useBrowser()
 
   it('creates a read-only token expiring on a chosen date and a default one, and lists scope and expiry', async () => {
     const admin = await signIn(demoEmail('owner'))

@@ -1,14 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { attach, TINY_PDF, testPhoto } from '../helpers/attach'
 import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
+import { createProject } from '../helpers/project'
 import { startServer } from '../helpers/server'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 describe('attachments in Chromium', () => {
-  let browser: Browser
-  beforeAll(async () => { browser = await launch() })
-  afterAll(async () => { await browser?.close() })
+  const browser = useBrowser()
 
   it('shows the demo project\'s lab report, core-box photo (with its thumbnail) and field sheet on the overview', async () => {
     const admin = await signIn(demoEmail('owner'))
@@ -35,9 +34,7 @@ describe('attachments in Chromium', () => {
 
   it('uploads with progress, shows the server\'s refusal, and deletes after a confirmation', async () => {
     const admin = await signIn(demoEmail('owner'))
-    const p = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATE-${Date.now().toString(36)}`, name: 'Attachment browser test' })
-    const projectId = p.body.project.id
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
+    const { id: projectId } = await createProject(admin, 'ATE', 'Attachment browser test', ['geologist'])
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(`${baseUrl()}/projects/${projectId}`)
     const form = page.getByTestId('attachment-upload')
@@ -70,12 +67,9 @@ describe('attachments in Chromium', () => {
   it('gives a viewer the files but no upload or delete controls', async () => {
     const admin = await signIn(demoEmail('owner'))
     // A project of this test's own with one report on it: adding the viewer leaves the demo's members alone.
-    const p = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATV-${Date.now().toString(36)}`, name: 'Attachment viewer test' })
-    expect(p.status).toBe(201)
-    const projectId = p.body.project.id
-    expect((await attach(admin, projectId, 'LR-01 oedometer.pdf', TINY_PDF, { ownerType: 'project' })).status).toBe(201)
     const viewer = await createUser(admin, 'att-viewer')
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
+    const { id: projectId } = await createProject(admin, 'ATV', 'Attachment viewer test', [{ email: viewer.email, role: 'viewer' }])
+    expect((await attach(admin, projectId, 'LR-01 oedometer.pdf', TINY_PDF, { ownerType: 'project' })).status).toBe(201)
     const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
     await page.goto(`${baseUrl()}/projects/${projectId}`)
     await page.getByTestId('attachment-list').getByText('LR-01 oedometer.pdf').waitFor()

@@ -1,11 +1,11 @@
 import { mkdirSync } from 'node:fs'
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { depthTrendCandidates, eligibleTests, type TestCompressibility } from '../../shared/site-model/compressibility'
 import { depthTrendAt, stratumBounds, type SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, SCREENSHOTS, screenshot, signInAs } from './helpers'
+import { screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
 interface ListedTest {
@@ -24,7 +24,7 @@ const asCompressibility = (t: ListedTest): TestCompressibility => ({ id: t.id, s
 const pop = { model: 'pop' as const, logSpace: false, parameters: { pop: 25 }, n: 6, r2: 0.8, rmse: 6, aic: 20, aicc: 24, includedPointIds: [], excludedPointIds: [] }
 
 describe('compressibility with depth and flagged tests on the stress canvas, in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let engineer: Client
   let projectId = ''
   let tests: ListedTest[] = []
@@ -48,12 +48,10 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
   // A copy of the demo site of this file's own; each test makes its own model of it.
   beforeAll(async () => {
     mkdirSync(SCREENSHOTS, { recursive: true })
-    browser = await launch()
     engineer = await signIn(demoEmail('engineer'))
     projectId = await createDemoCopy('E2E-CCT')
     tests = (await engineer.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer?limit=100`)).body.tests
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the engineer sets Cc of the estuarine clay to a depth trend, sees n and R², saves a version; the export\'s Cc varies with depth', async () => {
     const model = await newModel()

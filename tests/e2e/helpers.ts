@@ -4,7 +4,7 @@ import { mkdirSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
-import { afterEach, expect } from 'vitest'
+import { afterAll, afterEach, beforeAll, expect } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import { baseUrl } from '../helpers/http'
 
@@ -55,6 +55,22 @@ export async function launch(): Promise<Browser> {
       await context.close()
       rmSync(dir, { recursive: true, force: true })
       failOnCspViolations('after the last test')
+    },
+  }
+}
+
+/**
+ * One Chromium for the enclosing describe: launched before its first test, closed (and
+ * checked for late CSP violations) after its last. Read `.context` inside hooks and tests.
+ */
+export function useBrowser(): { readonly context: BrowserContext } {
+  let browser: Browser | undefined
+  beforeAll(async () => { browser = await launch() })
+  afterAll(async () => { await browser?.close() })
+  return {
+    get context() {
+      if (!browser) throw new Error('the browser is not launched yet')
+      return browser.context
     },
   }
 }

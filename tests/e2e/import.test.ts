@@ -1,20 +1,18 @@
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { demoImportErrors } from '../../shared/demo/import-examples'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 describe('import page in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let copyId = ''
   beforeAll(async () => {
-    browser = await launch()
     // The upload is stored with the project: the geologist's test works in a copy of the demo site of this file's own.
     copyId = await createDemoCopy('E2E-IMP')
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the geologist uploads the example file, maps it, and sees each deliberate error with its row', async () => {
     const projectId = copyId

@@ -1,9 +1,10 @@
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
+import { createPoint, createProject } from '../helpers/project'
 import { asDial, bilinearCurve, ESTUARINE, testBody } from '../helpers/lab'
-import { type Browser, launch, screenshot, SCREENSHOTS, signInAs } from './helpers'
+import { screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
 
 const STAGE_LABEL = 'Compression Δh (mm)'
 /** Sample-quality classes as the pages name them (Lunne, Berre & Strandvik 1997). */
@@ -12,14 +13,12 @@ const QUALITY: Record<string, string> = { 'very-good-to-excellent': 'Very good t
 interface ListedTest { id: string, label: string, point: { identifier: string }, sample: { identifier: string }, adoption: { id: string, value: number } | null, reading: { casagrande: number | null, qualityClass: string | null } }
 
 describe('oedometer interpretation in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let copyId = ''
   beforeAll(async () => {
-    browser = await launch()
     // Adopting writes: the first test works in a copy of the demo site of this file's own.
     copyId = await createDemoCopy('E2E-OED')
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the engineer opens a demo test, sees the four constructions, adopts with a reason, and finds the point in the σ\'p data list', async () => {
     const api = await signIn(demoEmail('engineer'))
@@ -120,11 +119,9 @@ describe('oedometer interpretation in Chromium', () => {
 
   it('a curve with no yield shows the engine\'s reason instead of constructions', async () => {
     const owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `E2E-LAB-${Date.now().toString(36)}`, name: 'No-yield check' })
-    const projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('engineer'), role: 'engineer' })).status).toBe(201)
-    const pt = await owner.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-X', kind: 'borehole', easting: 0, northing: 0, groundElevation: 1, finalDepth: 10 })
-    const s = await owner.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pt.body.point.id}/samples`, { identifier: 'U1', top: 3, bottom: 3.5, type: 'thin-walled-tube' })
+    const { id: projectId } = await createProject(owner, 'E2E-LAB', 'No-yield check', ['engineer'])
+    const pointId = await createPoint(owner, projectId, { identifier: 'BH-X', groundElevation: 1, finalDepth: 10 })
+    const s = await owner.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U1', top: 3, bottom: 3.5, type: 'thin-walled-tube' })
     const body = testBody(s.body.sample.id, 'OED-NY')
     body.stages = body.stages.map(st => ({ stress: st.stress, value: 2.1 - 0.3 * Math.log10(st.stress / 10) }))
     const t = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, body)
@@ -144,11 +141,9 @@ describe('oedometer interpretation in Chromium', () => {
 
   it('a geologist adds a test by pasting compression readings from a spreadsheet, previewed before it is saved', async () => {
     const owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `E2E-PASTE-${Date.now().toString(36)}`, name: 'Paste check' })
-    const projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    const pt = await owner.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'BH-P', kind: 'borehole', easting: 0, northing: 0, groundElevation: 1, finalDepth: 10 })
-    expect((await owner.post(`/api/projects/${projectId}/points/${pt.body.point.id}/samples`, { identifier: 'U3', top: 4.5, bottom: 5, type: 'thin-walled-tube' })).status).toBe(201)
+    const { id: projectId } = await createProject(owner, 'E2E-PASTE', 'Paste check', ['geologist'])
+    const pointId = await createPoint(owner, projectId, { identifier: 'BH-P', groundElevation: 1, finalDepth: 10 })
+    expect((await owner.post(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U3', top: 4.5, bottom: 5, type: 'thin-walled-tube' })).status).toBe(201)
 
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(`${baseUrl()}/projects/${projectId}/tests`)

@@ -1,8 +1,9 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { createProject } from '../helpers/project'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string, uscs: string | null, stratumId: string | null, moisture: string | null, consistency: string | null, version: number }
 
@@ -30,7 +31,7 @@ function intervalRects(page: Page) {
 }
 
 describe('the field geologist\'s workspace in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let admin: Client
   let geologist: Client
   let projectId = ''
@@ -42,7 +43,6 @@ describe('the field geologist\'s workspace in Chromium', () => {
   const pointPath = (id: string) => `/projects/${projectId}/points/${id}`
   const log = async (id: string) => (await geologist.get<{ intervals: Interval[] }>(`/api/projects/${projectId}/points/${id}`)).body.intervals
 
-  let seq = 0
 
   /** The log PASTED describes, saved on BH-T1 through the API (for the tests that start from a saved log). */
   async function seedLog() {
@@ -57,7 +57,6 @@ describe('the field geologist\'s workspace in Chromium', () => {
   }
 
   beforeAll(async () => {
-    browser = await launch()
     admin = await signIn(demoEmail('owner'))
     geologist = await signIn(demoEmail('geologist'))
   })
@@ -65,17 +64,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   // Every test works in a project of its own: three strata, a borehole (with a tube, its index test and a
   // standing level), a CPT with a dense sounding and a test pit; BH-T1's log is empty until a test seeds it.
   beforeEach(async () => {
-    seq += 1
-    const created = await admin.post<{ project: { id: string } }>('/api/projects', {
-      jobNumber: `TRN-LOG-${Date.now().toString(36)}${seq}`,
-      name: 'Saltmarsh Lane logging trial',
-      client: 'Harrow Estuary Logistics',
-    })
-    expect(created.status).toBe(201)
-    projectId = created.body.project.id
-    for (const role of ['geologist', 'engineer', 'designer'] as const) {
-      expect((await admin.post(`/api/projects/${projectId}/members`, { email: demoEmail(role), role })).status).toBe(201)
-    }
+    projectId = (await createProject(admin, 'TRN-LOG', 'Saltmarsh Lane logging trial', ['geologist', 'engineer', 'designer'], { client: 'Harrow Estuary Logistics' })).id
     const P = `/api/projects/${projectId}`
     for (const [i, s] of [
       { code: 'MG', name: 'Made ground', colour: 'fill-ochre', pattern: 'made-ground', unitWeight: 19, unitWeightSaturated: 20 },
@@ -110,7 +99,6 @@ describe('the field geologist\'s workspace in Chromium', () => {
     expect((await geologist.request('PUT', `${P}/points/${boreholeId}/samples/${sample.body.sample.id}/index-test`, { waterContent: 52, liquidLimit: 44, plasticLimit: 22, bulkUnitWeight: 16.2 })).status).toBe(200)
     expect((await geologist.post(`${P}/points/${boreholeId}/groundwater`, { kind: 'standing', observedAt: '2026-03-06T08:00:00Z', depth: 1.6 })).status).toBe(201)
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the geologist pastes rows from a spreadsheet, the graphic log follows, and the saved log survives a reload', async () => {
     const page = await signInAs(browser.context, demoEmail('geologist'))

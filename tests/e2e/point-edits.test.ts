@@ -1,22 +1,22 @@
 // The point page's edits in Chromium: the header's details, a sample's depths and
 // a vane reading, each versioned (a stale save shows both sides) and checked at
 // the field; a viewer sees none of the edit controls.
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { createProject } from '../helpers/project'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Point { identifier: string, groundElevation: number, finalDepth: number, method: string, version: number }
 interface Detail { point: Point, samples: { identifier: string, top: number, bottom: number, recovery: number | null, remarks: string }[], vane: { id: string, version: number, depth: number, peak: number, remoulded: number | null }[] }
 
 describe('editing a point, its samples and its vane readings in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let admin: Client
   let geologist: Client
   let projectId = ''
   let pointId = ''
   let viewerEmail = ''
-  let seq = 0
 
   const api = () => `/api/projects/${projectId}/points/${pointId}`
   const detail = async () => (await geologist.get<Detail>(api())).body
@@ -27,7 +27,6 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   const fact = (page: Page, label: string) => page.getByTestId('point-facts').locator('div').filter({ has: page.locator('dt', { hasText: label }) }).locator('dd')
 
   beforeAll(async () => {
-    browser = await launch()
     admin = await signIn(demoEmail('owner'))
     geologist = await signIn(demoEmail('geologist'))
     viewerEmail = (await createUser(admin, 'editviewer')).email
@@ -35,12 +34,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
 
   // Every test edits a project and a point of its own: WS-E1 with sample U-1 (4.00–4.45 m), an SPT at 9 m and a vane reading at 5 m.
   beforeEach(async () => {
-    seq += 1
-    const created = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `TRN-EDIT-${Date.now().toString(36)}${seq}`, name: 'Saltmarsh Lane edits trial' })
-    expect(created.status).toBe(201)
-    projectId = created.body.project.id
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewerEmail, role: 'viewer' })).status).toBe(201)
+    projectId = (await createProject(admin, 'TRN-EDIT', 'Saltmarsh Lane edits trial', ['geologist', { email: viewerEmail, role: 'viewer' }])).id
     const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, {
       identifier: 'WS-E1', kind: 'borehole', easting: 22, northing: 31, groundElevation: 3.1, finalDepth: 15, startedOn: '2026-03-09', endedOn: '2026-03-09', method: 'Window sampler', loggedBy: 'A. Ferreira',
     })
@@ -50,7 +44,6 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     expect((await geologist.post(`${api()}/spt`, { depth: 9, blows: [1, 2, 2] })).status).toBe(201)
     expect((await geologist.post(`${api()}/vane`, { depth: 5, peak: 18, remoulded: 6 })).status).toBe(201)
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the geologist edits the ground elevation and method, saves, and sees them after a reload', async () => {
     const page = await signInAs(browser.context, demoEmail('geologist'))

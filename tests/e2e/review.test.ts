@@ -1,9 +1,9 @@
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, SCREENSHOTS, signInAs } from './helpers'
+import { screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string }
 interface Flag { id: string, targetType: string, targetId: string, verdict: string, status: string, comment: string, version: number, replyCount: number }
@@ -17,7 +17,7 @@ const range = (iv: Interval) => `${iv.top.toFixed(2)}–${iv.bottom.toFixed(2)} 
 const intervalText = (iv: Interval) => `Log interval · BH-02 ${range(iv)}`
 
 describe('the reviewer\'s tools in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let reviewer: Client
   let projectId = ''
   let pointId = ''
@@ -47,7 +47,6 @@ describe('the reviewer\'s tools in Chromium', () => {
   // A copy of the demo site of this file's own. Each test works on its own interval of BH-02
   // (or its own disturbed test) and raises through the API whatever flag it starts from.
   beforeAll(async () => {
-    browser = await launch()
     reviewer = await signIn(demoEmail('reviewer'))
     projectId = await createDemoCopy('E2E-REV')
     const points = await reviewer.get<{ points: { id: string, identifier: string }[] }>(`${P()}/points?q=BH-02`)
@@ -55,7 +54,6 @@ describe('the reviewer\'s tools in Chromium', () => {
     intervals = (await reviewer.get<{ intervals: Interval[] }>(`${P()}/points/${pointId}`)).body.intervals
     expect(intervals.length).toBeGreaterThanOrEqual(7)
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the reviewer flags a log interval as questionable from the point page, giving a reason', async () => {
     // 3.25–6.90 m, the estuarine clay with shells.

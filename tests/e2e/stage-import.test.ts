@@ -1,23 +1,21 @@
 import { resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_STAGES_TEST, demoStagesExample } from '../../shared/demo/import-examples'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Stage { stress: number, entered: number, voidRatio: number, readings?: { minutes: number, dial: number }[] }
 interface TestJson { id: string, label: string, version: number, convention: string, stages: Stage[] }
 interface Adoption { method: string, value: number, reason: string }
 
 describe('oedometer stage upload in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let projectId = ''
   beforeAll(async () => {
-    browser = await launch()
     // Replacing stages writes: a copy of the demo site of this file's own.
     projectId = await createDemoCopy('E2E-STG')
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the engineer replaces a demo test\'s stages from the example sheet, checks the preview, commits, and the test page draws the new curve', async () => {
     const api = await signIn(demoEmail('engineer'))

@@ -3,26 +3,24 @@
 // cone factor k from k0 to k1 scales each CPT σ'p in that band by k1/k0, and a
 // median of scaled values is the scaled median (the resampling is a median per
 // window), up to the answer's rounding.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Answer { points: { id: string, source: string, stratumCode: string | null, depth: number, preconsolidation: number }[], stressModel: { source: string, description: string } }
 
 describe('CPT σ\'p through the model on screen', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let engineer: Client
   let projectId = ''
 
   beforeAll(async () => {
-    browser = await launch()
     engineer = await signIn(demoEmail('engineer'))
     // The model it makes belongs to a copy of the demo site of this file's own.
     projectId = await createDemoCopy('E2E-CPT')
   })
-  afterAll(async () => { await browser?.close() })
 
   it('the engineer changes the estuarine clay\'s cone factor and the CPT σ\'p there scale with it, unsaved', async () => {
     const created = await engineer.post<{ model: { id: string, draft: SiteModelDefinition, version: number } }>(`/api/projects/${projectId}/models`, { name: `CPT factor check ${Date.now().toString(36)}` })

@@ -1,5 +1,5 @@
 import { readFileSync } from 'node:fs'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { computeStressProfile } from '../../shared/geotech/stress'
@@ -8,7 +8,7 @@ import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { ESTUARINE_POP } from '../../shared/demo/site'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
 
@@ -58,14 +58,13 @@ async function findPoint(page: Page, depth: number, estThickness: number): Promi
 }
 
 describe('the stress workspace in Chromium', () => {
-  let browser: Browser
+  const browser = useBrowser()
   let engineer: Client
   let projectId = ''
   const name = `Saltmarsh Lane stress model ${Date.now().toString(36)}`
 
   // A copy of the demo site of this file's own; each test opens a model it made itself.
   beforeAll(async () => {
-    browser = await launch()
     engineer = await signIn(demoEmail('engineer'))
     projectId = await createDemoCopy('E2E-STR')
   })
@@ -76,7 +75,6 @@ describe('the stress workspace in Chromium', () => {
     expect(created.status).toBe(201)
     return created.body.model.id
   }
-  afterAll(async () => { await browser?.close() })
 
   it('the engineer builds a model: moves the water table, fits the estuarine clay with constant POP, saves a version and reopens it read-only', async () => {
     const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')

@@ -5,22 +5,18 @@
 import { mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { createPoint, createProject } from '../helpers/project'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 describe('field vane import in Chromium', () => {
-  let browser: Browser
-  beforeAll(async () => { browser = await launch() })
-  afterAll(async () => { await browser?.close() })
+  const browser = useBrowser()
 
   it('the geologist imports vane readings: errors at their rows first, then the readings on the point page', async () => {
     const owner = await signIn(demoEmail('owner'))
-    const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `VANE-${Date.now().toString(36)}`, name: 'Saltmarsh Lane vane trial' })
-    const projectId = p.body.project.id
-    expect((await owner.post(`/api/projects/${projectId}/members`, { email: demoEmail('geologist'), role: 'geologist' })).status).toBe(201)
-    const pt = await owner.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, { identifier: 'VT-01', kind: 'borehole', easting: 40, northing: 60, groundElevation: 2.6, finalDepth: 12 })
-    const pointId = pt.body.point.id
+    const { id: projectId } = await createProject(owner, 'VANE', 'Saltmarsh Lane vane trial', ['geologist'])
+    const pointId = await createPoint(owner, projectId, { identifier: 'VT-01', easting: 40, northing: 60, groundElevation: 2.6, finalDepth: 12 })
 
     const dir = mkdtempSync(join(tmpdir(), 'pastload-vane-'))
     const header = 'Point,Depth (m),Peak su (kPa),Remoulded su (kPa)'

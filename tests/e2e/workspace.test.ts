@@ -1,13 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { ROLE_LABELS } from '../../shared/auth/roles'
 import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
-import { type Browser, launch, screenshot, signInAs } from './helpers'
+import { createProject } from '../helpers/project'
+import { screenshot, signInAs, useBrowser } from './helpers'
 
 describe('the signed-in workspace in Chromium', () => {
-  let browser: Browser
-  beforeAll(async () => { browser = await launch() })
-  afterAll(async () => { await browser?.close() })
+  const browser = useBrowser()
 
   it('shows the error for a wrong password and stays on the sign-in page', async () => {
     // Signed out, whichever test used the browser before.
@@ -59,11 +58,8 @@ describe('the signed-in workspace in Chromium', () => {
   it('a viewer sees no create or edit controls anywhere', async () => {
     const admin = await signIn(demoEmail('owner'))
     // A project of this test's own: adding the viewer leaves the demo's members alone.
-    const p = await admin.post<{ project: { id: string } }>('/api/projects', { jobNumber: `WSV-${Date.now().toString(36)}`, name: 'Viewer controls check' })
-    expect(p.status).toBe(201)
-    const projectId = p.body.project.id
     const viewer = await createUser(admin, 'viewer')
-    expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
+    const { id: projectId } = await createProject(admin, 'WSV', 'Viewer controls check', [{ email: viewer.email, role: 'viewer' }])
 
     const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
     expect(await page.getByTestId('new-project').count()).toBe(0)

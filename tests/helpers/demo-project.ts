@@ -6,19 +6,13 @@
 // copied over, and the demo people added with their demo roles.
 import { DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { type Client, demoEmail, demoProjectId, signIn } from './http'
+import { createProject, must } from './project'
 import { upload } from './upload'
 
 interface StoredStage { stress: number, entered: number, readings?: { minutes: number, dial: number }[] }
 interface DemoTest { id: string, version: number, label: string, convention: string, stages: StoredStage[], point: { identifier: string }, sample: { identifier: string } }
 interface Adoption { method: string, value: number, reason: string }
 
-let seq = 0
-
-async function must<T>(what: string, p: Promise<{ status: number, body: T }>, want = 200): Promise<T> {
-  const r = await p
-  if (r.status !== want) throw new Error(`${what}: ${r.status} ${JSON.stringify(r.body).slice(0, 400)}`)
-  return r.body
-}
 
 async function listTests(c: Client, projectId: string): Promise<{ id: string, point: { identifier: string }, sample: { identifier: string } }[]> {
   return (await must('listing oedometer tests', c.get<{ tests: { id: string, point: { identifier: string }, sample: { identifier: string } }[] }>(`/api/projects/${projectId}/tests/oedometer?limit=500`))).tests
@@ -36,18 +30,8 @@ export async function createDemoCopy(tag: string): Promise<string> {
   const owner = await signIn(demoEmail('owner'))
   const engineer = await signIn(demoEmail('engineer'))
   const demoId = await demoProjectId(owner)
-  seq += 1
-  const created = await must('creating the project', owner.post<{ project: { id: string } }>('/api/projects', {
-    jobNumber: `${tag}-${Date.now().toString(36)}${seq}`.slice(0, 40),
-    name: `Saltmarsh Lane copy (${tag})`,
-  }), 201)
-  const projectId = created.project.id
-  const base = `/api/projects/${projectId}`
-  const ownerEmail = demoEmail('owner')
-  for (const person of DEMO_PEOPLE) {
-    if (person.email === ownerEmail) continue
-    await must(`adding ${person.displayName}`, owner.post(`${base}/members`, { email: person.email, role: person.role }), 201)
-  }
+  const members = DEMO_PEOPLE.filter(p => p.email !== demoEmail('owner')).map(p => ({ email: p.email, role: p.role }))
+  const { id: projectId, base } = await createProject(owner, tag, `Saltmarsh Lane copy (${tag})`, members)
 
   const res = await fetch(`${owner.base}/exports/${demoId}/logs.ags`, { headers: { cookie: owner.cookie } })
   if (res.status !== 200) throw new Error(`exporting the demo as AGS4: ${res.status}`)

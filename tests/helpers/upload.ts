@@ -15,3 +15,30 @@ export async function upload<T = Record<string, unknown>>(c: Client, path: strin
   catch { /* not JSON */ }
   return { status: res.status, body: body as T }
 }
+
+/**
+ * Streams a multipart body of one file of `megabytes` MiB without a Content-Length (chunked),
+ * so only the route's own reading can stop it: the file starts with `firstBytes`, then spaces.
+ */
+export async function uploadChunked(c: Client, path: string, filename: string, type: string, firstBytes: string, megabytes: number): Promise<Response> {
+  const boundary = 'pastload-test-boundary'
+  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${filename}"\r\nContent-Type: ${type}\r\n\r\n${firstBytes}`)
+  const chunk = Buffer.alloc(1024 * 1024, 0x20)
+  let sent = 0
+  const body = new ReadableStream<Uint8Array>({
+    pull(controller) {
+      if (sent === 0) controller.enqueue(head)
+      if (sent >= megabytes) {
+        controller.enqueue(Buffer.from(`\r\n--${boundary}--\r\n`))
+        controller.close()
+        return
+      }
+      sent += 1
+      controller.enqueue(chunk)
+    },
+  })
+  const headers: Record<string, string> = { 'content-type': `multipart/form-data; boundary=${boundary}` }
+  if (c.cookie) headers.cookie = c.cookie
+  if (c.origin) headers.origin = c.origin
+  return fetch(c.base + path, { method: 'POST', body, duplex: 'half', headers } as RequestInit)
+}

@@ -8,19 +8,8 @@ import {
   timeFactorForDegree,
   timeForDegree,
 } from '../../../shared/geotech/consolidation'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 
-function expectGeotechError(fn: () => unknown, code: string): GeotechError {
-  try {
-    fn()
-  }
-  catch (error) {
-    expect(error).toBeInstanceOf(GeotechError)
-    expect((error as GeotechError).code).toBe(code)
-    return error as GeotechError
-  }
-  throw new Error(`expected GeotechError ${code}`)
-}
 
 describe('degreeOfConsolidation (Terzaghi 1925 series)', () => {
   it('gives U = 50 % at Tv ≈ 0.197 and U = 90 % at Tv ≈ 0.848', () => {

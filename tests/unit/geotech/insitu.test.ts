@@ -1,6 +1,6 @@
 import { mean, median } from 'simple-statistics'
 import { describe, expect, it } from 'vitest'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 import {
   ccFromLiquidLimit,
   checkCompressionIndex,
@@ -16,17 +16,6 @@ import {
   vanePreconsolidation,
 } from '../../../shared/geotech/insitu'
 
-function expectGeotechError(fn: () => unknown, code: string): void {
-  let caught: unknown
-  try {
-    fn()
-  }
-  catch (error) {
-    caught = error
-  }
-  expect(caught).toBeInstanceOf(GeotechError)
-  expect((caught as GeotechError).code).toBe(code)
-}
 
 describe('CPTu single readings — hand calculations', () => {
   // One reading in soft clay: qc = 500 kPa, u2 = 300 kPa, a = 0.8 (the demo soundings' cone),

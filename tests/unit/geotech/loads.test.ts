@@ -9,7 +9,7 @@ import {
   stripStress,
   twoToOne,
 } from '../../../shared/geotech/loads'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 
 /*
  * Independent checks: the Boussinesq (1885) point-load solution
@@ -54,17 +54,6 @@ function stripByQuadrature(width: number, q: number, x: number, z: number, n = 4
   return q * simpson(s => (2 * z ** 3) / (Math.PI * ((x - s) ** 2 + z * z) ** 2), -width / 2, width / 2, n)
 }
 
-function expectGeotechError(fn: () => unknown, code: string): void {
-  try {
-    fn()
-  }
-  catch (error) {
-    expect(error).toBeInstanceOf(GeotechError)
-    expect((error as GeotechError).code).toBe(code)
-    return
-  }
-  throw new Error(`expected GeotechError ${code}`)
-}
 
 describe('Newmark (1935) corner influence factor', () => {
   // Influence factors as tabulated in standard texts (e.g. Das, Principles of Geotechnical Engineering), four decimals (memory).

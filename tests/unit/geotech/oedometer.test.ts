@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 import {
   classifySampleQuality,
   interpretOedometer,
@@ -37,18 +37,6 @@ function result<M extends OedometerResult['method']>(results: OedometerResult[],
   return found as Extract<OedometerResult, { method: M }>
 }
 
-function expectGeotechError(fn: () => unknown, code: string): void {
-  let caught: unknown
-  try {
-    fn()
-  }
-  catch (error) {
-    caught = error
-  }
-  expect(caught).toBeInstanceOf(GeotechError)
-  expect((caught as GeotechError).code).toBe(code)
-  expect((caught as GeotechError).message.length).toBeGreaterThan(20)
-}
 
 describe('interpretOedometer — sharp bilinear e–log curve', () => {
   const points = curve(ESTUARINE, 80, DOUBLING)

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 import {
   aLine,
   classifyFineGrained,
@@ -9,17 +9,6 @@ import {
   USCS_GROUP_SYMBOLS,
 } from '../../../shared/geotech/plasticity'
 
-function expectGeotechError(fn: () => unknown, code: string): void {
-  let caught: unknown
-  try {
-    fn()
-  }
-  catch (error) {
-    caught = error
-  }
-  expect(caught).toBeInstanceOf(GeotechError)
-  expect((caught as GeotechError).code).toBe(code)
-}
 
 describe('plasticity index and chart lines', () => {
   it('PI = LL − PL (ASTM D4318): 60 − 25 = 35', () => {

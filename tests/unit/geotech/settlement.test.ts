@@ -8,7 +8,7 @@ import {
   type SettlementLayer,
 } from '../../../shared/geotech/settlement'
 import { degreeOfConsolidation, timeFactorForDegree } from '../../../shared/geotech/consolidation'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { catchGeotechError } from '../../helpers/geotech'
 
 /*
  * Hand calculations by the 1-D settlement formulas (Terzaghi & Peck; any
@@ -16,16 +16,6 @@ import { GeotechError } from '../../../shared/geotech/errors'
  * (OC), Cr·log10(σ'p/σ'v0) + Cc·log10(σ'vf/σ'p) (OC-NC); Δh = Δe/(1 + e0)·h.
  */
 
-function catchGeotechError(fn: () => unknown): GeotechError {
-  try {
-    fn()
-  }
-  catch (error) {
-    expect(error).toBeInstanceOf(GeotechError)
-    return error as GeotechError
-  }
-  throw new Error('expected a GeotechError')
-}
 
 const sand: SettlementLayer = { name: 'Sand', thickness: 2, unitWeight: 18, unitWeightSaturated: 20, compressible: false }
 

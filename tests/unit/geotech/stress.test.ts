@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest'
 import fc from 'fast-check'
 import { computeStressProfile, createStressEvaluator, type StressProfileInput } from '../../../shared/geotech/stress'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { catchGeotechError } from '../../helpers/geotech'
 
 /*
  * Hand calculations (common practice): σv = q0 + Σγ·h with γ above and γsat
@@ -9,16 +9,6 @@ import { GeotechError } from '../../../shared/geotech/errors'
  * (Terzaghi 1925/1936). γw = 9.81 kN/m³.
  */
 
-function catchGeotechError(fn: () => unknown): GeotechError {
-  try {
-    fn()
-  }
-  catch (error) {
-    expect(error).toBeInstanceOf(GeotechError)
-    return error as GeotechError
-  }
-  throw new Error('expected a GeotechError')
-}
 
 const twoLayers: StressProfileInput = {
   layers: [

@@ -1,6 +1,6 @@
 import { geometricMean, linearRegression, mean, rSquared, sampleStandardDeviation } from 'simple-statistics'
 import { describe, expect, it } from 'vitest'
-import { GeotechError } from '../../../shared/geotech/errors'
+import { expectGeotechError } from '../../helpers/geotech'
 import {
   evaluateTrend,
   fitTrend,
@@ -10,17 +10,6 @@ import {
   type TrendPoint,
 } from '../../../shared/geotech/trends'
 
-function expectGeotechError(fn: () => unknown, code: string): void {
-  let caught: unknown
-  try {
-    fn()
-  }
-  catch (error) {
-    caught = error
-  }
-  expect(caught).toBeInstanceOf(GeotechError)
-  expect((caught as GeotechError).code).toBe(code)
-}
 
 /** Deterministic noise: Park & Miller (1988) minimal standard generator, then Box–Muller for a normal deviate. */
 function noise(seed: number): () => number {

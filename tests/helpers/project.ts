@@ -1,0 +1,61 @@
+// Projects and points of a test's own, made through the public API.
+import type { ProjectRole } from '../../shared/auth/roles'
+import type { PointKind } from '../../shared/investigation/types'
+import { type Client, demoEmail, type Reply } from './http'
+
+let seq = 0
+
+/** A job number no other test (or earlier run against the same database) uses. */
+export function uniqueJobNumber(tag: string): string {
+  seq += 1
+  return `${tag}-${Date.now().toString(36)}${seq}`.slice(0, 40)
+}
+
+/** Throws with the reply when the status is not the expected one (set-up steps, not the behaviour under test). */
+export async function must<T>(what: string, pending: Promise<Reply<T>>, status = 200): Promise<T> {
+  const r = await pending
+  if (r.status !== status) throw new Error(`${what}: expected ${status}, got ${r.status} ${JSON.stringify(r.body).slice(0, 400)}`)
+  return r.body
+}
+
+/** A member to add: a demo role (the demo person holding it) or an explicit account. */
+export type MemberSpec = ProjectRole | { email: string, role: ProjectRole }
+
+export interface TestProject {
+  id: string
+  /** `/api/projects/{id}` */
+  base: string
+}
+
+/**
+ * Creates a project owned by `owner` with the given members.
+ * `tag` starts the job number (unique per call); `name` is the project's name.
+ */
+export async function createProject(owner: Client, tag: string, name: string, members: MemberSpec[] = [], extra: Record<string, unknown> = {}): Promise<TestProject> {
+  const created = await must(`creating project ${tag}`, owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: uniqueJobNumber(tag), name, ...extra }), 201)
+  const project = { id: created.project.id, base: `/api/projects/${created.project.id}` }
+  for (const m of members) await addMember(owner, project.id, m)
+  return project
+}
+
+export async function addMember(owner: Client, projectId: string, member: MemberSpec): Promise<void> {
+  const body = typeof member === 'string' ? { email: demoEmail(member), role: member } : member
+  await must(`adding ${body.email} as ${body.role}`, owner.post(`/api/projects/${projectId}/members`, body), 201)
+}
+
+export interface PointSpec {
+  identifier: string
+  kind?: PointKind
+  easting?: number
+  northing?: number
+  groundElevation?: number
+  finalDepth?: number
+  [field: string]: unknown
+}
+
+/** Creates an investigation point (a borehole unless `kind` says otherwise) and returns its id. */
+export async function createPoint(c: Client, projectId: string, point: PointSpec): Promise<string> {
+  const body = { kind: 'borehole', easting: 0, northing: 0, groundElevation: 2, finalDepth: 20, ...point }
+  const created = await must(`creating point ${point.identifier}`, c.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, body), 201)
+  return created.point.id
+}
