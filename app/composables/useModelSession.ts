@@ -1,7 +1,7 @@
 import { SiteModelDefinitionSchema, type SiteModelDefinition } from '#shared/site-model/definition'
 import { useModelEditorStore } from '~/stores/modelEditor'
 import type { WorkspaceEditor } from '~/composables/useTrendFits'
-import { diffDefinitions, type DefinitionChange } from '~/utils/siteModelEdits'
+import { diffDefinitions, type DefinitionChange } from '#shared/site-model/diff'
 import type { SiteModelRow } from '~/composables/useModel'
 
 export interface DraftConflict {

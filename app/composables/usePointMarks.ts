@@ -1,17 +1,15 @@
 import * as d3 from 'd3'
+import type { FlagVerdict } from '#shared/review/flags'
 import type { ModelWorkspace } from '~/composables/useModelWorkspace'
+import { strongestVerdict } from '~/utils/reviewDisplay'
 import { modelBase } from '~/utils/siteModelEdits'
 import { engineerExcluded, sampleTrend, stressAt, type PointState, type SigmaPoint, type TrendSample } from '~/utils/stressHistory'
 
-export type Verdict = 'exclude' | 'questionable' | 'accepted'
-
 /** A σ'p point where the stress track draws it (px in the track's own x, the drawing's y). */
-export interface PointMark { p: SigmaPoint, px: number, py: number, state: PointState, band: number, verdict: Verdict | null }
+export interface PointMark { p: SigmaPoint, px: number, py: number, state: PointState, band: number, verdict: FlagVerdict | null }
 
 /** A point's OCR or POP, in the ratio tracks' own x. */
 export interface RatioMark { ocr: number, pop: number, cy: number, ocrX: number, popX: number }
-
-const VERDICT_ORDER: readonly Verdict[] = ['exclude', 'questionable', 'accepted']
 
 /**
  * The x scales of the value tracks and where every σ'p point sits on them, for
@@ -57,8 +55,7 @@ export function usePointMarks(ws: ModelWorkspace, widths: () => { stress: number
     const excludedByBand = def.strata.map(s => engineerExcluded(s, pending))
     return ws.points.value.map((p, k) => {
       const band = bands[k] ?? -1
-      const list = flags.get(p.id)
-      const verdict = list ? VERDICT_ORDER.find(v => list.some(f => f.verdict === v)) ?? null : null
+      const verdict = strongestVerdict(flags.get(p.id)?.map(f => f.verdict) ?? [])
       let state: PointState
       if (band < 0 || !def.strata[band]) state = 'unassigned'
       else if (flaggedOut.has(p.id)) state = 'flagged-out'

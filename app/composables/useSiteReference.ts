@@ -1,16 +1,18 @@
 import type { ReferenceHole, SiteReference, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
-import type { StratumRow } from '~/composables/useStrata'
+import { useStrata } from '~/composables/useStrata'
 
 export type { LoggedBoundary, ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
 
 /**
- * What the logs say for the stress workspace: the project's strata list, and for
+ * What the logs say for the stress workspace: the project's strata list (the one
+ * cached list `useStrata` keeps, so an edit of the strata shows here too), and for
  * the reference layers the stratum changes per hole, logged bulk unit weights and
- * every groundwater observation with its date, in two requests. Read in the
+ * every groundwater observation with its date. The reference is read in the
  * browser only (the workspace renders client-side).
  */
 export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
-  const strata = shallowRef<StratumRow[]>([])
+  const strataList = useStrata(projectId)
+  const strata = computed(() => strataList.data.value.strata)
   const holes = shallowRef<ReferenceHole[]>([])
   const unitWeights = shallowRef<UnitWeightReading[]>([])
   const water = shallowRef<WaterReading[]>([])
@@ -23,12 +25,7 @@ export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
     loading.value = true
     error.value = ''
     try {
-      const base = `/api/projects/${id}`
-      const [s, ref] = await Promise.all([
-        api<{ strata: StratumRow[] }>(`${base}/strata`),
-        api<SiteReference>(`${base}/site-reference`),
-      ])
-      strata.value = s.strata
+      const ref = await api<SiteReference>(`/api/projects/${id}/site-reference`)
       holes.value = ref.holes
       unitWeights.value = ref.unitWeights
       water.value = ref.water
@@ -43,5 +40,9 @@ export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
   onMounted(load)
   watch(() => toValue(projectId), () => void load())
 
-  return { strata, holes: computed(() => holes.value), unitWeights: computed(() => unitWeights.value), water: computed(() => water.value), loading, error, refresh: load }
+  async function refresh() {
+    await Promise.all([strataList.refresh(), load()])
+  }
+
+  return { strata, holes: computed(() => holes.value), unitWeights: computed(() => unitWeights.value), water: computed(() => water.value), loading, error, refresh }
 }

@@ -26,8 +26,15 @@ export function useStrata(projectId: MaybeRefOrGetter<string>) {
   }
 
   /** Sends only the changed fields with the version read; 409 when someone else saved first. */
-  async function update(row: StratumRow, patch: Partial<StratumInput>): Promise<StratumRow> {
+  async function send(row: StratumRow, patch: Partial<StratumInput>): Promise<StratumRow> {
     const { stratum } = await api<{ stratum: StratumRow }>(`${base()}/${row.id}`, { method: 'PATCH', body: { ...patch, version: row.version } })
+    return stratum
+  }
+
+  /** `send`, then the list read again, so every user of the list sees the edit. */
+  async function update(row: StratumRow, patch: Partial<StratumInput>): Promise<StratumRow> {
+    const stratum = await send(row, patch)
+    await res.refresh()
     return stratum
   }
 
@@ -50,7 +57,7 @@ export function useStrata(projectId: MaybeRefOrGetter<string>) {
     try {
       for (const [i, s] of list.entries()) {
         const order = (i + 1) * 10
-        if (s.displayOrder !== order) await update(s, { displayOrder: order })
+        if (s.displayOrder !== order) await send(s, { displayOrder: order })
       }
     }
     finally {

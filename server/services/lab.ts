@@ -4,15 +4,16 @@ import { checkCompressionIndex, type CompressionIndexCheck } from '#shared/geote
 import { interpretOedometer, type OedometerInterpretation, type OedometerMethod } from '#shared/geotech/oedometer'
 import { createStressEvaluator, type StressAtDepth } from '#shared/geotech/stress'
 import { convertStages, degreeOfSaturation, e0FromWaterContent, specimenHeightAt, type StageConvention, type StageEntry } from '#shared/lab/stages'
+import { median } from '#shared/lab/statistics'
 import { analyseTimeCurve, MIN_TIME_READINGS, type SecondaryResult, type TaylorResult } from '#shared/lab/time-curve'
 import { toStressInput } from '#shared/site-model/convert'
 import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
 import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
-import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, siteModels, strata, users, type OedometerStageJson } from '../db/schema'
+import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
 import { recordAudit } from './audit'
-import { currentDefinition } from './site-models'
+import { stressModelInForce, type StressModelInfo } from './site-models'
 import { notFound, versionedUpdate } from './http-errors'
 
 export type OedometerTestRow = typeof oedometerTests.$inferSelect
@@ -26,15 +27,6 @@ type Db = ReturnType<typeof useDb> | Tx
 // The stress model in force
 // ---------------------------------------------------------------------------
 
-export interface StressModelInfo {
-  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
-  source: 'draft' | 'logs' | 'given'
-  modelId: string | null
-  modelName: string | null
-  /** How σ'v0 was obtained, in words for the page. */
-  description: string
-}
-
 export interface StressContext {
   info: StressModelInfo
   definition: SiteModelDefinition
@@ -47,20 +39,12 @@ export interface StressContext {
 }
 
 /**
- * σ'v0 for the interpretation pages: the stress model in force (`currentDefinition`) turned into
+ * σ'v0 for the interpretation pages: the stress model in force (`stressModelInForce`) turned into
  * an evaluator. A model the engine cannot use is 422 with the engine's message.
  */
 export async function stressContext(projectId: string): Promise<StressContext> {
-  const { definition, modelId, source } = await currentDefinition(projectId)
-  let modelName: string | null = null
-  if (modelId) {
-    const [m] = await useDb().select({ name: siteModels.name }).from(siteModels).where(eq(siteModels.id, modelId))
-    modelName = m?.name ?? null
-  }
-  const description = source === 'draft'
-    ? `Site model "${modelName ?? 'unnamed'}" (its current draft).`
-    : `No site model yet: strata at their mean logged thickness, hydrostatic pore pressure below the median standing level (${definition.groundwater.waterTableDepth} m).`
-  return stressContextOf(definition, { source, modelId, modelName, description })
+  const { definition, info } = await stressModelInForce(projectId)
+  return stressContextOf(definition, info)
 }
 
 /** The evaluator for a given definition (a working copy sent by the canvas, or a saved version). */
@@ -310,13 +294,6 @@ export function timeAnalysis(test: OedometerTestRow): StageTimeAnalysis[] {
       : { stage: i, stress: stage.stress, readings: readings.length, drainagePath, ok: false, reason: r.reason, taylor: null, secondary: null, notes: [] })
   })
   return out
-}
-
-function median(values: number[]): number | null {
-  if (!values.length) return null
-  const s = [...values].sort((a, b) => a - b)
-  const m = s.length >> 1
-  return s.length % 2 ? s[m]! : 0.5 * (s[m - 1]! + s[m]!)
 }
 
 /** Median cv and Cα of the loading stages beyond σ'p (the virgin range settlement uses) and below it. */

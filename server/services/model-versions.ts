@@ -37,28 +37,3 @@ export async function nextVersionNumber(tx: Tx, modelId: string): Promise<number
 export function assertDefinitionComputable(def: SiteModelDefinition) {
   runEngine(() => buildStressModel(toStressInput(def)))
 }
-
-/** Field-by-field differences between two definitions, as dotted paths (for the compare table). */
-export function diffDefinitions(a: unknown, b: unknown, path = ''): { path: string, a: unknown, b: unknown }[] {
-  if (Object.is(a, b)) return []
-  const isObj = (v: unknown): v is Record<string, unknown> => v !== null && typeof v === 'object'
-  if (Array.isArray(a) && Array.isArray(b)) {
-    // Long id lists are summarised rather than listed item by item.
-    if (path.endsWith('PointIds')) {
-      const sa = new Set(a as string[])
-      const sb = new Set(b as string[])
-      const added = [...sb].filter(x => !sa.has(x)).length
-      const removed = [...sa].filter(x => !sb.has(x)).length
-      return added || removed ? [{ path, a: `${a.length} points`, b: `${b.length} points (+${added} −${removed})` }] : []
-    }
-    const out: { path: string, a: unknown, b: unknown }[] = []
-    for (let i = 0; i < Math.max(a.length, b.length); i++) out.push(...diffDefinitions(a[i], b[i], `${path}[${i}]`))
-    return out
-  }
-  if (isObj(a) && isObj(b)) {
-    const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])].sort()
-    return keys.flatMap(k => diffDefinitions(a[k], b[k], path ? `${path}.${k}` : k))
-  }
-  return [{ path, a: a ?? null, b: b ?? null }]
-}
-

@@ -1,6 +1,7 @@
 import { and, asc, eq, isNotNull, isNull } from 'drizzle-orm'
 import { isGeotechError } from '#shared/geotech/errors'
 import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconsolidation, vanePreconsolidation, type CptProfile } from '#shared/geotech/insitu'
+import { median } from '#shared/lab/statistics'
 import { cptPointId } from '#shared/review/flags'
 import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint as SharedPreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
 import { useDb } from '../db/client'
@@ -178,13 +179,6 @@ async function plasticityIndices(projectId: string): Promise<PiSource[]> {
       const depth = sampleDepth(r)
       return { pointId: r.pointId, depth, stratumCode: stratumAtLogged(intervals.get(r.pointId) ?? [], depth), pi: r.ll! - r.pl! }
     })
-}
-
-function median(values: number[]): number | null {
-  if (!values.length) return null
-  const s = [...values].sort((a, b) => a - b)
-  const m = s.length >> 1
-  return s.length % 2 ? s[m]! : 0.5 * (s[m - 1]! + s[m]!)
 }
 
 /**

@@ -52,15 +52,28 @@ export async function definitionFromLogs(projectId: string, db: Database | Tx = 
   }
 }
 
+export interface StressModelInfo {
+  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
+  source: 'draft' | 'logs' | 'given'
+  modelId: string | null
+  modelName: string | null
+  /** How σ'v0 was obtained, in words for the page. */
+  description: string
+}
+
 /**
- * The stress model in force for the project's interpretation pages: the most
- * recently edited model's draft, or a model built from the logs when there is
- * none yet.
+ * The stress model in force for the project's interpretation pages (the one
+ * place that decides it): the most recently edited model's draft, or a model
+ * built from the logs when there is none yet, with what it is in words.
  */
-export async function currentDefinition(projectId: string): Promise<{ definition: SiteModelDefinition, modelId: string | null, source: 'draft' | 'logs' }> {
-  const [model] = await useDb().select().from(siteModels).where(eq(siteModels.projectId, projectId)).orderBy(desc(siteModels.updatedAt)).limit(1)
-  if (model) return { definition: model.draft, modelId: model.id, source: 'draft' }
-  return { definition: await definitionFromLogs(projectId), modelId: null, source: 'logs' }
+export async function stressModelInForce(projectId: string): Promise<{ definition: SiteModelDefinition, info: StressModelInfo }> {
+  const [model] = await useDb().select({ id: siteModels.id, name: siteModels.name, draft: siteModels.draft }).from(siteModels).where(eq(siteModels.projectId, projectId)).orderBy(desc(siteModels.updatedAt)).limit(1)
+  if (model) {
+    return { definition: model.draft, info: { source: 'draft', modelId: model.id, modelName: model.name, description: `Site model "${model.name}" (its current draft).` } }
+  }
+  const definition = await definitionFromLogs(projectId)
+  const description = `No site model yet: strata at their mean logged thickness, hydrostatic pore pressure below the median standing level (${definition.groundwater.waterTableDepth} m).`
+  return { definition, info: { source: 'logs', modelId: null, modelName: null, description } }
 }
 
 export async function latestVersion(modelId: string) {

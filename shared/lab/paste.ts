@@ -4,6 +4,7 @@
  * A decimal comma is read as a point when the cells are not comma-separated. Header rows (any
  * row whose first cell is not a number) are skipped; blank rows are ignored.
  */
+import Papa from 'papaparse'
 
 export interface PasteIssue {
   /** 1-based line of the pasted text. */
@@ -20,12 +21,24 @@ export interface PastedRows {
   skipped: number
 }
 
+/**
+ * A line's cells, read by papaparse (so a cell a spreadsheet quoted comes back
+ * without its quotes) with the line's own delimiter: a tab, else a semicolon,
+ * else runs of spaces, else a comma.
+ */
 function splitLine(line: string): string[] {
-  if (line.includes('\t')) return line.split('\t')
-  if (line.includes(';')) return line.split(';')
-  const trimmed = line.trim()
-  if (/\s/.test(trimmed)) return trimmed.split(/\s+/)
-  return trimmed.split(',')
+  let text = line
+  let delimiter = ','
+  if (line.includes('\t')) delimiter = '\t'
+  else if (line.includes(';')) delimiter = ';'
+  else {
+    text = line.trim()
+    if (/\s/.test(text)) {
+      text = text.replace(/\s+/g, ' ')
+      delimiter = ' '
+    }
+  }
+  return Papa.parse<string[]>(text, { delimiter, newline: '\n', skipEmptyLines: false }).data[0] ?? []
 }
 
 /** A cell as a number: "1.5", "1,5", " 2 560 " (thin or normal spaces as thousands separators). */

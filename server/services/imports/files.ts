@@ -1,5 +1,5 @@
 import Papa from 'papaparse'
-import { isBlankLine, type PlainCsvText } from '#shared/imports/cpt-csv'
+import { eachCsvRow, isBlankRow, type PlainCsvText } from '#shared/imports/cpt-csv'
 import { IMPORT_ROW_LIMITS, tooManyRows, UPLOAD_ROW_LIMIT } from '#shared/imports/limits'
 import type { ImportTarget } from '#shared/imports/targets'
 import { readWorkbookGrid } from './workbook'
@@ -173,10 +173,10 @@ export function csvNewline(text: string): '\n' | '\r\n' | '\r' {
 }
 
 /**
- * A CSV without quote characters, read as papaparse reads it (lines split on the
- * guessed line break, cells on the guessed delimiter) with the same header rules
- * as `readTable`, for a one-pass check of its columns. Null when the text has a
- * quote character: then the general reader applies.
+ * A CSV without quote characters, read by papaparse with the line break and
+ * delimiter it guesses, with the same header rules as `readTable`, for a one-pass
+ * check of its columns. Null when the text has a quote character: then the
+ * general reader applies.
  */
 export function openPlainCsv(buf: Buffer, filename: string): PlainCsvText | null {
   const text = decodeText(buf, filename)
@@ -184,31 +184,25 @@ export function openPlainCsv(buf: Buffer, filename: string): PlainCsvText | null
   const newline = csvNewline(text)
   // papaparse guesses the delimiter from the first ten lines only.
   const delimiter = Papa.parse<string[]>(firstLines(text, newline, 10), { skipEmptyLines: false, newline, preview: 1 }).meta.delimiter
-  let pos = 0
-  let row = 1
-  for (;;) {
-    let end = text.indexOf(newline, pos)
-    const last = end < 0
-    if (last) end = text.length
-    if (!isBlankLine(text, pos, end, delimiter)) {
-      const headers = headerNames(text.slice(pos, end).split(delimiter), filename)
-      const dataStart = last ? text.length : end + newline.length
-      if (!hasDataLine(text, dataStart, newline, delimiter)) throw new UploadError(`${filename} has a header but no data rows.`, 'empty-file')
-      return { text, newline, delimiter, headers, dataStart, dataRow: row + 1 }
+  // The header is the first non-blank row, and a data row must follow it: read the first lines, more if need be.
+  for (let lines = 16; ; lines *= 16) {
+    const part = firstLines(text, newline, lines)
+    let header: { cells: string[], index: number } | null = null
+    let hasData = false
+    eachCsvRow(part, { newline, delimiter }, (cells, index) => {
+      if (isBlankRow(cells)) return
+      if (header) {
+        hasData = true
+        return false
+      }
+      header = { cells, index }
+    })
+    const found = header as { cells: string[], index: number } | null
+    if (hasData || part.length === text.length) {
+      if (!found) throw new UploadError(`${filename} has no header row.`, 'empty-file')
+      const headers = headerNames(found.cells, filename)
+      if (!hasData) throw new UploadError(`${filename} has a header but no data rows.`, 'empty-file')
+      return { text, newline, delimiter, headers, headerRow: found.index }
     }
-    if (last) throw new UploadError(`${filename} has no header row.`, 'empty-file')
-    pos = end + newline.length
-    row++
-  }
-}
-
-function hasDataLine(text: string, pos: number, newline: string, delimiter: string): boolean {
-  for (;;) {
-    let end = text.indexOf(newline, pos)
-    const last = end < 0
-    if (last) end = text.length
-    if (!isBlankLine(text, pos, end, delimiter)) return true
-    if (last) return false
-    pos = end + newline.length
   }
 }

@@ -100,6 +100,10 @@ describe('pasting from a spreadsheet', () => {
     expect(parseStagePaste('5;2,08').stages).toEqual([{ stress: 5, value: 2.08 }])
   })
 
+  it('reads a cell the spreadsheet quoted without its quotes', () => {
+    expect(parseStagePaste('"5"\t"2,08"\n10\t"2.07"').stages).toEqual([{ stress: 5, value: 2.08 }, { stress: 10, value: 2.07 }])
+  })
+
   it('reads cells strictly', () => {
     expect(parseCell(' 1,5 ')).toBe(1.5)
     expect(parseCell('1e3')).toBe(1000)

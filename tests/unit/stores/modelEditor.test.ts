@@ -5,9 +5,10 @@ import { SITE_MODEL_SCHEMA_VERSION, SiteModelDefinitionSchema, stratumBounds, ty
 import { computeStressProfile } from '../../../shared/geotech/stress'
 import { toStressInput } from '../../../shared/site-model/convert'
 import { depthTrendCandidates, type TestCompressibility } from '../../../shared/site-model/compressibility'
+import { diffDefinitions } from '../../../shared/site-model/diff'
 import { HISTORY_LIMIT, localKey, useModelEditorStore } from '../../../app/stores/modelEditor'
 import {
-  addPiezometer, diffDefinitions, modelBase, moveBoundary, movePiezometer, removeBoundary, setBandStratum, setCompressibility,
+  addPiezometer, modelBase, moveBoundary, movePiezometer, removeBoundary, setBandStratum, setCompressibility,
   setCompressibilityTrend, setTrend, setUnitWeight, setWaterTable, splitBand, stableJson,
 } from '../../../app/utils/siteModelEdits'
 

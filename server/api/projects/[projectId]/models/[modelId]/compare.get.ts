@@ -1,7 +1,8 @@
 import { computeStressProfile } from '#shared/geotech/stress'
 import { CompareQuerySchema, ModelParamsSchema } from '#shared/schemas/models'
 import { toStressInput } from '#shared/site-model/convert'
-import { diffDefinitions, requireModel, requireVersion } from '~~/server/services/model-versions'
+import { diffDefinitions } from '#shared/site-model/diff'
+import { requireModel, requireVersion } from '~~/server/services/model-versions'
 
 /** What changed between two saved versions, and both stress profiles to overlay. */
 export default defineEventHandler(async (event) => {
