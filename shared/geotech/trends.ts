@@ -3,6 +3,8 @@
  * constant POP, constant OCR and a crust model, fitted by weighted least squares (optionally on ln σ'p),
  * compared by AICc, with a confidence band of the mean response. Depth z in m (positive down), stresses in kPa.
  */
+import { inv, lup, lusolve, type LUDecomposition } from 'mathjs'
+import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { GeotechError } from './errors'
 
 export const TREND_MODELS = ['constant', 'linear', 'pop', 'ocr', 'crust'] as const
@@ -157,85 +159,13 @@ export function popProfile(fit: TrendFit, stressPoints: readonly StressPoint[]):
 // Student t quantile
 // ---------------------------------------------------------------------------
 
-/**
- * Quantile of Student's t distribution with `dof` degrees of freedom, by bisection on the exact CDF
- * F(t) = 1 − ½·I_{ν/(ν+t²)}(ν/2, ½) (regularised incomplete beta by continued fraction, Press et al. 2007).
- */
+/** Quantile of Student's t distribution with `dof` degrees of freedom (stdlib's inverse of the t CDF). */
 export function studentTQuantile(p: number, dof: number): number {
   if (!(p > 0 && p < 1)) throw new GeotechError('probability-out-of-range', `A quantile needs 0 < p < 1 (got ${p}).`)
   if (!(dof > 0) || !Number.isFinite(dof)) throw new GeotechError('degrees-of-freedom-not-positive', `Degrees of freedom must be positive (got ${dof}).`)
   if (p === 0.5) return 0
-  if (p < 0.5) return -studentTQuantile(1 - p, dof)
-  const tail = 1 - p
-  const upperTail = (t: number): number => 0.5 * regularizedIncompleteBeta(dof / (dof + t * t), dof / 2, 0.5)
-  let lo = 0
-  let hi = 1
-  while (upperTail(hi) > tail) {
-    lo = hi
-    hi *= 2
-  }
-  for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i++) {
-    const mid = 0.5 * (lo + hi)
-    if (upperTail(mid) > tail) lo = mid
-    else hi = mid
-  }
-  return 0.5 * (lo + hi)
-}
-
-const LANCZOS = [
-  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
-  12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
-]
-
-/** ln Γ(x), Lanczos approximation (g = 7, nine terms), accurate to about 15 digits. */
-function lnGamma(x: number): number {
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - lnGamma(1 - x)
-  const xm = x - 1
-  let a = LANCZOS[0]!
-  const t = xm + 7.5
-  for (let i = 1; i < 9; i++) a += LANCZOS[i]! / (xm + i)
-  return 0.5 * Math.log(2 * Math.PI) + (xm + 0.5) * Math.log(t) - t + Math.log(a)
-}
-
-function regularizedIncompleteBeta(x: number, a: number, b: number): number {
-  if (x <= 0) return 0
-  if (x >= 1) return 1
-  const front = Math.exp(lnGamma(a + b) - lnGamma(a) - lnGamma(b) + a * Math.log(x) + b * Math.log1p(-x))
-  if (x < (a + 1) / (a + b + 2)) return (front * betaContinuedFraction(x, a, b)) / a
-  return 1 - (front * betaContinuedFraction(1 - x, b, a)) / b
-}
-
-/** Lentz's evaluation of the incomplete-beta continued fraction. */
-function betaContinuedFraction(x: number, a: number, b: number): number {
-  const tiny = 1e-300
-  const qab = a + b
-  const qap = a + 1
-  const qam = a - 1
-  let c = 1
-  let d = 1 - (qab * x) / qap
-  if (Math.abs(d) < tiny) d = tiny
-  d = 1 / d
-  let h = d
-  for (let m = 1; m <= 500; m++) {
-    const m2 = 2 * m
-    let aa = (m * (b - m) * x) / ((qam + m2) * (a + m2))
-    d = 1 + aa * d
-    if (Math.abs(d) < tiny) d = tiny
-    c = 1 + aa / c
-    if (Math.abs(c) < tiny) c = tiny
-    d = 1 / d
-    h *= d * c
-    aa = (-(a + m) * (qab + m) * x) / ((a + m2) * (qap + m2))
-    d = 1 + aa * d
-    if (Math.abs(d) < tiny) d = tiny
-    c = 1 + aa / c
-    if (Math.abs(c) < tiny) c = tiny
-    d = 1 / d
-    const del = d * c
-    h *= del
-    if (Math.abs(del - 1) < 1e-16) break
-  }
-  return h
+  if (p < 0.5) return -tQuantile(1 - p, dof)
+  return tQuantile(p, dof)
 }
 
 // ---------------------------------------------------------------------------
@@ -854,48 +784,39 @@ function bandDepths(top: number, bottom: number, count: number): number[] {
 }
 
 // ---------------------------------------------------------------------------
-// Small dense linear algebra (p ≤ 4)
+// Small dense linear algebra (p ≤ 4), by mathjs
 // ---------------------------------------------------------------------------
 
-/** Solves A·x = b by Gaussian elimination with partial pivoting; undefined when A is singular. */
-function solveLinear(a: Float64Array, b: Float64Array, p: number): Float64Array | undefined {
-  const m = Float64Array.from(a)
-  const x = Float64Array.from(b)
-  let scale = 0
-  for (let i = 0; i < p * p; i++) scale = Math.max(scale, Math.abs(m[i]!))
-  for (let col = 0; col < p; col++) {
-    let pivot = col
-    for (let r = col + 1; r < p; r++) if (Math.abs(m[r * p + col]!) > Math.abs(m[pivot * p + col]!)) pivot = r
-    if (!(Math.abs(m[pivot * p + col]!) > 1e-13 * scale)) return undefined
-    if (pivot !== col) {
-      for (let c = 0; c < p; c++) [m[col * p + c], m[pivot * p + c]] = [m[pivot * p + c]!, m[col * p + c]!]
-      ;[x[col], x[pivot]] = [x[pivot]!, x[col]!]
-    }
-    for (let r = col + 1; r < p; r++) {
-      const f = m[r * p + col]! / m[col * p + col]!
-      for (let c = col; c < p; c++) m[r * p + c] = m[r * p + c]! - f * m[col * p + c]!
-      x[r] = x[r]! - f * x[col]!
-    }
-  }
-  for (let r = p - 1; r >= 0; r--) {
-    let s = x[r]!
-    for (let c = r + 1; c < p; c++) s -= m[r * p + c]! * x[c]!
-    x[r] = s / m[r * p + r]!
-  }
-  return x
+function rows(a: Float64Array, p: number): number[][] {
+  return Array.from({ length: p }, (_, r) => Array.from(a.subarray(r * p, r * p + p)))
 }
 
+/**
+ * LU decomposition with partial pivoting (mathjs `lup`); undefined when A is singular, that is when a
+ * pivot is below 1e-13 of A's largest entry (a looser test than mathjs' exact zero, so near-singular
+ * normal equations are reported rather than solved into noise).
+ */
+function decompose(a: Float64Array, p: number): LUDecomposition | undefined {
+  let scale = 0
+  for (let i = 0; i < p * p; i++) scale = Math.max(scale, Math.abs(a[i]!))
+  const lu = lup(rows(a, p))
+  const u = lu.U as number[][]
+  for (let i = 0; i < p; i++) if (!(Math.abs(u[i]![i]!) > 1e-13 * scale)) return undefined
+  return lu
+}
+
+/** Solves A·x = b (mathjs `lusolve` on the LU decomposition); undefined when A is singular. */
+function solveLinear(a: Float64Array, b: Float64Array, p: number): Float64Array | undefined {
+  const lu = decompose(a, p)
+  if (!lu) return undefined
+  const x = lusolve(lu, Array.from(b)).valueOf() as number[][]
+  return Float64Array.from(x, r => r[0]!)
+}
+
+/** A⁻¹ (mathjs `inv`); undefined when A is singular. */
 function invertMatrix(a: Float64Array, p: number): Float64Array | undefined {
-  const inv = new Float64Array(p * p)
-  const e = new Float64Array(p)
-  for (let c = 0; c < p; c++) {
-    e.fill(0)
-    e[c] = 1
-    const col = solveLinear(a, e, p)
-    if (!col) return undefined
-    for (let r = 0; r < p; r++) inv[r * p + c] = col[r]!
-  }
-  return inv
+  if (!decompose(a, p)) return undefined
+  return Float64Array.from((inv(rows(a, p))).flat())
 }
 
 // ---------------------------------------------------------------------------
