@@ -1,4 +1,5 @@
 import { FLAG_VERDICTS, VERDICT_LABELS, type FlagTarget, type FlagVerdict } from '#shared/review/flags'
+import { formatDate } from './dates'
 
 /**
  * How Pastload shows a reviewer's verdict: a short word, a ring glyph in the
@@ -80,12 +81,12 @@ export function flagDate(iso: string | null | undefined): string {
   if (!iso) return ''
   const d = new Date(iso)
   if (Number.isNaN(d.getTime())) return ''
-  return d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })
+  return formatDate(d)
 }
 
 export function flagDateTime(iso: string | null | undefined): string {
   if (!iso) return ''
   const d = new Date(iso)
   if (Number.isNaN(d.getTime())) return ''
-  return `${flagDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`
+  return formatDate(d, 'dateTime')
 }
