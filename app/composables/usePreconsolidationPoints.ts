@@ -1,3 +1,4 @@
+import seedrandom from 'seedrandom'
 import type { FlagVerdict } from '#shared/review/flags'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
@@ -35,24 +36,12 @@ export interface DenseLayer {
 
 const EMPTY_DENSE: DenseLayer = { depth: new Float32Array(0), preconsolidation: new Float32Array(0), count: 0, soundings: 0, synthetic: 0 }
 
-/** A small seeded generator (mulberry32), so benchmark points are the same on every run. */
-function seeded(seed: number) {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6D2B79F5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
-
 /**
  * Synthetic CPT-like σ'p rows for the canvas benchmark only (`?bench=N`): σ'p rising
  * with depth with log-normal scatter, over the model's depth. Never sent anywhere.
  */
 function syntheticRows(n: number, maxDepth: number): { depth: number[], value: number[] } {
-  const rnd = seeded(417)
+  const rnd = seedrandom('417') // seeded: benchmark points are the same on every run
   const depth: number[] = new Array(n)
   const value: number[] = new Array(n)
   for (let i = 0; i < n; i++) {

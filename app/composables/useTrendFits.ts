@@ -1,3 +1,4 @@
+import { toRaw } from 'vue'
 import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { setTrend } from '~/utils/siteModelEdits'
 import {
@@ -126,7 +127,7 @@ export function useTrendFits(args: {
     const g = editor.startGesture()
     const n = [...byBand.values()].reduce((a, l) => a + l.length, 0)
     editor.edit(`${exclude ? 'Leave out' : 'Take back'} ${n} point${n === 1 ? '' : 's'}`, (d, pend) => {
-      const out = JSON.parse(JSON.stringify(d)) as SiteModelDefinition
+      const out = structuredClone(toRaw(d))
       const pendOut = { ...pend }
       for (const [b, list] of byBand) {
         const s = out.strata[b]

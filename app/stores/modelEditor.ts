@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import { computed, ref, shallowRef } from 'vue'
+import { computed, ref, shallowRef, toRaw } from 'vue'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { stableJson } from '../utils/siteModelEdits'
 
@@ -56,7 +56,7 @@ function storage(): Storage | null {
 }
 
 function copy<T>(v: T): T {
-  return JSON.parse(JSON.stringify(v)) as T
+  return structuredClone(toRaw(v))
 }
 
 function isLocalDraft(v: unknown): v is LocalDraft {

@@ -1,5 +1,6 @@
 import { SAMPLE_QUALITY_CLASSES, type SampleQualityClass } from '#shared/geotech/oedometer'
 import type { AdoptionMethod } from '#shared/schemas/lab'
+import { formatDate } from './dates'
 
 /** Names of the sample-quality classes of Lunne, Berre & Strandvik (1997). */
 export const QUALITY_LABELS: Record<SampleQualityClass, string> = {
@@ -68,5 +69,5 @@ export function kPa(v: number | null | undefined, digits = 1): string {
 export function shortDate(iso: string | null | undefined): string {
   if (!iso) return '—'
   const t = new Date(iso)
-  return Number.isNaN(t.getTime()) ? iso : t.toLocaleString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' })
+  return Number.isNaN(t.getTime()) ? iso : formatDate(t, 'dateTime', { utc: true })
 }

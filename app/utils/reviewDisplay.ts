@@ -1,4 +1,5 @@
 import { FLAG_VERDICTS, VERDICT_LABELS, type FlagTarget, type FlagVerdict } from '#shared/review/flags'
+import { formatDate } from './dates'
 
 /**
  * How Pastload shows a reviewer's verdict: a short word, a ring glyph in the
@@ -64,28 +65,16 @@ export const TARGET_LABELS: Record<FlagTarget, string> = {
   'vane-reading': 'Field vane σ\'p',
 }
 
-/**
- * The verdict glyph as SVG markup in a 14 × 14 box centred on 0,0 (our own
- * constant strings, safe for v-html).
- */
-export function verdictGlyph(v: FlagVerdict): string {
-  const c = VERDICT_LOOKS[v].colour
-  const ring = (dash: string) => `<circle r="5.2" fill="#fff" stroke="${c}" stroke-width="1.7"${dash ? ` stroke-dasharray="${dash}"` : ''}/>`
-  if (v === 'exclude') return `${ring('')}<path d="M-3.4,3.4L3.4,-3.4" stroke="${c}" stroke-width="1.7" stroke-linecap="round"/>`
-  if (v === 'questionable') return `${ring('2.6 1.5')}<circle r="1.6" fill="${c}"/>`
-  return `${ring('')}<path d="M-2.6,0.2L-0.7,2.2L2.8,-2" fill="none" stroke="${c}" stroke-width="1.7" stroke-linecap="round" stroke-linejoin="round"/>`
-}
-
 export function flagDate(iso: string | null | undefined): string {
   if (!iso) return ''
   const d = new Date(iso)
   if (Number.isNaN(d.getTime())) return ''
-  return d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })
+  return formatDate(d)
 }
 
 export function flagDateTime(iso: string | null | undefined): string {
   if (!iso) return ''
   const d = new Date(iso)
   if (Number.isNaN(d.getTime())) return ''
-  return `${flagDate(iso)}, ${d.toLocaleTimeString('en-GB', { hour: '2-digit', minute: '2-digit' })}`
+  return formatDate(d, 'dateTime')
 }

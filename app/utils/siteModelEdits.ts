@@ -1,5 +1,7 @@
 import type { Compressibility, CompressibilityKey, DepthTrend, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition'
+import { configure } from 'safe-stable-stringify'
+import { toRaw } from 'vue'
 
 /**
  * Pure edits of a site-model definition, one function per gesture of the stress
@@ -19,7 +21,7 @@ const round = (v: number, digits: number) => {
 export const roundDepth = (z: number) => round(z, 3)
 
 function clone(def: SiteModelDefinition): SiteModelDefinition {
-  return JSON.parse(JSON.stringify(def)) as SiteModelDefinition
+  return structuredClone(toRaw(def))
 }
 
 function band(def: SiteModelDefinition, i: number): ModelStratum {
@@ -68,7 +70,7 @@ export function splitBand(def: SiteModelDefinition, i: number, depth: number): S
   if (!b) throw new RangeError(`No band ${i}.`)
   const z = roundDepth(depth)
   if (z - b.top < MIN_BAND_THICKNESS || b.bottom - z < MIN_BAND_THICKNESS) return out
-  const lower: ModelStratum = { ...JSON.parse(JSON.stringify(s)) as ModelStratum, thickness: roundDepth(b.bottom - z) }
+  const lower: ModelStratum = { ...structuredClone(toRaw(s)), thickness: roundDepth(b.bottom - z) }
   delete lower.trend
   s.thickness = roundDepth(z - b.top)
   out.strata.splice(i + 1, 0, lower)
@@ -150,7 +152,7 @@ function cleanPiezometer(p: PiezometerPoint): PiezometerPoint {
 export function setTrend(def: SiteModelDefinition, i: number, trend: StratumTrend | null): SiteModelDefinition {
   const out = clone(def)
   const s = band(out, i)
-  if (trend) s.trend = JSON.parse(JSON.stringify(trend)) as StratumTrend
+  if (trend) s.trend = structuredClone(toRaw(trend))
   else delete s.trend
   return out
 }
@@ -185,7 +187,7 @@ export function setCompressibilityTrend(def: SiteModelDefinition, i: number, key
   const c: Compressibility = { cc: 0, cr: 0, e0: 1, drainage: 'double', source: 'manual', ...s.compressibility }
   const trends = { ...c.trends }
   if (trend) {
-    trends[key] = JSON.parse(JSON.stringify(trend)) as DepthTrend
+    trends[key] = structuredClone(toRaw(trend))
     if ((key === 'cv' || key === 'calpha') && c[key] === undefined) c[key] = trend.value
     out.schemaVersion = SITE_MODEL_SCHEMA_VERSION
   }
@@ -215,15 +217,9 @@ export function bandAt(def: Pick<SiteModelDefinition, 'strata'>, depth: number):
   return i === -1 ? Math.max(0, bounds.length - 1) : i
 }
 
+const sortedJson = configure({ deterministic: true, circularValue: TypeError, bigint: false })
+
 /** JSON with object keys sorted, so two equal definitions serialise alike whatever order the keys came in. */
 export function stableJson(value: unknown): string {
-  return JSON.stringify(value, (_key, v: unknown) => {
-    if (v && typeof v === 'object' && !Array.isArray(v)) {
-      const src = v as Record<string, unknown>
-      const sorted: Record<string, unknown> = {}
-      for (const k of Object.keys(src).sort()) sorted[k] = src[k]
-      return sorted
-    }
-    return v
-  })
+  return sortedJson(value) ?? ''
 }

@@ -48,20 +48,12 @@ export function patternMarkup(id: string, a: ResolvedAppearance, scale = 1): str
     + `<g style="color:${a.colour.ink}">${a.pattern.svg}</g></pattern>`
 }
 
-/** Diagonal hatching for depths that are not logged. */
-export function gapPatternMarkup(id: string): string {
-  return `<pattern id="${id}" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">`
-    + '<rect width="6" height="6" fill="#ffffff"/><path d="M0,0V6" stroke="#978a72" stroke-width="1.2"/></pattern>'
-}
+/** Diagonal hatching for depths that are not logged (one definition for the D3 log and the key). */
+export const GAP_PATTERN = { size: 6, angle: 45, background: '#ffffff', d: 'M0,0V6', ink: '#978a72', strokeWidth: 1.2 } as const
 
-/**
- * A whole `<svg>` swatch of a stratum look, for `v-html`. The id depends only on the look, so
- * repeated swatches share identical definitions and server and client render the same markup.
- */
-export function swatchSvg(a: ResolvedAppearance, width = 40, height = 24, label = ''): string {
-  const id = `sw-${a.colour.key}-${a.pattern.key}`
-  const aria = label ? `role="img" aria-label="${label.replace(/"/g, '&quot;')}"` : 'aria-hidden="true"'
-  return `<svg width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" ${aria} focusable="false">`
-    + `<defs>${patternMarkup(id, a)}</defs>`
-    + `<rect x="0.5" y="0.5" width="${width - 1}" height="${height - 1}" fill="url(#${id})" stroke="#564e44" stroke-width="1"/></svg>`
+/** The hatching as a `<pattern>` in markup, for D3 drawings. */
+export function gapPatternMarkup(id: string): string {
+  const g = GAP_PATTERN
+  return `<pattern id="${id}" width="${g.size}" height="${g.size}" patternUnits="userSpaceOnUse" patternTransform="rotate(${g.angle})">`
+    + `<rect width="${g.size}" height="${g.size}" fill="${g.background}"/><path d="${g.d}" stroke="${g.ink}" stroke-width="${g.strokeWidth}"/></pattern>`
 }

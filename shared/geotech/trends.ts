@@ -3,93 +3,12 @@
  * constant POP, constant OCR and a crust model, fitted by weighted least squares (optionally on ln σ'p),
  * compared by AICc, with a confidence band of the mean response. Depth z in m (positive down), stresses in kPa.
  */
+import { inv, lup, lusolve, type LUDecomposition } from 'mathjs'
+import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { GeotechError } from './errors'
+import { evaluateTrend, MODEL_NAMES, type CrustBelowModel, type TrendBandPoint, type TrendCandidate, type TrendFit, type TrendModel, type TrendOptions, type TrendPoint } from './trend-model'
 
-export const TREND_MODELS = ['constant', 'linear', 'pop', 'ocr', 'crust'] as const
-export type TrendModel = (typeof TREND_MODELS)[number]
-/** Models that can sit below the crust's breakpoint. */
-export type CrustBelowModel = Exclude<TrendModel, 'crust'>
-
-/** One σ'p value at a depth, from any source (oedometer, CPTu, vane). */
-export interface TrendPoint {
-  depth: number
-  preconsolidation: number
-  /** σ'v0 at the same depth (kPa); needed by the POP, OCR and crust-over-POP/OCR models. */
-  effectiveStress?: number
-  /** Relative weight (default 1); 0 leaves the point out of the fit. */
-  weight?: number
-}
-
-export interface TrendOptions {
-  model: TrendModel | 'auto'
-  /**
-   * Fit on ln σ'p, for scatter that grows with σ'p. The model keeps its form; residuals are ln σ'p − ln f(z).
-   * `fitted` values and parameters are then the median response (exp of the fitted ln value), not the mean.
-   */
-  logSpace?: boolean
-  /** Model below the crust breakpoint; constant POP when every point has σ'v0, else constant σ'p. */
-  crustBelow?: CrustBelowModel
-  /** Number of evenly spaced depths in the band (default 50). */
-  bandPoints?: number
-  /** Two-sided confidence level of the band (default 0.95). */
-  confidence?: number
-  /**
-   * σ'v0 at any depth, from the stress model. Needed by POP/OCR-type models at the band depths and at the
-   * crust breakpoint; without it σ'v0 is interpolated linearly between the points' own values.
-   */
-  effectiveStressAt?: (depth: number) => number
-}
-
-export interface TrendBandPoint {
-  depth: number
-  fitted: number
-  lower: number
-  upper: number
-}
-
-export type TrendCandidate =
-  | { model: TrendModel, aic: number, aicc: number, r2: number, rmse: number, parameters: Record<string, number> }
-  | { model: TrendModel, skipped: string }
-
-export interface TrendFit {
-  model: TrendModel
-  /** Model below the breakpoint, for the crust model. */
-  crustBelow?: CrustBelowModel
-  logSpace: boolean
-  /**
-   * constant: preconsolidation · linear: intercept, gradient (σ'p = intercept + gradient·z) · pop: pop ·
-   * ocr: ocr · crust: breakpointDepth, crustGradient, valueAtBreakpoint (σ'p = value + gradient·(z − zb) above zb),
-   * effectiveStressAtBreakpoint (POP/OCR below) and the parameters of the model below.
-   */
-  parameters: Record<string, number>
-  /** Points fitted (weight > 0). */
-  n: number
-  /** Parameters counted by AIC: the trend's own (breakpoint included) plus the residual variance. */
-  k: number
-  /** 1 − RSS/TSS on the fitting scale, TSS about the weighted mean (0 by definition for `constant`). */
-  r2: number
-  /** Weighted root-mean-square residual on the fitting scale (kPa, or ln units in log space). */
-  rmse: number
-  /** n·ln(RSS/n) + 2k (Akaike 1974), weights normalised to mean 1. */
-  aic: number
-  /** AIC + 2k(k+1)/(n − k − 1) (Hurvich & Tsai 1989); Infinity when n ≤ k + 1. */
-  aicc: number
-  /** Confidence band of the mean response over the fitted depth range (breakpoint held fixed for `crust`). */
-  band: TrendBandPoint[]
-  depthRange: { top: number, bottom: number }
-  /** For `auto`: why this model was chosen, in words. */
-  reason?: string
-  /** For `auto`: every model tried. */
-  candidates?: TrendCandidate[]
-}
-
-const MODEL_NAMES: Record<TrendModel, string> = {
-  constant: 'constant σ\'p',
-  linear: 'σ\'p linear in depth',
-  pop: 'constant POP',
-  ocr: 'constant OCR',
-  crust: 'crust',
-}
+export * from './trend-model'
 
 /** Largest number of breakpoint depths tried before refinement, so large point sets stay fast. */
 const MAX_BREAKPOINT_CANDIDATES = 120
@@ -101,33 +20,6 @@ const MAX_BREAKPOINT_CANDIDATES = 120
 export function fitTrend(points: readonly TrendPoint[], options: TrendOptions): TrendFit {
   if (options.model === 'auto') return fitAuto(points, options)
   return fitModel(points, options.model, options)
-}
-
-/** σ'p of a fitted trend at a depth; POP/OCR-type models need σ'v0 there. */
-export function evaluateTrend(fit: TrendFit, depth: number, effectiveStress?: number): number {
-  const p = fit.parameters
-  const needStress = (): number => {
-    if (effectiveStress === undefined) {
-      throw new GeotechError('effective-stress-missing', `The ${MODEL_NAMES[fit.model]} trend needs σ'v0 at ${depth} m.`, { depth })
-    }
-    if (!Number.isFinite(effectiveStress) || effectiveStress <= 0) {
-      throw new GeotechError('effective-stress-not-positive', `σ'v0 must be positive (got ${effectiveStress} kPa at ${depth} m).`, { depth })
-    }
-    return effectiveStress
-  }
-  const below = (model: CrustBelowModel): number => {
-    switch (model) {
-      case 'constant': return p.preconsolidation!
-      case 'linear': return p.intercept! + p.gradient! * depth
-      case 'pop': return needStress() + p.pop!
-      case 'ocr': return p.ocr! * needStress()
-    }
-  }
-  if (fit.model === 'crust') {
-    if (depth < p.breakpointDepth!) return p.valueAtBreakpoint! + p.crustGradient! * (depth - p.breakpointDepth!)
-    return below(fit.crustBelow ?? 'constant')
-  }
-  return below(fit.model)
 }
 
 export interface StressPoint {
@@ -157,85 +49,13 @@ export function popProfile(fit: TrendFit, stressPoints: readonly StressPoint[]):
 // Student t quantile
 // ---------------------------------------------------------------------------
 
-/**
- * Quantile of Student's t distribution with `dof` degrees of freedom, by bisection on the exact CDF
- * F(t) = 1 − ½·I_{ν/(ν+t²)}(ν/2, ½) (regularised incomplete beta by continued fraction, Press et al. 2007).
- */
+/** Quantile of Student's t distribution with `dof` degrees of freedom (stdlib's inverse of the t CDF). */
 export function studentTQuantile(p: number, dof: number): number {
   if (!(p > 0 && p < 1)) throw new GeotechError('probability-out-of-range', `A quantile needs 0 < p < 1 (got ${p}).`)
   if (!(dof > 0) || !Number.isFinite(dof)) throw new GeotechError('degrees-of-freedom-not-positive', `Degrees of freedom must be positive (got ${dof}).`)
   if (p === 0.5) return 0
-  if (p < 0.5) return -studentTQuantile(1 - p, dof)
-  const tail = 1 - p
-  const upperTail = (t: number): number => 0.5 * regularizedIncompleteBeta(dof / (dof + t * t), dof / 2, 0.5)
-  let lo = 0
-  let hi = 1
-  while (upperTail(hi) > tail) {
-    lo = hi
-    hi *= 2
-  }
-  for (let i = 0; i < 200 && hi - lo > 1e-15 * hi; i++) {
-    const mid = 0.5 * (lo + hi)
-    if (upperTail(mid) > tail) lo = mid
-    else hi = mid
-  }
-  return 0.5 * (lo + hi)
-}
-
-const LANCZOS = [
-  0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
-  12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
-]
-
-/** ln Γ(x), Lanczos approximation (g = 7, nine terms), accurate to about 15 digits. */
-function lnGamma(x: number): number {
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - lnGamma(1 - x)
-  const xm = x - 1
-  let a = LANCZOS[0]!
-  const t = xm + 7.5
-  for (let i = 1; i < 9; i++) a += LANCZOS[i]! / (xm + i)
-  return 0.5 * Math.log(2 * Math.PI) + (xm + 0.5) * Math.log(t) - t + Math.log(a)
-}
-
-function regularizedIncompleteBeta(x: number, a: number, b: number): number {
-  if (x <= 0) return 0
-  if (x >= 1) return 1
-  const front = Math.exp(lnGamma(a + b) - lnGamma(a) - lnGamma(b) + a * Math.log(x) + b * Math.log1p(-x))
-  if (x < (a + 1) / (a + b + 2)) return (front * betaContinuedFraction(x, a, b)) / a
-  return 1 - (front * betaContinuedFraction(1 - x, b, a)) / b
-}
-
-/** Lentz's evaluation of the incomplete-beta continued fraction. */
-function betaContinuedFraction(x: number, a: number, b: number): number {
-  const tiny = 1e-300
-  const qab = a + b
-  const qap = a + 1
-  const qam = a - 1
-  let c = 1
-  let d = 1 - (qab * x) / qap
-  if (Math.abs(d) < tiny) d = tiny
-  d = 1 / d
-  let h = d
-  for (let m = 1; m <= 500; m++) {
-    const m2 = 2 * m
-    let aa = (m * (b - m) * x) / ((qam + m2) * (a + m2))
-    d = 1 + aa * d
-    if (Math.abs(d) < tiny) d = tiny
-    c = 1 + aa / c
-    if (Math.abs(c) < tiny) c = tiny
-    d = 1 / d
-    h *= d * c
-    aa = (-(a + m) * (qab + m) * x) / ((a + m2) * (qap + m2))
-    d = 1 + aa * d
-    if (Math.abs(d) < tiny) d = tiny
-    c = 1 + aa / c
-    if (Math.abs(c) < tiny) c = tiny
-    d = 1 / d
-    const del = d * c
-    h *= del
-    if (Math.abs(del - 1) < 1e-16) break
-  }
-  return h
+  if (p < 0.5) return -tQuantile(1 - p, dof)
+  return tQuantile(p, dof)
 }
 
 // ---------------------------------------------------------------------------
@@ -854,48 +674,39 @@ function bandDepths(top: number, bottom: number, count: number): number[] {
 }
 
 // ---------------------------------------------------------------------------
-// Small dense linear algebra (p ≤ 4)
+// Small dense linear algebra (p ≤ 4), by mathjs
 // ---------------------------------------------------------------------------
 
-/** Solves A·x = b by Gaussian elimination with partial pivoting; undefined when A is singular. */
-function solveLinear(a: Float64Array, b: Float64Array, p: number): Float64Array | undefined {
-  const m = Float64Array.from(a)
-  const x = Float64Array.from(b)
-  let scale = 0
-  for (let i = 0; i < p * p; i++) scale = Math.max(scale, Math.abs(m[i]!))
-  for (let col = 0; col < p; col++) {
-    let pivot = col
-    for (let r = col + 1; r < p; r++) if (Math.abs(m[r * p + col]!) > Math.abs(m[pivot * p + col]!)) pivot = r
-    if (!(Math.abs(m[pivot * p + col]!) > 1e-13 * scale)) return undefined
-    if (pivot !== col) {
-      for (let c = 0; c < p; c++) [m[col * p + c], m[pivot * p + c]] = [m[pivot * p + c]!, m[col * p + c]!]
-      ;[x[col], x[pivot]] = [x[pivot]!, x[col]!]
-    }
-    for (let r = col + 1; r < p; r++) {
-      const f = m[r * p + col]! / m[col * p + col]!
-      for (let c = col; c < p; c++) m[r * p + c] = m[r * p + c]! - f * m[col * p + c]!
-      x[r] = x[r]! - f * x[col]!
-    }
-  }
-  for (let r = p - 1; r >= 0; r--) {
-    let s = x[r]!
-    for (let c = r + 1; c < p; c++) s -= m[r * p + c]! * x[c]!
-    x[r] = s / m[r * p + r]!
-  }
-  return x
+function rows(a: Float64Array, p: number): number[][] {
+  return Array.from({ length: p }, (_, r) => Array.from(a.subarray(r * p, r * p + p)))
 }
 
+/**
+ * LU decomposition with partial pivoting (mathjs `lup`); undefined when A is singular, that is when a
+ * pivot is below 1e-13 of A's largest entry (a looser test than mathjs' exact zero, so near-singular
+ * normal equations are reported rather than solved into noise).
+ */
+function decompose(a: Float64Array, p: number): LUDecomposition | undefined {
+  let scale = 0
+  for (let i = 0; i < p * p; i++) scale = Math.max(scale, Math.abs(a[i]!))
+  const lu = lup(rows(a, p))
+  const u = lu.U as number[][]
+  for (let i = 0; i < p; i++) if (!(Math.abs(u[i]![i]!) > 1e-13 * scale)) return undefined
+  return lu
+}
+
+/** Solves A·x = b (mathjs `lusolve` on the LU decomposition); undefined when A is singular. */
+function solveLinear(a: Float64Array, b: Float64Array, p: number): Float64Array | undefined {
+  const lu = decompose(a, p)
+  if (!lu) return undefined
+  const x = lusolve(lu, Array.from(b)).valueOf() as number[][]
+  return Float64Array.from(x, r => r[0]!)
+}
+
+/** A⁻¹ (mathjs `inv`); undefined when A is singular. */
 function invertMatrix(a: Float64Array, p: number): Float64Array | undefined {
-  const inv = new Float64Array(p * p)
-  const e = new Float64Array(p)
-  for (let c = 0; c < p; c++) {
-    e.fill(0)
-    e[c] = 1
-    const col = solveLinear(a, e, p)
-    if (!col) return undefined
-    for (let r = 0; r < p; r++) inv[r * p + c] = col[r]!
-  }
-  return inv
+  if (!decompose(a, p)) return undefined
+  return Float64Array.from((inv(rows(a, p))).flat())
 }
 
 // ---------------------------------------------------------------------------

@@ -1,6 +1,6 @@
 import { DEFAULT_MAX_SUBLAYER_THICKNESS, type PreconsolidationModel, type SettlementLayer } from '../geotech/settlement'
 import type { StressProfileInput } from '../geotech/stress'
-import { evaluateTrend, type TrendFit } from '../geotech/trends'
+import { evaluateTrend, type TrendFit } from '../geotech/trend-model'
 import { compressibilityAt, hasDepthTrend } from './compressibility'
 import { depthTrendProblems, type ModelStratum, type SiteModelDefinition, stratumBounds } from './definition'
 

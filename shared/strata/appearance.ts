@@ -98,95 +98,114 @@ export interface StratumPattern {
    * ink with CSS `color`; every mark stays inside the tile (or meets its copy on the next tile) so tiles join seamlessly.
    */
   svg: string
+  /** The same marks as data, for views that build SVG elements rather than markup. */
+  marks: readonly PatternMark[]
 }
+
+/** One mark of a tile: a stroked path, a stroked ring or a filled dot, all in `currentColor`. */
+export type PatternMark =
+  | { kind: 'line', d: string }
+  | { kind: 'ring' | 'dot', cx: number, cy: number, r: number }
+
+/** The stroke every line and ring shares, as SVG attributes. */
+export const PATTERN_STROKE = { 'fill': 'none', 'stroke': 'currentColor', 'stroke-width': 0.9, 'stroke-linecap': 'round', 'stroke-linejoin': 'round' } as const
 
 const STROKE = 'fill="none" stroke="currentColor" stroke-width="0.9" stroke-linecap="round" stroke-linejoin="round"'
 
 /** One stroked path; all patterns share the stroke so their weights match on one log. */
-function line(d: string): string {
-  return `<path d="${d}" ${STROKE}/>`
+function line(d: string): PatternMark {
+  return { kind: 'line', d }
 }
 
-function ring(cx: number, cy: number, r: number): string {
-  return `<circle cx="${cx}" cy="${cy}" r="${r}" ${STROKE}/>`
+function ring(cx: number, cy: number, r: number): PatternMark {
+  return { kind: 'ring', cx, cy, r }
 }
 
-function dot(cx: number, cy: number, r: number): string {
-  return `<circle cx="${cx}" cy="${cy}" r="${r}" fill="currentColor"/>`
+function dot(cx: number, cy: number, r: number): PatternMark {
+  return { kind: 'dot', cx, cy, r }
 }
 
-export const STRATUM_PATTERNS: readonly StratumPattern[] = [
+/** A mark as SVG markup (for D3 drawings that write a `<pattern>` as text). */
+export function patternMarkMarkup(m: PatternMark): string {
+  if (m.kind === 'line') return `<path d="${m.d}" ${STROKE}/>`
+  if (m.kind === 'ring') return `<circle cx="${m.cx}" cy="${m.cy}" r="${m.r}" ${STROKE}/>`
+  return `<circle cx="${m.cx}" cy="${m.cy}" r="${m.r}" fill="currentColor"/>`
+}
+
+const PATTERN_DEFS: ReadonlyArray<Omit<StratumPattern, 'svg'>> = [
   {
     key: 'made-ground',
     label: 'Fill / made ground',
     size: 16,
     // Mixed debris: a shard, a block, a chip and a stray dash at odd angles — deliberately unordered.
-    svg: line('M2.5 5.5L5 1.8L6.8 5.2Z') + line('M9.5 3L13.5 6') + line('M3 10.5h3v3h-3Z') + line('M8 13.8h2.5') + dot(12, 11.5, 1.1),
+    marks: [line('M2.5 5.5L5 1.8L6.8 5.2Z'), line('M9.5 3L13.5 6'), line('M3 10.5h3v3h-3Z'), line('M8 13.8h2.5'), dot(12, 11.5, 1.1)],
   },
   {
     key: 'clay',
     label: 'Clay',
     size: 12,
     // Staggered horizontal dashes: the bedded, fine-grained look without a continuous ruling.
-    svg: line('M0.5 3h6.5') + line('M6.5 9h5'),
+    marks: [line('M0.5 3h6.5'), line('M6.5 9h5')],
   },
   {
     key: 'silt',
     label: 'Silt',
     size: 12,
     // Dashes broken by dots: between the clay dashes and the sand stipple.
-    svg: line('M1 3h5') + dot(9.2, 3, 0.75) + dot(3.5, 9, 0.75) + line('M6.5 9h4.5'),
+    marks: [line('M1 3h5'), dot(9.2, 3, 0.75), dot(3.5, 9, 0.75), line('M6.5 9h4.5')],
   },
   {
     key: 'sand',
     label: 'Sand',
     size: 10,
     // Irregular stipple of five grains.
-    svg: dot(2, 2.5, 0.7) + dot(7, 1.5, 0.7) + dot(4.5, 6, 0.7) + dot(8.5, 7.5, 0.7) + dot(1.5, 8.5, 0.7),
+    marks: [dot(2, 2.5, 0.7), dot(7, 1.5, 0.7), dot(4.5, 6, 0.7), dot(8.5, 7.5, 0.7), dot(1.5, 8.5, 0.7)],
   },
   {
     key: 'gravel',
     label: 'Gravel',
     size: 16,
     // Open rings of mixed size with one fine grain: clasts in a sandy matrix.
-    svg: ring(4, 4.5, 2.2) + ring(11.5, 3.5, 1.4) + ring(9, 10.5, 2.6) + ring(2.8, 12.5, 1.2) + dot(14, 13.5, 0.6),
+    marks: [ring(4, 4.5, 2.2), ring(11.5, 3.5, 1.4), ring(9, 10.5, 2.6), ring(2.8, 12.5, 1.2), dot(14, 13.5, 0.6)],
   },
   {
     key: 'gravelly-clay',
     label: 'Gravelly clay (till)',
     size: 16,
     // Clay dashes carrying scattered clasts.
-    svg: line('M1 3h7') + line('M9 11h6') + ring(12.5, 4, 1.5) + ring(4, 11.5, 1.8),
+    marks: [line('M1 3h7'), line('M9 11h6'), ring(12.5, 4, 1.5), ring(4, 11.5, 1.8)],
   },
   {
     key: 'peat',
     label: 'Peat',
     size: 14,
     // Short ground lines with three-stem tufts: plant remains.
-    svg: line('M1 5h6M4 5V2.2M2.6 5L1.6 3M5.4 5L6.4 3') + line('M8 12h5M10.5 12V9.2M9.2 12l-1-2M11.8 12l1-2'),
+    marks: [line('M1 5h6M4 5V2.2M2.6 5L1.6 3M5.4 5L6.4 3'), line('M8 12h5M10.5 12V9.2M9.2 12l-1-2M11.8 12l1-2')],
   },
   {
     key: 'organic-clay',
     label: 'Organic clay',
     size: 14,
     // Clay dashes with one small tuft: fine-grained soil with organic matter.
-    svg: line('M1 3.5h6') + line('M7.5 10.5h5.5') + line('M3.5 11V9M2.5 11l-0.8-1.5M4.5 11l0.8-1.5'),
+    marks: [line('M1 3.5h6'), line('M7.5 10.5h5.5'), line('M3.5 11V9M2.5 11l-0.8-1.5M4.5 11l0.8-1.5')],
   },
   {
     key: 'rock',
     label: 'Rock',
     size: 16,
     // Courses of blocks with staggered joints.
-    svg: line('M0 0.5h16M0 8.5h16') + line('M5 0.5v8') + line('M12 8.5v7.5'),
+    marks: [line('M0 0.5h16M0 8.5h16'), line('M5 0.5v8'), line('M12 8.5v7.5')],
   },
   {
     key: 'plain',
     label: 'Plain (solid fill)',
     size: 8,
     // No marks: the colour alone, for strata the engineer prefers unpatterned.
-    svg: '',
+    marks: [],
   },
 ]
+
+export const STRATUM_PATTERNS: readonly StratumPattern[] = PATTERN_DEFS.map(p => ({ ...p, svg: p.marks.map(patternMarkMarkup).join('') }))
 
 export interface StratumAppearance {
   colour: StratumColourKey

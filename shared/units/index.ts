@@ -1,10 +1,14 @@
-import { create, createUnitDependencies, unitDependencies } from 'mathjs'
-
 /**
  * SI ⇄ US customary conversion at the edges of the product (input forms,
  * imports, reports); the engine itself works in m, kPa, kN/m³ and m²/yr only.
- * Conversion factors come from mathjs unit definitions (ft = 0.3048 m exactly,
- * lbf = 4.4482216152605 N, NIST SP 811), computed once at load time.
+ * Conversion factors are built from exact definitions, so no unit library is
+ * shipped to the browser (a unit test checks each factor against mathjs):
+ * - international foot: 1 ft = 0.3048 m exactly (NIST SP 811, 2008, App. B.8);
+ * - avoirdupois pound: 1 lb = 0.453 592 37 kg exactly (NIST SP 811, 2008, App. B.8);
+ * - standard acceleration of gravity: gn = 9.806 65 m/s² exactly (3rd CGPM, 1901;
+ *   NIST SP 811, 2008, App. B.8; ISO 80000-3), so 1 lbf = 0.453 592 37 × 9.806 65 N
+ *   = 4.448 221 615 260 5 N exactly;
+ * - psf = lbf/ft², pcf = lbf/ft³, tsf = 2000 lbf/ft² (US short ton-force per ft²).
  */
 
 export type UnitSystem = 'SI' | 'US'
@@ -21,13 +25,12 @@ export interface ConvertOptions {
 
 export const QUANTITIES: readonly Quantity[] = ['length', 'unitWeight', 'stress', 'coefficientOfConsolidation']
 
-/** A private mathjs instance so the extra units do not leak into other users of mathjs. */
-const math = create({ ...unitDependencies, ...createUnitDependencies })
-math.createUnit('psf', '1 lbf/ft^2')
-math.createUnit('pcf', '1 lbf/ft^3')
-math.createUnit('tsf', '2000 lbf/ft^2')
+/** 1 ft in m (exact). */
+export const FOOT_M = 0.3048
+/** 1 lbf in N (exact: 1 lb = 0.45359237 kg times gn = 9.80665 m/s²). */
+export const POUND_FORCE_N = 0.45359237 * 9.80665
 
-/** mathjs unit expressions behind each quantity. */
+/** Unit expressions behind each quantity (mathjs syntax, for display or parsing at the edges). */
 const SI_UNITS: Record<Quantity, string> = {
   length: 'm',
   unitWeight: 'kN/m^3',
@@ -44,13 +47,13 @@ function usUnit(quantity: Quantity, usStress: UsStressUnit): string {
   }
 }
 
-/** How many SI units one US unit is, per quantity (mathjs, once). */
-const US_TO_SI: Record<Quantity | 'stressTsf', number> = {
-  length: math.unit(1, 'ft').toNumber(SI_UNITS.length),
-  unitWeight: math.unit(1, 'pcf').toNumber(SI_UNITS.unitWeight),
-  stress: math.unit(1, 'psf').toNumber(SI_UNITS.stress),
-  stressTsf: math.unit(1, 'tsf').toNumber(SI_UNITS.stress),
-  coefficientOfConsolidation: math.unit(1, 'ft^2/year').toNumber(SI_UNITS.coefficientOfConsolidation),
+/** How many SI units (m, kN/m³, kPa, m²/yr) one US unit (ft, pcf, psf or tsf, ft²/yr) is, per quantity. */
+export const US_TO_SI: Readonly<Record<Quantity | 'stressTsf', number>> = {
+  length: FOOT_M,
+  unitWeight: POUND_FORCE_N / FOOT_M ** 3 / 1000,
+  stress: POUND_FORCE_N / FOOT_M ** 2 / 1000,
+  stressTsf: (2000 * POUND_FORCE_N) / FOOT_M ** 2 / 1000,
+  coefficientOfConsolidation: FOOT_M ** 2,
 }
 
 /** Display labels per system. */
@@ -93,7 +96,7 @@ export function convert(value: number, quantity: Quantity, from: UnitSystem, to:
   return from === 'US' ? value * f : value / f
 }
 
-/** The mathjs unit expression for a quantity in a system (for display or parsing at the edges). */
+/** The unit expression (mathjs syntax) for a quantity in a system (for display or parsing at the edges). */
 export function unitExpression(quantity: Quantity, system: UnitSystem, options: ConvertOptions = {}): string {
   return system === 'SI' ? SI_UNITS[quantity] : usUnit(quantity, options.usStress ?? 'psf')
 }

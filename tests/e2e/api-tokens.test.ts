@@ -1,6 +1,7 @@
 // The account page's token form: expiry by days or by date, the read-only choice, and the
 // list showing scope and expiry. Each test uses its own new account.
 import { describe, expect, it } from 'vitest'
+import { formatDate } from '../../app/utils/dates'
 import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -39,7 +40,7 @@ describe('API tokens on the account page', () => {
     expect(await rows.nth(0).getByTestId('token-scope').textContent()).toContain('read and write')
     expect(await rows.nth(1).getByTestId('token-scope').textContent()).toContain('read-only')
     const [y, m, d] = on.split('-').map(Number) as [number, number, number]
-    expect(await rows.nth(1).getByTestId('token-expires').textContent()).toContain(new Date(y, m - 1, d).toLocaleDateString())
+    expect(await rows.nth(1).getByTestId('token-expires').textContent()).toContain(formatDate(new Date(y, m - 1, d)))
     await screenshot(page, 'account-tokens')
 
     const list = await (await signIn(email, TEST_PASSWORD)).get<{ tokens: { name: string, scope: string, expiresAt: string, createdAt: string }[] }>('/api/account/tokens')

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest'
 import fc from 'fast-check'
-import { QUANTITIES, UNIT_LABELS, conversionFactor, convert, unitLabel } from '../../../shared/units/index'
+import { create, createUnitDependencies, unitDependencies } from 'mathjs'
+import { POUND_FORCE_N, QUANTITIES, UNIT_LABELS, US_TO_SI, conversionFactor, convert, unitLabel } from '../../../shared/units/index'
 
 /*
  * Conversion factors from NIST Special Publication 811 (2008), Appendix B:
@@ -85,5 +86,31 @@ describe('unit labels', () => {
     expect(UNIT_LABELS.US).toEqual({ length: 'ft', unitWeight: 'pcf', stress: 'psf', coefficientOfConsolidation: 'ft²/yr' })
     expect(unitLabel('stress', 'US', { usStress: 'tsf' })).toBe('tsf')
     expect(unitLabel('stress', 'SI', { usStress: 'tsf' })).toBe('kPa')
+  })
+})
+
+describe('the exact factors agree with mathjs unit definitions', () => {
+  // mathjs defines ft = 0.3048 m, lbm = 0.45359237 kg and lbf = 4.4482216152605 N (exact, NIST SP 811, 2008,
+  // App. B.8); the product's factors are built from the same definitions, so they agree to a few ulp.
+  const math = create({ ...unitDependencies, ...createUnitDependencies })
+  math.createUnit('psf', '1 lbf/ft^2')
+  math.createUnit('pcf', '1 lbf/ft^3')
+  math.createUnit('tsf', '2000 lbf/ft^2')
+  const cases: Array<[keyof typeof US_TO_SI, string, string]> = [
+    ['length', 'ft', 'm'],
+    ['unitWeight', 'pcf', 'kN/m^3'],
+    ['stress', 'psf', 'kPa'],
+    ['stressTsf', 'tsf', 'kPa'],
+    ['coefficientOfConsolidation', 'ft^2/year', 'm^2/year'],
+  ]
+  for (const [key, us, si] of cases) {
+    it(`1 ${us} in ${si}`, () => {
+      expect(relative(US_TO_SI[key], math.unit(1, us).toNumber(si))).toBeLessThan(4e-16)
+    })
+  }
+
+  it('1 lbf = 4.4482216152605 N exactly (NIST SP 811, 2008, App. B.8)', () => {
+    expect(POUND_FORCE_N).toBeCloseTo(4.4482216152605, 13)
+    expect(math.unit(1, 'lbf').toNumber('N')).toBeCloseTo(POUND_FORCE_N, 13)
   })
 })
