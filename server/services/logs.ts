@@ -1,5 +1,6 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
 import { checkIntervals } from '#shared/investigation/intervals'
+import type { IntervalInput } from '#shared/schemas/investigation'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { logIntervals, strata } from '../db/schema'
@@ -8,17 +9,7 @@ import { unprocessableError } from './http-errors'
 import { assertLogValid, requirePoint } from './points'
 
 /** A row of the log as the table sends it: with the id and version it read, or neither for a new row. */
-export interface LogRowInput {
-  id?: string
-  version?: number
-  top: number
-  bottom: number
-  description: string
-  uscs: string | null
-  stratumId: string | null
-  moisture: string | null
-  consistency: string | null
-}
+export type LogRowInput = IntervalInput & { id?: string, version?: number }
 
 type LogValues = Omit<LogRowInput, 'id' | 'version'>
 const FIELDS = ['top', 'bottom', 'description', 'uscs', 'stratumId', 'moisture', 'consistency'] as const satisfies readonly (keyof LogValues)[]
