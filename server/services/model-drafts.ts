@@ -5,12 +5,11 @@ import { toStressInput } from '#shared/site-model/convert'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { siteModels, siteModelVersions } from '../db/schema'
-import { isUniqueViolation } from '../utils/db-errors'
 import type { ProjectRow } from '../utils/guards'
 import { runEngine } from '../utils/engine'
 import { recordAudit } from './audit'
 import { exportName } from './exports/logs'
-import { versionedUpdate } from './http-errors'
+import { conflictOnDuplicate, versionedUpdate } from './http-errors'
 import { exportDocument, exportWorkbook } from './model-export'
 import { assertDefinitionComputable, diffDefinitions, listVersions, nextVersionNumber, requireModel, requireVersion } from './model-versions'
 import { flagsInForce } from './review'
@@ -57,17 +56,11 @@ export async function createModel(projectId: string, actorId: string, body: { na
   else {
     draft = await definitionFromLogs(projectId)
   }
-  try {
-    return await useDb().transaction(async (tx) => {
-      const [row] = await tx.insert(siteModels).values({ projectId, name: body.name, description: body.description, draft, basedOn, createdBy: actorId }).returning()
-      await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model', entityId: row!.id, after: { name: row!.name, basedOn } }, tx)
-      return modelJson(row!)
-    })
-  }
-  catch (err) {
-    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `A model named "${body.name}" already exists in this project.` })
-    throw err
-  }
+  return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
+    const [row] = await tx.insert(siteModels).values({ projectId, name: body.name, description: body.description, draft, basedOn, createdBy: actorId }).returning()
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model', entityId: row!.id, after: { name: row!.name, basedOn } }, tx)
+    return modelJson(row!)
+  }), `A model named "${body.name}" already exists in this project.`)
 }
 
 /** Saves the editable draft (not a version); a stale revision is 409 with the current draft. */

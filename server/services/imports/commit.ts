@@ -12,6 +12,8 @@ import { replaceCptSounding } from '../cpt'
 import { notFound, unprocessableError } from '../http-errors'
 import { replaceTestStages, requireTest, staleTest } from '../lab'
 import type { UploadFormat } from './files'
+import { writeInvestigation } from '../investigation-writer'
+import { analyseAgsOrThrow, asRowErrors } from './ags'
 import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from './preview'
 
 type Rec = Record<string, ParsedValue | undefined>
@@ -263,4 +265,50 @@ export async function holdPointLimit(tx: Tx, projectId: string, adding: number):
   await tx.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).for('no key update')
   const [row] = await tx.select({ n: count() }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
   checkPointLimit(row?.n ?? 0, adding)
+}
+
+/**
+ * Imports an uploaded AGS4 file whole, in one transaction: any rule error or a point that already
+ * exists means nothing is written (422 with line, group, rule and message). Groups Pastload does not
+ * map are reported, never dropped silently. `dryRun` only reports.
+ */
+export async function commitAgsImport(args: { projectId: string, actorId: string, importId: string, dryRun: boolean }) {
+  const { projectId, actorId } = args
+  const file = await loadImportFile(projectId, args.importId)
+  if (file.format !== 'ags4') throw unprocessableError(`${file.filename} is not an AGS4 file; map its columns instead.`)
+  const a = analyseAgsOrThrow(file.content, file.filename)
+  const errors = asRowErrors(a.errors)
+  const ids = a.data.points.map(p => p.identifier)
+  const db = useDb()
+  if (ids.length) {
+    const mine = await db.select({ identifier: investigationPoints.identifier }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
+    const taken = new Set(mine.map(r => r.identifier))
+    for (const id of ids) if (taken.has(id)) errors.push({ row: 0, column: 'LOCA', message: `Point ${id} already exists in this project.`, rule: 'pastload' })
+    if (!errors.length) {
+      try {
+        checkPointLimit(mine.length, ids.length)
+      }
+      catch (err) {
+        throw asUploadRefusal(err)
+      }
+    }
+  }
+  if (errors.length) {
+    throw unprocessableError(
+      `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: line ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
+      { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, unknownGroups: a.unknownGroups },
+    )
+  }
+  const report = { summary: a.summary, unknownGroups: a.unknownGroups, warnings: asRowErrors(a.warnings) }
+  if (args.dryRun) return { dryRun: true, ...report }
+  await db.transaction(async (tx) => {
+    await holdPointLimit(tx, projectId, ids.length)
+    const existingStrata = new Map((await tx.select({ id: strata.id, code: strata.code }).from(strata).where(eq(strata.projectId, projectId))).map(s => [s.code, s.id]))
+    await writeInvestigation(tx, projectId, a.data, existingStrata)
+    await recordAudit({ actorId, projectId, action: 'import', entity: 'ags4', after: { filename: file.filename, ...a.summary, unknownGroups: a.unknownGroups } }, tx)
+    await tx.delete(importFiles).where(eq(importFiles.id, file.id))
+  }).catch((err: unknown) => {
+    throw asUploadRefusal(err)
+  })
+  return { dryRun: false, ...report }
 }
