@@ -5,10 +5,11 @@ import { BaseSequencer, type TestSpecification } from 'vitest/node'
 
 const root = fileURLToPath(new URL('./', import.meta.url))
 
-// PASTLOAD_TEST_SHUFFLE=<seed> shuffles the files of each layer and the tests of the api and e2e files with
-// that seed while keeping the layers' order (vitest's own random file order and its --sequence.* flags ignore
-// or replace each project's groupOrder): a check that no test depends on another's leftovers or on the order
-// of its `it`s.
+// PASTLOAD_TEST_SHUFFLE=<seed> turns on a seeded shuffle: `LayeredShuffle` orders the files by their project's
+// `sequence.groupOrder` first (the layers stay unit → api → e2e) and by a seeded random key within a layer, and the
+// api and e2e projects also shuffle the tests inside each file (`sequence.shuffle` with the same seed). One seed
+// gives one order, so a failing order can be replayed. It checks that no test depends on another's leftovers or on
+// the order of its `it`s.
 const shuffleSeed = process.env.PASTLOAD_TEST_SHUFFLE ? Number(process.env.PASTLOAD_TEST_SHUFFLE) : undefined
 const shuffle = shuffleSeed !== undefined && Number.isFinite(shuffleSeed)
 
@@ -21,11 +22,10 @@ class LayeredShuffle extends BaseSequencer {
   }
 }
 
-// Three layers (see DEVELOPERS.md): unit (pure engine and utilities, node),
-// api (real HTTP against the built server and a real PostgreSQL),
-// e2e (Chromium driving real pages). `sequence.groupOrder` makes vitest run them
-// one after the other in that order (unit, then api, then e2e), whatever the
-// results cache says; without it the three would start together in any order.
+// Three layers (see DEVELOPERS.md), always in this order: unit (pure engine and utilities, node), then api (real
+// HTTP against the built server and a real PostgreSQL), then e2e (Chromium driving real pages). Each project's
+// `sequence.groupOrder` (0, 1, 2) puts it in its own group, and vitest runs the groups one after the other in
+// ascending order; without a shuffle seed the files within a layer keep vitest's default order.
 export default defineConfig({
   resolve: {
     alias: {

@@ -1,3 +1,5 @@
+import { isUniqueViolation } from '../utils/db-errors'
+
 /**
  * Optimistic concurrency for rows that carry a `version`: the update's WHERE
  * includes the version the client read and bumps it. No row back means either
@@ -32,4 +34,18 @@ export function notFound(what: string): never {
  */
 export function unprocessableError(message: string, data?: Record<string, unknown>) {
   return createError({ statusCode: 422, statusMessage: 'Unprocessable Entity', message, data })
+}
+
+/**
+ * Runs a write whose unique index may refuse it (a name or identifier already taken): that refusal
+ * is 409 with `message` (and `data`, e.g. the field's issue for the form), anything else passes through.
+ */
+export async function conflictOnDuplicate<T>(work: () => Promise<T>, message: string, data?: Record<string, unknown>): Promise<T> {
+  try {
+    return await work()
+  }
+  catch (err) {
+    if (isUniqueViolation(err)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message, data })
+    throw err
+  }
 }

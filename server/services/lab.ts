@@ -12,7 +12,7 @@ import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
-import { recordAudit } from './audit'
+import { type AuditEntry, recordAudit } from './audit'
 import { stressModelInForce, type StressModelInfo } from './site-models'
 import { notFound, versionedUpdate } from './http-errors'
 
@@ -176,43 +176,65 @@ export function staleTest(ctx: TestContext): never {
   })
 }
 
+/** What an edit may change on a test; left out, a field keeps its value. */
+export interface TestChanges extends Partial<SpecimenFields> {
+  label?: string
+  testType?: OedometerTestRow['testType']
+  remarks?: string
+}
+
 /**
- * Replaces a test's stages (an import from a file), in the caller's transaction: the version the
- * client read must still be current (409 otherwise), the stages are converted like the form's,
- * time readings stay on a stage that keeps its place and its σ', the version is bumped, and the
- * σ'p adopted from the old curve is withdrawn (kept in the history), each write audited.
+ * Revises a test in the caller's transaction — the one path for the edit form and the stage import:
+ * the version the client read must still be current (409 with the current test otherwise), the
+ * specimen is merged with the changes and its stages converted (e0 from Gs·w when not given), the
+ * version is bumped and the write audited (`audit` says how). When the curve changes (its e0 or its
+ * stages), the σ'p adopted from the old curve is withdrawn: marked superseded, kept in the history,
+ * audited, and the test needs a new adoption.
  */
-export async function replaceTestStages(tx: Tx, args: { projectId: string, actorId: string, testId: string, version: number, convention: StageConvention, stages: { stress: number, value: number }[], filename: string }) {
+export async function reviseTest(tx: Tx, args: {
+  projectId: string
+  actorId: string
+  testId: string
+  version: number
+  /** The changes, or a function of the current row (the import keeps time readings on stages that keep their σ'). */
+  changes: TestChanges | ((before: OedometerTestRow) => TestChanges)
+  /** The audit entry of the edit; default: an `update` of the test with both rows. */
+  audit?: (before: OedometerTestRow, after: OedometerTestRow) => Pick<AuditEntry, 'action' | 'entity' | 'before' | 'after'>
+}): Promise<{ test: TestContext, withdrawn: AdoptionRow | null, notes: string[] }> {
   const ctx = await requireTest(args.projectId, args.testId, tx, { lock: true })
   const before = ctx.test
   if (before.version !== args.version) staleTest(ctx)
-  let readingsKept = 0
-  const stages: StageEntry[] = args.stages.map((s, i) => {
-    const old = before.stages[i]
-    if (old?.readings?.length && old.stress === s.stress) {
-      readingsKept++
-      return { ...s, readings: old.readings }
-    }
-    return s
-  })
-  const prepared = prepareSpecimen({ specimenHeight: before.specimenHeight, initialWaterContent: before.initialWaterContent, specificGravity: before.specificGravity, e0: before.e0, convention: args.convention, stages })
+  const changes = typeof args.changes === 'function' ? args.changes(before) : args.changes
+  const specimen: SpecimenFields = {
+    specimenHeight: changes.specimenHeight ?? before.specimenHeight,
+    initialWaterContent: changes.initialWaterContent !== undefined ? changes.initialWaterContent : before.initialWaterContent,
+    specificGravity: changes.specificGravity !== undefined ? changes.specificGravity : before.specificGravity,
+    e0: changes.e0 !== undefined ? changes.e0 : before.e0,
+    convention: changes.convention ?? before.convention,
+    stages: changes.stages ?? before.stages.map(s => ({ stress: s.stress, value: s.entered, ...(s.readings ? { readings: s.readings } : {}) })),
+  }
+  const prepared = prepareSpecimen(specimen)
+  const curveChanged = prepared.e0 !== before.e0 || JSON.stringify(prepared.stages) !== JSON.stringify(before.stages)
   const row = await versionedUpdate({
     entity: 'Oedometer test',
-    update: () => tx.update(oedometerTests).set({ convention: args.convention, stages: prepared.stages, version: sql`${oedometerTests.version} + 1` })
-      .where(and(eq(oedometerTests.id, before.id), eq(oedometerTests.version, args.version))).returning(),
+    update: () => tx.update(oedometerTests).set({
+      ...(changes.label !== undefined ? { label: changes.label } : {}),
+      ...(changes.testType !== undefined ? { testType: changes.testType } : {}),
+      ...(changes.remarks !== undefined ? { remarks: changes.remarks } : {}),
+      specimenHeight: specimen.specimenHeight,
+      initialWaterContent: specimen.initialWaterContent,
+      specificGravity: specimen.specificGravity,
+      convention: specimen.convention,
+      e0: prepared.e0,
+      stages: prepared.stages,
+      version: sql`${oedometerTests.version} + 1`,
+    }).where(and(eq(oedometerTests.id, before.id), eq(oedometerTests.version, args.version))).returning(),
     current: async () => before,
   })
-  await recordAudit({
-    actorId: args.actorId,
-    projectId: args.projectId,
-    action: 'import',
-    entity: 'oedometer-stages',
-    entityId: before.id,
-    before: { version: before.version, convention: before.convention, stages: before.stages },
-    after: { filename: args.filename, rows: args.stages.length, readingsKept, version: row.version, convention: row.convention, stages: row.stages },
-  }, tx)
+  const audit = args.audit?.(before, row) ?? { action: 'update', entity: 'oedometer-test', before, after: row }
+  await recordAudit({ actorId: args.actorId, projectId: args.projectId, entityId: before.id, ...audit }, tx)
   let withdrawn: AdoptionRow | null = null
-  if (JSON.stringify(prepared.stages) !== JSON.stringify(before.stages)) {
+  if (curveChanged) {
     const [w] = await tx.update(preconsolidationAdoptions).set({ supersededAt: new Date() })
       .where(and(eq(preconsolidationAdoptions.oedometerTestId, before.id), isNull(preconsolidationAdoptions.supersededAt))).returning()
     if (w) {
@@ -220,7 +242,36 @@ export async function replaceTestStages(tx: Tx, args: { projectId: string, actor
       await recordAudit({ actorId: args.actorId, projectId: args.projectId, action: 'withdraw', entity: 'preconsolidation-adoption', entityId: w.id, before: { ...w, supersededAt: null }, after: w }, tx)
     }
   }
-  return { test: { ...ctx, test: row }, readingsKept, withdrawn }
+  return { test: { ...ctx, test: row }, withdrawn, notes: prepared.notes }
+}
+
+/**
+ * Replaces a test's stages (an import from a file), in the caller's transaction, through `reviseTest`:
+ * time readings stay on a stage that keeps its place and its σ'; the audit entry is the import's.
+ */
+export async function replaceTestStages(tx: Tx, args: { projectId: string, actorId: string, testId: string, version: number, convention: StageConvention, stages: { stress: number, value: number }[], filename: string }) {
+  let readingsKept = 0
+  const revised = await reviseTest(tx, {
+    ...args,
+    changes: (before) => {
+      const stages: StageEntry[] = args.stages.map((s, i) => {
+        const old = before.stages[i]
+        if (old?.readings?.length && old.stress === s.stress) {
+          readingsKept++
+          return { ...s, readings: old.readings }
+        }
+        return s
+      })
+      return { convention: args.convention, stages }
+    },
+    audit: (before, row) => ({
+      action: 'import',
+      entity: 'oedometer-stages',
+      before: { version: before.version, convention: before.convention, stages: before.stages },
+      after: { filename: args.filename, rows: args.stages.length, readingsKept, version: row.version, convention: row.convention, stages: row.stages },
+    }),
+  })
+  return { ...revised, readingsKept }
 }
 
 // ---------------------------------------------------------------------------

@@ -1,8 +1,9 @@
-import { and, count, eq } from 'drizzle-orm'
+import { and, count, eq, sql } from 'drizzle-orm'
 import type { ProjectRole } from '#shared/auth/roles'
 import { useDb } from '../db/client'
-import { projectMembers } from '../db/schema'
+import { projectMembers, users } from '../db/schema'
 import { recordAudit } from './audit'
+import { unprocessableError } from './http-errors'
 
 /**
  * Changes a member's role, or removes the member when `role` is null. The last
@@ -38,4 +39,24 @@ export async function changeMemberRole(args: { actorId: string, projectId: strin
     await recordAudit({ actorId, projectId, action: 'update', entity: 'project-member', entityId: userId, before: current, after: row }, tx)
     return row!
   })
+}
+
+/** An owner adds an existing user, found by e-mail, with a role (no such account: 422; already a member: 409). */
+export async function addMember(args: { actorId: string, projectId: string, email: string, role: ProjectRole }) {
+  const { actorId, projectId, email, role } = args
+  const db = useDb()
+  const [target] = await db.select({ id: users.id, displayName: users.displayName, email: users.email }).from(users).where(sql`lower(${users.email}) = ${email}`).limit(1)
+  if (!target) {
+    throw unprocessableError(`No Pastload account uses ${email}. A site admin can create it first.`, { issues: [{ path: 'email', message: 'no account with this e-mail' }] })
+  }
+  const [existing] = await db.select().from(projectMembers).where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, target.id)))
+  if (existing) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${target.displayName} is already a member (${existing.role}).`, data: { current: existing } })
+  }
+  const member = await db.transaction(async (tx) => {
+    const [row] = await tx.insert(projectMembers).values({ projectId, userId: target.id, role }).returning()
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'project-member', entityId: target.id, after: row }, tx)
+    return row!
+  })
+  return { userId: target.id, email: target.email, displayName: target.displayName, role: member.role }
 }

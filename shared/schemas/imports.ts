@@ -12,19 +12,22 @@ export const ImportPreviewQuerySchema = z.object({
 /** Importing an uploaded AGS4 file whole; a dry run checks and reports without writing. */
 export const AgsCommitSchema = z.object({ dryRun: z.boolean().default(false) })
 
-export const ImportCommitSchema = z.object({
-  target: z.enum(IMPORT_TARGETS),
+/** What every tabular import's commit carries, whatever its target. */
+const commitFields = {
   mapping: z.record(str().max(60), str().max(200)),
   sheet: str().max(120).optional(),
-  /** CPT only: the point the sounding belongs to, and its cone area ratio. */
-  pointId: UuidSchema.optional(),
-  areaRatio: z.number().gt(0).max(1).optional(),
-  /** Oedometer stages only: the test whose stages the file replaces, and the version of it the client read (stale: 409). */
-  testId: UuidSchema.optional(),
-  testVersion: int(1).optional(),
   /** Check everything and report, write nothing. */
   dryRun: z.boolean().default(false),
   /** Remember this mapping for the next file of this target. */
   saveMapping: z.boolean().default(true),
-}).refine(v => v.target !== 'cpt' || (v.pointId && v.areaRatio), { path: ['pointId'], message: 'a CPT import needs the point and its cone area ratio' })
-  .refine(v => v.target !== 'oedometer-stages' || (v.testId && v.testVersion), { path: ['testId'], message: 'an oedometer-stages import needs the test and the version of it you read' })
+}
+
+/** A commit of an uploaded table into one target; a CPT sounding and an oedometer test's stages name what they belong to. */
+export const ImportCommitSchema = z.discriminatedUnion('target', [
+  z.object({ target: z.enum(['points', 'intervals', 'samples', 'index-tests', 'groundwater', 'vane']), ...commitFields }),
+  /** CPT: the point the sounding belongs to, and its cone area ratio. */
+  z.object({ target: z.literal('cpt'), ...commitFields, pointId: UuidSchema, areaRatio: z.number().gt(0).max(1) }),
+  /** Oedometer stages: the test whose stages the file replaces, and the version of it the client read (stale: 409). */
+  z.object({ target: z.literal('oedometer-stages'), ...commitFields, testId: UuidSchema, testVersion: int(1) }),
+])
+export type ImportCommit = z.infer<typeof ImportCommitSchema>

@@ -13,8 +13,8 @@ export const siteModels = pgTable('site_models', {
   name: text().notNull(),
   description: text().notNull().default(''),
   draft: jsonb().$type<SiteModelDefinition>().notNull(),
-  /** Optimistic concurrency of the draft. */
-  version: integer().notNull().default(1),
+  /** The draft's revision: optimistic concurrency of draft edits (not a saved version's number). */
+  draftRevision: integer().notNull().default(1),
   /** The saved version the draft started from, if any. */
   basedOn: integer(),
   createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),

@@ -1,5 +1,13 @@
 import type { H3Event } from 'h3'
+import { lt } from 'drizzle-orm'
+import { useDb } from '~~/server/db/client'
+import { preferFastCompression } from '~~/server/db/binary'
+import { importFiles } from '~~/server/db/schema'
+import { unprocessableError } from '../http-errors'
 import { readMultipart } from '../multipart'
+import { analyseAgsOrThrow, asRowErrors } from './ags'
+import { detectFormat, UploadError } from './files'
+import { previewTable } from './preview'
 
 /** An import upload: one part named `file`, streamed within the size limit (`../multipart.ts`). */
 export interface ImportUpload {
@@ -21,4 +29,37 @@ export async function readImportUpload(event: H3Event, maxBytes: number): Promis
   })
   if (!file) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: NO_FILE })
   return { filename: file.filename, data: file.data }
+}
+
+/**
+ * Stores an uploaded CSV, XLSX or AGS4 file for mapping and answers its preview. The format is read
+ * from the content, and the file is read (and refused if over a limit) before anything is stored;
+ * uploads nobody committed within a day are dropped.
+ */
+export async function storeUpload(projectId: string, actorId: string, upload: { data: Buffer, filename?: string | null }) {
+  const filename = (upload.filename ?? 'upload').slice(0, 200)
+  let format
+  try {
+    format = detectFormat(upload.data, filename)
+  }
+  catch (err) {
+    if (err instanceof UploadError) throw unprocessableError(err.message, { code: err.code })
+    throw err
+  }
+  const preview = format === 'ags4' ? null : await previewTable(projectId, { content: upload.data, format, filename })
+  const ags = format === 'ags4' ? agsPreview(upload.data, filename) : null
+  const db = useDb()
+  await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
+  // The bytes go in as a binary parameter (node-postgres sends a Buffer as is), compressed with lz4 where available.
+  const row = await db.transaction(async (tx) => {
+    await preferFastCompression(tx)
+    const [inserted] = await tx.insert(importFiles).values({ projectId, uploadedBy: actorId, filename, format, size: upload.data.length, content: upload.data }).returning({ id: importFiles.id })
+    return inserted
+  })
+  return { importId: row!.id, filename, format, size: upload.data.length, preview, ags }
+}
+
+function agsPreview(content: Buffer, filename: string) {
+  const a = analyseAgsOrThrow(content, filename)
+  return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), warnings: asRowErrors(a.warnings).slice(0, 500) }
 }

@@ -1,8 +1,7 @@
-import { asc, eq } from 'drizzle-orm'
-import { strata } from '~~/server/db/schema'
+import { listStrata } from '~~/server/services/strata'
 
+/** The project's strata in display order. */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
-  const rows = await useDb().select().from(strata).where(eq(strata.projectId, project.id)).orderBy(asc(strata.displayOrder), asc(strata.code))
-  return { strata: rows }
+  return { strata: await listStrata(project.id) }
 })

@@ -1,10 +1,10 @@
 import { VersionParamsSchema } from '#shared/schemas/models'
-import { requireModel, requireVersion } from '~~/server/services/model-versions'
+import { projectVersion } from '~~/server/services/model-drafts'
 
 /** One saved version, read-only. */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { modelId, version } = validateParams(event, VersionParamsSchema)
-  const model = await requireModel(project.id, modelId)
-  return { model: { id: model.id, name: model.name }, version: await requireVersion(modelId, version) }
+  const { model, version: saved } = await projectVersion(project.id, modelId, version)
+  return { model: { id: model.id, name: model.name }, version: saved }
 })

@@ -1,0 +1,1 @@
+ALTER TABLE "site_models" RENAME COLUMN "version" TO "draft_revision";
