@@ -1,7 +1,5 @@
 import type { ReferenceHole, SiteReference, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
-import type { StratumRow } from '~/composables/useStrata'
-
-export type { LoggedBoundary, ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
+import type { StratumRow } from '#shared/types/investigation'
 
 /**
  * What the logs say for the stress workspace: the project's strata list, and for

@@ -1,5 +1,6 @@
 import type { Compressibility, CompressibilityKey, DepthTrend, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition'
+import type { DefinitionChange } from '#shared/types/models'
 
 /**
  * Pure edits of a site-model definition, one function per gesture of the stress
@@ -227,8 +228,6 @@ export function stableJson(value: unknown): string {
     return v
   })
 }
-
-export interface DefinitionChange { path: string, a: unknown, b: unknown }
 
 /** Field-by-field differences between two definitions (for "theirs vs yours"); long id lists are summarised. */
 export function diffDefinitions(a: unknown, b: unknown, path = ''): DefinitionChange[] {

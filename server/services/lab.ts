@@ -1,12 +1,14 @@
 import { and, asc, desc, eq, getTableColumns, isNull, sql } from 'drizzle-orm'
 import { GeotechError, isGeotechError } from '#shared/geotech/errors'
-import { checkCompressionIndex, type CompressionIndexCheck } from '#shared/geotech/insitu'
+import { checkCompressionIndex } from '#shared/geotech/insitu'
 import { interpretOedometer, type OedometerInterpretation, type OedometerMethod } from '#shared/geotech/oedometer'
 import { createStressEvaluator, type StressAtDepth } from '#shared/geotech/stress'
 import { convertStages, degreeOfSaturation, e0FromWaterContent, specimenHeightAt, type StageConvention, type StageEntry } from '#shared/lab/stages'
-import { analyseTimeCurve, MIN_TIME_READINGS, type SecondaryResult, type TaylorResult } from '#shared/lab/time-curve'
+import { analyseTimeCurve, MIN_TIME_READINGS } from '#shared/lab/time-curve'
 import { toStressInput } from '#shared/site-model/convert'
 import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
+import type { ServerPointRow, ServerSampleRow } from '#shared/types/investigation'
+import type { CcCheck, InsituAtSample, ServerAdoptionRow, ServerOedometerTest, ServerOedometerTestRow, StageTimeAnalysis, StressModelInfo, TimeSummary } from '#shared/types/lab'
 import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, siteModels, strata, users, type OedometerStageJson } from '../db/schema'
@@ -15,25 +17,11 @@ import { recordAudit } from './audit'
 import { currentDefinition } from './site-models'
 import { notFound, versionedUpdate } from './http-errors'
 
-export type OedometerTestRow = typeof oedometerTests.$inferSelect
-export type SampleRow = typeof samples.$inferSelect
-export type PointRow = typeof investigationPoints.$inferSelect
-export type AdoptionRow = typeof preconsolidationAdoptions.$inferSelect
-
 type Db = ReturnType<typeof useDb> | Tx
 
 // ---------------------------------------------------------------------------
 // The stress model in force
 // ---------------------------------------------------------------------------
-
-export interface StressModelInfo {
-  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
-  source: 'draft' | 'logs' | 'given'
-  modelId: string | null
-  modelName: string | null
-  /** How σ'v0 was obtained, in words for the page. */
-  description: string
-}
 
 export interface StressContext {
   info: StressModelInfo
@@ -94,9 +82,9 @@ export function stressContextOf(definition: SiteModelDefinition, info: StressMod
 // ---------------------------------------------------------------------------
 
 export interface TestContext {
-  test: OedometerTestRow
-  sample: SampleRow
-  point: PointRow
+  test: ServerOedometerTestRow
+  sample: ServerSampleRow
+  point: ServerPointRow
 }
 
 /** The test in the route with its sample and point, scoped to the project (another project's test is 404). */
@@ -113,7 +101,7 @@ export async function requireTest(projectId: string, testId: string, tx?: Tx, op
 }
 
 /** The sample in a create request, scoped to the project. */
-export async function requireProjectSample(projectId: string, sampleId: string, tx: Tx): Promise<{ sample: SampleRow, point: PointRow }> {
+export async function requireProjectSample(projectId: string, sampleId: string, tx: Tx): Promise<{ sample: ServerSampleRow, point: ServerPointRow }> {
   const [row] = await tx.select({ sample: samples, point: investigationPoints })
     .from(samples)
     .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
@@ -123,12 +111,12 @@ export async function requireProjectSample(projectId: string, sampleId: string, 
 }
 
 /** Mid-depth of the sample: the specimen is trimmed from the middle of the tube (common practice). */
-export function sampleDepth(sample: Pick<SampleRow, 'top' | 'bottom'>): number {
+export function sampleDepth(sample: Pick<ServerSampleRow, 'top' | 'bottom'>): number {
   return 0.5 * (sample.top + sample.bottom)
 }
 
 /** A test as the API returns it: the row, where it came from, and the e0 check. */
-export function testJson({ test, sample, point }: TestContext) {
+export function testJson({ test, sample, point }: TestContext): ServerOedometerTest {
   const gs = test.specificGravity
   const w = test.initialWaterContent
   const fromWaterContent = gs !== null && w !== null && w > 0 ? e0FromWaterContent(gs, w) : null
@@ -227,7 +215,7 @@ export async function replaceTestStages(tx: Tx, args: { projectId: string, actor
     before: { version: before.version, convention: before.convention, stages: before.stages },
     after: { filename: args.filename, rows: args.stages.length, readingsKept, version: row.version, convention: row.convention, stages: row.stages },
   }, tx)
-  let withdrawn: AdoptionRow | null = null
+  let withdrawn: typeof preconsolidationAdoptions.$inferSelect | null = null
   if (JSON.stringify(prepared.stages) !== JSON.stringify(before.stages)) {
     const [w] = await tx.update(preconsolidationAdoptions).set({ supersededAt: new Date() })
       .where(and(eq(preconsolidationAdoptions.oedometerTestId, before.id), isNull(preconsolidationAdoptions.supersededAt))).returning()
@@ -243,15 +231,6 @@ export async function replaceTestStages(tx: Tx, args: { projectId: string, actor
 // Interpretation
 // ---------------------------------------------------------------------------
 
-export interface InsituAtSample {
-  depth: number
-  effectiveStress: number | null
-  totalStress: number | null
-  porePressure: number | null
-  /** The model's stratum band at the sample depth. */
-  modelStratum: string | null
-}
-
 export function insituAt(ctx: StressContext, depth: number): InsituAtSample {
   const s = ctx.at(depth)
   return {
@@ -264,7 +243,7 @@ export function insituAt(ctx: StressContext, depth: number): InsituAtSample {
 }
 
 /** The engine's interpretation of a test's curve; throws `GeotechError` for a curve with no yield. */
-export function interpretTest(test: OedometerTestRow, effectiveStress: number | null): OedometerInterpretation {
+export function interpretTest(test: ServerOedometerTestRow, effectiveStress: number | null): OedometerInterpretation {
   return interpretOedometer({
     points: test.stages.map(s => ({ stress: s.stress, voidRatio: s.voidRatio })),
     e0: test.e0,
@@ -272,26 +251,12 @@ export function interpretTest(test: OedometerTestRow, effectiveStress: number | 
   })
 }
 
-export interface StageTimeAnalysis {
-  /** 0-based index of the stage in the test. */
-  stage: number
-  stress: number
-  readings: number
-  /** Drainage path (half the mean specimen height over the stage, double drainage), mm. */
-  drainagePath: number
-  ok: boolean
-  reason: string | null
-  taylor: TaylorResult | null
-  secondary: SecondaryResult | null
-  notes: string[]
-}
-
 /**
  * Taylor's √t cv and the post-primary Cα for every stage with time readings. The specimen drains
  * top and bottom (the usual oedometer ring, common practice), so Hdr is half the mean height over
  * the stage, from the void ratios at its start and end.
  */
-export function timeAnalysis(test: OedometerTestRow): StageTimeAnalysis[] {
+export function timeAnalysis(test: ServerOedometerTestRow): StageTimeAnalysis[] {
   const out: StageTimeAnalysis[] = []
   const basis = { e0: test.e0, specimenHeight: test.specimenHeight }
   test.stages.forEach((stage, i) => {
@@ -320,7 +285,7 @@ function median(values: number[]): number | null {
 }
 
 /** Median cv and Cα of the loading stages beyond σ'p (the virgin range settlement uses) and below it. */
-export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: number | null) {
+export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: number | null): TimeSummary {
   const ok = stages.filter(s => s.ok && s.taylor)
   const beyond = preconsolidation === null ? [] : ok.filter(s => s.stress > preconsolidation)
   const below = preconsolidation === null ? ok : ok.filter(s => s.stress <= preconsolidation)
@@ -330,14 +295,6 @@ export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: numbe
     virgin: { cv: cv(beyond), calpha: ca(beyond), stages: beyond.length },
     recompression: { cv: cv(below), calpha: ca(below), stages: below.length },
   }
-}
-
-export interface CcCheck extends CompressionIndexCheck {
-  liquidLimit: number
-  sampleId: string
-  sampleIdentifier: string
-  sameSample: boolean
-  reference: string
 }
 
 /**
@@ -407,7 +364,7 @@ export function stratumAtLogged(intervals: LoggedInterval[], depth: number): str
 // ---------------------------------------------------------------------------
 
 /** Every adoption of a test, newest first, with the adopter's name. */
-export async function adoptionHistory(testId: string, db: Db = useDb()) {
+export async function adoptionHistory(testId: string, db: Db = useDb()): Promise<ServerAdoptionRow[]> {
   const rows = await db.select({ ...getTableColumns(preconsolidationAdoptions), adoptedByName: users.displayName })
     .from(preconsolidationAdoptions)
     .leftJoin(users, eq(users.id, preconsolidationAdoptions.adoptedBy))
@@ -415,8 +372,6 @@ export async function adoptionHistory(testId: string, db: Db = useDb()) {
     .orderBy(desc(preconsolidationAdoptions.adoptedAt), desc(preconsolidationAdoptions.id))
   return rows
 }
-
-export type AdoptionJson = Awaited<ReturnType<typeof adoptionHistory>>[number]
 
 /** Engine constructions an adoption can name; `dragged` and `typed` carry the engineer's own value. */
 export function isEngineMethod(method: string): method is OedometerMethod {

@@ -1,13 +1,14 @@
 import { and, count, desc, eq, sql, type SQL } from 'drizzle-orm'
 import { FlagListQuerySchema } from '#shared/schemas/review'
 import { investigationPoints, logIntervals, reviewFlags, reviewReplies, users } from '~~/server/db/schema'
+import type { ServerReviewFlagPage } from '#shared/types/review'
 
 /**
  * The project's review list, newest first, filtered by status, target type,
  * verdict or target. A flagged log interval comes with its hole and depths
  * (null once the interval is gone), so the list needs no look-up per hole.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerReviewFlagPage> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const q = validateQuery(event, FlagListQuerySchema)
   const where: SQL[] = [eq(reviewFlags.projectId, project.id)]

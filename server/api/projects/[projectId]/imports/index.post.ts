@@ -6,6 +6,7 @@ import { analyseAgsOrThrow, asRowErrors } from '~~/server/services/imports/ags'
 import { previewTable } from '~~/server/services/imports/preview'
 import { readImportUpload } from '~~/server/services/imports/upload'
 import { unprocessableError } from '~~/server/services/http-errors'
+import type { AgsPreview, ServerImportUpload } from '#shared/types/imports'
 
 const MAX_BYTES = 25 * 1024 * 1024
 
@@ -13,7 +14,7 @@ const MAX_BYTES = 25 * 1024 * 1024
  * Upload one CSV, XLSX or AGS4 file (multipart field `file`). The format is read
  * from the content; nothing is imported yet: the answer is a preview to map.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerImportUpload> => {
   const { user, project } = await requireProjectRole(event, 'logs.write')
   // Streamed, with the 25 MB limit (413) enforced while reading.
   const file = await readImportUpload(event, MAX_BYTES)
@@ -42,7 +43,7 @@ export default defineEventHandler(async (event) => {
   return { importId: row!.id, filename, format, size: file.data.length, preview, ags }
 })
 
-function agsPreview(content: Buffer, filename: string) {
+function agsPreview(content: Buffer, filename: string): AgsPreview {
   const a = analyseAgsOrThrow(content, filename)
   return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), warnings: asRowErrors(a.warnings).slice(0, 500) }
 }

@@ -1,9 +1,10 @@
 import { asc, desc, eq } from 'drizzle-orm'
 import { anyOf } from '~~/server/db/any'
 import { siteModels, siteModelVersions } from '~~/server/db/schema'
+import type { ServerModelList } from '#shared/types/models'
 
 /** The project's site models with their latest saved version. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerModelList> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const db = useDb()
   const models = await db.select({ id: siteModels.id, name: siteModels.name, description: siteModels.description, version: siteModels.version, basedOn: siteModels.basedOn, updatedAt: siteModels.updatedAt })

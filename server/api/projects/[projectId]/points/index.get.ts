@@ -1,9 +1,10 @@
 import { and, asc, count, eq, ilike, type SQL } from 'drizzle-orm'
 import { PointListQuerySchema } from '#shared/schemas/investigation'
 import { cptSoundings, investigationPoints } from '~~/server/db/schema'
+import type { ServerPointPage } from '#shared/types/investigation'
 
 /** The project's investigation points, filtered by identifier search and kind, paged. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerPointPage> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { q, kind, limit, offset } = validateQuery(event, PointListQuerySchema)
   const where: SQL[] = [eq(investigationPoints.projectId, project.id)]

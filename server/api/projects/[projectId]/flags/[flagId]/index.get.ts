@@ -2,8 +2,9 @@ import { and, asc, eq } from 'drizzle-orm'
 import { FlagParamsSchema } from '#shared/schemas/review'
 import { reviewFlags, reviewReplies, users } from '~~/server/db/schema'
 import { notFound } from '~~/server/services/http-errors'
+import type { ServerReviewThreadReply } from '#shared/types/review'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerReviewThreadReply> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { flagId } = validateParams(event, FlagParamsSchema)
   const db = useDb()

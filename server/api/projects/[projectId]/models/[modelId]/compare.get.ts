@@ -2,9 +2,10 @@ import { computeStressProfile } from '#shared/geotech/stress'
 import { CompareQuerySchema, ModelParamsSchema } from '#shared/schemas/models'
 import { toStressInput } from '#shared/site-model/convert'
 import { diffDefinitions, requireModel, requireVersion } from '~~/server/services/model-versions'
+import type { ServerCompareAnswer } from '#shared/types/models'
 
 /** What changed between two saved versions, and both stress profiles to overlay. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerCompareAnswer> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { modelId } = validateParams(event, ModelParamsSchema)
   const { a, b } = validateQuery(event, CompareQuerySchema)

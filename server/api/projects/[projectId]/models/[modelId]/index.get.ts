@@ -1,8 +1,9 @@
 import { ModelParamsSchema } from '#shared/schemas/models'
 import { listVersions, requireModel } from '~~/server/services/model-versions'
+import type { ServerModelDetail } from '#shared/types/models'
 
 /** The model with its draft and the list of saved versions. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerModelDetail> => {
   const { project, role } = await requireProjectRole(event, 'project.read')
   const { modelId } = validateParams(event, ModelParamsSchema)
   const model = await requireModel(project.id, modelId)

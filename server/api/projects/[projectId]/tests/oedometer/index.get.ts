@@ -3,13 +3,14 @@ import { isGeotechError } from '#shared/geotech/errors'
 import { OedometerListQuerySchema } from '#shared/schemas/lab'
 import { investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users } from '~~/server/db/schema'
 import { insituAt, interpretTest, loggedIntervals, sampleDepth, stratumAtLogged, stressContext, testJson, timeAnalysis, timeSummary } from '~~/server/services/lab'
+import type { ServerOedometerList } from '#shared/types/lab'
 
 /**
  * The project's oedometer tests with their sample, point and logged stratum, the σ'p in force (if adopted) and a
  * live reading of the curve: Casagrande σ'p and sample quality at σ'v0 from the stress model in
  * force, or the engine's reason when the curve cannot be read.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerOedometerList> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { pointId, limit, offset } = validateQuery(event, OedometerListQuerySchema)
   const where: SQL[] = [eq(investigationPoints.projectId, project.id)]

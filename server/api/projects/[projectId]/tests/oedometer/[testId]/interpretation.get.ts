@@ -1,6 +1,7 @@
 import { RESULT_CAUTION } from '#shared/caution'
 import { OedometerTestParamsSchema } from '#shared/schemas/lab'
 import { adoptionHistory, ccCheck, insituAt, interpretTest, requireTest, sampleDepth, stressContext, testJson, timeAnalysis, timeSummary } from '~~/server/services/lab'
+import type { ServerOedometerInterpretationReply } from '#shared/types/lab'
 
 /**
  * The four σ'p constructions side by side with Cc, Cr, sample quality at σ'v0 (from the stress
@@ -8,7 +9,7 @@ import { adoptionHistory, ccCheck, insituAt, interpretTest, requireTest, sampleD
  * on Cc, and the adoption in force with its history. A curve with no yield is 422 with the
  * engine's message.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerOedometerInterpretationReply> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { testId } = validateParams(event, OedometerTestParamsSchema)
   const ctx = await requireTest(project.id, testId)
