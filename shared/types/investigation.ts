@@ -68,3 +68,7 @@ export type PointPage = Serialize<ServerPointPage>
 /** GET …/strata */
 export interface ServerStrataReply { strata: ServerStratumRow[] }
 export type StrataReply = Serialize<ServerStrataReply>
+
+/** PUT …/points/:pointId/intervals: the log as saved, with its gaps. */
+export interface ServerLogReply { intervals: ServerIntervalRow[], gaps: DepthRange[] }
+export type LogReply = Serialize<ServerLogReply>

@@ -5,7 +5,9 @@
 import type { reviewFlags, reviewReplies } from '~~/server/db/schema'
 import type { Serialize } from './serialize'
 
-type ServerFlagRecord = typeof reviewFlags.$inferSelect
+/** A flag's row as stored. */
+export type ServerFlagRecord = typeof reviewFlags.$inferSelect
+export type FlagRecord = Serialize<ServerFlagRecord>
 
 /** Open or resolved (the database's enum). */
 export type FlagStatus = ServerFlagRecord['status']
@@ -35,3 +37,7 @@ export type ReviewReply = Serialize<ServerReviewReply>
 /** GET …/flags/:flagId: the flag with its thread. */
 export interface ServerReviewThreadReply { flag: ServerReviewFlagRow, replies: ServerReviewReply[] }
 export type ReviewThreadReply = Serialize<ServerReviewThreadReply>
+
+/** POST …/flags (201): the new flag's row. */
+export interface ServerFlagCreatedReply { flag: ServerFlagRecord }
+export type FlagCreatedReply = Serialize<ServerFlagCreatedReply>
