@@ -1,7 +1,7 @@
 import type { FlagTarget } from '#shared/review/flags'
-import type { OedometerListItem, PreconsolidationPointRow } from '~/composables/useLabTests'
-import type { PointListItem } from '~/composables/usePoints'
-import type { ReviewFlag } from '~/composables/useReviewFlags'
+import type { OedometerListItem, PreconsolidationPointRow } from '#shared/types/lab'
+import type { PointListItem } from '#shared/types/investigation'
+import type { ReviewFlag } from '#shared/types/review'
 
 /** What a flag is about, in words, and where that record lives. */
 export interface FlagTargetInfo {

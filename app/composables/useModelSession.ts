@@ -1,8 +1,8 @@
 import { SiteModelDefinitionSchema, type SiteModelDefinition } from '#shared/site-model/definition'
 import { useModelEditorStore } from '~/stores/modelEditor'
 import type { WorkspaceEditor } from '~/composables/useTrendFits'
-import { diffDefinitions, type DefinitionChange } from '#shared/site-model/diff'
-import type { SiteModelRow } from '~/composables/useModel'
+import { diffDefinitions } from '#shared/site-model/diff'
+import type { DefinitionChange, SiteModelRow } from '#shared/types/models'
 
 export interface DraftConflict {
   theirs: SiteModelRow

@@ -1,13 +1,15 @@
 import type { ComputedRef, InjectionKey, Ref, ShallowRef } from 'vue'
 import type * as d3 from 'd3'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
-import type { StratumRow } from '~/composables/useStrata'
+import type { StratumRow } from '#shared/types/investigation'
 import type { DenseLayer } from '~/composables/usePreconsolidationPoints'
-import type { ReferenceHole, UnitWeightReading, WaterReading } from '~/composables/useSiteReference'
+import type { ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
 import type { ProfileError } from '~/composables/useStressProfile'
 import type { TrendFits, WorkspaceEditor } from '~/composables/useTrendFits'
 import type { ModelUnits } from '~/composables/useModelUnits'
-import type { FlaggedTest, PointFlag, ProfilePoint, SigmaPoint } from '~/utils/stressHistory'
+import type { FlaggedTest, PointFlag } from '~/utils/stressHistory'
+import type { ProfilePoint } from '#shared/types/calc'
+import type { PreconsolidationPointRow } from '#shared/types/lab'
 
 /** The plotting band of the drawing (px from its top) that every track and the depth scale share. */
 export const MODEL_PLOT = { top: 44, bottom: 604 } as const
@@ -30,7 +32,7 @@ export interface ModelWorkspace {
   profileError: Ref<ProfileError | null>
   profileWarnings: Ref<string[]>
   strata: ComputedRef<StratumRow[]>
-  points: ShallowRef<SigmaPoint[]>
+  points: ShallowRef<PreconsolidationPointRow[]>
   flags: ShallowRef<Map<string, PointFlag[]>>
   /** Flagged oedometer tests with no adopted σ'p: marked at their depth, never fitted. */
   flaggedTests: ShallowRef<FlaggedTest[]>

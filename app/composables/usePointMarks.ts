@@ -3,10 +3,11 @@ import type { FlagVerdict } from '#shared/review/flags'
 import type { ModelWorkspace } from '~/composables/useModelWorkspace'
 import { strongestVerdict } from '~/utils/reviewDisplay'
 import { modelBase } from '~/utils/siteModelEdits'
-import { engineerExcluded, sampleTrend, stressAt, type PointState, type SigmaPoint, type TrendSample } from '~/utils/stressHistory'
+import { engineerExcluded, sampleTrend, stressAt, type PointState, type TrendSample } from '~/utils/stressHistory'
+import type { PreconsolidationPointRow } from '#shared/types/lab'
 
 /** A σ'p point where the stress track draws it (px in the track's own x, the drawing's y). */
-export interface PointMark { p: SigmaPoint, px: number, py: number, state: PointState, band: number, verdict: FlagVerdict | null }
+export interface PointMark { p: PreconsolidationPointRow, px: number, py: number, state: PointState, band: number, verdict: FlagVerdict | null }
 
 /** A point's OCR or POP, in the ratio tracks' own x. */
 export interface RatioMark { ocr: number, pop: number, cy: number, ocrX: number, popX: number }

@@ -1,8 +1,4 @@
-import type { PointRow } from './usePoint'
-
-export type PointListItem = PointRow & { cptCount: number }
-
-interface PointPage { points: PointListItem[], total: number, limit: number, offset: number }
+import type { PointListItem, PointPage } from '#shared/types/investigation'
 
 /** The API's largest page (shared/schemas/investigation.ts, PointListQuerySchema). */
 const PAGE = 500

@@ -1,29 +1,10 @@
 import seedrandom from 'seedrandom'
-import type { FlagVerdict } from '#shared/review/flags'
+import type { DenseCpt, PreconsolidationPointRow, PreconsolidationPointsReply } from '#shared/types/lab'
+import type { ReviewFlagPage } from '#shared/types/review'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { stableJson } from '~/utils/siteModelEdits'
-import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag, type SigmaPoint } from '~/utils/stressHistory'
-
-interface DenseCpt {
-  pointId: string
-  pointIdentifier: string
-  depth: number[]
-  preconsolidation: number[]
-  effectiveStress: (number | null)[]
-  stratum: number[]
-}
-
-interface PointsAnswer {
-  points: SigmaPoint[]
-  counts: Record<string, number>
-  warnings: string[]
-  spacing: number
-  stressModel: { source: 'draft' | 'logs' | 'given', modelId: string | null, modelName: string | null, description: string }
-  dense?: { strata: string[], cpt: DenseCpt[] }
-}
-
-interface FlagRow { id: string, targetType: string, targetId: string, verdict: FlagVerdict, comment: string, status: 'open' | 'resolved', author: string | null }
+import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag } from '~/utils/stressHistory'
 
 /** Every CPT row's σ'p for the dense layer, merged and sorted by depth (display only, never fitted). */
 export interface DenseLayer {
@@ -124,12 +105,12 @@ function stressKey(def: SiteModelDefinition): string {
  * its own. Without it, the project's stress model in force is used.
  */
 export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number>, definition?: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, label?: MaybeRefOrGetter<string>, delay?: number } = {}) {
-  const points = shallowRef<SigmaPoint[]>([])
+  const points = shallowRef<PreconsolidationPointRow[]>([])
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
   const flaggedTests = shallowRef<FlaggedTest[]>([])
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
   const warnings = ref<string[]>([])
-  const stressModel = ref<PointsAnswer['stressModel'] | null>(null)
+  const stressModel = ref<PreconsolidationPointsReply['stressModel'] | null>(null)
   const loading = ref(false)
   const error = ref('')
 
@@ -142,7 +123,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
       const base = `/api/projects/${id}`
       const [pts, flagList, tests] = await Promise.all([
         askPoints(base),
-        api<{ flags: FlagRow[] }>(`${base}/flags?status=open&limit=500`),
+        api<ReviewFlagPage>(`${base}/flags?status=open&limit=500`),
         api<{ tests: ListedTest[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] as ListedTest[] })),
       ])
       // A flag on an oedometer test bears on the σ'p adopted from it.
@@ -173,11 +154,11 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
   /** Points, through the given definition when there is one (the answer to the newest request wins). */
   let asked = 0
   let lastKey = ''
-  function askPoints(base: string): Promise<PointsAnswer> {
+  function askPoints(base: string): Promise<PreconsolidationPointsReply> {
     const def = toValue(options.definition)
-    if (!def) return api<PointsAnswer>(`${base}/preconsolidation-points?dense=1`)
+    if (!def) return api<PreconsolidationPointsReply>(`${base}/preconsolidation-points?dense=1`)
     lastKey = stressKey(def)
-    return api<PointsAnswer>(`${base}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined } })
+    return api<PreconsolidationPointsReply>(`${base}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined } })
   }
   let synthetic: { key: string, rows: SortedRows } | null = null
   function syntheticSorted(): SortedRows | null {
@@ -191,7 +172,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     }
     return synthetic.rows
   }
-  function applyPoints(pts: PointsAnswer) {
+  function applyPoints(pts: PreconsolidationPointsReply) {
     points.value = pts.points
     dense.value = mergeDense(pts.dense?.cpt ?? [], syntheticSorted())
     warnings.value = pts.warnings

@@ -1,18 +1,8 @@
-import type { ProjectRole } from '#shared/auth/roles'
-
-export interface ProjectSummary {
-  id: string
-  jobNumber: string
-  name: string
-  client: string
-  unitSystem: 'SI' | 'US'
-  updatedAt: string
-  role: ProjectRole
-}
+import type { ProjectList } from '#shared/types/projects'
 
 /** The caller's projects (server state, keyed; refresh after creating one). */
 export function useProjects() {
-  return useFetch<{ projects: ProjectSummary[] }>('/api/projects', {
+  return useFetch<ProjectList>('/api/projects', {
     key: 'projects',
     default: () => ({ projects: [] }),
   })

@@ -1,37 +1,5 @@
 import type { FlagTarget, FlagVerdict } from '#shared/review/flags'
-
-export type FlagStatus = 'open' | 'resolved'
-
-/** A reviewer flag as the list route sends it (dates as strings). */
-export interface ReviewFlag {
-  id: string
-  projectId: string
-  targetType: FlagTarget
-  targetId: string
-  verdict: FlagVerdict
-  comment: string
-  status: FlagStatus
-  author: string | null
-  replyCount: number
-  version: number
-  createdAt: string
-  updatedAt: string
-  resolvedAt: string | null
-  /** For a flagged log interval: its hole and depths, null once the interval is gone. */
-  interval?: { id: string, top: number, bottom: number, uscs: string | null, description: string, pointId: string, pointIdentifier: string } | null
-}
-
-export interface ReviewReply {
-  id: string
-  body: string
-  author: string | null
-  createdAt: string
-}
-
-export interface ReviewThreadReply {
-  flag: Omit<ReviewFlag, 'replyCount'>
-  replies: ReviewReply[]
-}
+import type { FlagStatus, ReviewFlag, ReviewFlagPage } from '#shared/types/review'
 
 export interface FlagQuery {
   status?: FlagStatus
@@ -68,7 +36,7 @@ function queryString(q: FlagQuery): string {
  * flagged record's id.
  */
 export function useReviewFlags(projectId: MaybeRefOrGetter<string>, query: MaybeRefOrGetter<FlagQuery> = {}) {
-  const fetcher = useRequestFetch() as unknown as (url: string) => Promise<{ flags: ReviewFlag[] }>
+  const fetcher = useRequestFetch() as unknown as (url: string) => Promise<ReviewFlagPage>
   const res = useAsyncData(
     () => `${listPrefix(toValue(projectId))}-${queryString(toValue(query)) || 'all'}`,
     async () => {

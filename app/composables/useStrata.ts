@@ -1,23 +1,10 @@
 import type { StratumInput } from '#shared/schemas/investigation'
-
-export interface StratumRow {
-  id: string
-  projectId: string
-  code: string
-  name: string
-  description: string
-  colour: string
-  pattern: string
-  unitWeight: number
-  unitWeightSaturated: number
-  displayOrder: number
-  version: number
-}
+import type { StratumRow, StrataReply } from '#shared/types/investigation'
 
 /** The project's strata in display order, with the writes the strata editor needs. */
 export function useStrata(projectId: MaybeRefOrGetter<string>) {
   const base = () => `/api/projects/${toValue(projectId)}/strata`
-  const res = useApi<{ strata: StratumRow[] }>(() => `strata-${toValue(projectId)}`, base, () => ({ strata: [] }))
+  const res = useApi<StrataReply>(() => `strata-${toValue(projectId)}`, base, () => ({ strata: [] }))
 
   async function create(input: StratumInput): Promise<StratumRow> {
     const { stratum } = await api<{ stratum: StratumRow }>(base(), { method: 'POST', body: input })

@@ -1,7 +1,7 @@
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
 import { stableJson } from '~/utils/siteModelEdits'
-import type { ProfilePoint } from '~/utils/stressHistory'
+import type { StressProfileReply } from '#shared/types/calc'
 
 export interface ProfileError {
   message: string
@@ -19,7 +19,7 @@ export interface ProfileError {
 export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, options: { delay?: number } = {}) {
   // Short enough that an edit shows within ~150 ms on loopback; older requests are aborted, so a drag does not pile up.
   const delay = options.delay ?? 60
-  const points = shallowRef<ProfilePoint[]>([])
+  const points = shallowRef<StressProfileReply['points']>([])
   const warnings = ref<string[]>([])
   const error = ref<ProfileError | null>(null)
   const pending = ref(false)
@@ -42,7 +42,7 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
     const n = ++asked
     pending.value = true
     try {
-      const res = await api<{ points: ProfilePoint[], warnings: string[] }>('/api/calc/stress-profile', { method: 'POST', body, signal: mine.signal })
+      const res = await api<StressProfileReply>('/api/calc/stress-profile', { method: 'POST', body, signal: mine.signal })
       if (n !== asked) return
       points.value = res.points
       warnings.value = res.warnings

@@ -3,8 +3,10 @@ import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/defin
 import { setTrend } from '~/utils/siteModelEdits'
 import {
   assignBands, fitInput, reviewerExcluded, sameIds, trendFromFit,
-  type PointFlag, type ProfilePoint, type SigmaPoint, type TrendFitAnswer,
+  type PointFlag,
 } from '~/utils/stressHistory'
+import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
+import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { EditorSnapshot } from '~/stores/modelEditor'
 
 export type FitChoice = StratumTrend['model'] | 'auto'
@@ -30,7 +32,7 @@ export interface WorkspaceEditor {
 export interface BandFit {
   /** What the fit was asked with, to know when it no longer matches the draft. */
   key: string
-  answer: TrendFitAnswer | null
+  answer: TrendFitReply | null
   error: string | null
   pending: boolean
 }
@@ -44,7 +46,7 @@ export interface BandFit {
 export function useTrendFits(args: {
   definition: () => SiteModelDefinition
   profile: () => readonly ProfilePoint[]
-  points: () => readonly SigmaPoint[]
+  points: () => readonly PreconsolidationPointRow[]
   flags: () => ReadonlyMap<string, readonly PointFlag[]>
   editor: () => WorkspaceEditor | null
 }) {
@@ -67,10 +69,10 @@ export function useTrendFits(args: {
     return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}`).join(',')}`
   }
 
-  async function ask(i: number, model: FitChoice, logSpace: boolean): Promise<{ answer: TrendFitAnswer, included: string[], excluded: string[] }> {
+  async function ask(i: number, model: FitChoice, logSpace: boolean): Promise<{ answer: TrendFitReply, included: string[], excluded: string[] }> {
     const inp = inputOf(i)
     if (!inp.included.length) throw new Error('No points left to fit in this stratum.')
-    const answer = await api<TrendFitAnswer>('/api/calc/trend-fit', {
+    const answer = await api<TrendFitReply>('/api/calc/trend-fit', {
       method: 'POST',
       body: {
         model,
@@ -83,7 +85,7 @@ export function useTrendFits(args: {
   }
 
   /** Fits band `i` and writes the trend (the pending exclusions of its stratum move into it). */
-  async function fitBand(i: number, model: FitChoice, logSpace: boolean, gesture?: string): Promise<TrendFitAnswer | null> {
+  async function fitBand(i: number, model: FitChoice, logSpace: boolean, gesture?: string): Promise<TrendFitReply | null> {
     const editor = args.editor()
     const s = definition().strata[i]
     if (!editor || !s) return null
@@ -174,7 +176,7 @@ export function useTrendFits(args: {
         const inp = inputOf(i)
         if (!inp.included.length) return
         fits.value = { ...fits.value, [i]: { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true } }
-        jobs.push(api<TrendFitAnswer>('/api/calc/trend-fit', {
+        jobs.push(api<TrendFitReply>('/api/calc/trend-fit', {
           method: 'POST',
           body: { model: t.model, logSpace: t.logSpace, points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })) },
         }).then((answer) => {

@@ -1,6 +1,7 @@
 import { checkIntervals, type Gap } from '#shared/investigation/intervals'
 import { isUscsGroupSymbol } from '#shared/geotech/plasticity'
 import { IntervalInputSchema } from '#shared/schemas/investigation'
+import type { IntervalRow } from '#shared/types/investigation'
 
 /**
  * The log table's editing model, kept free of Vue so its rules read in one place:
@@ -34,17 +35,8 @@ export interface DraftRow {
   consistency: string
 }
 
-export interface SavedInterval {
-  id: string
-  version: number
-  top: number
-  bottom: number
-  description: string
-  uscs: string | null
-  stratumId: string | null
-  moisture: string | null
-  consistency: string | null
-}
+/** A saved log interval as the point reply holds it (the fields the table edits). */
+export type SavedInterval = Pick<IntervalRow, 'id' | 'version' | 'top' | 'bottom' | 'description' | 'uscs' | 'stratumId' | 'moisture' | 'consistency'>
 
 export interface IntervalPayload {
   id?: string

@@ -1,5 +1,7 @@
 import type { FlagVerdict } from '#shared/review/flags'
-import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
+import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/schemas/lab'
+import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
+import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { stratumBounds } from '#shared/site-model/definition'
 import { trendPreconsolidation } from '#shared/site-model/convert'
@@ -13,9 +15,6 @@ import { trendPreconsolidation } from '#shared/site-model/convert'
 
 export type PointSource = PreconsolidationSource
 export const POINT_SOURCES: readonly PointSource[] = PRECONSOLIDATION_SOURCES
-
-/** One σ'p point as GET …/preconsolidation-points sends it. */
-export type SigmaPoint = PreconsolidationPoint
 
 /** An open reviewer flag as it bears on a point. */
 export interface PointFlag {
@@ -65,15 +64,6 @@ export function flaggedUnadoptedTests(tests: readonly ListedTest[], flags: reado
     .sort((a, b) => a.depth - b.depth || a.pointIdentifier.localeCompare(b.pointIdentifier))
 }
 
-/** A row of the stress-profile answer. */
-export interface ProfilePoint {
-  depth: number
-  layer: string
-  totalStress: number
-  porePressure: number
-  effectiveStress: number
-}
-
 export interface StressAt { totalStress: number, porePressure: number, effectiveStress: number }
 
 /**
@@ -104,7 +94,7 @@ export function stressAt(profile: readonly ProfilePoint[], depth: number): Stres
  * depth when the model has that stratum twice), else the band at its depth.
  * −1 for a point below the model's base.
  */
-export function assignBands(points: readonly SigmaPoint[], def: Pick<SiteModelDefinition, 'strata'>): Int32Array {
+export function assignBands(points: readonly PreconsolidationPointRow[], def: Pick<SiteModelDefinition, 'strata'>): Int32Array {
   const bounds = stratumBounds(def)
   const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
   const byCode = new Map<string, number[]>()
@@ -153,7 +143,7 @@ export function pointState(id: string, band: number, def: SiteModelDefinition, p
 }
 
 export interface FitInput {
-  included: SigmaPoint[]
+  included: PreconsolidationPointRow[]
   /** Everything of the band not fitted: by the engineer and by reviewer flags. */
   excludedIds: string[]
   /** Points without a positive σ'v0 in the current profile (cannot enter a POP/OCR fit). */
@@ -161,9 +151,9 @@ export interface FitInput {
 }
 
 /** The band's points split into fitted and left out, with σ'v0 from the current profile. */
-export function fitInput(bandIndex: number, def: SiteModelDefinition, points: readonly SigmaPoint[], bands: Int32Array, pending: Readonly<Record<string, readonly string[]>>, flaggedOut: ReadonlySet<string>, profile: readonly ProfilePoint[]): FitInput {
+export function fitInput(bandIndex: number, def: SiteModelDefinition, points: readonly PreconsolidationPointRow[], bands: Int32Array, pending: Readonly<Record<string, readonly string[]>>, flaggedOut: ReadonlySet<string>, profile: readonly ProfilePoint[]): FitInput {
   const s = def.strata[bandIndex]
-  const included: SigmaPoint[] = []
+  const included: PreconsolidationPointRow[] = []
   const excludedIds: string[] = []
   let withoutStress = 0
   if (!s) return { included, excludedIds, withoutStress }
@@ -178,23 +168,8 @@ export function fitInput(bandIndex: number, def: SiteModelDefinition, points: re
   return { included, excludedIds, withoutStress }
 }
 
-/** What POST /api/calc/trend-fit answers (the parts the workspace uses). */
-export interface TrendFitAnswer {
-  model: StratumTrend['model']
-  crustBelow?: StratumTrend['crustBelow']
-  parameters: Record<string, number>
-  n: number
-  r2: number
-  rmse: number
-  aic: number
-  aicc: number | null
-  band: { depth: number, fitted: number, lower: number, upper: number }[]
-  depthRange?: { top: number, bottom: number }
-  reason?: string
-}
-
 /** The draft's trend from a fit answer and the ids it was fitted on. */
-export function trendFromFit(fit: TrendFitAnswer, logSpace: boolean, includedIds: string[], excludedIds: string[]): StratumTrend {
+export function trendFromFit(fit: TrendFitReply, logSpace: boolean, includedIds: string[], excludedIds: string[]): StratumTrend {
   return {
     model: fit.model,
     ...(fit.crustBelow ? { crustBelow: fit.crustBelow } : {}),
@@ -253,7 +228,7 @@ export function sampleTrend(def: SiteModelDefinition, bandIndex: number, profile
 }
 
 /** Knots of a first hand-drawn trend: the band's top and bottom at the median σ'p of its fitted points (or σ'v0 + 20 kPa). */
-export function initialKnots(def: SiteModelDefinition, bandIndex: number, fitted: readonly SigmaPoint[], profile: readonly ProfilePoint[]): { depth: number, preconsolidation: number }[] {
+export function initialKnots(def: SiteModelDefinition, bandIndex: number, fitted: readonly PreconsolidationPointRow[], profile: readonly ProfilePoint[]): { depth: number, preconsolidation: number }[] {
   const b = stratumBounds(def)[bandIndex]
   if (!b) return []
   const s = def.strata[bandIndex]

@@ -1,25 +1,22 @@
 import { and, asc, desc, eq, getTableColumns, isNull, sql } from 'drizzle-orm'
 import { GeotechError, isGeotechError } from '#shared/geotech/errors'
-import { checkCompressionIndex, type CompressionIndexCheck } from '#shared/geotech/insitu'
+import { checkCompressionIndex } from '#shared/geotech/insitu'
 import { interpretOedometer, type OedometerInterpretation, type OedometerMethod } from '#shared/geotech/oedometer'
 import { createStressEvaluator, type StressAtDepth } from '#shared/geotech/stress'
 import { convertStages, degreeOfSaturation, e0FromWaterContent, specimenHeightAt, type StageConvention, type StageEntry } from '#shared/lab/stages'
 import { median } from '#shared/lab/statistics'
-import { analyseTimeCurve, MIN_TIME_READINGS, type SecondaryResult, type TaylorResult } from '#shared/lab/time-curve'
+import { analyseTimeCurve, MIN_TIME_READINGS } from '#shared/lab/time-curve'
 import { toStressInput } from '#shared/site-model/convert'
 import { type ModelStratum, type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
+import type { ServerPointRow, ServerSampleRow } from '#shared/types/investigation'
+import type { CcCheck, InsituAtSample, ServerAdoptionRow, ServerOedometerTest, ServerOedometerTestRow, StageTimeAnalysis, StressModelInfo, TimeSummary } from '#shared/types/lab'
 import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { indexTests, investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, samples, strata, users, type OedometerStageJson } from '../db/schema'
 import { runEngine } from '../utils/engine'
 import { type AuditEntry, recordAudit } from './audit'
-import { stressModelInForce, type StressModelInfo } from './site-models'
+import { stressModelInForce } from './site-models'
 import { notFound, versionedUpdate } from './http-errors'
-
-export type OedometerTestRow = typeof oedometerTests.$inferSelect
-export type SampleRow = typeof samples.$inferSelect
-export type PointRow = typeof investigationPoints.$inferSelect
-export type AdoptionRow = typeof preconsolidationAdoptions.$inferSelect
 
 type Db = ReturnType<typeof useDb> | Tx
 
@@ -78,9 +75,9 @@ export function stressContextOf(definition: SiteModelDefinition, info: StressMod
 // ---------------------------------------------------------------------------
 
 export interface TestContext {
-  test: OedometerTestRow
-  sample: SampleRow
-  point: PointRow
+  test: ServerOedometerTestRow
+  sample: ServerSampleRow
+  point: ServerPointRow
 }
 
 /** The test in the route with its sample and point, scoped to the project (another project's test is 404). */
@@ -97,7 +94,7 @@ export async function requireTest(projectId: string, testId: string, tx?: Tx, op
 }
 
 /** The sample in a create request, scoped to the project. */
-export async function requireProjectSample(projectId: string, sampleId: string, tx: Tx): Promise<{ sample: SampleRow, point: PointRow }> {
+export async function requireProjectSample(projectId: string, sampleId: string, tx: Tx): Promise<{ sample: ServerSampleRow, point: ServerPointRow }> {
   const [row] = await tx.select({ sample: samples, point: investigationPoints })
     .from(samples)
     .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
@@ -107,12 +104,12 @@ export async function requireProjectSample(projectId: string, sampleId: string, 
 }
 
 /** Mid-depth of the sample: the specimen is trimmed from the middle of the tube (common practice). */
-export function sampleDepth(sample: Pick<SampleRow, 'top' | 'bottom'>): number {
+export function sampleDepth(sample: Pick<ServerSampleRow, 'top' | 'bottom'>): number {
   return 0.5 * (sample.top + sample.bottom)
 }
 
 /** A test as the API returns it: the row, where it came from, and the e0 check. */
-export function testJson({ test, sample, point }: TestContext) {
+export function testJson({ test, sample, point }: TestContext): ServerOedometerTest {
   const gs = test.specificGravity
   const w = test.initialWaterContent
   const fromWaterContent = gs !== null && w !== null && w > 0 ? e0FromWaterContent(gs, w) : null
@@ -179,7 +176,7 @@ export function staleTest(ctx: TestContext): never {
 /** What an edit may change on a test; left out, a field keeps its value. */
 export interface TestChanges extends Partial<SpecimenFields> {
   label?: string
-  testType?: OedometerTestRow['testType']
+  testType?: ServerOedometerTestRow['testType']
   remarks?: string
 }
 
@@ -197,9 +194,9 @@ export async function reviseTest(tx: Tx, args: {
   testId: string
   version: number
   /** The changes, or a function of the current row (the import keeps time readings on stages that keep their σ'). */
-  changes: TestChanges | ((before: OedometerTestRow) => TestChanges)
+  changes: TestChanges | ((before: ServerOedometerTestRow) => TestChanges)
   /** The audit entry of the edit; default: an `update` of the test with both rows. */
-  audit?: (before: OedometerTestRow, after: OedometerTestRow) => Pick<AuditEntry, 'action' | 'entity' | 'before' | 'after'>
+  audit?: (before: ServerOedometerTestRow, after: ServerOedometerTestRow) => Pick<AuditEntry, 'action' | 'entity' | 'before' | 'after'>
 }): Promise<{ test: TestContext, withdrawn: AdoptionRow | null, notes: string[] }> {
   const ctx = await requireTest(args.projectId, args.testId, tx, { lock: true })
   const before = ctx.test
@@ -233,7 +230,7 @@ export async function reviseTest(tx: Tx, args: {
   })
   const audit = args.audit?.(before, row) ?? { action: 'update', entity: 'oedometer-test', before, after: row }
   await recordAudit({ actorId: args.actorId, projectId: args.projectId, entityId: before.id, ...audit }, tx)
-  let withdrawn: AdoptionRow | null = null
+  let withdrawn: ServerAdoptionRow | null = null
   if (curveChanged) {
     const [w] = await tx.update(preconsolidationAdoptions).set({ supersededAt: new Date() })
       .where(and(eq(preconsolidationAdoptions.oedometerTestId, before.id), isNull(preconsolidationAdoptions.supersededAt))).returning()
@@ -278,15 +275,6 @@ export async function replaceTestStages(tx: Tx, args: { projectId: string, actor
 // Interpretation
 // ---------------------------------------------------------------------------
 
-export interface InsituAtSample {
-  depth: number
-  effectiveStress: number | null
-  totalStress: number | null
-  porePressure: number | null
-  /** The model's stratum band at the sample depth. */
-  modelStratum: string | null
-}
-
 export function insituAt(ctx: StressContext, depth: number): InsituAtSample {
   const s = ctx.at(depth)
   return {
@@ -299,7 +287,7 @@ export function insituAt(ctx: StressContext, depth: number): InsituAtSample {
 }
 
 /** The engine's interpretation of a test's curve; throws `GeotechError` for a curve with no yield. */
-export function interpretTest(test: OedometerTestRow, effectiveStress: number | null): OedometerInterpretation {
+export function interpretTest(test: ServerOedometerTestRow, effectiveStress: number | null): OedometerInterpretation {
   return interpretOedometer({
     points: test.stages.map(s => ({ stress: s.stress, voidRatio: s.voidRatio })),
     e0: test.e0,
@@ -307,26 +295,12 @@ export function interpretTest(test: OedometerTestRow, effectiveStress: number | 
   })
 }
 
-export interface StageTimeAnalysis {
-  /** 0-based index of the stage in the test. */
-  stage: number
-  stress: number
-  readings: number
-  /** Drainage path (half the mean specimen height over the stage, double drainage), mm. */
-  drainagePath: number
-  ok: boolean
-  reason: string | null
-  taylor: TaylorResult | null
-  secondary: SecondaryResult | null
-  notes: string[]
-}
-
 /**
  * Taylor's √t cv and the post-primary Cα for every stage with time readings. The specimen drains
  * top and bottom (the usual oedometer ring, common practice), so Hdr is half the mean height over
  * the stage, from the void ratios at its start and end.
  */
-export function timeAnalysis(test: OedometerTestRow): StageTimeAnalysis[] {
+export function timeAnalysis(test: ServerOedometerTestRow): StageTimeAnalysis[] {
   const out: StageTimeAnalysis[] = []
   const basis = { e0: test.e0, specimenHeight: test.specimenHeight }
   test.stages.forEach((stage, i) => {
@@ -348,7 +322,7 @@ export function timeAnalysis(test: OedometerTestRow): StageTimeAnalysis[] {
 }
 
 /** Median cv and Cα of the loading stages beyond σ'p (the virgin range settlement uses) and below it. */
-export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: number | null) {
+export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: number | null): TimeSummary {
   const ok = stages.filter(s => s.ok && s.taylor)
   const beyond = preconsolidation === null ? [] : ok.filter(s => s.stress > preconsolidation)
   const below = preconsolidation === null ? ok : ok.filter(s => s.stress <= preconsolidation)
@@ -358,14 +332,6 @@ export function timeSummary(stages: StageTimeAnalysis[], preconsolidation: numbe
     virgin: { cv: cv(beyond), calpha: ca(beyond), stages: beyond.length },
     recompression: { cv: cv(below), calpha: ca(below), stages: below.length },
   }
-}
-
-export interface CcCheck extends CompressionIndexCheck {
-  liquidLimit: number
-  sampleId: string
-  sampleIdentifier: string
-  sameSample: boolean
-  reference: string
 }
 
 /**
@@ -435,7 +401,7 @@ export function stratumAtLogged(intervals: LoggedInterval[], depth: number): str
 // ---------------------------------------------------------------------------
 
 /** Every adoption of a test, newest first, with the adopter's name. */
-export async function adoptionHistory(testId: string, db: Db = useDb()) {
+export async function adoptionHistory(testId: string, db: Db = useDb()): Promise<ServerAdoptionRow[]> {
   const rows = await db.select({ ...getTableColumns(preconsolidationAdoptions), adoptedByName: users.displayName })
     .from(preconsolidationAdoptions)
     .leftJoin(users, eq(users.id, preconsolidationAdoptions.adoptedBy))
@@ -443,8 +409,6 @@ export async function adoptionHistory(testId: string, db: Db = useDb()) {
     .orderBy(desc(preconsolidationAdoptions.adoptedAt), desc(preconsolidationAdoptions.id))
   return rows
 }
-
-export type AdoptionJson = Awaited<ReturnType<typeof adoptionHistory>>[number]
 
 /** Engine constructions an adoption can name; `dragged` and `typed` carry the engineer's own value. */
 export function isEngineMethod(method: string): method is OedometerMethod {

@@ -2,18 +2,19 @@ import { and, desc, eq } from 'drizzle-orm'
 import { buildStressModel } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
+import type { ServerModelVersionRow, ServerModelVersionSummary, ServerSiteModelRow } from '#shared/types/models'
 import { type Tx, useDb } from '../db/client'
 import { siteModels, siteModelVersions, users } from '../db/schema'
 import { notFound } from './http-errors'
 
-export async function requireModel(projectId: string, modelId: string, tx?: Tx) {
+export async function requireModel(projectId: string, modelId: string, tx?: Tx): Promise<ServerSiteModelRow> {
   const db = tx ?? useDb()
   const [m] = await db.select().from(siteModels).where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId)))
   if (!m) notFound('Model')
   return m
 }
 
-export async function requireVersion(modelId: string, version: number, tx?: Tx) {
+export async function requireVersion(modelId: string, version: number, tx?: Tx): Promise<ServerModelVersionRow> {
   const db = tx ?? useDb()
   const [v] = await db.select({ v: siteModelVersions, author: users.displayName }).from(siteModelVersions)
     .leftJoin(users, eq(users.id, siteModelVersions.createdBy))
@@ -22,7 +23,7 @@ export async function requireVersion(modelId: string, version: number, tx?: Tx) 
   return { ...v.v, author: v.author }
 }
 
-export async function listVersions(modelId: string) {
+export async function listVersions(modelId: string): Promise<ServerModelVersionSummary[]> {
   return useDb().select({ version: siteModelVersions.version, message: siteModelVersions.message, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, author: users.displayName })
     .from(siteModelVersions).leftJoin(users, eq(users.id, siteModelVersions.createdBy))
     .where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version))

@@ -4,14 +4,14 @@ import { type Tx, useDb } from '../db/client'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, vaneReadings } from '../db/schema'
 import { notFound, unprocessableError } from './http-errors'
 
-export type PointRow = typeof investigationPoints.$inferSelect
+import type { ServerPointContents, ServerPointRow } from '#shared/types/investigation'
 
 /**
  * The point in the route, scoped to the project in the WHERE clause (another
  * project's point is 404). `lock` takes a row lock so concurrent edits of one
  * hole's log are serialised.
  */
-export async function requirePoint(projectId: string, pointId: string, tx?: Tx, opts: { lock?: boolean } = {}): Promise<PointRow> {
+export async function requirePoint(projectId: string, pointId: string, tx?: Tx, opts: { lock?: boolean } = {}): Promise<ServerPointRow> {
   const db = tx ?? useDb()
   const q = db.select().from(investigationPoints).where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, projectId)))
   const [row] = opts.lock ? await q.for('update') : await q
@@ -20,7 +20,7 @@ export async function requirePoint(projectId: string, pointId: string, tx?: Tx, 
 }
 
 /** Everything logged at one point except the CPT arrays (which come on their own route). */
-export async function pointDetail(point: PointRow) {
+export async function pointDetail(point: ServerPointRow): Promise<ServerPointContents> {
   const db = useDb()
   const [intervals, sampleRows, spt, groundwater, vane, cpt] = await Promise.all([
     db.select().from(logIntervals).where(eq(logIntervals.pointId, point.id)).orderBy(asc(logIntervals.top)),

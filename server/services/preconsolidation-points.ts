@@ -4,6 +4,7 @@ import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconso
 import { median } from '#shared/lab/statistics'
 import { cptPointId } from '#shared/review/flags'
 import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint as SharedPreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
+import type { DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
 import { useDb } from '../db/client'
 import { cptSoundings, indexTests, investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users, vaneReadings } from '../db/schema'
 import { loggedIntervals, sampleDepth, type LoggedInterval, type StressContext, stratumAtLogged } from './lab'
@@ -133,17 +134,6 @@ export async function cptSoundingRows(projectId: string, pointId?: string): Prom
     .orderBy(asc(investigationPoints.identifier))
 }
 
-/** Every finite CPT row as compact arrays, for the canvas's dense layer. */
-export interface DenseCpt {
-  pointId: string
-  pointIdentifier: string
-  depth: number[]
-  preconsolidation: number[]
-  effectiveStress: (number | null)[]
-  /** Index into `strata` of the response, −1 where none. */
-  stratum: number[]
-}
-
 function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number): DenseCpt {
   const out: DenseCpt = { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: [], preconsolidation: [], effectiveStress: [], stratum: [] }
   for (let i = 0; i < profile.depth.length; i++) {
@@ -240,7 +230,7 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
 // All sources
 // ---------------------------------------------------------------------------
 
-export async function allPreconsolidationPoints(projectId: string, ctx: StressContext, opts: { spacing: number, dense: boolean }) {
+export async function allPreconsolidationPoints(projectId: string, ctx: StressContext, opts: { spacing: number, dense: boolean }): Promise<ServerPreconsolidationPoints> {
   const warnings: string[] = []
   const [oedometer, soundings, vane] = await Promise.all([
     oedometerPoints(projectId, ctx),

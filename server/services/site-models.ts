@@ -4,8 +4,6 @@ import { type Database, type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
 
-export type SiteModelRow = typeof siteModels.$inferSelect
-
 /**
  * A starting model from the project's logs: one band per stratum in display
  * order, each as thick as its mean logged thickness, unit weights from the

@@ -1,8 +1,9 @@
 import { computeStressProfile } from '#shared/geotech/stress'
 import { StressProfileRequestSchema } from '#shared/schemas/calc'
+import type { StressProfileReply } from '#shared/types/calc'
 
 /** σv, u and σ'v0 at every breakpoint and requested depth. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StressProfileReply> => {
   requireUser(event)
   const body = await validateBody(event, StressProfileRequestSchema)
   const profile = runEngine(() => computeStressProfile(body))

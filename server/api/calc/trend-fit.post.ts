@@ -1,8 +1,9 @@
 import { fitTrend } from '#shared/geotech/trends'
 import { TrendFitRequestSchema } from '#shared/schemas/calc'
+import type { TrendFitReply } from '#shared/types/calc'
 
 /** A σ'p trend with depth for one stratum's points (or `auto`: lowest AICc). */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<TrendFitReply> => {
   requireUser(event)
   const { model, points, logSpace } = await validateBody(event, TrendFitRequestSchema)
   const fit = runEngine(() => fitTrend(points, { model, logSpace }))

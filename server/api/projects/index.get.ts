@@ -1,8 +1,9 @@
 import { asc, eq } from 'drizzle-orm'
 import { projectMembers, projects } from '~~/server/db/schema'
+import type { ServerProjectList } from '#shared/types/projects'
 
 /** Projects the caller is a member of, with the caller's role in each. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerProjectList> => {
   const user = requireUser(event)
   const rows = await useDb()
     .select({

@@ -1,5 +1,6 @@
 import { doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
 import { OEDOMETER_TEST_TYPES } from '#shared/investigation/types'
+import type { AdoptionMethod } from '#shared/schemas/lab'
 import { timestamps } from './columns'
 import { samples } from './investigation'
 import { projects } from './projects'
@@ -47,7 +48,7 @@ export const preconsolidationAdoptions = pgTable('preconsolidation_adoptions', {
   projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
   oedometerTestId: uuid().notNull().references(() => oedometerTests.id, { onDelete: 'cascade' }),
   /** casagrande | pachecoSilva | work | bilinear | dragged | typed */
-  method: text().notNull(),
+  method: text().$type<AdoptionMethod>().notNull(),
   value: doublePrecision().notNull(),
   reason: text().notNull(),
   /** Sample quality at adoption (σ'v0 from the stress model then in force). */

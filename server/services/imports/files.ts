@@ -2,15 +2,16 @@ import Papa from 'papaparse'
 import { eachCsvRow, isBlankRow, type PlainCsvText } from '#shared/imports/cpt-csv'
 import { IMPORT_ROW_LIMITS, tooManyRows, UPLOAD_ROW_LIMIT } from '#shared/imports/limits'
 import type { ImportTarget } from '#shared/imports/targets'
+import type { ImportFormat, ServerImportCell } from '#shared/types/imports'
 import { readWorkbookGrid } from './workbook'
 
 /**
  * Reading uploaded files: the format is decided by content (never by the name
  * alone), text must be UTF-8, and every refusal says plainly what is wrong.
  */
-export type UploadFormat = 'csv' | 'xlsx' | 'ags4'
+export type UploadFormat = ImportFormat
 
-export type Cell = string | number | boolean | Date | null
+export type Cell = ServerImportCell
 
 export interface Table {
   sheets: string[]

@@ -1,6 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { type ImportTarget, suggestMapping } from '#shared/imports/targets'
 import type { PlainCsvText } from '#shared/imports/cpt-csv'
+import type { ServerImportPreview } from '#shared/types/imports'
 import { useDb } from '~~/server/db/client'
 import { importFiles, importMappings } from '~~/server/db/schema'
 import { notFound, unprocessableError } from '../http-errors'
@@ -48,7 +49,7 @@ export function plainCsvOrThrow(content: Buffer, filename: string): PlainCsvText
 }
 
 /** Headers, the first rows, and a mapping: the saved one for this target when its columns are all present, else a suggestion. */
-export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string) {
+export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string): Promise<ServerImportPreview> {
   const table = await tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet, PREVIEW_ROWS)
   let mapping: Record<string, string> | null = null
   let mappingSource: 'saved' | 'suggested' | null = null

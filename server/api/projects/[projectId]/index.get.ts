@@ -1,4 +1,6 @@
-export default defineEventHandler(async (event) => {
+import type { ServerProjectReply } from '#shared/types/projects'
+
+export default defineEventHandler(async (event): Promise<ServerProjectReply> => {
   const { project, role } = await requireProjectRole(event, 'project.read')
   return { project, role }
 })

@@ -2,6 +2,7 @@ import { RESULT_CAUTION } from '#shared/caution'
 import { PreconsolidationPointsEvaluateSchema } from '#shared/schemas/lab'
 import { stressContextOf } from '~~/server/services/lab'
 import { allPreconsolidationPoints } from '~~/server/services/preconsolidation-points'
+import type { ServerPreconsolidationPointsReply } from '#shared/types/lab'
 
 /**
  * The project's σ'p points (as GET …/preconsolidation-points) with σv, u and σ'v0 from the stress
@@ -9,7 +10,7 @@ import { allPreconsolidationPoints } from '~~/server/services/preconsolidation-p
  * version it shows, so CPT σ'p = k·(qt − σv0) follow the stresses on screen. Nothing is written.
  * A definition the engine cannot use is 422 with the engine's message.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerPreconsolidationPointsReply> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { definition, spacing, dense, label } = await validateBody(event, PreconsolidationPointsEvaluateSchema)
   const stress = stressContextOf(definition, { source: 'given', modelId: null, modelName: null, description: `The stresses of ${label}.` })

@@ -1,8 +1,9 @@
 import { ImportParamsSchema, ImportPreviewQuerySchema } from '#shared/schemas/imports'
 import { loadImportFile, previewTable } from '~~/server/services/imports/preview'
+import type { ServerImportPreviewReply } from '#shared/types/imports'
 
 /** The preview again, for another sheet or target (the mapping follows the target). */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ServerImportPreviewReply> => {
   const { project } = await requireProjectRole(event, 'logs.write')
   const { importId } = validateParams(event, ImportParamsSchema)
   const { target, sheet } = validateQuery(event, ImportPreviewQuerySchema)

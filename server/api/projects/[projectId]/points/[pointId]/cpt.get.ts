@@ -3,9 +3,10 @@ import { cptSoundings } from '~~/server/db/schema'
 import { requirePoint } from '~~/server/services/points'
 import { notFound } from '~~/server/services/http-errors'
 import { PointParamsSchema } from '#shared/schemas/investigation'
+import type { CptSounding } from '#shared/types/investigation'
 
 /** The whole CPT sounding as parallel arrays (kPa, m). */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CptSounding> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { pointId } = validateParams(event, PointParamsSchema)
   const point = await requirePoint(project.id, pointId)

@@ -1,0 +1,59 @@
+/**
+ * Replies of the site model routes. `Server…` is what a service or route
+ * returns, the plain name what the page reads (dates as ISO strings).
+ */
+import type { ProjectRole } from '#shared/auth/roles'
+import type { StressProfilePoint } from '#shared/geotech/stress'
+import type { siteModels, siteModelVersions } from '~~/server/db/schema'
+import type { Serialize } from './serialize'
+
+export type ServerSiteModelRow = typeof siteModels.$inferSelect
+export type SiteModelRow = Serialize<ServerSiteModelRow>
+
+type ServerVersionRecord = typeof siteModelVersions.$inferSelect
+
+/** Where a saved version stands in review (the database's enum). */
+export type VersionStatus = ServerVersionRecord['status']
+
+/** A saved version with its author's name (`requireVersion`). */
+export type ServerModelVersionRow = ServerVersionRecord & { author: string | null }
+export type ModelVersionRow = Serialize<ServerModelVersionRow>
+
+/** A saved version as the model's list shows it (`listVersions`). */
+export type ServerModelVersionSummary = Pick<ServerModelVersionRow, 'version' | 'message' | 'status' | 'createdAt' | 'author'>
+export type ModelVersionSummary = Serialize<ServerModelVersionSummary>
+
+/** One model of GET …/models, with its latest saved version. */
+export type ServerModelListItem = Pick<ServerSiteModelRow, 'id' | 'name' | 'description' | 'version' | 'basedOn' | 'updatedAt'> & {
+  latest: Pick<ServerVersionRecord, 'modelId' | 'version' | 'status' | 'createdAt' | 'message'> | null
+  versionCount: number
+}
+export type ModelListItem = Serialize<ServerModelListItem>
+
+export interface ServerModelList { models: ServerModelListItem[] }
+export type ModelList = Serialize<ServerModelList>
+
+/** GET …/models/:modelId: the model with its draft, its saved versions and the caller's role. */
+export interface ServerModelDetail { model: ServerSiteModelRow, versions: ServerModelVersionSummary[], role: ProjectRole }
+export type ModelDetail = Serialize<ServerModelDetail>
+
+/** GET …/models/:modelId/versions/:version */
+export interface ServerModelVersionReply { model: Pick<ServerSiteModelRow, 'id' | 'name'>, version: ServerModelVersionRow }
+export type ModelVersionReply = Serialize<ServerModelVersionReply>
+
+/** One changed leaf between two definitions. */
+export type { DefinitionChange } from '../site-model/diff'
+import type { DefinitionChange } from '../site-model/diff'
+
+/** One side of a comparison. */
+export interface ServerCompareSide { version: number, message: string, savedAt: Date, author: string | null }
+
+/** GET …/models/:modelId/compare */
+export interface ServerCompareAnswer {
+  a: ServerCompareSide
+  b: ServerCompareSide
+  changes: DefinitionChange[]
+  flagsChanged: boolean
+  profiles: { a: StressProfilePoint[], b: StressProfilePoint[] }
+}
+export type CompareAnswer = Serialize<ServerCompareAnswer>
