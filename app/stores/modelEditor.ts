@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, toRaw } from 'vue'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { useUndoHistory } from '../composables/useUndoHistory'
 import { stableJson } from '../utils/siteModelEdits'
 
 /**
@@ -17,14 +18,6 @@ import { stableJson } from '../utils/siteModelEdits'
 export interface EditorSnapshot {
   draft: SiteModelDefinition
   pendingExcluded: Record<string, string[]>
-}
-
-interface HistoryEntry {
-  label: string
-  /** The session before the edit (undo) or after it (redo), serialised. */
-  snapshot: string
-  /** Edits of one continuing gesture (a drag, typing in one field) share a token and one entry. */
-  gesture?: string
 }
 
 export interface LocalDraft {
@@ -74,18 +67,15 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
   const draft = shallowRef<SiteModelDefinition | null>(null)
   const pendingExcluded = shallowRef<Record<string, string[]>>({})
   const savedJson = ref('')
-  const past = shallowRef<HistoryEntry[]>([])
-  const future = shallowRef<HistoryEntry[]>([])
+  /** Snapshots are the session serialised: before the edit (undo) or after it (redo). */
+  const history = useUndoHistory<string>(HISTORY_LIMIT)
+  const { past, future, canUndo, canRedo, undoLabel, redoLabel } = history
   /** A local copy found at load that differs from the server's draft, offered back until answered. */
   const recovery = shallowRef<LocalDraft | null>(null)
   const lastLocalWrite = ref<string | null>(null)
 
   const currentJson = computed(() => (draft.value ? stableJson(draft.value) : ''))
   const dirty = computed(() => !!draft.value && currentJson.value !== savedJson.value)
-  const canUndo = computed(() => past.value.length > 0)
-  const canRedo = computed(() => future.value.length > 0)
-  const undoLabel = computed(() => past.value[past.value.length - 1]?.label ?? null)
-  const redoLabel = computed(() => future.value[future.value.length - 1]?.label ?? null)
 
   function snapshot(): EditorSnapshot {
     if (!draft.value) throw new Error('No model is open.')
@@ -107,8 +97,7 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     draft.value = copy(serverDraft)
     pendingExcluded.value = {}
     savedJson.value = stableJson(serverDraft)
-    past.value = []
-    future.value = []
+    history.clear()
     lastLocalWrite.value = null
     recovery.value = findLocal(id, savedJson.value)
   }
@@ -182,36 +171,23 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
       : { draft: result as SiteModelDefinition, pendingExcluded: pendingExcluded.value }
     const after = JSON.stringify(next)
     if (after === before) return false
-    const last = past.value[past.value.length - 1]
-    const merge = !!opts.gesture && last?.gesture === opts.gesture && future.value.length === 0
-    if (!merge) {
-      const list = [...past.value, { label, snapshot: before, gesture: opts.gesture }]
-      past.value = list.length > HISTORY_LIMIT ? list.slice(list.length - HISTORY_LIMIT) : list
-    }
-    future.value = []
+    history.record(before, { label, gesture: opts.gesture })
     draft.value = next.draft
     pendingExcluded.value = next.pendingExcluded
     persistLocal()
     return true
   }
 
-  function undo() {
-    const last = past.value[past.value.length - 1]
-    if (!last) return
-    future.value = [...future.value, { label: last.label, snapshot: serialise() }]
-    past.value = past.value.slice(0, -1)
-    restore(last.snapshot)
+  /** One step back or forward: the history keeps the session as it is and gives the one to restore. */
+  function step(move: (current: string) => string | undefined) {
+    if (!draft.value) return
+    const json = move(serialise())
+    if (json === undefined) return
+    restore(json)
     persistLocal()
   }
-
-  function redo() {
-    const next = future.value[future.value.length - 1]
-    if (!next) return
-    past.value = [...past.value, { label: next.label, snapshot: serialise() }]
-    future.value = future.value.slice(0, -1)
-    restore(next.snapshot)
-    persistLocal()
-  }
+  const undo = () => step(history.undo)
+  const redo = () => step(history.redo)
 
   /** Takes the offered local copy as an edit (so undo returns to the server's draft). */
   function acceptRecovery() {
@@ -275,8 +251,7 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     draft.value = null
     pendingExcluded.value = {}
     savedJson.value = ''
-    past.value = []
-    future.value = []
+    history.clear()
     recovery.value = null
   }
 

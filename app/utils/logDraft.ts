@@ -1,3 +1,4 @@
+import Papa from 'papaparse'
 import { checkIntervals, type Gap } from '#shared/investigation/intervals'
 import { isUscsGroupSymbol } from '#shared/geotech/plasticity'
 import { IntervalInputSchema } from '#shared/schemas/investigation'
@@ -154,36 +155,13 @@ export function validateDraft(rows: readonly DraftRow[], finalDepth: number): { 
 
 /**
  * Splits text copied from a spreadsheet: rows by line, cells by tab; a cell in
- * double quotes may hold tabs, line breaks and doubled quotes. The trailing line
- * break spreadsheets add is dropped.
+ * double quotes may hold tabs, line breaks and doubled quotes (papaparse reads
+ * them). The trailing line break spreadsheets add is dropped.
  */
 export function parseTsv(text: string): string[][] {
-  const rows: string[][] = []
-  let row: string[] = []
-  let cell = ''
-  let i = 0
-  let quoted = false
-  const s = text.replace(/\r\n?/g, '\n')
-  while (i < s.length) {
-    const ch = s[i]!
-    if (quoted) {
-      if (ch === '"' && s[i + 1] === '"') { cell += '"'; i += 2; continue }
-      if (ch === '"') { quoted = false; i += 1; continue }
-      cell += ch
-      i += 1
-      continue
-    }
-    if (ch === '"' && cell === '') { quoted = true; i += 1; continue }
-    if (ch === '\t') { row.push(cell); cell = ''; i += 1; continue }
-    if (ch === '\n') { row.push(cell); rows.push(row); row = []; cell = ''; i += 1; continue }
-    cell += ch
-    i += 1
-  }
-  if (cell !== '' || row.length) {
-    row.push(cell)
-    rows.push(row)
-  }
-  return rows
+  const s = text.replace(/\r\n?/g, '\n').replace(/\n$/, '')
+  if (s === '') return []
+  return Papa.parse<string[]>(s, { delimiter: '\t', newline: '\n', quoteChar: '"', escapeChar: '"' }).data
 }
 
 /** True when a paste should be spread over cells rather than typed into one. */
