@@ -18,6 +18,8 @@ import { type AuditEntry, recordAudit } from './audit'
 import { stressModelInForce } from './site-models'
 import { notFound, versionedUpdate } from './http-errors'
 
+type AdoptionRecord = typeof preconsolidationAdoptions.$inferSelect
+
 type Db = ReturnType<typeof useDb> | Tx
 
 // ---------------------------------------------------------------------------
@@ -197,7 +199,7 @@ export async function reviseTest(tx: Tx, args: {
   changes: TestChanges | ((before: ServerOedometerTestRow) => TestChanges)
   /** The audit entry of the edit; default: an `update` of the test with both rows. */
   audit?: (before: ServerOedometerTestRow, after: ServerOedometerTestRow) => Pick<AuditEntry, 'action' | 'entity' | 'before' | 'after'>
-}): Promise<{ test: TestContext, withdrawn: AdoptionRow | null, notes: string[] }> {
+}): Promise<{ test: TestContext, withdrawn: AdoptionRecord | null, notes: string[] }> {
   const ctx = await requireTest(args.projectId, args.testId, tx, { lock: true })
   const before = ctx.test
   if (before.version !== args.version) staleTest(ctx)
@@ -230,7 +232,7 @@ export async function reviseTest(tx: Tx, args: {
   })
   const audit = args.audit?.(before, row) ?? { action: 'update', entity: 'oedometer-test', before, after: row }
   await recordAudit({ actorId: args.actorId, projectId: args.projectId, entityId: before.id, ...audit }, tx)
-  let withdrawn: ServerAdoptionRow | null = null
+  let withdrawn: AdoptionRecord | null = null
   if (curveChanged) {
     const [w] = await tx.update(preconsolidationAdoptions).set({ supersededAt: new Date() })
       .where(and(eq(preconsolidationAdoptions.oedometerTestId, before.id), isNull(preconsolidationAdoptions.supersededAt))).returning()

@@ -3,6 +3,7 @@ import { computeStressProfile } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
 import { diffDefinitions } from '#shared/site-model/diff'
+import type { ServerSiteModelRecord, ServerSiteModelRow } from '#shared/types/models'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { siteModels, siteModelVersions } from '../db/schema'
@@ -16,13 +17,13 @@ import { assertDefinitionComputable, listVersions, nextVersionNumber, requireMod
 import { flagsInForce } from './review'
 import { definitionFromLogs } from './site-models'
 
-type ModelRow = typeof siteModels.$inferSelect
+type ModelRow = ServerSiteModelRecord
 
 /**
  * A model as the API shows it: the draft's revision keeps its public name `version`
  * (the field clients send back to save the draft or a version).
  */
-export function modelJson({ draftRevision, ...model }: ModelRow) {
+export function modelJson({ draftRevision, ...model }: ModelRow): ServerSiteModelRow {
   return { ...model, version: draftRevision }
 }
 

@@ -2,12 +2,12 @@ import { and, desc, eq } from 'drizzle-orm'
 import { buildStressModel } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
-import type { ServerModelVersionRow, ServerModelVersionSummary, ServerSiteModelRow } from '#shared/types/models'
+import type { ServerModelVersionRow, ServerModelVersionSummary, ServerSiteModelRecord } from '#shared/types/models'
 import { type Tx, useDb } from '../db/client'
 import { siteModels, siteModelVersions, users } from '../db/schema'
 import { notFound } from './http-errors'
 
-export async function requireModel(projectId: string, modelId: string, tx?: Tx): Promise<ServerSiteModelRow> {
+export async function requireModel(projectId: string, modelId: string, tx?: Tx): Promise<ServerSiteModelRecord> {
   const db = tx ?? useDb()
   const [m] = await db.select().from(siteModels).where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId)))
   if (!m) notFound('Model')

@@ -7,7 +7,10 @@ import type { StressProfilePoint } from '#shared/geotech/stress'
 import type { siteModels, siteModelVersions } from '~~/server/db/schema'
 import type { Serialize } from './serialize'
 
-export type ServerSiteModelRow = typeof siteModels.$inferSelect
+/** A site model's database row (`draftRevision` counts the draft's saves). */
+export type ServerSiteModelRecord = typeof siteModels.$inferSelect
+/** A site model as the API sends it: the draft revision goes out as `version`, the token a draft save sends back. */
+export type ServerSiteModelRow = Omit<ServerSiteModelRecord, 'draftRevision'> & { version: number }
 export type SiteModelRow = Serialize<ServerSiteModelRow>
 
 type ServerVersionRecord = typeof siteModelVersions.$inferSelect
