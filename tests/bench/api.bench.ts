@@ -4,6 +4,7 @@ import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { startServer } from '../helpers/server'
 import { runBrowserBench } from './browser.bench'
 import { runImportBench } from './import.bench'
+import { runLighthouseBench } from './lighthouse.bench'
 
 /** A 10-layer profile whose compressible layers make 400 sublayers in all. */
 export function tenLayerSettlementBody() {
@@ -22,7 +23,7 @@ export function tenLayerSettlementBody() {
   return { layers, groundwater: { waterTableDepth: 1.6 }, load: { type: 'rectangle', width: 80, length: 120, pressure: 120 }, sublayers: { maxThickness: 0.05 }, time: { years: [0.5, 1, 2, 5, 10] } }
 }
 
-export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>> }> {
+export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>> }> {
   const server = await startServer({ PASTLOAD_SEED: 'demo' })
   try {
     const designer = DEMO_PEOPLE.find(p => p.role === 'designer')!
@@ -45,7 +46,8 @@ export async function runApiBench(calls = 300): Promise<{ median: number, p95: n
     times.sort((a, b) => a - b)
     const imported = await runImportBench(server.url, process.env.DATABASE_URL!)
     const browser = await runBrowserBench(server.url)
-    return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]!, calls, import: imported, browser }
+    const lighthouse = await runLighthouseBench(server.url)
+    return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]!, calls, import: imported, browser, lighthouse }
   }
   finally {
     await server.stop()

@@ -1,11 +1,12 @@
 // `npm run bench` entry: runs every benchmark, prints a table and rewrites the
-// measured section of docs/performance.md.
-import { readFileSync, writeFileSync } from 'node:fs'
+// measured sections of docs/performance.md.
 import { cpus } from 'node:os'
 import { resolve } from 'node:path'
 import { execFileSync } from 'node:child_process'
 import { runApiBench } from './api.bench'
+import { replaceDocSection } from './doc'
 import { BENCHES, type BenchRow } from './engine.bench'
+import { lighthouseSection } from './lighthouse.bench'
 
 function runInFreshProcess(name: string): BenchRow[] {
   const out = execFileSync(process.execPath, ['--import', 'tsx', resolve(import.meta.dirname, 'one.ts'), name], { encoding: 'utf8' })
@@ -41,13 +42,10 @@ async function main() {
   ]
   const table = lines.join('\n')
   console.log(`\n${table}\n`)
-  const doc = resolve(import.meta.dirname, '../../docs/performance.md')
-  const text = readFileSync(doc, 'utf8')
-  const start = '<!-- bench:engine:start -->'
-  const end = '<!-- bench:engine:end -->'
-  const i = text.indexOf(start)
-  const j = text.indexOf(end)
-  if (i >= 0 && j > i) writeFileSync(doc, `${text.slice(0, i + start.length)}\n${table}\n${text.slice(j)}`)
+  replaceDocSection('engine', table)
+  const pagesTable = lighthouseSection(api.lighthouse)
+  console.log(`\n${pagesTable}\n`)
+  replaceDocSection('lighthouse', pagesTable)
 }
 
 main().catch((err: unknown) => {

@@ -1,0 +1,142 @@
+// Lighthouse (mobile profile, its default simulated throttling) on the sign-in page and, signed in
+// through the API with the session cookie sent as an extra header, on a project's overview and a
+// stress-model page. The machine's 1-minute load average is read beside each run: the CPU-bound
+// figures (TBT above all) move with whatever else runs on the machine.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { mkdtempSync, rmSync } from 'node:fs'
+import { cpus, loadavg, tmpdir } from 'node:os'
+import { join } from 'node:path'
+import lighthouse from 'lighthouse'
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
+
+export interface LighthouseRow {
+  page: string
+  performance: number
+  accessibility: number
+  lcpMs: number
+  tbtMs: number
+  cls: number
+  /** 1-minute load average just before the run. */
+  load: number
+  /** Accessibility audits that failed, by id (empty when none). */
+  failed: string[]
+  /** Lighthouse's own error when the run could not finish (the figures are then missing). */
+  error?: string
+}
+
+export const LIGHTHOUSE_GOALS: Record<string, { performance: number }> = {
+  'sign-in': { performance: 95 },
+  'project overview': { performance: 95 },
+  'stress-model page': { performance: 90 },
+}
+
+/** Debian's Chromium with a DevTools port for Lighthouse; resolves once the port is known. */
+function startChromium(): Promise<{ port: number, stop: () => void }> {
+  const dir = mkdtempSync(join(tmpdir(), 'pastload-lighthouse-'))
+  const child: ChildProcess = spawn(process.env.CHROME_PATH ?? '/usr/bin/chromium', [
+    '--headless=new', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--no-first-run',
+    '--disable-component-update', '--disable-sync', `--user-data-dir=${dir}`, '--remote-debugging-port=0', 'about:blank',
+  ], { stdio: ['ignore', 'ignore', 'pipe'] })
+  const stop = () => {
+    child.kill('SIGTERM')
+    rmSync(dir, { recursive: true, force: true })
+  }
+  return new Promise((resolve, reject) => {
+    let seen = ''
+    const timer = setTimeout(() => { stop(); reject(new Error('Chromium did not open a DevTools port')) }, 60_000)
+    child.stderr!.on('data', (chunk: Buffer) => {
+      seen += chunk.toString()
+      const m = /DevTools listening on ws:\/\/[^:]+:(\d+)\//.exec(seen)
+      if (m) {
+        clearTimeout(timer)
+        resolve({ port: Number(m[1]), stop })
+      }
+    })
+    child.on('exit', (code) => { clearTimeout(timer); reject(new Error(`Chromium exited (${code})`)) })
+  })
+}
+
+async function signIn(serverUrl: string, email: string): Promise<string> {
+  const login = await fetch(`${serverUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
+  if (!login.ok) throw new Error(`Lighthouse sign-in failed: ${login.status}`)
+  return login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+}
+
+/** The demo project and its first stress model, as the engineer sees them. */
+async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: string, model: string }> {
+  const get = async <T>(path: string) => (await (await fetch(`${serverUrl}${path}`, { headers: { cookie } })).json()) as T
+  const { projects } = await get<{ projects: { id: string }[] }>('/api/projects')
+  const projectId = projects[0]?.id
+  if (!projectId) throw new Error('the demo project is missing')
+  const { models } = await get<{ models: { id: string }[] }>(`/api/projects/${projectId}/models`)
+  let modelId = models[0]?.id
+  if (!modelId) {
+    // The demo has logs but no stress model yet: one is made from the logs, as a user would.
+    const made = await fetch(`${serverUrl}/api/projects/${projectId}/models`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl, cookie }, body: JSON.stringify({ name: 'Terminal platform', description: 'Made by the page benchmark' }) })
+    if (!made.ok) throw new Error(`creating the stress model failed: ${made.status}`)
+    modelId = ((await made.json()) as { model: { id: string } }).model.id
+  }
+  return { project: `/projects/${projectId}`, model: `/projects/${projectId}/models/${modelId}` }
+}
+
+export async function runLighthouseBench(serverUrl: string): Promise<LighthouseRow[]> {
+  const engineer = DEMO_PEOPLE.find(p => p.role === 'engineer')!
+  const cookie = await signIn(serverUrl, engineer.email)
+  const paths = await demoPaths(serverUrl, cookie)
+  const pages: { page: string, url: string, cookie?: string }[] = [
+    { page: 'sign-in', url: `${serverUrl}/login` },
+    { page: 'project overview', url: `${serverUrl}${paths.project}`, cookie },
+    { page: 'stress-model page', url: `${serverUrl}${paths.model}`, cookie },
+  ]
+  const chromium = await startChromium()
+  try {
+    const rows: LighthouseRow[] = []
+    for (const p of pages) {
+      const load = loadavg()[0]!
+      const result = await lighthouse(p.url, {
+        port: chromium.port,
+        output: 'json',
+        logLevel: 'error',
+        onlyCategories: ['performance', 'accessibility'],
+        ...(p.cookie ? { extraHeaders: { Cookie: p.cookie } } : {}),
+      })
+      const lhr = result?.lhr
+      if (!lhr) throw new Error(`Lighthouse gave no result for ${p.page}`)
+      if (lhr.runtimeError) {
+        // On a heavily loaded machine a run can time out; the row says so instead of stopping the bench.
+        rows.push({ page: p.page, performance: Number.NaN, accessibility: Number.NaN, lcpMs: Number.NaN, tbtMs: Number.NaN, cls: Number.NaN, load, failed: [], error: lhr.runtimeError.code })
+        continue
+      }
+      const a = lhr.audits
+      const accessibilityIds = new Set((lhr.categories.accessibility?.auditRefs ?? []).map(r => r.id))
+      rows.push({
+        page: p.page,
+        performance: Math.round((lhr.categories.performance?.score ?? 0) * 100),
+        accessibility: Math.round((lhr.categories.accessibility?.score ?? 0) * 100),
+        lcpMs: a['largest-contentful-paint']?.numericValue ?? Number.NaN,
+        tbtMs: a['total-blocking-time']?.numericValue ?? Number.NaN,
+        cls: a['cumulative-layout-shift']?.numericValue ?? Number.NaN,
+        load,
+        failed: Object.values(a).filter(x => accessibilityIds.has(x.id) && x.score === 0).map(x => x.id),
+      })
+    }
+    return rows
+  }
+  finally {
+    chromium.stop()
+  }
+}
+
+/** The rows as the Markdown section of docs/performance.md. */
+export function lighthouseSection(rows: LighthouseRow[]): string {
+  const date = new Date().toISOString().slice(0, 10)
+  return [
+    `Measured ${date} on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}, Chromium headless (no GPU); the load average is read just before each page's run.`,
+    '',
+    '| page (Lighthouse 12.8.2, mobile) | date | load avg (1 min) | performance | goal | accessibility | LCP (s) | TBT (ms) | CLS |',
+    '|---|---|---:|---:|---:|---:|---:|---:|---:|',
+    ...rows.map(r => r.error
+      ? `| ${r.page} | ${date} | ${r.load.toFixed(2)} | no result (${r.error}) | ≥ ${LIGHTHOUSE_GOALS[r.page]?.performance ?? 90} | – | – | – | – |`
+      : `| ${r.page} | ${date} | ${r.load.toFixed(2)} | ${r.performance} | ≥ ${LIGHTHOUSE_GOALS[r.page]?.performance ?? 90} | ${r.accessibility}${r.failed.length ? ` (${r.failed.join(', ')})` : ''} | ${(r.lcpMs / 1000).toFixed(1)} | ${Math.round(r.tbtMs)} | ${r.cls.toFixed(3)} |`),
+  ].join('\n')
+}
