@@ -3,6 +3,7 @@ import type { OedometerTestType } from '#shared/investigation/types'
 import type { StageConvention, TimeReading } from '#shared/lab/stages'
 import type { SecondaryResult, TaylorResult } from '#shared/lab/time-curve'
 import type { AdoptionMethod, PreconsolidationPoint, PreconsolidationSource } from '#shared/schemas/lab'
+import { pageReader, readAllPages } from '~/utils/listPages'
 
 /** Rows of the laboratory API as they arrive in JSON (dates as strings). */
 export interface OedometerStage {
@@ -128,24 +129,32 @@ export function labBase(projectId: string): string {
   return `/api/projects/${projectId}/tests/oedometer`
 }
 
-/** The project's oedometer tests (refresh by key after a write). */
+/** The project's oedometer tests, every page of them (refresh by key after a write); `cut` when the list stopped at its cap. */
 export function useOedometerTests(projectId: MaybeRefOrGetter<string>) {
-  return useApi<{ tests: OedometerListItem[], total: number, stressModel: StressModelInfo | null }>(
+  const read = pageReader(useRequestFetch())
+  return useAsyncData(
     () => `oedometer-tests-${toValue(projectId)}`,
-    () => `${labBase(toValue(projectId))}?limit=500`,
-    () => ({ tests: [], total: 0, stressModel: null }),
+    async (_nuxtApp, { signal }) => {
+      let stressModel: StressModelInfo | null = null
+      const list = await readAllPages(read, labBase(toValue(projectId)), (r: { tests: OedometerListItem[], stressModel: StressModelInfo | null }) => {
+        stressModel = r.stressModel
+        return r.tests
+      }, { signal })
+      return { tests: list.rows, total: list.total ?? list.rows.length, cut: list.cut, stressModel }
+    },
+    { default: () => ({ tests: [] as OedometerListItem[], total: 0, cut: false, stressModel: null as StressModelInfo | null }) },
   )
 }
 
 /** One test and its interpretation; the interpretation may be refused (422 for a curve with no yield). */
 export function useOedometerInterpretation(projectId: MaybeRefOrGetter<string>, testId: MaybeRefOrGetter<string>) {
-  const fetcher = useRequestFetch() as unknown as (url: string) => Promise<unknown>
+  const fetcher = useRequestFetch()
   const url = () => `${labBase(toValue(projectId))}/${toValue(testId)}`
   const test = useAsyncData(
     () => `oedometer-test-${toValue(testId)}`,
     async (): Promise<Outcome<{ test: OedometerTest, adoption: AdoptionRow | null }>> => {
       try {
-        return { ok: true, data: await fetcher(url()) as { test: OedometerTest, adoption: AdoptionRow | null } }
+        return { ok: true, data: await api<{ test: OedometerTest, adoption: AdoptionRow | null }>(url(), undefined, fetcher) }
       }
       catch (err) {
         return { ok: false, status: statusOf(err), message: apiErrorMessage(err) }
@@ -157,7 +166,7 @@ export function useOedometerInterpretation(projectId: MaybeRefOrGetter<string>, 
     () => `oedometer-interpretation-${toValue(testId)}`,
     async (): Promise<Outcome<OedometerInterpretationReply>> => {
       try {
-        return { ok: true, data: await fetcher(`${url()}/interpretation`) as OedometerInterpretationReply }
+        return { ok: true, data: await api<OedometerInterpretationReply>(`${url()}/interpretation`, undefined, fetcher) }
       }
       catch (err) {
         return { ok: false, status: statusOf(err), message: apiErrorMessage(err) }
@@ -169,7 +178,7 @@ export function useOedometerInterpretation(projectId: MaybeRefOrGetter<string>, 
     () => `oedometer-adoptions-${toValue(testId)}`,
     async (): Promise<AdoptionRow[]> => {
       try {
-        return ((await fetcher(`${url()}/adoptions`)) as { history: AdoptionRow[] }).history
+        return (await api<{ history: AdoptionRow[] }>(`${url()}/adoptions`, undefined, fetcher)).history
       }
       catch {
         return []

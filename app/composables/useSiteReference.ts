@@ -4,44 +4,29 @@ import type { StratumRow } from '~/composables/useStrata'
 export type { LoggedBoundary, ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
 
 /**
- * What the logs say for the stress workspace: the project's strata list, and for
- * the reference layers the stratum changes per hole, logged bulk unit weights and
- * every groundwater observation with its date, in two requests. Read in the
- * browser only (the workspace renders client-side).
+ * What the logs say for the stress workspace: the project's strata list (the
+ * strata editor's key, so an edit there refreshes it here), and for the reference
+ * layers the stratum changes per hole, logged bulk unit weights and every
+ * groundwater observation with its date, in two keyed requests.
  */
 export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
-  const strata = shallowRef<StratumRow[]>([])
-  const holes = shallowRef<ReferenceHole[]>([])
-  const unitWeights = shallowRef<UnitWeightReading[]>([])
-  const water = shallowRef<WaterReading[]>([])
-  const loading = ref(false)
-  const error = ref('')
-
-  async function load() {
-    const id = toValue(projectId)
-    if (!id || import.meta.server) return
-    loading.value = true
-    error.value = ''
-    try {
-      const base = `/api/projects/${id}`
-      const [s, ref] = await Promise.all([
-        api<{ strata: StratumRow[] }>(`${base}/strata`),
-        api<SiteReference>(`${base}/site-reference`),
-      ])
-      strata.value = s.strata
-      holes.value = ref.holes
-      unitWeights.value = ref.unitWeights
-      water.value = ref.water
-    }
-    catch (err) {
-      error.value = apiErrorMessage(err)
-    }
-    finally {
-      loading.value = false
-    }
+  const strataRes = useApi<{ strata: StratumRow[] }>(() => `strata-${toValue(projectId)}`, () => `/api/projects/${toValue(projectId)}/strata`, () => ({ strata: [] }))
+  const reference = useApi<SiteReference | null>(() => `site-reference-${toValue(projectId)}`, () => `/api/projects/${toValue(projectId)}/site-reference`, () => null)
+  const loading = computed(() => strataRes.status.value === 'pending' || reference.status.value === 'pending')
+  const error = computed(() => {
+    const e = strataRes.error.value ?? reference.error.value
+    return e ? apiErrorMessage(e) : ''
+  })
+  async function refresh() {
+    await Promise.all([strataRes.refresh(), reference.refresh()])
   }
-  onMounted(load)
-  watch(() => toValue(projectId), () => void load())
-
-  return { strata, holes: computed(() => holes.value), unitWeights: computed(() => unitWeights.value), water: computed(() => water.value), loading, error, refresh: load }
+  return {
+    strata: computed(() => strataRes.data.value.strata),
+    holes: computed((): ReferenceHole[] => reference.data.value?.holes ?? []),
+    unitWeights: computed((): UnitWeightReading[] => reference.data.value?.unitWeights ?? []),
+    water: computed((): WaterReading[] => reference.data.value?.water ?? []),
+    loading,
+    error,
+    refresh,
+  }
 }
