@@ -1,4 +1,5 @@
-import { pageReader, readAllPages, type ListRead } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { readAllPages, type ListRead } from '~/utils/listPages'
 
 /**
  * Server state keyed by a reactive key (refresh by key after a mutation); the

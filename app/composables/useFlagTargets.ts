@@ -2,7 +2,8 @@ import type { FlagTarget } from '#shared/review/flags'
 import type { OedometerListItem, PreconsolidationPointRow } from '~/composables/useLabTests'
 import type { PointListItem } from '~/composables/usePoints'
 import type { ReviewFlag } from '~/composables/useReviewFlags'
-import { cutNote, pageReader, readAllPages } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages } from '~/utils/listPages'
 
 /** What a flag is about, in words, and where that record lives. */
 export interface FlagTargetInfo {

@@ -3,7 +3,8 @@ import type { OedometerTestType } from '#shared/investigation/types'
 import type { StageConvention, TimeReading } from '#shared/lab/stages'
 import type { SecondaryResult, TaylorResult } from '#shared/lab/time-curve'
 import type { AdoptionMethod, PreconsolidationPoint, PreconsolidationSource } from '#shared/schemas/lab'
-import { pageReader, readAllPages } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { readAllPages } from '~/utils/listPages'
 
 /** Rows of the laboratory API as they arrive in JSON (dates as strings). */
 export interface OedometerStage {

@@ -1,5 +1,6 @@
 import type { PointRow } from './usePoint'
-import { pageReader, readAllPages } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { readAllPages } from '~/utils/listPages'
 
 export type PointListItem = PointRow & { cptCount: number }
 

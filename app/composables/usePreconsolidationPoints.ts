@@ -3,7 +3,8 @@ import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { stableJson } from '~/utils/siteModelEdits'
 import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag, type SigmaPoint } from '~/utils/stressHistory'
-import { cutNote, pageReader, readAllPages } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages } from '~/utils/listPages'
 
 interface DenseCpt {
   pointId: string

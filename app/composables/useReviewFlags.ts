@@ -1,5 +1,6 @@
 import type { FlagTarget, FlagVerdict } from '#shared/review/flags'
-import { cutNote, pageReader, readAllPages, type ListRead } from '~/utils/listPages'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages, type ListRead } from '~/utils/listPages'
 
 export type FlagStatus = 'open' | 'resolved'
 

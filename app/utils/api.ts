@@ -1,7 +1,8 @@
-import type { Base$Fetch, NitroFetchOptions, NitroFetchRequest } from 'nitropack/types'
+import type { NitroFetchOptions } from 'nitropack'
+import type { PageReader } from './listPages'
 
-/** What `$fetch` and `useRequestFetch()` (which forwards the page's cookies during SSR) both are: a call. */
-export type ApiFetch = Base$Fetch<unknown, NitroFetchRequest>
+/** `useRequestFetch()` (it forwards the page's cookies during SSR) or `$fetch` itself, which is one of its two types. */
+export type ApiFetch = ReturnType<typeof useRequestFetch>
 
 /**
  * `$fetch` with the URL typed as a plain string and the response type given by
@@ -16,4 +17,9 @@ export function api<T = unknown>(url: string, options?: NitroFetchOptions<string
 /** A read through `fetcher` that `signal` may cancel (a newer read of the same key). */
 export function apiRead<T>(url: string, signal?: AbortSignal, fetcher: ApiFetch = $fetch): Promise<T> {
   return fetcher<T>(url, { signal } as never) as Promise<T>
+}
+
+/** Reads a list route's pages through `fetcher` (see readAllPages in app/utils/listPages.ts). */
+export function pageReader(fetcher: ApiFetch = $fetch): PageReader {
+  return (url, signal) => apiRead<unknown>(url, signal, fetcher)
 }

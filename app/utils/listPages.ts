@@ -1,5 +1,4 @@
 import { PROJECT_POINT_LIMIT } from '#shared/imports/limits'
-import { apiRead, type ApiFetch } from './api'
 
 /** The list routes' largest page (PointListQuerySchema, OedometerListQuerySchema, FlagListQuerySchema). */
 export const LIST_PAGE = 500
@@ -15,13 +14,8 @@ export interface ListRead<T> {
   cut: boolean
 }
 
-/** One page of a list route as it answers. */
+/** One page of a list route as it answers (`pageReader` in app/utils/api.ts). */
 export type PageReader = (url: string, signal?: AbortSignal) => Promise<unknown>
-
-/** Reads through `fetcher` (useRequestFetch() in SSR, $fetch by default). */
-export function pageReader(fetcher: ApiFetch = $fetch): PageReader {
-  return (url, signal) => apiRead<unknown>(url, signal, fetcher)
-}
 
 /**
  * Follows a list route's offset until its rows are all read (a short page, or
