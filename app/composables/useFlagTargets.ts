@@ -2,6 +2,8 @@ import type { FlagTarget } from '#shared/review/flags'
 import type { OedometerListItem, PreconsolidationPointRow } from '#shared/types/lab'
 import type { PointListItem } from '#shared/types/investigation'
 import type { ReviewFlag } from '#shared/types/review'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages } from '~/utils/listPages'
 
 /** What a flag is about, in words, and where that record lives. */
 export interface FlagTargetInfo {
@@ -31,17 +33,23 @@ function clip(text: string, n = 110): string {
  * σ'p points, the points list), once each, in the browser — a flagged interval
  * comes with its hole from the flag list itself; the lab lists are also what the reviewer picks new targets from.
  */
-export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<readonly ReviewFlag[]>) {
+export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Readonly<Ref<readonly ReviewFlag[]>>) {
   const info = shallowRef(new Map<string, FlagTargetInfo>())
   const describing = ref(false)
   const tests = shallowRef<OedometerListItem[] | null>(null)
   const sigma = shallowRef<PreconsolidationPointRow[] | null>(null)
+  /** Said when the tests list stopped at its cap (a test past it reads as no longer in the project). */
+  const testsNote = ref('')
   let points: PointListItem[] | null = null
 
   const base = () => `/api/projects/${toValue(projectId)}`
 
   async function loadTests() {
-    tests.value ??= (await api<{ tests: OedometerListItem[] }>(`${base()}/tests/oedometer?limit=500`)).tests
+    if (!tests.value) {
+      const list = await readAllPages(pageReader(), `${base()}/tests/oedometer`, (r: { tests: OedometerListItem[] }) => r.tests)
+      testsNote.value = cutNote(list, 'oedometer tests')
+      tests.value = list.rows
+    }
     return tests.value
   }
   async function loadSigma() {
@@ -49,15 +57,8 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<r
     return sigma.value
   }
   async function loadPoints() {
-    if (points) return points
-    const all: PointListItem[] = []
-    for (let offset = 0; ; offset += 500) {
-      const page = await api<{ points: PointListItem[] }>(`${base()}/points?limit=500&offset=${offset}`)
-      all.push(...page.points)
-      if (page.points.length < 500) break
-    }
-    points = all
-    return all
+    points ??= (await readAllPages(pageReader(), `${base()}/points`, (r: { points: PointListItem[] }) => r.points)).rows
+    return points
   }
   function describe(f: ReviewFlag): FlagTargetInfo {
     const pid = toValue(projectId)
@@ -134,5 +135,5 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Ref<r
     return { tests: t, adoptions: s.filter(p => p.source === 'oedometer') }
   }
 
-  return { info, describing, labTargets }
+  return { info, describing, labTargets, testsNote }
 }

@@ -19,10 +19,12 @@ export interface DraftConflict {
  */
 export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>, options: { active?: () => boolean } = {}) {
   const store = useModelEditorStore()
-  const saving = ref<'draft' | 'version' | null>(null)
-  const error = ref('')
+  const write = useWriteAction()
+  const { error, notice } = write
+  /** Which save is under way, for the bar's words. */
+  const doing = ref<'draft' | 'version'>('draft')
+  const saving = computed(() => (write.busy.value ? doing.value : null))
   const issues = ref<{ path: string, message: string }[]>([])
-  const notice = ref('')
   const conflict = shallowRef<DraftConflict | null>(null)
   const base = () => modelUrl(toValue(projectId), toValue(modelId))
 
@@ -55,26 +57,19 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
   async function saveDraft(): Promise<boolean> {
     const d = store.draft
     if (!d) return false
-    error.value = ''
-    notice.value = ''
+    write.clear()
     if (!check(d)) return false
-    saving.value = 'draft'
-    try {
+    doing.value = 'draft'
+    return write.run(async () => {
       const { model } = await api<{ model: SiteModelRow }>(`${base()}/draft`, { method: 'PUT', body: { draft: d, version: store.revision } })
       store.markSaved(d, model.version)
-      notice.value = 'Draft saved.'
-      return true
-    }
-    catch (err) {
-      if (!handleConflict(err, 'draft', d)) {
-        error.value = apiErrorMessage(err)
+    }, {
+      done: 'Draft saved.',
+      onError: (err) => {
+        if (handleConflict(err, 'draft', d)) return true
         issues.value = apiErrorIssues(err)
-      }
-      return false
-    }
-    finally {
-      saving.value = null
-    }
+      },
+    })
   }
 
   /** Saves the draft as the next version; returns its number. */
@@ -85,22 +80,21 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
       return null
     }
     if (store.dirty && !(await saveDraft())) return null
-    error.value = ''
-    saving.value = 'version'
-    try {
+    const mine = store.draft
+    if (!mine) return null
+    const out: { version?: number } = {}
+    doing.value = 'version'
+    await write.run(async () => {
       const { version } = await api<{ version: { version: number } }>(`${base()}/versions`, { method: 'POST', body: { message: message.trim(), version: store.revision } })
       // Saving a version bumps the draft's revision on the server; the content is unchanged.
       store.markRevision(store.revision + 1)
-      notice.value = `Version ${version.version} saved.`
+      out.version = version.version
       return version.version
-    }
-    catch (err) {
-      if (!handleConflict(err, 'version', store.draft)) error.value = apiErrorMessage(err)
-      return null
-    }
-    finally {
-      saving.value = null
-    }
+    }, {
+      done: n => `Version ${n} saved.`,
+      onError: err => handleConflict(err, 'version', mine),
+    })
+    return out.version ?? null
   }
 
   /** Keeps your draft: their revision becomes the base and yours is saved over it. */

@@ -1,10 +1,12 @@
 import seedrandom from 'seedrandom'
 import type { DenseCpt, PreconsolidationPointRow, PreconsolidationPointsReply } from '#shared/types/lab'
-import type { ReviewFlagPage } from '#shared/types/review'
+import type { ReviewFlag } from '#shared/types/review'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { stableJson } from '~/utils/siteModelEdits'
 import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag } from '~/utils/stressHistory'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages } from '~/utils/listPages'
 
 /** Every CPT row's σ'p for the dense layer, merged and sorted by depth (display only, never fitted). */
 export interface DenseLayer {
@@ -105,61 +107,50 @@ function stressKey(def: SiteModelDefinition): string {
  * its own. Without it, the project's stress model in force is used.
  */
 export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, options: { bench?: MaybeRefOrGetter<number>, maxDepth?: MaybeRefOrGetter<number>, definition?: MaybeRefOrGetter<SiteModelDefinition | null | undefined>, label?: MaybeRefOrGetter<string>, delay?: number } = {}) {
+  const base = () => `/api/projects/${toValue(projectId)}`
+  const through = () => (toValue(options.definition) ? 'given' : 'in-force')
+  const read = pageReader()
+
+  // The open flags and the oedometer tests (whose flags bear on the σ'p adopted from them), every page.
+  const context = useAsyncData(
+    () => `sigma-context-${toValue(projectId)}`,
+    async (_nuxtApp, { signal }) => {
+      const [flagList, tests] = await Promise.all([
+        readAllPages(read, `${base()}/flags?status=open`, (r: { flags: ReviewFlag[] }) => r.flags, { signal }),
+        readAllPages(read, `${base()}/tests/oedometer`, (r: { tests: ListedTest[] }) => r.tests, { signal }),
+      ])
+      return { flags: flagList, tests }
+    },
+    { server: false, default: () => null },
+  )
+
+  // The points, through the given definition when there is one; asked again (debounced) when its stresses change.
+  const answer = useAsyncData(
+    () => `sigma-points-${through()}-${toValue(projectId)}`,
+    (_nuxtApp, { signal }) => {
+      const def = toValue(options.definition)
+      if (!def) return api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points?dense=1`, { signal })
+      return api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined }, signal })
+    },
+    { server: false, default: () => null },
+  )
+  const latest = useLatestRequest(signal => answer.refresh({ signal }), options.delay ?? 350)
+  watch(() => {
+    const def = toValue(options.definition)
+    return def ? stressKey(def) : ''
+  }, (key) => {
+    if (key) latest.schedule()
+  })
+
   const points = shallowRef<PreconsolidationPointRow[]>([])
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
   const flaggedTests = shallowRef<FlaggedTest[]>([])
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
   const warnings = ref<string[]>([])
   const stressModel = ref<PreconsolidationPointsReply['stressModel'] | null>(null)
-  const loading = ref(false)
-  const error = ref('')
+  /** Whether points are on screen: an edit whose points cannot be computed keeps the last ones beside the error. */
+  const shown = ref(false)
 
-  async function load() {
-    const id = toValue(projectId)
-    if (!id || import.meta.server) return
-    loading.value = true
-    error.value = ''
-    try {
-      const base = `/api/projects/${id}`
-      const [pts, flagList, tests] = await Promise.all([
-        askPoints(base),
-        api<ReviewFlagPage>(`${base}/flags?status=open&limit=500`),
-        api<{ tests: ListedTest[] }>(`${base}/tests/oedometer?limit=500`).catch(() => ({ tests: [] as ListedTest[] })),
-      ])
-      // A flag on an oedometer test bears on the σ'p adopted from it.
-      const adoptionOfTest = new Map(tests.tests.filter(t => t.adoption).map(t => [t.id, t.adoption!.id]))
-      const map = new Map<string, PointFlag[]>()
-      for (const f of flagList.flags) {
-        if (f.status !== 'open') continue
-        const target = f.targetType === 'oedometer-test' ? adoptionOfTest.get(f.targetId) : f.targetId
-        if (!target) continue
-        map.set(target, [...(map.get(target) ?? []), { id: f.id, verdict: f.verdict, comment: f.comment, author: f.author, targetType: f.targetType }])
-      }
-      flags.value = map
-      // A flag on a test with no adopted σ'p has no point to ring: the canvas marks the test at its depth.
-      flaggedTests.value = flaggedUnadoptedTests(tests.tests, flagList.flags)
-      applyPoints(pts)
-    }
-    catch (err) {
-      error.value = apiErrorMessage(err)
-    }
-    finally {
-      loading.value = false
-    }
-    // An edit made while this was being read is asked for now.
-    const def = toValue(options.definition)
-    if (def && stressKey(def) !== lastKey) void refreshPoints()
-  }
-
-  /** Points, through the given definition when there is one (the answer to the newest request wins). */
-  let asked = 0
-  let lastKey = ''
-  function askPoints(base: string): Promise<PreconsolidationPointsReply> {
-    const def = toValue(options.definition)
-    if (!def) return api<PreconsolidationPointsReply>(`${base}/preconsolidation-points?dense=1`)
-    lastKey = stressKey(def)
-    return api<PreconsolidationPointsReply>(`${base}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined } })
-  }
   let synthetic: { key: string, rows: SortedRows } | null = null
   function syntheticSorted(): SortedRows | null {
     const n = Math.max(0, Math.min(2_000_000, Math.round(toValue(options.bench) ?? 0)))
@@ -172,42 +163,44 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     }
     return synthetic.rows
   }
-  function applyPoints(pts: PreconsolidationPointsReply) {
+  watch(answer.data, (pts) => {
+    if (!pts) return
     points.value = pts.points
     dense.value = mergeDense(pts.dense?.cpt ?? [], syntheticSorted())
     warnings.value = pts.warnings
     stressModel.value = pts.stressModel
-  }
-  /** After an edit of the stresses: the points again, the flags as they are. */
-  async function refreshPoints() {
-    const id = toValue(projectId)
-    if (!id || import.meta.server) return
-    const mine = ++asked
-    try {
-      const pts = await askPoints(`/api/projects/${id}`)
-      if (mine !== asked) return
-      applyPoints(pts)
-      error.value = ''
-    }
-    catch (err) {
-      if (mine === asked) error.value = apiErrorMessage(err)
-    }
-  }
-  let timer: ReturnType<typeof setTimeout> | null = null
-  watch(() => {
-    const def = toValue(options.definition)
-    return def ? stressKey(def) : ''
-  }, (key) => {
-    if (!key || key === lastKey || loading.value) return
-    if (timer) clearTimeout(timer)
-    timer = setTimeout(() => {
-      timer = null
-      void refreshPoints()
-    }, options.delay ?? 350)
-  })
-  onBeforeUnmount(() => { if (timer) clearTimeout(timer) })
+    shown.value = true
+  }, { immediate: true })
 
-  onMounted(load)
-  watch(() => toValue(projectId), () => void load())
-  return { points, flags, flaggedTests, dense, warnings, stressModel, loading, error, refresh: load }
+  watch(context.data, (c) => {
+    if (!c) return
+    // A flag on an oedometer test bears on the σ'p adopted from it.
+    const adoptionOfTest = new Map(c.tests.rows.filter(t => t.adoption).map(t => [t.id, t.adoption!.id]))
+    const map = new Map<string, PointFlag[]>()
+    for (const f of c.flags.rows) {
+      if (f.status !== 'open') continue
+      const target = f.targetType === 'oedometer-test' ? adoptionOfTest.get(f.targetId) : f.targetId
+      if (!target) continue
+      map.set(target, [...(map.get(target) ?? []), { id: f.id, verdict: f.verdict, comment: f.comment, author: f.author, targetType: f.targetType }])
+    }
+    flags.value = map
+    // A flag on a test with no adopted σ'p has no point to ring: the canvas marks the test at its depth.
+    flaggedTests.value = flaggedUnadoptedTests(c.tests.rows, c.flags.rows)
+  }, { immediate: true })
+
+  const loading = computed(() => context.status.value === 'pending' || (answer.status.value === 'pending' && !shown.value))
+  const error = computed(() => {
+    const e = context.error.value ?? answer.error.value
+    return e ? apiErrorMessage(e) : ''
+  })
+  const listNote = computed(() => {
+    const c = context.data.value
+    return c ? [cutNote(c.flags, 'open flags'), cutNote(c.tests, 'oedometer tests')].filter(Boolean).join(' ') : ''
+  })
+
+  async function refresh() {
+    latest.cancel()
+    await Promise.all([context.refresh(), answer.refresh()])
+  }
+  return { points, flags, flaggedTests, dense, warnings, stressModel, loading, error, listNote, refresh }
 }

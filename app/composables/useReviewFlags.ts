@@ -1,5 +1,7 @@
 import type { FlagTarget, FlagVerdict } from '#shared/review/flags'
-import type { FlagStatus, ReviewFlag, ReviewFlagPage } from '#shared/types/review'
+import type { FlagStatus, ReviewFlag, ReviewThreadReply } from '#shared/types/review'
+import { pageReader } from '~/utils/api'
+import { cutNote, readAllPages, type ListRead } from '~/utils/listPages'
 
 export interface FlagQuery {
   status?: FlagStatus
@@ -7,9 +9,6 @@ export interface FlagQuery {
   verdict?: FlagVerdict
   targetId?: string
 }
-
-/** The list route's largest page (shared/schemas/review.ts). */
-const PAGE = 500
 
 export function flagsUrl(projectId: string): string {
   return `/api/projects/${projectId}/flags`
@@ -29,36 +28,46 @@ function queryString(q: FlagQuery): string {
   return parts.join('&')
 }
 
+/** The keys of the flag lists and threads read on this page, so a change refreshes them all by key. */
+function useFlagKeys() {
+  return useState<string[]>('review-flag-keys', () => [])
+}
+
+/** Remembers each key `key()` takes while the calling component lives. */
+function rememberFlagKey(key: () => string) {
+  const keys = useFlagKeys()
+  watch(key, (k) => {
+    if (k && !keys.value.includes(k)) keys.value = [...keys.value, k]
+  }, { immediate: true })
+}
+
 /**
  * A project's flags (all of them, or one target's, or those matching a filter),
  * read page by page, keyed by project and query so every list of the project
  * can be refreshed together after a change. `flagsByTarget` groups them by the
- * flagged record's id.
+ * flagged record's id; `listNote` says so when the list stopped at its cap.
  */
 export function useReviewFlags(projectId: MaybeRefOrGetter<string>, query: MaybeRefOrGetter<FlagQuery> = {}) {
-  const fetcher = useRequestFetch() as unknown as (url: string) => Promise<ReviewFlagPage>
+  const read = pageReader(useRequestFetch())
+  const key = () => `${listPrefix(toValue(projectId))}-${queryString(toValue(query)) || 'all'}`
+  rememberFlagKey(key)
   const res = useAsyncData(
-    () => `${listPrefix(toValue(projectId))}-${queryString(toValue(query)) || 'all'}`,
-    async () => {
+    key,
+    async (_nuxtApp, { signal }): Promise<ListRead<ReviewFlag>> => {
       const id = toValue(projectId)
-      if (!id) return []
+      if (!id) return { rows: [], total: 0, cut: false }
       const qs = queryString(toValue(query))
-      const all: ReviewFlag[] = []
-      for (let offset = 0; ; offset += PAGE) {
-        const page = await fetcher(`${flagsUrl(id)}?${qs ? `${qs}&` : ''}limit=${PAGE}&offset=${offset}`)
-        all.push(...page.flags)
-        if (page.flags.length < PAGE) break
-      }
-      return all
+      return readAllPages(read, `${flagsUrl(id)}${qs ? `?${qs}` : ''}`, (r: { flags: ReviewFlag[] }) => r.flags, { signal })
     },
-    { default: () => [] as ReviewFlag[] },
+    { default: (): ListRead<ReviewFlag> => ({ rows: [], total: 0, cut: false }) },
   )
+  const flags = computed(() => res.data.value.rows)
   const flagsByTarget = computed(() => {
     const map = new Map<string, ReviewFlag[]>()
-    for (const f of res.data.value) map.set(f.targetId, [...(map.get(f.targetId) ?? []), f])
+    for (const f of flags.value) map.set(f.targetId, [...(map.get(f.targetId) ?? []), f])
     return map
   })
-  return { ...res, flags: res.data, flagsByTarget }
+  return { ...res, flags, flagsByTarget, listNote: computed(() => cutNote(res.data.value, 'flags')) }
 }
 
 /**
@@ -67,18 +76,20 @@ export function useReviewFlags(projectId: MaybeRefOrGetter<string>, query: Maybe
  */
 export function useReviewFlagsRefresh(projectId: MaybeRefOrGetter<string>) {
   const nuxtApp = useNuxtApp()
+  const keys = useFlagKeys()
   return async () => {
     const id = toValue(projectId)
-    const known = new Set([...Object.keys(nuxtApp.payload.data), ...Object.keys(nuxtApp._asyncData)])
-    const keys = [...known].filter(k => k.startsWith(listPrefix(id)) || k.startsWith(threadPrefix(id)))
-    if (keys.length) await nuxtApp.runWithContext(() => refreshNuxtData(keys))
+    const mine = keys.value.filter(k => k.startsWith(listPrefix(id)) || k.startsWith(threadPrefix(id)))
+    if (mine.length) await nuxtApp.runWithContext(() => refreshNuxtData(mine))
   }
 }
 
 /** One flag with its replies in order (refreshed with the project's lists). */
 export function useReviewThread(projectId: MaybeRefOrGetter<string>, flagId: MaybeRefOrGetter<string>) {
+  const key = () => reviewThreadKey(toValue(projectId), toValue(flagId))
+  rememberFlagKey(key)
   return useApi<ReviewThreadReply | null>(
-    () => reviewThreadKey(toValue(projectId), toValue(flagId)),
+    key,
     () => `${flagsUrl(toValue(projectId))}/${toValue(flagId)}`,
     () => null,
   )

@@ -5,44 +5,28 @@ export type { LoggedBoundary, ReferenceHole, UnitWeightReading, WaterReading } f
 
 /**
  * What the logs say for the stress workspace: the project's strata list (the one
- * cached list `useStrata` keeps, so an edit of the strata shows here too), and for
- * the reference layers the stratum changes per hole, logged bulk unit weights and
- * every groundwater observation with its date. The reference is read in the
- * browser only (the workspace renders client-side).
+ * cached list `useStrata` keeps, so an edit of the strata shows here too), and for the reference
+ * layers the stratum changes per hole, logged bulk unit weights and every
+ * groundwater observation with its date, in two keyed requests.
  */
 export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
-  const strataList = useStrata(projectId)
-  const strata = computed(() => strataList.data.value.strata)
-  const holes = shallowRef<ReferenceHole[]>([])
-  const unitWeights = shallowRef<UnitWeightReading[]>([])
-  const water = shallowRef<WaterReading[]>([])
-  const loading = ref(false)
-  const error = ref('')
-
-  async function load() {
-    const id = toValue(projectId)
-    if (!id || import.meta.server) return
-    loading.value = true
-    error.value = ''
-    try {
-      const ref = await api<SiteReference>(`/api/projects/${id}/site-reference`)
-      holes.value = ref.holes
-      unitWeights.value = ref.unitWeights
-      water.value = ref.water
-    }
-    catch (err) {
-      error.value = apiErrorMessage(err)
-    }
-    finally {
-      loading.value = false
-    }
-  }
-  onMounted(load)
-  watch(() => toValue(projectId), () => void load())
-
+  const strataRes = useStrata(projectId)
+  const reference = useApi<SiteReference | null>(() => `site-reference-${toValue(projectId)}`, () => `/api/projects/${toValue(projectId)}/site-reference`, () => null)
+  const loading = computed(() => strataRes.status.value === 'pending' || reference.status.value === 'pending')
+  const error = computed(() => {
+    const e = strataRes.error.value ?? reference.error.value
+    return e ? apiErrorMessage(e) : ''
+  })
   async function refresh() {
-    await Promise.all([strataList.refresh(), load()])
+    await Promise.all([strataRes.refresh(), reference.refresh()])
   }
-
-  return { strata, holes: computed(() => holes.value), unitWeights: computed(() => unitWeights.value), water: computed(() => water.value), loading, error, refresh }
+  return {
+    strata: computed(() => strataRes.data.value.strata),
+    holes: computed((): ReferenceHole[] => reference.data.value?.holes ?? []),
+    unitWeights: computed((): UnitWeightReading[] => reference.data.value?.unitWeights ?? []),
+    water: computed((): WaterReading[] => reference.data.value?.water ?? []),
+    loading,
+    error,
+    refresh,
+  }
 }

@@ -25,9 +25,6 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   const pending = ref(false)
   /** Counts the profiles received (a new curve on screen). */
   const sequence = ref(0)
-  let timer: ReturnType<typeof setTimeout> | null = null
-  let controller: AbortController | null = null
-  let asked = 0
 
   const input = computed(() => {
     const d = toValue(definition)
@@ -35,22 +32,20 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   })
   const key = computed(() => (input.value ? stableJson(input.value) : ''))
 
-  async function run(body: NonNullable<typeof input.value>) {
-    controller?.abort()
-    const mine = new AbortController()
-    controller = mine
-    const n = ++asked
+  const latest = useLatestRequest(async (signal) => {
+    const body = input.value
+    if (!body) return
     pending.value = true
     try {
-      const res = await api<StressProfileReply>('/api/calc/stress-profile', { method: 'POST', body, signal: mine.signal })
-      if (n !== asked) return
+      const res = await api<StressProfileReply>('/api/calc/stress-profile', { method: 'POST', body, signal })
+      if (signal.aborted) return
       points.value = res.points
       warnings.value = res.warnings
       error.value = null
       sequence.value++
     }
     catch (err) {
-      if (mine.signal.aborted || n !== asked) return
+      if (signal.aborted) return
       const e = err as { statusCode?: number, data?: { message?: string, data?: { depth?: number, code?: string } } }
       error.value = {
         message: e.data?.message ?? apiErrorMessage(err),
@@ -59,33 +54,14 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
       }
     }
     finally {
-      if (n === asked) pending.value = false
+      if (!signal.aborted) pending.value = false
     }
-  }
-
-  function schedule(immediate = false) {
-    if (import.meta.server) return
-    const body = input.value
-    if (!body) return
-    if (timer) clearTimeout(timer)
-    if (immediate) {
-      void run(body)
-      return
-    }
-    timer = setTimeout(() => {
-      timer = null
-      void run(body)
-    }, delay)
-  }
+  }, delay)
 
   watch(key, (k, old) => {
-    if (k) schedule(!old)
+    if (k) latest.schedule(!old)
   })
-  onMounted(() => schedule(true))
-  onBeforeUnmount(() => {
-    if (timer) clearTimeout(timer)
-    controller?.abort()
-  })
+  onMounted(() => latest.schedule(true))
 
-  return { points, warnings, error, pending, sequence, refresh: () => schedule(true) }
+  return { points, warnings, error, pending, sequence, refresh: () => latest.schedule(true) }
 }

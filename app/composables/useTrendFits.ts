@@ -158,37 +158,38 @@ export function useTrendFits(args: {
     }
   }
 
-  /** Display fits of the saved trends, asked again when their points or σ'v0 change. */
-  let timer: ReturnType<typeof setTimeout> | null = null
-  function refreshDisplayFits() {
-    if (import.meta.server) return
-    if (timer) clearTimeout(timer)
-    timer = setTimeout(async () => {
-      timer = null
-      const def = args.definition()
-      if (!args.profile().length || !args.points().length) return
-      const jobs: Promise<void>[] = []
-      def.strata.forEach((s, i) => {
-        const t = s.trend
-        if (!t || t.manual) return
-        const key = requestKey(i, t.model, t.logSpace)
-        if (fits.value[i]?.key === key) return
-        const inp = inputOf(i)
-        if (!inp.included.length) return
-        fits.value = { ...fits.value, [i]: { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true } }
+  /**
+   * Display fits of the saved trends, asked again when their points or σ'v0 change.
+   * Each band's answer lands only while its request key is still the band's (a
+   * newer ask of the same band replaces it), so no fit is aborted half-way.
+   */
+  const displayFits = useLatestRequest(async () => {
+    const def = args.definition()
+    if (!args.profile().length || !args.points().length) return
+    const jobs: Promise<void>[] = []
+    def.strata.forEach((s, i) => {
+      const t = s.trend
+      if (!t || t.manual) return
+      const key = requestKey(i, t.model, t.logSpace)
+      if (fits.value[i]?.key === key) return
+      const inp = inputOf(i)
+      if (!inp.included.length) return
+      fits.value = { ...fits.value, [i]: { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true } }
         jobs.push(api<TrendFitReply>('/api/calc/trend-fit', {
-          method: 'POST',
-          body: { model: t.model, logSpace: t.logSpace, points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })) },
-        }).then((answer) => {
-          if (fits.value[i]?.key !== key) return
-          fits.value = { ...fits.value, [i]: { key, answer, error: null, pending: false } }
-        }).catch((err: unknown) => {
-          if (fits.value[i]?.key !== key) return
-          fits.value = { ...fits.value, [i]: { key, answer: null, error: apiErrorMessage(err), pending: false } }
-        }))
-      })
-      await Promise.all(jobs)
-    }, 250)
+        method: 'POST',
+        body: { model: t.model, logSpace: t.logSpace, points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })) },
+      }).then((answer) => {
+        if (fits.value[i]?.key !== key) return
+        fits.value = { ...fits.value, [i]: { key, answer, error: null, pending: false } }
+      }).catch((err: unknown) => {
+        if (fits.value[i]?.key !== key) return
+        fits.value = { ...fits.value, [i]: { key, answer: null, error: apiErrorMessage(err), pending: false } }
+      }))
+    })
+    await Promise.all(jobs)
+  }, 250)
+  function refreshDisplayFits() {
+    displayFits.schedule()
   }
 
   /** Whether a band's saved trend no longer matches its points (ids or σ'v0) — the engineer should refit. */
@@ -210,10 +211,6 @@ export function useTrendFits(args: {
     }
     return { ids, parameters }
   }
-
-  onBeforeUnmount(() => {
-    if (timer) clearTimeout(timer)
-  })
 
   return { bands, flaggedOut, fits, fitError, inputOf, fitBand, setExcluded, refreshDisplayFits, stale }
 }
