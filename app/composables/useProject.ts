@@ -1,5 +1,4 @@
-import type { ProjectRole } from '#shared/auth/roles'
-import { roleCan, type Capability } from '#shared/auth/roles'
+import { roleCan, type Capability, type ProjectRole } from '#shared/auth/roles'
 
 export interface ProjectDetail {
   id: string

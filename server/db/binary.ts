@@ -26,9 +26,9 @@ export function encodeFloat8Array(values: ArrayLike<number>): Buffer {
   view.setInt32(12, n)
   view.setInt32(16, 1)
   let o = HEADER
-  for (let i = 0; i < n; i++) {
+  for (const value of values) {
     view.setInt32(o, 8)
-    view.setFloat64(o + 4, values[i]!)
+    view.setFloat64(o + 4, value)
     o += 12
   }
   return buf

@@ -7,7 +7,8 @@
 export async function versionedUpdate<Row>(args: {
   entity: string
   update: () => Promise<Row[]>
-  current: () => Promise<Row | undefined>
+  /** The row as it stands now (already read, or read on demand). */
+  current: () => Row | undefined | Promise<Row | undefined>
 }): Promise<Row> {
   const [row] = await args.update()
   if (row) return row

@@ -216,7 +216,7 @@ export async function replaceTestStages(tx: Tx, args: { projectId: string, actor
     entity: 'Oedometer test',
     update: () => tx.update(oedometerTests).set({ convention: args.convention, stages: prepared.stages, version: sql`${oedometerTests.version} + 1` })
       .where(and(eq(oedometerTests.id, before.id), eq(oedometerTests.version, args.version))).returning(),
-    current: async () => before,
+    current: () => before,
   })
   await recordAudit({
     actorId: args.actorId,

@@ -2,6 +2,7 @@ import { and, count, eq } from 'drizzle-orm'
 import type { ProjectRole } from '#shared/auth/roles'
 import { useDb } from '../db/client'
 import { projectMembers } from '../db/schema'
+import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 
 /**
@@ -32,10 +33,10 @@ export async function changeMemberRole(args: { actorId: string, projectId: strin
       await recordAudit({ actorId, projectId, action: 'delete', entity: 'project-member', entityId: userId, before: current }, tx)
       return null
     }
-    const [row] = await tx.update(projectMembers).set({ role })
+    const row = returnedRow(await tx.update(projectMembers).set({ role })
       .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
-      .returning()
+      .returning())
     await recordAudit({ actorId, projectId, action: 'update', entity: 'project-member', entityId: userId, before: current, after: row }, tx)
-    return row!
+    return row
   })
 }

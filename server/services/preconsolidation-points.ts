@@ -145,11 +145,10 @@ export interface DenseCpt {
 
 function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number): DenseCpt {
   const out: DenseCpt = { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: [], preconsolidation: [], effectiveStress: [], stratum: [] }
-  for (let i = 0; i < profile.depth.length; i++) {
-    const p = profile.preconsolidation[i]!
+  for (const [i, z] of profile.depth.entries()) {
+    const p = profile.preconsolidation[i] ?? Number.NaN
     if (!Number.isFinite(p)) continue
-    const z = profile.depth[i]!
-    const e = profile.effectiveStress[i]!
+    const e = profile.effectiveStress[i] ?? Number.NaN
     out.depth.push(round(z, 3))
     out.preconsolidation.push(round(p, 1))
     out.effectiveStress.push(Number.isFinite(e) ? round(e, 1) : null)
@@ -172,19 +171,19 @@ async function plasticityIndices(projectId: string): Promise<PiSource[]> {
     .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
     .where(and(eq(investigationPoints.projectId, projectId), isNotNull(indexTests.liquidLimit), isNotNull(indexTests.plasticLimit)))
   const intervals = await loggedIntervals([...new Set(rows.map(r => r.pointId))])
-  return rows
-    .filter(r => r.ll !== null && r.pl !== null && r.ll - r.pl > 0)
-    .map((r) => {
-      const depth = sampleDepth(r)
-      return { pointId: r.pointId, depth, stratumCode: stratumAtLogged(intervals.get(r.pointId) ?? [], depth), pi: r.ll! - r.pl! }
-    })
+  return rows.flatMap((r) => {
+    if (r.ll === null || r.pl === null || !(r.ll - r.pl > 0)) return []
+    const depth = sampleDepth(r)
+    return [{ pointId: r.pointId, depth, stratumCode: stratumAtLogged(intervals.get(r.pointId) ?? [], depth), pi: r.ll - r.pl }]
+  })
 }
 
 function median(values: number[]): number | null {
-  if (!values.length) return null
   const s = [...values].sort((a, b) => a - b)
   const m = s.length >> 1
-  return s.length % 2 ? s[m]! : 0.5 * (s[m - 1]! + s[m]!)
+  const upper = s[m]
+  if (upper === undefined) return null
+  return s.length % 2 ? upper : 0.5 * ((s[m - 1] ?? upper) + upper)
 }
 
 /**
@@ -202,7 +201,8 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
   const [intervals, pis] = await Promise.all([loggedIntervals([...new Set(readings.map(r => r.pointId))]), plasticityIndices(projectId)])
   const stratumDefaults: Record<string, number> = {}
   for (const code of new Set(pis.map(p => p.stratumCode).filter((c): c is string => c !== null))) {
-    stratumDefaults[code] = median(pis.filter(p => p.stratumCode === code).map(p => p.pi))!
+    const pi = median(pis.filter(p => p.stratumCode === code).map(p => p.pi))
+    if (pi !== null) stratumDefaults[code] = pi
   }
   const warnings: string[] = []
   const points: PreconsolidationPoint[] = []

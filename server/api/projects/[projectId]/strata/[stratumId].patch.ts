@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
       const row = await versionedUpdate({
         entity: 'Stratum',
         update: () => tx.update(strata).set({ ...patch, version: sql`${strata.version} + 1` }).where(and(scope, eq(strata.version, version))).returning(),
-        current: async () => before,
+        current: () => before,
       })
       await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'stratum', entityId: stratumId, before, after: row }, tx)
       return row

@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
     const row = await versionedUpdate({
       entity: 'Flag',
       update: () => tx.update(reviewFlags).set({ ...patch, ...statusPatch, version: sql`${reviewFlags.version} + 1` }).where(and(scope, eq(reviewFlags.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId: user.id, projectId: project.id, action: status === 'resolved' ? 'resolve' : status === 'open' ? 'reopen' : 'update', entity: 'review-flag', entityId: flagId, before, after: row }, tx)
     return row

@@ -17,7 +17,7 @@ export default defineEventHandler(async (event) => {
       entity: 'Model draft',
       update: () => tx.update(siteModels).set({ draft, version: sql`${siteModels.version} + 1` })
         .where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, project.id), eq(siteModels.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'site-model-draft', entityId: modelId, before: before.draft, after: draft }, tx)
     return row

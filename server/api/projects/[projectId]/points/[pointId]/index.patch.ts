@@ -19,7 +19,7 @@ export default defineEventHandler(async (event) => {
         entity: 'Point',
         update: () => tx.update(investigationPoints).set({ ...patch, version: sql`${investigationPoints.version} + 1` })
           .where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, project.id), eq(investigationPoints.version, version))).returning(),
-        current: async () => before,
+        current: () => before,
       })
       await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'point', entityId: pointId, before, after: row }, tx)
       return row

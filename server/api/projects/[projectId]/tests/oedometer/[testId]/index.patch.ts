@@ -49,7 +49,7 @@ export default defineEventHandler(async (event) => {
         stages: prepared.stages,
         version: sql`${oedometerTests.version} + 1`,
       }).where(and(eq(oedometerTests.id, testId), eq(oedometerTests.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'oedometer-test', entityId: testId, before, after: row }, tx)
     let withdrawn = null

@@ -26,11 +26,11 @@ export default defineEventHandler(async (event) => {
       row = await versionedUpdate({
         entity: 'Index test',
         update: () => tx.update(indexTests).set({ ...values, version: sql`${indexTests.version} + 1` }).where(and(eq(indexTests.sampleId, sampleId), eq(indexTests.version, version))).returning(),
-        current: async () => before,
+        current: () => before,
       })
     }
-    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row!.id, before: before ?? null, after: row }, tx)
-    return row!
+    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row.id, before: before ?? null, after: row }, tx)
+    return row
   })
   return { indexTest }
 })

@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     const row = await versionedUpdate({
       entity: 'Sample',
       update: () => tx.update(samples).set({ ...patch, version: sql`${samples.version} + 1` }).where(and(scope, eq(samples.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId: user.id, projectId: project.id, action: 'update', entity: 'sample', entityId: sampleId, before, after: row }, tx)
     return row
