@@ -14,7 +14,8 @@ export default withNuxt(
     files: ['server/**/*.ts', 'shared/**/*.ts'],
     languageOptions: {
       parserOptions: {
-        projectService: true,
+        // The two programs Nuxt generates for these folders (strict, noUncheckedIndexedAccess, Nitro's auto-imports).
+        project: ['./.nuxt/tsconfig.server.json', './.nuxt/tsconfig.shared.json'],
         tsconfigRootDir: import.meta.dirname,
       },
     },

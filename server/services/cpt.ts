@@ -1,5 +1,5 @@
 import { eq, sql } from 'drizzle-orm'
-import { float8ArrayParam, preferFastCompression } from '../db/binary'
+import { float8ArrayParam, type NumberList, preferFastCompression } from '../db/binary'
 import { type Tx, useDb } from '../db/client'
 import { cptSoundings } from '../db/schema'
 import { returnedRow } from '../db/rows'
@@ -9,20 +9,21 @@ import { unprocessableError } from './http-errors'
 
 export interface CptArrays {
   areaRatio: number
-  depth: ArrayLike<number>
-  qc: ArrayLike<number>
-  fs: ArrayLike<number>
-  u2: ArrayLike<number>
+  depth: NumberList
+  qc: NumberList
+  fs: NumberList
+  u2: NumberList
 }
 
 /** Depths must increase and stay within the hole; the sounding is replaced whole. */
 export function assertCptValid(c: CptArrays, finalDepth: number) {
-  c.depth.forEach((depth, i) => {
-    const above = c.depth[i - 1]
+  const depths = Array.from(c.depth)
+  depths.forEach((depth, i) => {
+    const above = depths[i - 1]
     if (above !== undefined && !(depth > above)) throw unprocessableError(`CPT row ${i + 1}: depth ${depth} m does not increase from ${above} m.`)
   })
-  const [first = 0] = c.depth
-  const last = c.depth.at(-1) ?? first
+  const [first = 0] = depths
+  const last = depths.at(-1) ?? first
   if (first < 0) throw unprocessableError('CPT depths must be 0 m or deeper.')
   if (last > finalDepth + 1e-6) throw unprocessableError(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
 }

@@ -29,8 +29,8 @@ export default defineEventHandler(async (event) => {
         current: () => before,
       })
     }
-    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row.id, before: before ?? null, after: row }, tx)
-    return row
+    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row!.id, before: before ?? null, after: row }, tx)
+    return row!
   })
   return { indexTest }
 })
