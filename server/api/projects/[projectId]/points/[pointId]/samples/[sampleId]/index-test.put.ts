@@ -4,6 +4,7 @@ import { indexTests, samples } from '~~/server/db/schema'
 import { recordAudit } from '~~/server/services/audit'
 import { requirePoint } from '~~/server/services/points'
 import { notFound, versionedUpdate } from '~~/server/services/http-errors'
+import { returnedRow } from '~~/server/db/rows'
 
 const Body = IndexTestSaveSchema
 
@@ -19,7 +20,7 @@ export default defineEventHandler(async (event) => {
     const [before] = await tx.select().from(indexTests).where(eq(indexTests.sampleId, sampleId)).for('update')
     let row
     if (!before) {
-      [row] = await tx.insert(indexTests).values({ ...values, sampleId }).returning()
+      row = returnedRow(await tx.insert(indexTests).values({ ...values, sampleId }).returning())
     }
     else {
       if (version === undefined) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This sample already has index tests: send the version you read to replace them.', data: { current: before } })
@@ -29,8 +30,8 @@ export default defineEventHandler(async (event) => {
         current: () => before,
       })
     }
-    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row!.id, before: before ?? null, after: row }, tx)
-    return row!
+    await recordAudit({ actorId: user.id, projectId: project.id, action: before ? 'update' : 'create', entity: 'index-test', entityId: row.id, before: before ?? null, after: row }, tx)
+    return row
   })
   return { indexTest }
 })
