@@ -24,7 +24,9 @@ export default defineNuxtConfig({
   // Separate build folders let two checkouts' builds run side by side (e.g. a UI build while tests run).
   buildDir: process.env.PASTLOAD_BUILD_DIR ?? '.nuxt',
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-security'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-security', '@nuxt/eslint'],
+  // Lint config is generated at one fixed path whatever the build folder; eslint.config.mjs extends it.
+  eslint: { config: { configFile: '.nuxt/eslint.config.mjs', typescript: { strict: false } } },
   css: ['~/assets/css/main.css'],
   app: {
     head: {

@@ -12,8 +12,6 @@ import { randomBytes } from 'node:crypto'
 import { createWriteStream, mkdirSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { cpus, loadavg } from 'node:os'
-// The machine's load before the soak adds its own: said beside the figures.
-const LOAD_BEFORE = loadavg()[0]
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { parseArgs } from 'node:util'
@@ -22,6 +20,9 @@ import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
 import { startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster, ensurePostgresInstalled } from './lib/postgres.mjs'
+
+// The machine's load before the soak adds its own: said beside the figures.
+const LOAD_BEFORE = loadavg()[0]
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 const { values: opt } = parseArgs({

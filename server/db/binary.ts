@@ -10,8 +10,11 @@ import type { Tx } from './client'
 const FLOAT8_OID = 701
 const HEADER = 20
 
+/** A plain array or a typed array of numbers. */
+export type NumberList = ArrayLike<number> & Iterable<number>
+
 /** array_send layout: dimensions, has-nulls flag, element type, then per dimension its length and lower bound, then (length, value) per element. */
-export function encodeFloat8Array(values: ArrayLike<number>): Buffer {
+export function encodeFloat8Array(values: NumberList): Buffer {
   const n = values.length
   if (n === 0) {
     const empty = Buffer.alloc(12)
@@ -26,9 +29,9 @@ export function encodeFloat8Array(values: ArrayLike<number>): Buffer {
   view.setInt32(12, n)
   view.setInt32(16, 1)
   let o = HEADER
-  for (let i = 0; i < n; i++) {
+  for (const value of values) {
     view.setInt32(o, 8)
-    view.setFloat64(o + 4, values[i]!)
+    view.setFloat64(o + 4, value)
     o += 12
   }
   return buf
@@ -53,7 +56,7 @@ export function decodeFloat8Array(buf: Uint8Array): Float64Array {
 }
 
 /** A float8[] value for an insert or update, sent in binary. */
-export function float8ArrayParam(values: ArrayLike<number>): SQL {
+export function float8ArrayParam(values: NumberList): SQL {
   return sql`${encodeFloat8Array(values)}::float8[]`
 }
 

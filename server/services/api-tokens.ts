@@ -5,6 +5,7 @@ import type { SessionUser } from '#shared/schemas/auth'
 import type { ApiTokenRow, ApiTokenScope } from '#shared/types/api-tokens'
 import { type Tx, useDb } from '../db/client'
 import { apiTokens, users } from '../db/schema'
+import { returnedRow } from '../db/rows'
 
 const PREFIX = 'plt_'
 
@@ -32,7 +33,7 @@ const TOKEN_COLUMNS = {
 /** Inserts a token inside the caller's transaction (its audit row goes in the same one). */
 export async function createApiToken(tx: Tx, userId: string, input: NewApiToken) {
   const token = PREFIX + randomBytes(32).toString('base64url')
-  const [row] = await tx.insert(apiTokens).values({
+  const rows = await tx.insert(apiTokens).values({
     userId,
     name: input.name,
     scope: input.scope,
@@ -40,7 +41,7 @@ export async function createApiToken(tx: Tx, userId: string, input: NewApiToken)
     tokenHash: hashToken(token),
     prefix: token.slice(0, PREFIX.length + 6),
   }).returning(TOKEN_COLUMNS)
-  return { ...row!, token }
+  return { ...returnedRow(rows), token }
 }
 
 /** The user's API tokens, newest first, with scope, expiry, last use and revocation. */

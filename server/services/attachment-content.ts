@@ -56,7 +56,8 @@ function looksLikeCsv(text: string): boolean {
   if (lines.length < 2) return false
   for (const sep of [',', ';', '\t']) {
     const counts = lines.map(l => l.split(sep).length - 1)
-    if (counts[0]! >= 1 && counts.every(c => c === counts[0])) return true
+    const [first = 0] = counts
+    if (first >= 1 && counts.every(c => c === first)) return true
   }
   return false
 }

@@ -6,6 +6,7 @@ import { ATTACHMENT_TYPES, attachmentKind, type AttachmentContentType, type Atta
 import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { attachments, investigationPoints, oedometerTests, samples, users } from '../db/schema'
+import { returnedRow } from '../db/rows'
 import { AttachmentContentError, sniffAttachment } from './attachment-content'
 import { recordAudit } from './audit'
 import { readMultipart } from './multipart'
@@ -30,6 +31,7 @@ export interface UploadedFile {
 /** A file name safe to store and to echo in a header: no path, no control characters, at most 200 characters. */
 export function cleanFilename(name: string | undefined): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? ''
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what is stripped from a file name
   const clean = base.replace(/[\u0000-\u001F\u007F]/g, '').trim().slice(0, 200)
   return clean || 'attachment'
 }
@@ -48,7 +50,7 @@ export async function readAttachmentUpload(event: H3Event): Promise<{ file: Uplo
     tooManyParts: 'Send one file per upload.',
     hash: true,
   })
-  return { file: file ? { filename: cleanFilename(file.filename), data: file.data, sha256: file.sha256! } : null, fields }
+  return { file: file ? { filename: cleanFilename(file.filename), data: file.data, sha256: file.sha256 } : null, fields }
 }
 
 const OWNER_LABEL: Record<Exclude<AttachmentOwnerType, 'project'>, string> = { point: 'point', sample: 'sample', test: 'oedometer test' }
@@ -143,7 +145,7 @@ export async function storeAttachment(input: NewAttachment): Promise<AttachmentR
   try {
     if (thumbnail && thumbnailKey) await putObject(thumbnailKey, thumbnail, 'image/jpeg')
     return await useDb().transaction(async (tx) => {
-      const [row] = await tx.insert(attachments).values({
+      const row = returnedRow(await tx.insert(attachments).values({
         projectId: input.projectId,
         ownerType: input.ownerType,
         ownerId: input.ownerId,
@@ -155,9 +157,9 @@ export async function storeAttachment(input: NewAttachment): Promise<AttachmentR
         thumbnailKey,
         caption: input.caption,
         uploadedBy: input.uploadedBy,
-      }).returning()
-      await recordAudit({ actorId: input.uploadedBy, projectId: input.projectId, action: 'create', entity: 'attachment', entityId: row!.id, after: auditRecord(row!) }, tx)
-      return row!
+      }).returning())
+      await recordAudit({ actorId: input.uploadedBy, projectId: input.projectId, action: 'create', entity: 'attachment', entityId: row.id, after: auditRecord(row) }, tx)
+      return row
     })
   }
   catch (err) {
@@ -265,25 +267,25 @@ export async function sendStoredObject(event: H3Event, key: string, opts: { cont
  */
 export async function rehomeAttachmentsOf(tx: Tx, args: { projectId: string, actorId: string, ownerType: Exclude<AttachmentOwnerType, 'project'>, ownerId: string, label: string }): Promise<number> {
   const { projectId, ownerType, ownerId } = args
-  const owned: SQL[] = [and(eq(attachments.ownerType, ownerType), eq(attachments.ownerId, ownerId))!]
+  const owned: (SQL | undefined)[] = [and(eq(attachments.ownerType, ownerType), eq(attachments.ownerId, ownerId))]
   if (ownerType === 'point') {
     const sampleIds = (await tx.select({ id: samples.id }).from(samples).where(eq(samples.pointId, ownerId))).map(s => s.id)
     if (sampleIds.length) {
-      owned.push(and(eq(attachments.ownerType, 'sample'), anyOf(attachments.ownerId, sampleIds))!)
+      owned.push(and(eq(attachments.ownerType, 'sample'), anyOf(attachments.ownerId, sampleIds)))
       const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(anyOf(oedometerTests.sampleId, sampleIds))).map(t => t.id)
-      if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds))!)
+      if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds)))
     }
   }
   else if (ownerType === 'sample') {
     const testIds = (await tx.select({ id: oedometerTests.id }).from(oedometerTests).where(eq(oedometerTests.sampleId, ownerId))).map(t => t.id)
-    if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds))!)
+    if (testIds.length) owned.push(and(eq(attachments.ownerType, 'test'), anyOf(attachments.ownerId, testIds)))
   }
   const rows = await tx.select().from(attachments).where(and(eq(attachments.projectId, projectId), or(...owned))).for('update')
   for (const row of rows) {
     const from = `Moved to the project when ${args.label} was deleted.`
     const caption = (row.caption ? `${from} ${row.caption}` : from).slice(0, 500)
-    const [after] = await tx.update(attachments).set({ ownerType: 'project', ownerId: null, caption }).where(eq(attachments.id, row.id)).returning()
-    await recordAudit({ actorId: args.actorId, projectId, action: 'update', entity: 'attachment', entityId: row.id, before: auditRecord(row), after: auditRecord(after!) }, tx)
+    const after = returnedRow(await tx.update(attachments).set({ ownerType: 'project', ownerId: null, caption }).where(eq(attachments.id, row.id)).returning())
+    await recordAudit({ actorId: args.actorId, projectId, action: 'update', entity: 'attachment', entityId: row.id, before: auditRecord(row), after: auditRecord(after) }, tx)
   }
   return rows.length
 }

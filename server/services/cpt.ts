@@ -1,26 +1,30 @@
 import { eq, sql } from 'drizzle-orm'
-import { float8ArrayParam, preferFastCompression } from '../db/binary'
+import { float8ArrayParam, type NumberList, preferFastCompression } from '../db/binary'
 import { type Tx, useDb } from '../db/client'
 import { cptSoundings } from '../db/schema'
+import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 import { requirePoint } from './points'
 import { unprocessableError } from './http-errors'
 
 export interface CptArrays {
   areaRatio: number
-  depth: ArrayLike<number>
-  qc: ArrayLike<number>
-  fs: ArrayLike<number>
-  u2: ArrayLike<number>
+  depth: NumberList
+  qc: NumberList
+  fs: NumberList
+  u2: NumberList
 }
 
 /** Depths must increase and stay within the hole; the sounding is replaced whole. */
 export function assertCptValid(c: CptArrays, finalDepth: number) {
-  for (let i = 1; i < c.depth.length; i++) {
-    if (!(c.depth[i]! > c.depth[i - 1]!)) throw unprocessableError(`CPT row ${i + 1}: depth ${c.depth[i]} m does not increase from ${c.depth[i - 1]} m.`)
-  }
-  const last = c.depth[c.depth.length - 1]!
-  if (c.depth[0]! < 0) throw unprocessableError('CPT depths must be 0 m or deeper.')
+  const depths = Array.from(c.depth)
+  depths.forEach((depth, i) => {
+    const above = depths[i - 1]
+    if (above !== undefined && !(depth > above)) throw unprocessableError(`CPT row ${i + 1}: depth ${depth} m does not increase from ${above} m.`)
+  })
+  const [first = 0] = depths
+  const last = depths.at(-1) ?? first
+  if (first < 0) throw unprocessableError('CPT depths must be 0 m or deeper.')
   if (last > finalDepth + 1e-6) throw unprocessableError(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
 }
 
@@ -35,11 +39,11 @@ export async function replaceCptSounding(ctx: { actorId: string, projectId: stri
     // The arrays go in binary (a 200 000-row sounding is 800 000 values), compressed with lz4 where available.
     await preferFastCompression(tx)
     const values = { areaRatio: c.areaRatio, count: c.depth.length, depth: float8ArrayParam(c.depth), qc: float8ArrayParam(c.qc), fs: float8ArrayParam(c.fs), u2: float8ArrayParam(c.u2) }
-    const [row] = before
+    const row = returnedRow(before
       ? await tx.update(cptSoundings).set({ ...values, version: sql`${cptSoundings.version} + 1` }).where(eq(cptSoundings.id, before.id)).returning({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio })
-      : await tx.insert(cptSoundings).values({ ...values, pointId: point.id }).returning({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio })
-    await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: before ? 'update' : 'create', entity: 'cpt', entityId: row!.id, before: before ?? null, after: row }, tx)
-    return row!
+      : await tx.insert(cptSoundings).values({ ...values, pointId: point.id }).returning({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio }))
+    await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: before ? 'update' : 'create', entity: 'cpt', entityId: row.id, before: before ?? null, after: row }, tx)
+    return row
   }
   return txIn ? run(txIn) : useDb().transaction(run)
 }

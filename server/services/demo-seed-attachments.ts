@@ -6,6 +6,7 @@ import sharp from 'sharp'
 import { DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
 import type { Database } from '../db/client'
 import { investigationPoints, projects, users } from '../db/schema'
+import { present } from '../db/rows'
 import { logServerError } from '../utils/error-log'
 import { storeAttachment, type UploadedFile } from './attachments'
 import { storageConfigured } from './storage'
@@ -67,10 +68,10 @@ export async function demoLabReportPdf(): Promise<Buffer> {
   y -= 16
   const cols = [50, 88, 124, 164, 240, 268, 296, 338, 380, 408, 436, 468]
   page.drawRectangle({ x: 46, y: y - 5, width: 503, height: 17, color: rgb(0.94, 0.93, 0.9) })
-  LAB_HEADERS.forEach((h, i) => page.drawText(h, { x: cols[i]!, y, size: 7.5, font: bold, color: ink }))
+  LAB_HEADERS.forEach((h, i) => page.drawText(h, { x: present(cols[i], 'A column position'), y, size: 7.5, font: bold, color: ink }))
   y -= 18
   for (const row of LAB_ROWS) {
-    row.forEach((v, i) => page.drawText(v, { x: cols[i]!, y, size: 7.5, font: regular, color: row[11].startsWith('Poor') ? rgb(0.57, 0.17, 0.13) : ink }))
+    row.forEach((v, i) => page.drawText(v, { x: present(cols[i], 'A column position'), y, size: 7.5, font: regular, color: row[11].startsWith('Poor') ? rgb(0.57, 0.17, 0.13) : ink }))
     y -= 15
   }
   y -= 14
@@ -102,16 +103,15 @@ export async function demoLabReportPdf(): Promise<Buffer> {
     const cc = Number(row[8])
     const cr = Number(row[9])
     const s0 = 6
-    const points: [number, number][] = []
+    let previous: [number, number] | null = null
+    let last: [number, number] = [s0, e0]
+    const colour = row[11].startsWith('Poor') ? rgb(0.57, 0.17, 0.13) : k % 2 ? tide : rgb(0.54, 0.28, 0.1)
     for (let s = s0; s <= 800; s *= 1.25) {
       const e = s <= sp ? e0 - cr * Math.log10(s / s0) : e0 - cr * Math.log10(sp / s0) - cc * Math.log10(s / sp)
-      points.push([Math.max(s, 10), e])
+      last = [Math.max(s, 10), e]
+      if (previous) curves.drawLine({ start: { x: px(previous[0]), y: py(previous[1]) }, end: { x: px(last[0]), y: py(last[1]) }, thickness: 1.2, color: colour })
+      previous = last
     }
-    const colour = row[11].startsWith('Poor') ? rgb(0.57, 0.17, 0.13) : k % 2 ? tide : rgb(0.54, 0.28, 0.1)
-    for (let i = 1; i < points.length; i++) {
-      curves.drawLine({ start: { x: px(points[i - 1]![0]), y: py(points[i - 1]![1]) }, end: { x: px(points[i]![0]), y: py(points[i]![1]) }, thickness: 1.2, color: colour })
-    }
-    const last = points[points.length - 1]!
     // Curve labels at the right end, nudged apart where two curves finish close together.
     let labelY = py(last[1]) - 3
     while (labelYs.some(u => Math.abs(u - labelY) < 9)) labelY -= 9
@@ -149,7 +149,7 @@ export async function demoCoreBoxPng(point: string, box: number, from: number, s
     parts.push(`<text x="${left - 16}" y="${y + rowH / 2 + 8}" font-family="DejaVu Sans, sans-serif" font-size="22" fill="#f3ead8" text-anchor="end">${(from + r).toFixed(1)}</text>`)
     for (let step = 0; step < 20; step++) {
       const depth = from + r + step * 0.05
-      const layer = [...CORE_COLOURS].reverse().find(c => depth >= c.top)!
+      const layer = present([...CORE_COLOURS].reverse().find(c => depth >= c.top), 'A core colour')
       const x = left + (step / 20) * len
       parts.push(`<rect x="${x.toFixed(1)}" y="${y}" width="${(len / 20 + 0.6).toFixed(1)}" height="${rowH}" fill="${layer.colour}"/>`)
       for (let f = 0; f < 5; f++) {
@@ -226,7 +226,7 @@ export async function seedDemoAttachmentsAfterDemoSeed(db: Database): Promise<vo
   }
   try {
     const [project] = await db.select({ id: projects.id }).from(projects).where(eq(projects.jobNumber, DEMO_PROJECT.jobNumber)).limit(1)
-    const geologist = DEMO_PEOPLE.find(p => p.role === 'geologist')!
+    const geologist = present(DEMO_PEOPLE.find(p => p.role === 'geologist'), 'The demo geologist')
     const [uploader] = await db.select({ id: users.id }).from(users).where(eq(users.email, geologist.email)).limit(1)
     if (!project || !uploader) throw new Error('the demo project or its field geologist is missing')
     const points = await db.select({ id: investigationPoints.id }).from(investigationPoints)

@@ -10,9 +10,11 @@ import { oedometerTests, preconsolidationAdoptions, type OedometerStageJson } fr
 import { recordAudit } from './audit'
 import { definitionFromLogs } from './site-models'
 import type { Tx } from '../db/client'
+import { present, returnedRow } from '../db/rows'
 
 /** A common laboratory reading schedule for one 24 h stage, minutes (common practice). */
-const READING_MINUTES = [0, 0.1, 0.25, 0.5, 1, 2, 4, 8, 15, 30, 60, 120, 240, 480, 1440]
+const LAST_READING_MINUTES = 1440
+const READING_MINUTES = [0, 0.1, 0.25, 0.5, 1, 2, 4, 8, 15, 30, 60, 120, 240, 480, LAST_READING_MINUTES]
 const MINUTES_PER_YEAR = 365.25 * 24 * 60
 /** Secondary compression starts where Terzaghi's Tv reaches 2 (U ≈ 99.4 %). */
 const END_OF_PRIMARY_TV = 2
@@ -28,10 +30,10 @@ const SECONDARY_SHARE_MAX = 0.3
  * specimen height over the stage), so cv read back by Taylor's method is the scenario's cv.
  */
 export function demoTimeReadings(oed: OedometerTestRecord, heightMm: number, stratum: 'CRUST' | 'EST' | 'GLAC'): OedometerStageJson[] {
-  const truth = demoStratum(stratum).compressibility!
+  const truth = present(demoStratum(stratum).compressibility, 'The demo stratum\'s compressibility')
   const basis = { e0: oed.e0, specimenHeight: heightMm }
   const toMm = (e: number) => (heightMm * (oed.e0 - e)) / (1 + oed.e0)
-  let peak = oed.stages[0]!.stress
+  let peak = oed.stages[0]?.stress ?? 0
   return oed.stages.map((stage, i) => {
     const out: OedometerStageJson = { stress: stage.stress, entered: stage.voidRatio, voidRatio: stage.voidRatio }
     if (i === 0 || stage.stress <= peak) {
@@ -39,12 +41,12 @@ export function demoTimeReadings(oed: OedometerTestRecord, heightMm: number, str
       return out
     }
     peak = stage.stress
-    const ePrev = oed.stages[i - 1]!.voidRatio
+    const ePrev = present(oed.stages[i - 1], 'The previous stage').voidRatio
     const hdr = 0.25 * (specimenHeightAt(ePrev, basis) + specimenHeightAt(stage.voidRatio, basis)) / 1000
     const start = toMm(ePrev)
     const total = toMm(stage.voidRatio) - start
     const tp = (END_OF_PRIMARY_TV * hdr * hdr / truth.cv) * MINUTES_PER_YEAR
-    const cycles = Math.log10(READING_MINUTES[READING_MINUTES.length - 1]! / tp)
+    const cycles = Math.log10(LAST_READING_MINUTES / tp)
     const slope = Math.min((CALPHA_OVER_CC * truth.cc * heightMm) / (1 + oed.e0), (SECONDARY_SHARE_MAX * total) / cycles)
     const primary = total - slope * cycles
     out.readings = READING_MINUTES.map((t) => {
@@ -73,7 +75,7 @@ export async function seedDemoLab(tx: Tx, projectId: string, investigation: Inve
     if (!sample || !oed || !sampleId) throw new Error(`Demo oedometer test ${plan.point} ${plan.stratum} #${plan.ordinal} has no sample.`)
     // The record gives the specimen height in metres; the test stores millimetres.
     const heightMm = Math.round(oed.specimenHeight * 1000 * 100) / 100
-    const [test] = await tx.insert(oedometerTests).values({
+    const test = returnedRow(await tx.insert(oedometerTests).values({
       sampleId,
       label: `OED-${String(n + 1).padStart(2, '0')}`,
       testType: oed.testType,
@@ -84,16 +86,16 @@ export async function seedDemoLab(tx: Tx, projectId: string, investigation: Inve
       convention: 'void-ratio',
       stages: demoTimeReadings(oed, heightMm, plan.stratum),
       remarks: oed.remarks,
-    }).returning({ id: oedometerTests.id })
+    }).returning({ id: oedometerTests.id }))
     if (plan.quality === 'very-poor') continue
     const depth = 0.5 * (sample.top + sample.bottom)
     const effectiveStress = stressAt(depth).effectiveStress
     const out = interpretOedometer({ points: oed.stages, e0: oed.e0, insituStress: effectiveStress })
-    const casagrande = out.results.find(r => r.method === 'casagrande')!.preconsolidation
+    const casagrande = present(out.results.find(r => r.method === 'casagrande'), 'The Casagrande result').preconsolidation
     const spread = Math.max(...out.results.map(r => Math.abs(r.preconsolidation / casagrande - 1)))
     await tx.insert(preconsolidationAdoptions).values({
       projectId,
-      oedometerTestId: test!.id,
+      oedometerTestId: test.id,
       method: 'casagrande',
       value: Math.round(casagrande * 10) / 10,
       reason: `Clear break in the curve; the other constructions fall within ${Math.max(1, Math.ceil(spread * 100))} % of Casagrande.`,

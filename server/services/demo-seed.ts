@@ -3,6 +3,7 @@ import { generateDemoInvestigation } from '#shared/demo/generate'
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
 import type { Database } from '../db/client'
 import { projectMembers, projects, users } from '../db/schema'
+import { present, returnedRow } from '../db/rows'
 import { hashPassword } from '../utils/password'
 import { recordAudit } from './audit'
 import { seedDemoLab } from './demo-seed-lab'
@@ -24,18 +25,19 @@ export async function seedDemoIfEmpty(db: Database): Promise<boolean> {
       isSiteAdmin: p.isSiteAdmin,
       passwordHash,
     }))).returning({ id: users.id, email: users.email })
-    const admin = people.find(p => p.email === DEMO_PEOPLE.find(d => d.isSiteAdmin)!.email)!
-    const [project] = await tx.insert(projects).values({ ...DEMO_PROJECT, createdBy: admin.id }).returning()
+    const personWith = (match: (d: typeof DEMO_PEOPLE[number]) => boolean) => present(people.find(p => p.email === DEMO_PEOPLE.find(match)?.email), 'A demo person')
+    const admin = personWith(d => d.isSiteAdmin)
+    const project = returnedRow(await tx.insert(projects).values({ ...DEMO_PROJECT, createdBy: admin.id }).returning())
     await tx.insert(projectMembers).values(DEMO_PEOPLE.map((p) => {
-      const id = people.find(u => u.email === p.email)!.id
-      return { projectId: project!.id, userId: id, role: p.role }
+      const { id } = present(people.find(u => u.email === p.email), 'A demo person')
+      return { projectId: project.id, userId: id, role: p.role }
     }))
-    await recordAudit({ actorId: admin.id, projectId: project!.id, action: 'create', entity: 'project', entityId: project!.id, after: { seeded: 'demo' } }, tx)
+    await recordAudit({ actorId: admin.id, projectId: project.id, action: 'create', entity: 'project', entityId: project.id, after: { seeded: 'demo' } }, tx)
     // The investigation, generated deterministically from the scenario's ground model.
     const investigation = generateDemoInvestigation()
-    const written = await writeInvestigation(tx, project!.id, investigation, new Map(), { oedometer: false })
-    await seedDemoLab(tx, project!.id, investigation, written.sampleIds, people.find(p => p.email === DEMO_PEOPLE.find(d => d.role === 'engineer')!.email)!.id)
-    await recordAudit({ actorId: people.find(p => p.email === DEMO_PEOPLE.find(d => d.role === 'geologist')!.email)!.id, projectId: project!.id, action: 'import', entity: 'investigation', after: { seeded: 'demo', points: investigation.points.length } }, tx)
+    const written = await writeInvestigation(tx, project.id, investigation, new Map(), { oedometer: false })
+    await seedDemoLab(tx, project.id, investigation, written.sampleIds, personWith(d => d.role === 'engineer').id)
+    await recordAudit({ actorId: personWith(d => d.role === 'geologist').id, projectId: project.id, action: 'import', entity: 'investigation', after: { seeded: 'demo', points: investigation.points.length } }, tx)
   })
   return true
 }

@@ -9,7 +9,8 @@ import { isUniqueViolation } from '../utils/db-errors'
 export async function versionedUpdate<Row>(args: {
   entity: string
   update: () => Promise<Row[]>
-  current: () => Promise<Row | undefined>
+  /** The row as it stands now (already read, or read on demand). */
+  current: () => Row | undefined | Promise<Row | undefined>
 }): Promise<Row> {
   const [row] = await args.update()
   if (row) return row

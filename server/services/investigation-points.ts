@@ -1,4 +1,5 @@
 import { and, asc, count, eq, ilike, type SQL, sql } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import type { z } from 'zod'
 import { formatCount, ImportLimitError, PROJECT_POINT_LIMIT } from '#shared/imports/limits'
 import type { PointInput, PointListQuerySchema, PointUpdateSchema } from '#shared/schemas/investigation'
@@ -33,9 +34,9 @@ export async function createPoint(projectId: string, actorId: string, body: Poin
   try {
     return await conflictOnDuplicate(() => useDb().transaction(async (tx) => {
       await holdPointLimit(tx, projectId, 1)
-      const [row] = await tx.insert(investigationPoints).values({ ...body, projectId }).returning()
-      await recordAudit({ actorId, projectId, action: 'create', entity: 'point', entityId: row!.id, after: row }, tx)
-      return row!
+      const row = returnedRow(await tx.insert(investigationPoints).values({ ...body, projectId }).returning())
+      await recordAudit({ actorId, projectId, action: 'create', entity: 'point', entityId: row.id, after: row }, tx)
+      return row
     }), `${body.identifier} already exists in this project.`)
   }
   catch (err) {
@@ -53,7 +54,7 @@ export async function updatePoint(projectId: string, actorId: string, pointId: s
       entity: 'Point',
       update: () => tx.update(investigationPoints).set({ ...patch, version: sql`${investigationPoints.version} + 1` })
         .where(and(eq(investigationPoints.id, pointId), eq(investigationPoints.projectId, projectId), eq(investigationPoints.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId, projectId, action: 'update', entity: 'point', entityId: pointId, before, after: row }, tx)
     return row

@@ -2,6 +2,7 @@ import type { InvestigationRecord } from '#shared/investigation/types'
 import { float8ArrayParam } from '../db/binary'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
 import type { Tx } from '../db/client'
+import { knownEntry, present } from '../db/rows'
 
 const CHUNK = 1000
 
@@ -43,21 +44,22 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
   }))).returning({ id: investigationPoints.id, identifier: investigationPoints.identifier })
   for (const r of pointRows) pointIds.set(r.identifier, r.id)
 
-  const intervals = data.points.flatMap(p => p.intervals.map(i => ({ ...i, stratumCode: undefined, pointId: pointIds.get(p.identifier)!, stratumId: i.stratumCode ? strataIds.get(i.stratumCode) ?? null : null })))
+  const intervals = data.points.flatMap(p => p.intervals.map(i => ({ ...i, stratumCode: undefined, pointId: knownEntry(pointIds, p.identifier), stratumId: i.stratumCode ? strataIds.get(i.stratumCode) ?? null : null })))
   await inChunks(intervals.map(({ stratumCode: _c, ...rest }) => rest), c => tx.insert(logIntervals).values(c))
 
   const sampleList = data.points.flatMap(p => p.samples.map(s => ({ p, s })))
   if (sampleList.length) {
     const rows = await tx.insert(samples).values(sampleList.map(({ p, s }) => ({
-      pointId: pointIds.get(p.identifier)!, identifier: s.identifier, top: s.top, bottom: s.bottom, type: s.type, recovery: s.recovery, remarks: s.remarks,
+      pointId: knownEntry(pointIds, p.identifier), identifier: s.identifier, top: s.top, bottom: s.bottom, type: s.type, recovery: s.recovery, remarks: s.remarks,
     }))).returning({ id: samples.id })
-    rows.forEach((r, i) => sampleIds.set(`${sampleList[i]!.p.identifier}/${sampleList[i]!.s.identifier}`, r.id))
-    const idx = sampleList.flatMap(({ p, s }) => (s.index ? [{ ...s.index, sampleId: sampleIds.get(`${p.identifier}/${s.identifier}`)! }] : []))
+    // RETURNING gives the rows back in the order of the VALUES list.
+    sampleList.forEach(({ p, s }, i) => sampleIds.set(`${p.identifier}/${s.identifier}`, present(rows[i], 'An inserted sample').id))
+    const idx = sampleList.flatMap(({ p, s }) => (s.index ? [{ ...s.index, sampleId: knownEntry(sampleIds, `${p.identifier}/${s.identifier}`) }] : []))
     await inChunks(idx, c => tx.insert(indexTests).values(c))
     if (options.oedometer ?? true) {
       const tests = sampleList.flatMap(({ p, s }) => (s.oedometer
         ? [{
-            sampleId: sampleIds.get(`${p.identifier}/${s.identifier}`)!,
+            sampleId: knownEntry(sampleIds, `${p.identifier}/${s.identifier}`),
             label: `${s.identifier} oedometer`,
             testType: s.oedometer.testType,
             // The interchange model gives the height in m; tests store mm.
@@ -73,12 +75,12 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
       await inChunks(tests, c => tx.insert(oedometerTests).values(c))
     }
   }
-  await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: pointIds.get(p.identifier)!, depth: s.depth, blows: [...s.blows], n: s.n }))), c => tx.insert(sptResults).values(c))
-  await inChunks(data.points.flatMap(p => p.groundwater.map(g => ({ ...g, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(groundwaterObservations).values(c))
-  await inChunks(data.points.flatMap(p => p.vane.map(v => ({ ...v, pointId: pointIds.get(p.identifier)! }))), c => tx.insert(vaneReadings).values(c))
+  await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: knownEntry(pointIds, p.identifier), depth: s.depth, blows: [...s.blows], n: s.n }))), c => tx.insert(sptResults).values(c))
+  await inChunks(data.points.flatMap(p => p.groundwater.map(g => ({ ...g, pointId: knownEntry(pointIds, p.identifier) }))), c => tx.insert(groundwaterObservations).values(c))
+  await inChunks(data.points.flatMap(p => p.vane.map(v => ({ ...v, pointId: knownEntry(pointIds, p.identifier) }))), c => tx.insert(vaneReadings).values(c))
   for (const p of data.points) {
     if (!p.cpt) continue
-    await tx.insert(cptSoundings).values({ pointId: pointIds.get(p.identifier)!, areaRatio: p.cpt.areaRatio, count: p.cpt.depth.length, depth: float8ArrayParam(p.cpt.depth), qc: float8ArrayParam(p.cpt.qc), fs: float8ArrayParam(p.cpt.fs), u2: float8ArrayParam(p.cpt.u2) })
+    await tx.insert(cptSoundings).values({ pointId: knownEntry(pointIds, p.identifier), areaRatio: p.cpt.areaRatio, count: p.cpt.depth.length, depth: float8ArrayParam(p.cpt.depth), qc: float8ArrayParam(p.cpt.qc), fs: float8ArrayParam(p.cpt.fs), u2: float8ArrayParam(p.cpt.u2) })
   }
   return { strataIds, pointIds, sampleIds }
 }

@@ -228,7 +228,7 @@ export async function reviseTest(tx: Tx, args: {
       stages: prepared.stages,
       version: sql`${oedometerTests.version} + 1`,
     }).where(and(eq(oedometerTests.id, before.id), eq(oedometerTests.version, args.version))).returning(),
-    current: async () => before,
+    current: () => before,
   })
   const audit = args.audit?.(before, row) ?? { action: 'update', entity: 'oedometer-test', before, after: row }
   await recordAudit({ actorId: args.actorId, projectId: args.projectId, entityId: before.id, ...audit }, tx)

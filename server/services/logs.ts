@@ -1,4 +1,5 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
+import { knownEntry } from '../db/rows'
 import { checkIntervals } from '#shared/investigation/intervals'
 import type { IntervalInput } from '#shared/schemas/investigation'
 import { useDb } from '../db/client'
@@ -45,7 +46,7 @@ export async function replaceLog(projectId: string, actorId: string, pointId: st
 
     const keep = new Set(intervals.flatMap(iv => (iv.id ? [iv.id] : [])))
     const removed = existing.filter(r => !keep.has(r.id)).map(r => r.id)
-    const changed = intervals.filter((iv): iv is LogRowInput & { id: string } => !!iv.id && FIELDS.some(k => iv[k] !== byId.get(iv.id!)![k]))
+    const changed = intervals.filter((iv): iv is LogRowInput & { id: string } => !!iv.id && FIELDS.some(k => iv[k] !== knownEntry(byId, iv.id)[k]))
     const added = intervals.filter(iv => !iv.id)
 
     if (removed.length) await tx.delete(logIntervals).where(anyOf(logIntervals.id, removed))

@@ -2,6 +2,7 @@ import { and, count, eq, sql } from 'drizzle-orm'
 import type { ProjectRole } from '#shared/auth/roles'
 import { useDb } from '../db/client'
 import { projectMembers, users } from '../db/schema'
+import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 import { unprocessableError } from './http-errors'
 
@@ -33,11 +34,11 @@ export async function changeMemberRole(args: { actorId: string, projectId: strin
       await recordAudit({ actorId, projectId, action: 'delete', entity: 'project-member', entityId: userId, before: current }, tx)
       return null
     }
-    const [row] = await tx.update(projectMembers).set({ role })
+    const row = returnedRow(await tx.update(projectMembers).set({ role })
       .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
-      .returning()
+      .returning())
     await recordAudit({ actorId, projectId, action: 'update', entity: 'project-member', entityId: userId, before: current, after: row }, tx)
-    return row!
+    return row
   })
 }
 
@@ -54,9 +55,9 @@ export async function addMember(args: { actorId: string, projectId: string, emai
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `${target.displayName} is already a member (${existing.role}).`, data: { current: existing } })
   }
   const member = await db.transaction(async (tx) => {
-    const [row] = await tx.insert(projectMembers).values({ projectId, userId: target.id, role }).returning()
+    const row = returnedRow(await tx.insert(projectMembers).values({ projectId, userId: target.id, role }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'project-member', entityId: target.id, after: row }, tx)
-    return row!
+    return row
   })
   return { userId: target.id, email: target.email, displayName: target.displayName, role: member.role }
 }

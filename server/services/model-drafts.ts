@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import { computeStressProfile } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
@@ -11,7 +12,7 @@ import type { ProjectRow } from '../utils/guards'
 import { runEngine } from '../utils/engine'
 import { recordAudit } from './audit'
 import { exportName } from './exports/logs'
-import { conflictOnDuplicate, versionedUpdate } from './http-errors'
+import { conflictOnDuplicate, notFound, versionedUpdate } from './http-errors'
 import { exportDocument, exportWorkbook } from './model-export'
 import { assertDefinitionComputable, listVersions, nextVersionNumber, requireModel, requireVersion } from './model-versions'
 import { flagsInForce } from './review'
@@ -59,9 +60,9 @@ export async function createModel(projectId: string, actorId: string, body: { na
     draft = await definitionFromLogs(projectId)
   }
   return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
-    const [row] = await tx.insert(siteModels).values({ projectId, name: body.name, description: body.description, draft, basedOn, createdBy: actorId }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model', entityId: row!.id, after: { name: row!.name, basedOn } }, tx)
-    return modelJson(row!)
+    const row = returnedRow(await tx.insert(siteModels).values({ projectId, name: body.name, description: body.description, draft, basedOn, createdBy: actorId }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model', entityId: row.id, after: { name: row.name, basedOn } }, tx)
+    return modelJson(row)
   }), `A model named "${body.name}" already exists in this project.`)
 }
 
@@ -74,7 +75,7 @@ export async function saveDraft(projectId: string, actorId: string, modelId: str
       entity: 'Model draft',
       update: async () => (await tx.update(siteModels).set({ draft, draftRevision: sql`${siteModels.draftRevision} + 1` })
         .where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId), eq(siteModels.draftRevision, version))).returning()).map(modelJson),
-      current: async () => modelJson(before),
+      current: () => modelJson(before),
     })
     await recordAudit({ actorId, projectId, action: 'update', entity: 'site-model-draft', entityId: modelId, before: before.draft, after: draft }, tx)
     return model
@@ -86,10 +87,10 @@ export async function checkoutVersion(projectId: string, actorId: string, modelI
   const v = await requireVersion(modelId, version)
   return useDb().transaction(async (tx) => {
     const before = await requireModel(projectId, modelId, tx)
-    const [row] = await tx.update(siteModels).set({ draft: { ...v.definition, flagsInForce: [] }, basedOn: version, draftRevision: sql`${siteModels.draftRevision} + 1` })
-      .where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId))).returning()
+    const row = returnedRow(await tx.update(siteModels).set({ draft: { ...v.definition, flagsInForce: [] }, basedOn: version, draftRevision: sql`${siteModels.draftRevision} + 1` })
+      .where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId))).returning())
     await recordAudit({ actorId, projectId, action: 'update', entity: 'site-model-draft', entityId: modelId, before: before.draft, after: { checkedOut: version } }, tx)
-    return modelJson(row!)
+    return modelJson(row)
   })
 }
 
@@ -101,17 +102,17 @@ export async function checkoutVersion(projectId: string, actorId: string, modelI
 export async function saveVersion(projectId: string, actorId: string, modelId: string, { message, draftRevision }: { message: string, draftRevision: number }) {
   return useDb().transaction(async (tx) => {
     const [model] = await tx.select().from(siteModels).where(and(eq(siteModels.id, modelId), eq(siteModels.projectId, projectId))).for('update')
-    if (!model) await requireModel(projectId, modelId, tx)
-    if (model!.draftRevision !== draftRevision) {
-      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'The draft changed since you opened it; review it before saving a version.', data: { current: modelJson(model!) } })
+    if (!model) notFound('Model')
+    if (model.draftRevision !== draftRevision) {
+      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'The draft changed since you opened it; review it before saving a version.', data: { current: modelJson(model) } })
     }
-    const definition = { ...model!.draft, flagsInForce: await flagsInForce(projectId) }
+    const definition = { ...model.draft, flagsInForce: await flagsInForce(projectId) }
     assertDefinitionComputable(definition)
     const number = await nextVersionNumber(tx, modelId)
-    const [row] = await tx.insert(siteModelVersions).values({ modelId, version: number, definition, message, createdBy: actorId }).returning()
+    const row = returnedRow(await tx.insert(siteModelVersions).values({ modelId, version: number, definition, message, createdBy: actorId }).returning())
     await tx.update(siteModels).set({ basedOn: number, draftRevision: sql`${siteModels.draftRevision} + 1` }).where(eq(siteModels.id, modelId))
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model-version', entityId: row!.id, after: { modelId, version: number, message } }, tx)
-    return row!
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model-version', entityId: row.id, after: { modelId, version: number, message } }, tx)
+    return row
   })
 }
 

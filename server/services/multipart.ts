@@ -34,6 +34,8 @@ export interface MultipartOptions {
 
 const bad = (message: string) => createError({ statusCode: 400, statusMessage: 'Bad Request', message })
 
+export function readMultipart(event: H3Event, opts: MultipartOptions & { hash: true }): Promise<{ file: (MultipartFile & { sha256: string }) | null, fields: Record<string, string> }>
+export function readMultipart(event: H3Event, opts: MultipartOptions): Promise<{ file: MultipartFile | null, fields: Record<string, string> }>
 export function readMultipart(event: H3Event, opts: MultipartOptions): Promise<{ file: MultipartFile | null, fields: Record<string, string> }> {
   const req = event.node.req
   const type = req.headers['content-type'] ?? ''
@@ -85,7 +87,7 @@ export function readMultipart(event: H3Event, opts: MultipartOptions): Promise<{
       stream.on('limit', () => fail(createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: opts.tooLarge })))
       stream.on('end', () => {
         if (failed) return
-        file = { filename, data: chunks.length === 1 ? chunks[0]! : Buffer.concat(chunks, size), ...(hash ? { sha256: hash.digest('hex') } : {}) }
+        file = { filename, data: chunks.length === 1 && chunks[0] ? chunks[0] : Buffer.concat(chunks, size), ...(hash ? { sha256: hash.digest('hex') } : {}) }
       })
     })
     bb.on('filesLimit', () => fail(bad(opts.tooManyParts), { drain: true }))

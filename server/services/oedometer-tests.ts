@@ -1,4 +1,5 @@
 import { and, asc, count, eq, isNull, type SQL } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import { RESULT_CAUTION } from '#shared/caution'
 import { isGeotechError } from '#shared/geotech/errors'
 import type { OedometerInterpretation } from '#shared/geotech/oedometer'
@@ -140,7 +141,7 @@ export async function createTest(projectId: string, actorId: string, body: Oedom
   const prepared = prepareSpecimen(body)
   const created = await useDb().transaction(async (tx) => {
     const { sample, point } = await requireProjectSample(projectId, body.sampleId, tx)
-    const [test] = await tx.insert(oedometerTests).values({
+    const test = returnedRow(await tx.insert(oedometerTests).values({
       sampleId: sample.id,
       label: body.label,
       testType: body.testType,
@@ -151,9 +152,9 @@ export async function createTest(projectId: string, actorId: string, body: Oedom
       convention: body.convention,
       stages: prepared.stages,
       remarks: body.remarks,
-    }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'oedometer-test', entityId: test!.id, after: test }, tx)
-    return { test: test!, sample, point }
+    }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'oedometer-test', entityId: test.id, after: test }, tx)
+    return { test: test, sample, point }
   })
   return { test: testJson(created), e0Computed: prepared.e0Computed, notes: prepared.notes }
 }
@@ -198,9 +199,9 @@ export async function adoptPreconsolidation(projectId: string, actor: { id: stri
       }
     }
     const now = new Date()
-    const [previous] = await tx.update(preconsolidationAdoptions).set({ supersededAt: now })
-      .where(and(eq(preconsolidationAdoptions.oedometerTestId, testId), isNull(preconsolidationAdoptions.supersededAt))).returning()
-    const [row] = await tx.insert(preconsolidationAdoptions).values({
+    const previous = returnedRow(await tx.update(preconsolidationAdoptions).set({ supersededAt: now })
+      .where(and(eq(preconsolidationAdoptions.oedometerTestId, testId), isNull(preconsolidationAdoptions.supersededAt))).returning())
+    const row = returnedRow(await tx.insert(preconsolidationAdoptions).values({
       projectId,
       oedometerTestId: testId,
       method: body.method,
@@ -211,9 +212,9 @@ export async function adoptPreconsolidation(projectId: string, actor: { id: stri
       effectiveStress: insitu.effectiveStress,
       adoptedBy: actor.id,
       adoptedAt: now,
-    }).returning()
-    await recordAudit({ actorId: actor.id, projectId, action: 'adopt', entity: 'preconsolidation-adoption', entityId: row!.id, before: previous ?? null, after: row }, tx)
-    return { adoption: row!, superseded: previous ?? null }
+    }).returning())
+    await recordAudit({ actorId: actor.id, projectId, action: 'adopt', entity: 'preconsolidation-adoption', entityId: row.id, before: previous ?? null, after: row }, tx)
+    return { adoption: row, superseded: previous ?? null }
   })
   return { adoption: { ...adoption, adoptedByName: actor.displayName }, superseded, history: await adoptionHistory(testId) }
 }

@@ -1,6 +1,7 @@
 import { and, eq, sql } from 'drizzle-orm'
 import { useDb } from '../db/client'
 import { groundwaterObservations, sptResults, vaneReadings } from '../db/schema'
+import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 import { requirePoint } from './points'
 import { notFound, unprocessableError, versionedUpdate } from './http-errors'
@@ -29,9 +30,9 @@ export async function createPointRow(kind: PointRowKind, ctx: Ctx, values: Recor
   return useDb().transaction(async (tx) => {
     const point = await requirePoint(ctx.projectId, ctx.pointId, tx)
     checkDepth(values.depth, point.finalDepth)
-    const [row] = await tx.insert(table).values({ ...values, pointId: point.id } as never).returning() as Row[]
-    await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: 'create', entity: kind, entityId: row!.id, after: row }, tx)
-    return row!
+    const row = returnedRow(await tx.insert(table).values({ ...values, pointId: point.id } as never).returning() as Row[])
+    await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: 'create', entity: kind, entityId: row.id, after: row }, tx)
+    return row
   })
 }
 
@@ -44,8 +45,8 @@ export async function updatePointRow(kind: PointRowKind, ctx: Ctx, rowId: string
     const [before] = await tx.select().from(table).where(scope) as Row[]
     const row = await versionedUpdate({
       entity: kind === 'spt' ? 'SPT result' : kind === 'vane' ? 'Vane reading' : 'Groundwater observation',
-      update: () => tx.update(table).set({ ...patch, version: sql`${table.version} + 1` } as never).where(and(scope, eq(table.version, version))).returning() as Promise<Row[]>,
-      current: async () => before,
+      update: () => tx.update(table).set({ ...patch, version: sql`${table.version} + 1` }).where(and(scope, eq(table.version, version))).returning() as Promise<Row[]>,
+      current: () => before,
     })
     await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: 'update', entity: kind, entityId: rowId, before, after: row }, tx)
     return row

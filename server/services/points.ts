@@ -45,8 +45,8 @@ export async function pointDetail(point: ServerPointRow): Promise<ServerPointCon
 /** 422 with per-row issues when a log breaks the interval rules (shared/investigation/intervals.ts). */
 export function assertLogValid(intervals: { top: number, bottom: number }[], finalDepth: number) {
   const { issues } = checkIntervals(intervals, finalDepth)
-  if (issues.length) {
-    const first = issues[0]!
+  const [first] = issues
+  if (first) {
     throw unprocessableError(
       `Row ${first.index + 1}: ${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`,
       { issues: issues.map(i => ({ path: `intervals.${i.index}.${i.field}`, message: i.message, index: i.index, field: i.field })) },

@@ -136,11 +136,10 @@ export async function cptSoundingRows(projectId: string, pointId?: string): Prom
 
 function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number): DenseCpt {
   const out: DenseCpt = { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: [], preconsolidation: [], effectiveStress: [], stratum: [] }
-  for (let i = 0; i < profile.depth.length; i++) {
-    const p = profile.preconsolidation[i]!
+  for (const [i, z] of profile.depth.entries()) {
+    const p = profile.preconsolidation[i] ?? Number.NaN
     if (!Number.isFinite(p)) continue
-    const z = profile.depth[i]!
-    const e = profile.effectiveStress[i]!
+    const e = profile.effectiveStress[i] ?? Number.NaN
     out.depth.push(round(z, 3))
     out.preconsolidation.push(round(p, 1))
     out.effectiveStress.push(Number.isFinite(e) ? round(e, 1) : null)
@@ -163,12 +162,11 @@ async function plasticityIndices(projectId: string): Promise<PiSource[]> {
     .innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId))
     .where(and(eq(investigationPoints.projectId, projectId), isNotNull(indexTests.liquidLimit), isNotNull(indexTests.plasticLimit)))
   const intervals = await loggedIntervals([...new Set(rows.map(r => r.pointId))])
-  return rows
-    .filter(r => r.ll !== null && r.pl !== null && r.ll - r.pl > 0)
-    .map((r) => {
-      const depth = sampleDepth(r)
-      return { pointId: r.pointId, depth, stratumCode: stratumAtLogged(intervals.get(r.pointId) ?? [], depth), pi: r.ll! - r.pl! }
-    })
+  return rows.flatMap((r) => {
+    if (r.ll === null || r.pl === null || !(r.ll - r.pl > 0)) return []
+    const depth = sampleDepth(r)
+    return [{ pointId: r.pointId, depth, stratumCode: stratumAtLogged(intervals.get(r.pointId) ?? [], depth), pi: r.ll - r.pl }]
+  })
 }
 
 /**
@@ -186,7 +184,8 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
   const [intervals, pis] = await Promise.all([loggedIntervals([...new Set(readings.map(r => r.pointId))]), plasticityIndices(projectId)])
   const stratumDefaults: Record<string, number> = {}
   for (const code of new Set(pis.map(p => p.stratumCode).filter((c): c is string => c !== null))) {
-    stratumDefaults[code] = median(pis.filter(p => p.stratumCode === code).map(p => p.pi))!
+    const pi = median(pis.filter(p => p.stratumCode === code).map(p => p.pi))
+    if (pi !== null) stratumDefaults[code] = pi
   }
   const warnings: string[] = []
   const points: PreconsolidationPoint[] = []

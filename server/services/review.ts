@@ -1,4 +1,5 @@
 import { and, asc, count, desc, eq, type SQL, sql } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import type { z } from 'zod'
 import type { CreateFlagSchema, FlagListQuerySchema, UpdateFlagSchema } from '#shared/schemas/review'
 import { parseFlagTarget, type FlagTarget } from '#shared/review/flags'
@@ -94,9 +95,9 @@ export async function listFlags(projectId: string, q: z.infer<typeof FlagListQue
 export async function createFlag(projectId: string, actorId: string, body: z.infer<typeof CreateFlagSchema>) {
   await assertTargetInProject(projectId, body.targetType, body.targetId)
   return useDb().transaction(async (tx) => {
-    const [row] = await tx.insert(reviewFlags).values({ ...body, projectId, createdBy: actorId }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'review-flag', entityId: row!.id, after: row }, tx)
-    return row!
+    const row = returnedRow(await tx.insert(reviewFlags).values({ ...body, projectId, createdBy: actorId }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'review-flag', entityId: row.id, after: row }, tx)
+    return row
   })
 }
 
@@ -123,7 +124,7 @@ export async function updateFlag(projectId: string, actorId: string, flagId: str
     const row = await versionedUpdate({
       entity: 'Flag',
       update: () => tx.update(reviewFlags).set({ ...patch, ...statusPatch, version: sql`${reviewFlags.version} + 1` }).where(and(scope, eq(reviewFlags.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId, projectId, action: status === 'resolved' ? 'resolve' : status === 'open' ? 'reopen' : 'update', entity: 'review-flag', entityId: flagId, before, after: row }, tx)
     return row
@@ -135,8 +136,8 @@ export async function replyToFlag(projectId: string, actorId: string, flagId: st
   return useDb().transaction(async (tx) => {
     const [flag] = await tx.select({ id: reviewFlags.id }).from(reviewFlags).where(and(eq(reviewFlags.id, flagId), eq(reviewFlags.projectId, projectId)))
     if (!flag) notFound('Flag')
-    const [row] = await tx.insert(reviewReplies).values({ flagId, body, createdBy: actorId }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'review-reply', entityId: row!.id, after: row }, tx)
-    return row!
+    const row = returnedRow(await tx.insert(reviewReplies).values({ flagId, body, createdBy: actorId }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'review-reply', entityId: row.id, after: row }, tx)
+    return row
   })
 }

@@ -1,4 +1,5 @@
 import { and, eq, sql } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import type { z } from 'zod'
 import type { IndexTestSaveSchema, SampleInput, SampleUpdateSchema } from '#shared/schemas/investigation'
 import { useDb } from '../db/client'
@@ -13,9 +14,9 @@ export async function createSample(projectId: string, actorId: string, pointId: 
   return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
     const point = await requirePoint(projectId, pointId, tx)
     if (body.bottom > point.finalDepth) throw unprocessableError(`The sample's bottom (${body.bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
-    const [row] = await tx.insert(samples).values({ ...body, pointId: point.id }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'sample', entityId: row!.id, after: row }, tx)
-    return row!
+    const row = returnedRow(await tx.insert(samples).values({ ...body, pointId: point.id }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'sample', entityId: row.id, after: row }, tx)
+    return row
   }), `Sample ${body.identifier} already exists at this point.`)
 }
 
@@ -33,7 +34,7 @@ export async function updateSample(projectId: string, actorId: string, pointId: 
     const row = await versionedUpdate({
       entity: 'Sample',
       update: () => tx.update(samples).set({ ...patch, version: sql`${samples.version} + 1` }).where(and(scope, eq(samples.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId, projectId, action: 'update', entity: 'sample', entityId: sampleId, before, after: row }, tx)
     return row
@@ -68,10 +69,10 @@ export async function saveIndexTests(projectId: string, actorId: string, pointId
       row = await versionedUpdate({
         entity: 'Index test',
         update: () => tx.update(indexTests).set({ ...values, version: sql`${indexTests.version} + 1` }).where(and(eq(indexTests.sampleId, sampleId), eq(indexTests.version, version))).returning(),
-        current: async () => before,
+        current: () => before,
       })
     }
-    await recordAudit({ actorId, projectId, action: before ? 'update' : 'create', entity: 'index-test', entityId: row!.id, before: before ?? null, after: row }, tx)
-    return row!
+    await recordAudit({ actorId, projectId, action: before ? 'update' : 'create', entity: 'index-test', entityId: row.id, before: before ?? null, after: row }, tx)
+    return row
   })
 }

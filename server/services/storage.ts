@@ -140,7 +140,7 @@ export async function listObjects(prefix: string, continuationToken?: string): P
   const { config, client } = connection()
   try {
     const r = await client.send(new ListObjectsV2Command({ Bucket: config.bucket, Prefix: prefix, ContinuationToken: continuationToken, MaxKeys: 1000 }))
-    const objects = (r.Contents ?? []).filter(o => o.Key).map(o => ({ key: o.Key!, lastModified: o.LastModified, size: o.Size ?? 0 }))
+    const objects = (r.Contents ?? []).flatMap(o => (o.Key ? [{ key: o.Key, lastModified: o.LastModified, size: o.Size ?? 0 }] : []))
     return { objects, next: r.IsTruncated ? r.NextContinuationToken : undefined }
   }
   catch (err) {

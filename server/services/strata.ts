@@ -1,4 +1,5 @@
 import { and, asc, eq, sql } from 'drizzle-orm'
+import { returnedRow } from '../db/rows'
 import type { z } from 'zod'
 import type { StratumInput, StratumUpdateSchema } from '#shared/schemas/investigation'
 import { useDb } from '../db/client'
@@ -14,9 +15,9 @@ export async function listStrata(projectId: string) {
 /** A new stratum (a code already used in the project is 409). */
 export async function createStratum(projectId: string, actorId: string, body: StratumInput) {
   return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
-    const [row] = await tx.insert(strata).values({ ...body, projectId }).returning()
-    await recordAudit({ actorId, projectId, action: 'create', entity: 'stratum', entityId: row!.id, after: row }, tx)
-    return row!
+    const row = returnedRow(await tx.insert(strata).values({ ...body, projectId }).returning())
+    await recordAudit({ actorId, projectId, action: 'create', entity: 'stratum', entityId: row.id, after: row }, tx)
+    return row
   }), `A stratum with code ${body.code} already exists.`)
 }
 
@@ -28,7 +29,7 @@ export async function updateStratum(projectId: string, actorId: string, stratumI
     const row = await versionedUpdate({
       entity: 'Stratum',
       update: () => tx.update(strata).set({ ...patch, version: sql`${strata.version} + 1` }).where(and(scope, eq(strata.version, version))).returning(),
-      current: async () => before,
+      current: () => before,
     })
     await recordAudit({ actorId, projectId, action: 'update', entity: 'stratum', entityId: stratumId, before, after: row }, tx)
     return row

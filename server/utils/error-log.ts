@@ -18,7 +18,7 @@ interface ErrorLike {
 }
 
 function asObject(err: unknown): ErrorLike | null {
-  return err && typeof err === 'object' ? err as ErrorLike : null
+  return err && typeof err === 'object' ? err : null
 }
 
 /**
@@ -30,7 +30,7 @@ function failedQueryText(e: ErrorLike): string | null {
   const q = (e as { query?: unknown }).query
   if (typeof q === 'string' && 'params' in e) return q
   const m = typeof e.message === 'string' ? /^Failed query: ([\s\S]*?)\nparams: /.exec(e.message) : null
-  return m ? m[1]! : null
+  return m?.[1] ?? null
 }
 
 /** A PostgreSQL error from the server (pg's DatabaseError): five-character SQLSTATE plus severity. */

@@ -84,7 +84,7 @@ export function dictionaryFromAgs(file: AgsFile, options: { edition?: string, co
     const groupName = v.DICT_GRP ?? ''
     if (v.DICT_TYPE === 'GROUP') {
       const existing = groups.get(groupName)
-      groups.set(groupName, { name: groupName, description: v.DICT_DESC ?? '', parent: parentOf(v.DICT_PGRP ?? ''), headings: existing?.headings ?? new Map(), source: 'standard' })
+      groups.set(groupName, { name: groupName, description: v.DICT_DESC ?? '', parent: parentOf(v.DICT_PGRP ?? ''), headings: existing?.headings ?? new Map<string, AgsHeadingDefinition>(), source: 'standard' })
     }
     else if (v.DICT_TYPE === 'HEADING') {
       let group = groups.get(groupName)
@@ -129,7 +129,7 @@ export function withFileDefinitions(base: AgsDictionary, file: AgsFile): { dicti
     if (kind === 'GROUP') {
       const existing = editable(groupName)
       if (existing?.source === 'standard') continue // listing a standard group changes nothing
-      groups.set(groupName, { name: groupName, description: v.DICT_DESC ?? '', parent: parentOf(v.DICT_PGRP ?? ''), headings: existing?.headings ?? new Map(), source: 'file' })
+      groups.set(groupName, { name: groupName, description: v.DICT_DESC ?? '', parent: parentOf(v.DICT_PGRP ?? ''), headings: existing?.headings ?? new Map<string, AgsHeadingDefinition>(), source: 'file' })
       owned.add(groupName)
       orphanGroups.delete(groupName)
       continue

@@ -26,13 +26,14 @@ const ASCII_SPELLINGS: Record<string, string> = {
  * typographic marks get their ASCII spelling, and anything left is "?".
  */
 export function toAscii(value: string): string {
-   
+  /* eslint-disable no-control-regex -- AGS4 files are ASCII: these ranges name the ASCII block itself */
   if (/^[\x00-\x7F]*$/.test(value)) return value
   return value
     .replace(/[^\x00-\x7F]/g, c => ASCII_SPELLINGS[c] ?? c)
     .normalize('NFKD')
     .replace(/[\u0300-\u036F]/g, '')
     .replace(/[^\x00-\x7F]/g, '?')
+  /* eslint-enable no-control-regex */
 }
 
 function row(descriptor: string, fields: readonly string[]): string {

@@ -41,9 +41,10 @@ export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: n
   const gaps: Gap[] = []
   let reach = 0
   let reachIndex = -1
+  let reachTop = 0
   for (const iv of order) {
     if (iv.top < reach - DEPTH_TOLERANCE) {
-      issues.push({ index: iv.index, field: 'top', message: `Overlaps the interval ${fmt(order.find(o => o.index === reachIndex)!.top)}–${fmt(reach)} m (row ${reachIndex + 1}).` })
+      issues.push({ index: iv.index, field: 'top', message: `Overlaps the interval ${fmt(reachTop)}–${fmt(reach)} m (row ${reachIndex + 1}).` })
     }
     else if (iv.top > reach + DEPTH_TOLERANCE) {
       gaps.push({ top: reach, bottom: iv.top })
@@ -51,6 +52,7 @@ export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: n
     if (iv.bottom > reach) {
       reach = iv.bottom
       reachIndex = iv.index
+      reachTop = iv.top
     }
   }
   if (order.length && reach < finalDepth - DEPTH_TOLERANCE) gaps.push({ top: reach, bottom: finalDepth })

@@ -48,10 +48,10 @@ export interface SiteReferenceInput {
 export function loggedBoundaries(intervals: { top: number, stratumCode: string | null }[]): LoggedBoundary[] {
   const sorted = [...intervals].sort((a, b) => a.top - b.top)
   const out: LoggedBoundary[] = []
-  for (let i = 1; i < sorted.length; i++) {
-    const above = sorted[i - 1]!.stratumCode
-    const below = sorted[i]!.stratumCode
-    if (above !== below) out.push({ depth: sorted[i]!.top, above, below })
+  let previous: (typeof sorted)[number] | undefined
+  for (const iv of sorted) {
+    if (previous && previous.stratumCode !== iv.stratumCode) out.push({ depth: iv.top, above: previous.stratumCode, below: iv.stratumCode })
+    previous = iv
   }
   return out
 }

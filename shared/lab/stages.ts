@@ -157,8 +157,9 @@ export function convertStages(convention: StageConvention, stages: readonly Stag
         if (!Number.isFinite(r.minutes) || r.minutes < 0 || !Number.isFinite(r.dial)) {
           throw new GeotechError('time-reading-invalid', `Stage ${n}, reading ${j + 1}: time and gauge reading must be numbers, the time 0 min or later.`, { detail: { index: i, reading: j } })
         }
-        if (j > 0 && !(r.minutes > readings[j - 1]!.minutes)) {
-          throw new GeotechError('time-not-increasing', `Stage ${n}, reading ${j + 1}: the time ${r.minutes} min does not increase on the reading before it (${readings[j - 1]!.minutes} min).`, { detail: { index: i, reading: j } })
+        const before = readings[j - 1]
+        if (before && !(r.minutes > before.minutes)) {
+          throw new GeotechError('time-not-increasing', `Stage ${n}, reading ${j + 1}: the time ${r.minutes} min does not increase on the reading before it (${before.minutes} min).`, { detail: { index: i, reading: j } })
         }
       })
       out.readings = readings

@@ -36,11 +36,13 @@ export function parseFlagTarget(type: FlagTarget, targetId: string): { id: strin
   if (type === 'cpt-point') {
     const m = CPT_TARGET.exec(targetId)
     const depthMm = m ? Number(m[2]) : Number.NaN
-    return m && depthMm <= MAX_DEPTH_MM ? { id: m[1]!.toLowerCase(), depthMm } : null
+    const id = m?.[1]
+    return id && depthMm <= MAX_DEPTH_MM ? { id: id.toLowerCase(), depthMm } : null
   }
   if (type === 'vane-reading') {
     const m = VANE_TARGET.exec(targetId)
-    return m ? { id: m[1]!.toLowerCase() } : null
+    const id = m?.[1]
+    return id ? { id: id.toLowerCase() } : null
   }
   return UUID_ONLY.test(targetId) ? { id: targetId.toLowerCase() } : null
 }

@@ -135,7 +135,9 @@ export const SiteModelDefinitionSchema = z.object({
       ctx.addIssue({ code: 'custom', path: ['schemaVersion'], message: 'depth trends of compressibility need schemaVersion 2' })
       return
     }
-    for (const p of depthTrendProblems(s, bounds[i]!)) ctx.addIssue({ code: 'custom', path: ['strata', i, 'compressibility', 'trends', p.key], message: p.message })
+    const stratumBoundsAt = bounds[i]
+    if (!stratumBoundsAt) return
+    for (const p of depthTrendProblems(s, stratumBoundsAt)) ctx.addIssue({ code: 'custom', path: ['strata', i, 'compressibility', 'trends', p.key], message: p.message })
   })
 }).meta({ id: 'SiteModelDefinition' })
 export type SiteModelDefinition = z.infer<typeof SiteModelDefinitionSchema>

@@ -48,13 +48,13 @@ export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
   add('Samples', [['Point', 'Sample', 'Top (m)', 'Bottom (m)', 'Type', 'Recovery (%)', 'Remarks'],
     ...d.samples.map(({ sample: s }) => [pt(s.pointId), s.identifier, s.top, s.bottom, s.type, s.recovery, s.remarks])])
   add('Index tests', [['Point', 'Sample', 'Water content (%)', 'Liquid limit (%)', 'Plastic limit (%)', 'Plasticity index (%)', 'Bulk unit weight (kN/m³)'],
-    ...d.samples.filter(r => r.index).map(({ sample: s, index: i }) => [pt(s.pointId), s.identifier, i!.waterContent, i!.liquidLimit, i!.plasticLimit, i!.liquidLimit !== null && i!.plasticLimit !== null ? i!.liquidLimit - i!.plasticLimit : null, i!.bulkUnitWeight])])
+    ...d.samples.flatMap(({ sample: s, index: i }) => i ? [[pt(s.pointId), s.identifier, i.waterContent, i.liquidLimit, i.plasticLimit, i.liquidLimit !== null && i.plasticLimit !== null ? i.liquidLimit - i.plasticLimit : null, i.bulkUnitWeight]] : [])])
   add('SPT', [['Point', 'Depth (m)', 'Seating blows', 'Blows 2', 'Blows 3', 'N'], ...d.spt.map(s => [pt(s.pointId), s.depth, s.blows[0] ?? null, s.blows[1] ?? null, s.blows[2] ?? null, s.n])])
   add('Groundwater', [['Point', 'Kind', 'Observed at', 'Depth (m)', 'Pressure (kPa)', 'Remarks'], ...d.groundwater.map(g => [pt(g.pointId), g.kind, g.observedAt, g.depth, g.pressure, g.remarks])])
   add('Vane', [['Point', 'Depth (m)', 'Peak su,FV (kPa)', 'Remoulded (kPa)'], ...d.vane.map(v => [pt(v.pointId), v.depth, v.peak, v.remoulded])])
   const cptRows: (string | number | null)[][] = [['Point', 'Cone area ratio', 'Depth (m)', 'qc (kPa)', 'fs (kPa)', 'u2 (kPa)']]
   for (const c of d.cpt) {
-    for (let i = 0; i < c.count; i++) cptRows.push([pt(c.pointId), c.areaRatio, c.depth[i]!, c.qc[i]!, c.fs[i]!, c.u2[i]!])
+    for (let i = 0; i < c.count; i++) cptRows.push([pt(c.pointId), c.areaRatio, c.depth[i] ?? null, c.qc[i] ?? null, c.fs[i] ?? null, c.u2[i] ?? null])
   }
   add('CPT', cptRows)
   return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
@@ -82,7 +82,7 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
   const spt = by(d.spt)
   const gw = by(d.groundwater)
   const vane = by(d.vane)
-  const cpt = new Map(d.cpt.map(c => [c.pointId, c]))
+  const cpt = new Map(d.cpt.map(c => [c.pointId, { areaRatio: c.areaRatio, depth: c.depth, qc: c.qc, fs: c.fs, u2: c.u2 }]))
   const test = new Map(tests.map(t => [t.sampleId, t]))
   return {
     project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
@@ -116,7 +116,7 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
       }),
       spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, blows: [s.blows[0] ?? 0, s.blows[1] ?? 0, s.blows[2] ?? 0] as [number, number, number], n: s.n })),
       groundwater: (gw.get(p.id) ?? []).map(g => ({ kind: g.kind, observedAt: new Date(g.observedAt).toISOString(), depth: g.depth, pressure: g.pressure, remarks: g.remarks })),
-      cpt: cpt.has(p.id) ? { areaRatio: cpt.get(p.id)!.areaRatio, depth: cpt.get(p.id)!.depth, qc: cpt.get(p.id)!.qc, fs: cpt.get(p.id)!.fs, u2: cpt.get(p.id)!.u2 } : null,
+      cpt: cpt.get(p.id) ?? null,
       vane: (vane.get(p.id) ?? []).map(v => ({ depth: v.depth, peak: v.peak, remoulded: v.remoulded })),
     })),
   }

@@ -95,7 +95,7 @@ export async function readWorkbookGrid(buf: Uint8Array, filename: string, sheet:
   let answer: WorkerAnswer
   try {
     // The bytes are copied to the worker (at most the 25 MB upload limit).
-    answer = await workers.run({ data: buf, sheet, sheetRows }, { signal: AbortSignal.timeout(READ_TIMEOUT_MS) })
+    answer = await workers.run({ data: buf, sheet, sheetRows }, { signal: AbortSignal.timeout(READ_TIMEOUT_MS) }) as WorkerAnswer
   }
   catch (err) {
     throw refusalOf(err, filename)

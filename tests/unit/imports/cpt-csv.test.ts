@@ -84,8 +84,8 @@ describe('checkCptCsv: the one-pass CPT check of a plain CSV', () => {
 
   it('reads digits past what a double holds exactly as Number() does', () => {
     const f = expectSameAsGeneral(`${HEAD}\n0.1234567890123456789,12345678901234567,0.1,0.30000000000000004\n`)
-    expect(f.columns.depth[0]).toBe(0.1234567890123456789)
-    expect(f.columns.qc[0]).toBe(12345678901234567)
+    expect(f.columns.depth[0]).toBe(Number('0.1234567890123456789'))
+    expect(f.columns.qc[0]).toBe(Number('12345678901234567'))
     expect(f.columns.u2[0]).toBe(0.30000000000000004)
   })
 
