@@ -5,6 +5,7 @@
 import type { ProjectRole } from '#shared/auth/roles'
 import type { StressProfilePoint } from '#shared/geotech/stress'
 import type { siteModels, siteModelVersions } from '~~/server/db/schema'
+import type { DefinitionChange } from '../site-model/diff'
 import type { Serialize } from './serialize'
 
 /** A site model's database row (`draftRevision` counts the draft's saves). */
@@ -45,8 +46,7 @@ export interface ServerModelVersionReply { model: Pick<ServerSiteModelRow, 'id' 
 export type ModelVersionReply = Serialize<ServerModelVersionReply>
 
 /** One changed leaf between two definitions. */
-export type { DefinitionChange } from '../site-model/diff'
-import type { DefinitionChange } from '../site-model/diff'
+export type { DefinitionChange }
 
 /** One side of a comparison. */
 export interface ServerCompareSide { version: number, message: string, savedAt: Date, author: string | null }
