@@ -62,7 +62,7 @@ export async function saveIndexTests(projectId: string, actorId: string, pointId
     const [before] = await tx.select().from(indexTests).where(eq(indexTests.sampleId, sampleId)).for('update')
     let row
     if (!before) {
-      [row] = await tx.insert(indexTests).values({ ...values, sampleId }).returning()
+      row = returnedRow(await tx.insert(indexTests).values({ ...values, sampleId }).returning())
     }
     else {
       if (version === undefined) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This sample already has index tests: send the version you read to replace them.', data: { current: before } })
