@@ -199,8 +199,9 @@ export async function adoptPreconsolidation(projectId: string, actor: { id: stri
       }
     }
     const now = new Date()
-    const previous = returnedRow(await tx.update(preconsolidationAdoptions).set({ supersededAt: now })
-      .where(and(eq(preconsolidationAdoptions.oedometerTestId, testId), isNull(preconsolidationAdoptions.supersededAt))).returning())
+    // The adoption in force, if any, is superseded (a first adoption finds none).
+    const [previous] = await tx.update(preconsolidationAdoptions).set({ supersededAt: now })
+      .where(and(eq(preconsolidationAdoptions.oedometerTestId, testId), isNull(preconsolidationAdoptions.supersededAt))).returning()
     const row = returnedRow(await tx.insert(preconsolidationAdoptions).values({
       projectId,
       oedometerTestId: testId,
