@@ -8,7 +8,7 @@ import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttachmentView } from '../../shared/schemas/attachments'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
-import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { Client, createUser, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { testBody } from '../helpers/lab'
 import { createPoint, createProject } from '../helpers/project'
 import { startServer, type RunningServer } from '../helpers/server'
@@ -41,8 +41,7 @@ async function signInOn(server: RunningServer, email: string): Promise<Client> {
 }
 
 describe('attachments', () => {
-  let owner: Client
-  let geo: Client
+  const { owner, geologist: geo } = signedInDemo('owner', 'geologist')
   let viewer: Client
   let outsider: Client
   let viewerEmail: string
@@ -73,8 +72,6 @@ describe('attachments', () => {
   }
 
   beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    geo = await signIn(demoEmail('geologist'))
     const v = await createUser(owner, 'att-viewer')
     viewer = v.client
     viewerEmail = v.email

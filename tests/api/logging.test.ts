@@ -2,14 +2,13 @@
 // optimistic concurrency (409 with the current rows), samples, index tests, SPT,
 // groundwater, CPT, strata, and the audit trail.
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
-import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { type Client, createUser, demoEmail, signIn, signedInDemo } from '../helpers/http'
 import { createPoint, createProject } from '../helpers/project'
 
 interface Interval { id: string, version: number, top: number, bottom: number, description: string, uscs: string | null }
 
 describe('logging API', () => {
-  let owner: Client
-  let geologist: Client
+  const { owner, geologist } = signedInDemo('owner', 'geologist')
   let viewer: Client
   let projectId: string
   let pointId: string
@@ -17,8 +16,6 @@ describe('logging API', () => {
   let viewerEmail: string
 
   beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    geologist = await signIn(demoEmail('geologist'))
     const v = await createUser(owner, 'logviewer')
     viewer = v.client
     viewerEmail = v.email
