@@ -99,10 +99,30 @@ export function uniqueEmail(tag: string): string {
 
 export const TEST_PASSWORD = 'correct-horse-battery-9'
 
+async function addAccount(admin: Client, email: string, tag: string): Promise<string> {
+  const r = await admin.post<{ user: { id: string } }>('/api/users', { email, displayName: `Test ${tag}`, password: TEST_PASSWORD })
+  if (r.status !== 201) throw new Error(`creating ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
+  return r.body.user.id
+}
+
 /** Creates an account through the admin API and returns a signed-in client for it. */
 export async function createUser(admin: Client, tag: string): Promise<{ client: Client, email: string, id: string }> {
   const email = uniqueEmail(tag)
-  const r = await admin.post<{ user: { id: string } }>('/api/users', { email, displayName: `Test ${tag}`, password: TEST_PASSWORD })
-  if (r.status !== 201) throw new Error(`creating ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
-  return { client: await signIn(email, TEST_PASSWORD), email, id: r.body.user.id }
+  const id = await addAccount(admin, email, tag)
+  return { client: await signIn(email, TEST_PASSWORD), email, id }
+}
+
+/**
+ * An account of the describe block's own, created by `admin` and signed in by a
+ * `beforeAll` of the block: `client` can be kept at once, `email` and `id` are
+ * set once the tests run.
+ */
+export function useNewAccount(admin: Client, tag: string): { readonly client: Client, readonly email: string, readonly id: string } {
+  const account = { client: new Client(), email: '', id: '' }
+  beforeAll(async () => {
+    account.email = uniqueEmail(tag)
+    account.id = await addAccount(admin, account.email, tag)
+    await logIn(account.client, account.email, TEST_PASSWORD)
+  })
+  return account
 }
