@@ -315,7 +315,7 @@ function round2(v: number): number {
 }
 
 /** In ascending depths, the segment holding z: the largest i with depths[i] ≤ z, at least 0 and at most n − 2 (binary search). */
-export function bracketIndex(depths: readonly number[], z: number): number {
+export function bracketIndex(depths: ArrayLike<number>, z: number): number {
   let lo = 0
   let hi = depths.length - 1
   while (hi - lo > 1) {
