@@ -1,6 +1,6 @@
 import type { ComputedRef, InjectionKey, Ref, ShallowRef } from 'vue'
 import type * as d3 from 'd3'
-import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
 import type { StratumRow } from '#shared/types/investigation'
 import type { DenseLayer } from '~/composables/usePreconsolidationPoints'
 import type { ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'
@@ -74,4 +74,16 @@ export function filterWater(list: readonly WaterReading[], from: string, to: str
     const day = w.observedAt.slice(0, 10)
     return (!from || day >= from) && (!to || day <= to)
   })
+}
+
+/**
+ * What most tracks and panels read of the workspace: the definition shown, its
+ * bands' depth bounds, and whether the caller may edit it (a draft, not read-only).
+ */
+export function useModelDefinition() {
+  const ws = useModelWorkspace()
+  const def = computed(() => ws.definition.value)
+  const bounds = computed(() => stratumBounds(def.value))
+  const editable = computed(() => !ws.readOnly.value && !!ws.editor.value)
+  return { ws, def, bounds, editable }
 }

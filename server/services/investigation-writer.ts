@@ -1,4 +1,5 @@
 import type { InvestigationRecord } from '#shared/investigation/types'
+import { pointHeader } from '#shared/investigation/point-header'
 import { float8ArrayParam } from '../db/binary'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
 import type { Tx } from '../db/client'
@@ -30,17 +31,7 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
   if (data.points.length === 0) return { strataIds, pointIds, sampleIds }
   const pointRows = await tx.insert(investigationPoints).values(data.points.map(p => ({
     projectId,
-    identifier: p.identifier,
-    kind: p.kind,
-    easting: p.easting,
-    northing: p.northing,
-    groundElevation: p.groundElevation,
-    finalDepth: p.finalDepth,
-    startedOn: p.startedOn,
-    endedOn: p.endedOn,
-    method: p.method,
-    loggedBy: p.loggedBy,
-    remarks: p.remarks,
+    ...pointHeader(p),
   }))).returning({ id: investigationPoints.id, identifier: investigationPoints.identifier })
   for (const r of pointRows) pointIds.set(r.identifier, r.id)
 

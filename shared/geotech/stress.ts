@@ -314,17 +314,21 @@ function round2(v: number): number {
   return Math.round(v * 100) / 100
 }
 
-/** Index of the segment holding z: the largest i with depth[i] ≤ z, at most n − 2 (binary search). */
-export function segmentIndex(model: StressModel, z: number): number {
-  const d = model.depth
+/** In ascending depths, the segment holding z: the largest i with depths[i] ≤ z, at least 0 and at most n − 2 (binary search). */
+export function bracketIndex(depths: ArrayLike<number>, z: number): number {
   let lo = 0
-  let hi = d.length - 1
+  let hi = depths.length - 1
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1
-    if (d[mid]! <= z) lo = mid
+    if (depths[mid]! <= z) lo = mid
     else hi = mid
   }
   return lo
+}
+
+/** Index of the model's segment holding z (see `bracketIndex`). */
+export function segmentIndex(model: StressModel, z: number): number {
+  return bracketIndex(model.depth, z)
 }
 
 function checkDepth(model: StressModel, z: number): number {

@@ -6,6 +6,7 @@
 import { inv, lup, lusolve, type LUDecomposition } from 'mathjs'
 import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { GeotechError } from './errors'
+import { bracketIndex } from './stress'
 import { evaluateTrend, MODEL_NAMES, type CrustBelowModel, type TrendBandPoint, type TrendCandidate, type TrendFit, type TrendModel, type TrendOptions, type TrendPoint } from './trend-model'
 
 export * from './trend-model'
@@ -315,13 +316,9 @@ function interpolator(table: Array<[number, number]>): (depth: number) => number
     if (zs.length === 0) return Number.NaN
     if (depth <= zs[0]!) return ss[0]!
     if (depth >= zs[zs.length - 1]!) return ss[ss.length - 1]!
-    let lo = 0
-    let hi = zs.length - 1
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1
-      if (zs[mid]! <= depth) lo = mid
-      else hi = mid
-    }
+    // Strictly inside the ends, so zs[lo] ≤ depth < zs[lo + 1].
+    const lo = bracketIndex(zs, depth)
+    const hi = lo + 1
     const t = (depth - zs[lo]!) / (zs[hi]! - zs[lo]!)
     return ss[lo]! + t * (ss[hi]! - ss[lo]!)
   }

@@ -8,7 +8,7 @@ import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttachmentView } from '../../shared/schemas/attachments'
 import { attach, fetchBytes, TINY_PDF, testPhoto } from '../helpers/attach'
-import { Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { Client, demoEmail, demoProjectId, signedInDemo, useNewAccount } from '../helpers/http'
 import { testBody } from '../helpers/lab'
 import { createPoint, createProject } from '../helpers/project'
 import { startServer, type RunningServer } from '../helpers/server'
@@ -41,11 +41,10 @@ async function signInOn(server: RunningServer, email: string): Promise<Client> {
 }
 
 describe('attachments', () => {
-  let owner: Client
-  let geo: Client
-  let viewer: Client
-  let outsider: Client
-  let viewerEmail: string
+  const { owner, geologist: geo } = signedInDemo('owner', 'geologist')
+  const viewerAccount = useNewAccount(owner, 'att-viewer')
+  const viewer = viewerAccount.client
+  const outsider = useNewAccount(owner, 'att-outsider').client
   let otherProjectId: string
   let otherPointId: string
   let otherSampleId: string
@@ -53,7 +52,7 @@ describe('attachments', () => {
 
   /** A project of one test's own: the geologist and the viewer as members, one borehole BH-A1. */
   async function site(): Promise<{ projectId: string, base: string, pointId: string }> {
-    const { id: projectId } = await createProject(owner, 'ATT', 'Attachment test site', ['geologist', { email: viewerEmail, role: 'viewer' }])
+    const { id: projectId } = await createProject(owner, 'ATT', 'Attachment test site', ['geologist', { email: viewerAccount.email, role: 'viewer' }])
     const pointId = await createPoint(geo, projectId, { identifier: 'BH-A1', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })
     return { projectId, base: `/api/projects/${projectId}/attachments`, pointId }
   }
@@ -73,13 +72,6 @@ describe('attachments', () => {
   }
 
   beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    geo = await signIn(demoEmail('geologist'))
-    const v = await createUser(owner, 'att-viewer')
-    viewer = v.client
-    viewerEmail = v.email
-    outsider = (await createUser(owner, 'att-outsider')).client
-
     const other = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `ATO-${Date.now().toString(36)}`, name: 'Another site' })
     otherProjectId = other.body.project.id
     const op = await owner.post<{ point: { id: string } }>(`/api/projects/${otherProjectId}/points`, { identifier: 'BH-Z9', kind: 'borehole', easting: 1, northing: 2, groundElevation: 2.5, finalDepth: 25 })

@@ -3,7 +3,7 @@
 import * as XLSX from 'xlsx-republish'
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
-import { type Client, demoEmail, signIn } from '../helpers/http'
+import { demoEmail, signIn, signedInDemo } from '../helpers/http'
 import { createPoint, createProject } from '../helpers/project'
 import { upload, uploadChunked } from '../helpers/upload'
 
@@ -11,16 +11,9 @@ interface Preview { importId: string, format: string, preview: { headers: string
 interface Report { message: string, data: { errors: { row: number, column: string, message: string }[] } }
 
 describe('imports', () => {
-  let geo: Client
+  const { owner, geologist: geo } = signedInDemo('owner', 'geologist')
   let projectId: string
   let base: string
-
-  let owner: Client
-
-  beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    geo = await signIn(demoEmail('geologist'))
-  })
 
   // Every test imports into a project of its own: the geologist as a member, the estuarine clay stratum, no points.
   beforeEach(async () => {

@@ -8,7 +8,7 @@ import { degreeOfConsolidation } from '../../shared/geotech/consolidation'
 import { createStressEvaluator } from '../../shared/geotech/stress'
 import { cptPointId } from '../../shared/review/flags'
 import { toStressInput } from '../../shared/site-model/convert'
-import { type Client, createUser, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { type Client, createUser, demoEmail, demoProjectId, signIn, signedInDemo } from '../helpers/http'
 import { asDial, bilinearCurve, demoDefinitionFromRecord, DOUBLING, ESTUARINE, testBody } from '../helpers/lab'
 import { createPoint, createProject } from '../helpers/project'
 
@@ -45,20 +45,15 @@ interface SigmaPoint { id: string, source: string, method: string, pointId: stri
 const MINUTES_PER_YEAR = 365.25 * 24 * 60
 
 describe('oedometer tests and σ\'p adoption', () => {
-  let owner: Client
-  let engineer: Client
-  let geologist: Client
+  const { owner, engineer, geologist } = signedInDemo('owner', 'engineer', 'geologist')
   let projectId: string
   let pointId: string
   let sampleId: string
   let base: string
 
   beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
     projectId = (await createProject(owner, 'LAB', 'Laboratory test site', ['engineer', 'geologist'])).id
     base = `/api/projects/${projectId}/tests/oedometer`
-    engineer = await signIn(demoEmail('engineer'))
-    geologist = await signIn(demoEmail('geologist'))
     // One clay stratum, γ = γsat = 18 kN/m³, logged 0–20 m, standing water at 1.0 m.
     const st = await geologist.post<{ stratum: { id: string } }>(`/api/projects/${projectId}/strata`, { code: 'CLAY', name: 'Soft clay', colour: 'c', pattern: 'p', unitWeight: 18, unitWeightSaturated: 18 })
     expect(st.status).toBe(201)

@@ -1,32 +1,23 @@
 // Logging API over real HTTP: points, the whole-log save with its interval rules,
 // optimistic concurrency (409 with the current rows), samples, index tests, SPT,
 // groundwater, CPT, strata, and the audit trail.
-import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
-import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { beforeEach, describe, expect, it } from 'vitest'
+import { createUser, demoEmail, signIn, signedInDemo, useNewAccount } from '../helpers/http'
 import { createPoint, createProject } from '../helpers/project'
 
 interface Interval { id: string, version: number, top: number, bottom: number, description: string, uscs: string | null }
 
 describe('logging API', () => {
-  let owner: Client
-  let geologist: Client
-  let viewer: Client
+  const { owner, geologist } = signedInDemo('owner', 'geologist')
+  const viewerAccount = useNewAccount(owner, 'logviewer')
+  const viewer = viewerAccount.client
   let projectId: string
   let pointId: string
   let base: string
-  let viewerEmail: string
-
-  beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    geologist = await signIn(demoEmail('geologist'))
-    const v = await createUser(owner, 'logviewer')
-    viewer = v.client
-    viewerEmail = v.email
-  })
 
   // Every test works in a project of its own, with the geologist and a viewer as members and borehole BH-01 (10 m, no log yet).
   beforeEach(async () => {
-    projectId = (await createProject(owner, 'LOG', 'Logging test site', ['geologist', { email: viewerEmail, role: 'viewer' }])).id
+    projectId = (await createProject(owner, 'LOG', 'Logging test site', ['geologist', { email: viewerAccount.email, role: 'viewer' }])).id
     pointId = await createPoint(geologist, projectId, {
       identifier: 'BH-01', easting: 40, northing: 25, groundElevation: 2.6, finalDepth: 10, startedOn: '2025-03-03', endedOn: '2025-03-04', method: 'Cable percussion', loggedBy: 'A. Ferreira',
     })

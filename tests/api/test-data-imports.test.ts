@@ -1,7 +1,7 @@
 // Imports of test data over real HTTP: an oedometer test's stages from a file (one test, replaced in
 // one transaction, versioned and audited) and field vane readings (rows added, points checked).
-import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
-import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { beforeEach, describe, expect, it } from 'vitest'
+import { signedInDemo, useNewAccount } from '../helpers/http'
 import { testBody } from '../helpers/lab'
 import { createPoint, createProject } from '../helpers/project'
 import { upload } from '../helpers/upload'
@@ -25,28 +25,17 @@ const STAGES_CSV = [
 const STAGES_E = [2.069, 2.038, 1.976, 1.9915, 1.9698, 1.79, 1.48]
 
 describe('test-data imports', () => {
-  let owner: Client
-  let engineer: Client
-  let viewer: Client
-  let reviewer: Client
+  const { owner, engineer, reviewer } = signedInDemo('owner', 'engineer', 'reviewer')
+  const viewerAccount = useNewAccount(owner, 'tdi-viewer')
+  const viewer = viewerAccount.client
   let projectId: string
   let base: string
   let pointId: string
   let sampleId: string
-  let viewerEmail: string
-
-  beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    const v = await createUser(owner, 'tdi-viewer')
-    viewer = v.client
-    viewerEmail = v.email
-    engineer = await signIn(demoEmail('engineer'))
-    reviewer = await signIn(demoEmail('reviewer'))
-  })
 
   // A project of each test's own: the engineer, the reviewer and a viewer as members, borehole BH-T1 with tube U1.
   beforeEach(async () => {
-    const project = await createProject(owner, 'TDI', 'Test data import site', ['engineer', 'reviewer', { email: viewerEmail, role: 'viewer' }])
+    const project = await createProject(owner, 'TDI', 'Test data import site', ['engineer', 'reviewer', { email: viewerAccount.email, role: 'viewer' }])
     projectId = project.id
     base = project.base
     pointId = await createPoint(engineer, projectId, { identifier: 'BH-T1' })

@@ -2,8 +2,8 @@
 // list showing scope and expiry. Each test uses its own new account.
 import { describe, expect, it } from 'vitest'
 import { formatDate } from '../../app/utils/dates'
-import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { baseUrl, signIn, TEST_PASSWORD } from '../helpers/http'
+import { screenshot, signInAsNewAccount, useBrowser } from './helpers'
 
 /** yyyy-mm-dd, n days from today in the test machine's zone (the browser's too). */
 function dateAhead(days: number): string {
@@ -16,9 +16,7 @@ describe('API tokens on the account page', () => {
   const browser = useBrowser()
 
   it('creates a read-only token expiring on a chosen date and a default one, and lists scope and expiry', async () => {
-    const admin = await signIn(demoEmail('owner'))
-    const { email } = await createUser(admin, 'tokens-ui')
-    const page = await signInAs(browser.context, email, TEST_PASSWORD)
+    const { page, email } = await signInAsNewAccount(browser.context, 'tokens-ui')
     await page.goto(`${baseUrl()}/account`)
 
     await page.getByLabel('Token name').fill('site dashboard')
@@ -54,9 +52,7 @@ describe('API tokens on the account page', () => {
   })
 
   it('says why a token is refused before sending it: more than a year', async () => {
-    const admin = await signIn(demoEmail('owner'))
-    const { email } = await createUser(admin, 'tokens-ui-bad')
-    const page = await signInAs(browser.context, email, TEST_PASSWORD)
+    const { page } = await signInAsNewAccount(browser.context, 'tokens-ui-bad')
     await page.goto(`${baseUrl()}/account`)
     await page.getByLabel('Token name').fill('too long')
     await page.getByLabel('Days until the token expires').fill('400')

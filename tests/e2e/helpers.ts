@@ -6,7 +6,7 @@ import { join, resolve } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, expect } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
-import { baseUrl } from '../helpers/http'
+import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
 
 export const SCREENSHOTS = resolve(import.meta.dirname, '../../test-results/screenshots')
 
@@ -75,17 +75,23 @@ export function useBrowser(): { readonly context: BrowserContext } {
   }
 }
 
-/** Signs in through the real form; resolves once the project list shows. */
-export async function signInAs(context: BrowserContext, email: string, password = DEMO_PASSWORD): Promise<Page> {
+/** Signs in through the real form (of the test server unless `base` names another); resolves once the project list shows. */
+export async function signInAs(context: BrowserContext, email: string, password = DEMO_PASSWORD, base = baseUrl()): Promise<Page> {
   await context.clearCookies()
   const page = await context.newPage()
-  await page.goto(`${baseUrl()}/login`)
+  await page.goto(`${base}/login`)
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   // The projects page is up (its list is empty, so hidden, for someone in no project yet).
   await page.getByTestId('project-list').waitFor({ state: 'attached' })
   return page
+}
+
+/** A new account of no project, made by the demo owner, signed in through the form: its page and e-mail. */
+export async function signInAsNewAccount(context: BrowserContext, tag: string): Promise<{ page: Page, email: string }> {
+  const { email } = await createUser(await signIn(demoEmail('owner')), tag)
+  return { page: await signInAs(context, email, TEST_PASSWORD), email }
 }
 
 export async function screenshot(page: Page, name: string): Promise<string> {

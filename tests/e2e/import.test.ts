@@ -1,21 +1,18 @@
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { demoImportErrors } from '../../shared/demo/import-examples'
-import { createDemoCopy } from '../helpers/demo-project'
+import { useDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 describe('import page in Chromium', () => {
   const browser = useBrowser()
-  let copyId = ''
-  beforeAll(async () => {
-    // The upload is stored with the project: the geologist's test works in a copy of the demo site of this file's own.
-    copyId = await createDemoCopy('E2E-IMP')
-  })
+  // The upload is stored with the project: the geologist's test works in a copy of the demo site of this file's own.
+  const copy = useDemoCopy('E2E-IMP')
 
   it('the geologist uploads the example file, maps it, and sees each deliberate error with its row', async () => {
-    const projectId = copyId
+    const projectId = copy.id
     const page = await signInAs(browser.context, demoEmail('geologist'))
     await page.goto(`${baseUrl()}/projects/${projectId}/import`)
     const file = resolve(import.meta.dirname, '../../docs/examples/saltmarsh-lane-intervals-with-errors.csv')

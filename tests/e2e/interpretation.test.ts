@@ -1,6 +1,6 @@
 import { join } from 'node:path'
-import { beforeAll, describe, expect, it } from 'vitest'
-import { createDemoCopy } from '../helpers/demo-project'
+import { describe, expect, it } from 'vitest'
+import { useDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
 import { createPoint, createProject } from '../helpers/project'
 import { asDial, bilinearCurve, ESTUARINE, testBody } from '../helpers/lab'
@@ -14,15 +14,12 @@ interface ListedTest { id: string, label: string, point: { identifier: string },
 
 describe('oedometer interpretation in Chromium', () => {
   const browser = useBrowser()
-  let copyId = ''
-  beforeAll(async () => {
-    // Adopting writes: the first test works in a copy of the demo site of this file's own.
-    copyId = await createDemoCopy('E2E-OED')
-  })
+  // Adopting writes: the first test works in a copy of the demo site of this file's own.
+  const copy = useDemoCopy('E2E-OED')
 
   it('the engineer opens a demo test, sees the four constructions, adopts with a reason, and finds the point in the σ\'p data list', async () => {
     const api = await signIn(demoEmail('engineer'))
-    const projectId = copyId
+    const projectId = copy.id
     const list = await api.get<{ tests: ListedTest[] }>(`/api/projects/${projectId}/tests/oedometer`)
     expect(list.body.tests).toHaveLength(14)
     // A test the demo engineer already adopted, so the two disturbed ones stay open for the reviewer.

@@ -1,7 +1,7 @@
-import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
-import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
+import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
 import { createProject } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -32,8 +32,7 @@ function intervalRects(page: Page) {
 
 describe('the field geologist\'s workspace in Chromium', () => {
   const browser = useBrowser()
-  let admin: Client
-  let geologist: Client
+  const { owner: admin, geologist } = signedInDemo('owner', 'geologist')
   let projectId = ''
   let boreholeId = ''
   let cptId = ''
@@ -55,11 +54,6 @@ describe('the field geologist\'s workspace in Chromium', () => {
     expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200)
     expect((await log(boreholeId)).length).toBe(4)
   }
-
-  beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-    geologist = await signIn(demoEmail('geologist'))
-  })
 
   // Every test works in a project of its own: three strata, a borehole (with a tube, its index test and a
   // standing level), a CPT with a dense sounding and a test pit; BH-T1's log is empty until a test seeds it.

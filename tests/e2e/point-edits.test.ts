@@ -1,9 +1,9 @@
 // The point page's edits in Chromium: the header's details, a sample's depths and
 // a vane reading, each versioned (a stale save shows both sides) and checked at
 // the field; a viewer sees none of the edit controls.
-import { beforeAll, beforeEach, describe, expect, it } from 'vitest'
+import { beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { baseUrl, type Client, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
+import { baseUrl, demoEmail, signedInDemo, TEST_PASSWORD, useNewAccount } from '../helpers/http'
 import { createProject } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -12,11 +12,10 @@ interface Detail { point: Point, samples: { identifier: string, top: number, bot
 
 describe('editing a point, its samples and its vane readings in Chromium', () => {
   const browser = useBrowser()
-  let admin: Client
-  let geologist: Client
+  const { owner: admin, geologist } = signedInDemo('owner', 'geologist')
   let projectId = ''
   let pointId = ''
-  let viewerEmail = ''
+  const viewer = useNewAccount(admin, 'editviewer')
 
   const api = () => `/api/projects/${projectId}/points/${pointId}`
   const detail = async () => (await geologist.get<Detail>(api())).body
@@ -26,15 +25,9 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   }
   const fact = (page: Page, label: string) => page.getByTestId('point-facts').locator('div').filter({ has: page.locator('dt', { hasText: label }) }).locator('dd')
 
-  beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-    geologist = await signIn(demoEmail('geologist'))
-    viewerEmail = (await createUser(admin, 'editviewer')).email
-  })
-
   // Every test edits a project and a point of its own: WS-E1 with sample U-1 (4.00–4.45 m), an SPT at 9 m and a vane reading at 5 m.
   beforeEach(async () => {
-    projectId = (await createProject(admin, 'TRN-EDIT', 'Saltmarsh Lane edits trial', ['geologist', { email: viewerEmail, role: 'viewer' }])).id
+    projectId = (await createProject(admin, 'TRN-EDIT', 'Saltmarsh Lane edits trial', ['geologist', { email: viewer.email, role: 'viewer' }])).id
     const pt = await geologist.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, {
       identifier: 'WS-E1', kind: 'borehole', easting: 22, northing: 31, groundElevation: 3.1, finalDepth: 15, startedOn: '2026-03-09', endedOn: '2026-03-09', method: 'Window sampler', loggedBy: 'A. Ferreira',
     })
@@ -188,7 +181,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('a viewer sees the point, its samples and vane readings without any edit controls', async () => {
-    const page = await signInAs(browser.context, viewerEmail, TEST_PASSWORD)
+    const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
     await openPoint(page)
     expect(await fact(page, 'Method').textContent()).toBe('Window sampler')
     expect(await page.getByTestId('point-edit').count()).toBe(0)

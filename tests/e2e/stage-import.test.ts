@@ -1,7 +1,7 @@
 import { resolve } from 'node:path'
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { DEMO_STAGES_TEST, demoStagesExample } from '../../shared/demo/import-examples'
-import { createDemoCopy } from '../helpers/demo-project'
+import { useDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -11,15 +11,12 @@ interface Adoption { method: string, value: number, reason: string }
 
 describe('oedometer stage upload in Chromium', () => {
   const browser = useBrowser()
-  let projectId = ''
-  beforeAll(async () => {
-    // Replacing stages writes: a copy of the demo site of this file's own.
-    projectId = await createDemoCopy('E2E-STG')
-  })
+  // Replacing stages writes: a copy of the demo site of this file's own.
+  const copy = useDemoCopy('E2E-STG')
 
   it('the engineer replaces a demo test\'s stages from the example sheet, checks the preview, commits, and the test page draws the new curve', async () => {
     const api = await signIn(demoEmail('engineer'))
-    const labBase = `/api/projects/${projectId}/tests/oedometer`
+    const labBase = `/api/projects/${copy.id}/tests/oedometer`
     const example = demoStagesExample()
     const list = await api.get<{ tests: { id: string, point: { identifier: string }, sample: { identifier: string } }[] }>(labBase)
     const listed = list.body.tests.find(t => t.point.identifier === DEMO_STAGES_TEST.point && t.sample.identifier === example.sample)!
@@ -30,7 +27,7 @@ describe('oedometer stage upload in Chromium', () => {
 
     const page = await signInAs(browser.context, demoEmail('engineer'))
     try {
-      await page.goto(`${baseUrl()}/projects/${projectId}/tests/oedometer/${listed.id}`)
+      await page.goto(`${baseUrl()}/projects/${copy.id}/tests/oedometer/${listed.id}`)
       await page.getByTestId('test-heading').waitFor()
       await page.getByTestId('upload-stages').click()
       await page.getByTestId('import-file').waitFor({ state: 'attached' })

@@ -3,7 +3,7 @@ import { DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { ROLE_LABELS } from '../../shared/auth/roles'
 import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
 import { createProject } from '../helpers/project'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, signInAs, signInAsNewAccount, useBrowser } from './helpers'
 
 describe('the signed-in workspace in Chromium', () => {
   const browser = useBrowser()
@@ -75,8 +75,7 @@ describe('the signed-in workspace in Chromium', () => {
   it('someone outside a project finds no trace of it on any of its pages', async () => {
     const admin = await signIn(demoEmail('owner'))
     const projectId = await demoProjectId(admin)
-    const outsider = await createUser(admin, 'outsider')
-    const page = await signInAs(browser.context, outsider.email, TEST_PASSWORD)
+    const { page } = await signInAsNewAccount(browser.context, 'outsider')
     for (const path of ['', '/plan', '/strata', '/tests', '/preconsolidation', '/review', '/models']) {
       await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
       const box = page.getByTestId('project-not-found')

@@ -4,6 +4,7 @@
 // project (strata, points, logs, samples, in-situ rows, CPT, groundwater, oedometer stages),
 // then each oedometer test's label and time readings and the engineer's σ'p adoptions
 // copied over, and the demo people added with their demo roles.
+import { beforeAll } from 'vitest'
 import { DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { type Client, demoEmail, demoProjectId, signIn } from './http'
 import { createProject, must } from './project'
@@ -56,4 +57,13 @@ export async function createDemoCopy(tag: string): Promise<string> {
     if (adoption) await must(`adopting σ'p on ${test.label}`, engineer.post(`${base}/tests/oedometer/${copyId}/adoptions`, { method: adoption.method, value: adoption.value, reason: adoption.reason }), 201)
   }
   return projectId
+}
+
+/** A demo copy of the describe block's own, made by its `beforeAll`: `copy.id` once the tests run. */
+export function useDemoCopy(tag: string): { readonly id: string } {
+  const copy = { id: '' }
+  beforeAll(async () => {
+    copy.id = await createDemoCopy(tag)
+  })
+  return copy
 }

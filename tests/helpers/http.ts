@@ -1,6 +1,6 @@
 // HTTP helpers for API and browser tests: a tiny client with a cookie jar that
 // sends the Origin header like a browser does.
-import { inject } from 'vitest'
+import { beforeAll, inject } from 'vitest'
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import type { ProjectRole } from '../../shared/auth/roles'
 
@@ -60,12 +60,27 @@ export function demoEmail(role: ProjectRole): string {
   return p.email
 }
 
-/** A client signed in as `email` (demo password unless given). */
-export async function signIn(email: string, password = DEMO_PASSWORD): Promise<Client> {
-  const c = new Client()
+async function logIn(c: Client, email: string, password: string): Promise<Client> {
   const r = await c.post('/api/auth/login', { email, password })
   if (r.status !== 200) throw new Error(`sign-in as ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
   return c
+}
+
+/** A client signed in as `email` (demo password unless given). */
+export async function signIn(email: string, password = DEMO_PASSWORD): Promise<Client> {
+  return logIn(new Client(), email, password)
+}
+
+/**
+ * The demo people of the given roles, one client each, signed in by a `beforeAll`
+ * of the describe block this is called in (so before the hooks declared after it).
+ */
+export function signedInDemo<R extends ProjectRole>(...roles: R[]): Record<R, Client> {
+  const clients = Object.fromEntries(roles.map(role => [role, new Client()])) as Record<R, Client>
+  beforeAll(async () => {
+    for (const role of roles) await logIn(clients[role], demoEmail(role), DEMO_PASSWORD)
+  })
+  return clients
 }
 
 export async function demoProjectId(c: Client): Promise<string> {
@@ -84,10 +99,30 @@ export function uniqueEmail(tag: string): string {
 
 export const TEST_PASSWORD = 'correct-horse-battery-9'
 
+async function addAccount(admin: Client, email: string, tag: string): Promise<string> {
+  const r = await admin.post<{ user: { id: string } }>('/api/users', { email, displayName: `Test ${tag}`, password: TEST_PASSWORD })
+  if (r.status !== 201) throw new Error(`creating ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
+  return r.body.user.id
+}
+
 /** Creates an account through the admin API and returns a signed-in client for it. */
 export async function createUser(admin: Client, tag: string): Promise<{ client: Client, email: string, id: string }> {
   const email = uniqueEmail(tag)
-  const r = await admin.post<{ user: { id: string } }>('/api/users', { email, displayName: `Test ${tag}`, password: TEST_PASSWORD })
-  if (r.status !== 201) throw new Error(`creating ${email} failed: ${r.status} ${JSON.stringify(r.body)}`)
-  return { client: await signIn(email, TEST_PASSWORD), email, id: r.body.user.id }
+  const id = await addAccount(admin, email, tag)
+  return { client: await signIn(email, TEST_PASSWORD), email, id }
+}
+
+/**
+ * An account of the describe block's own, created by `admin` and signed in by a
+ * `beforeAll` of the block: `client` can be kept at once, `email` and `id` are
+ * set once the tests run.
+ */
+export function useNewAccount(admin: Client, tag: string): { readonly client: Client, readonly email: string, readonly id: string } {
+  const account = { client: new Client(), email: '', id: '' }
+  beforeAll(async () => {
+    account.email = uniqueEmail(tag)
+    account.id = await addAccount(admin, account.email, tag)
+    await logIn(account.client, account.email, TEST_PASSWORD)
+  })
+  return account
 }

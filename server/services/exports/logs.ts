@@ -4,6 +4,7 @@ import { RESULT_CAUTION } from '#shared/caution'
 import { useDb } from '~~/server/db/client'
 import { anyOf } from '~~/server/db/any'
 import type { InvestigationRecord } from '#shared/investigation/types'
+import { pointHeader } from '#shared/investigation/point-header'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '~~/server/db/schema'
 import type { ProjectRow } from '~~/server/utils/guards'
 
@@ -88,17 +89,7 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
     project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
     strata: d.strata.map(s => ({ code: s.code, name: s.name, description: s.description, colour: s.colour, pattern: s.pattern, unitWeight: s.unitWeight, unitWeightSaturated: s.unitWeightSaturated, displayOrder: s.displayOrder })),
     points: d.points.map(p => ({
-      identifier: p.identifier,
-      kind: p.kind,
-      easting: p.easting,
-      northing: p.northing,
-      groundElevation: p.groundElevation,
-      finalDepth: p.finalDepth,
-      startedOn: p.startedOn,
-      endedOn: p.endedOn,
-      method: p.method,
-      loggedBy: p.loggedBy,
-      remarks: p.remarks,
+      ...pointHeader(p),
       intervals: (intervals.get(p.id) ?? []).map(i => ({ top: i.top, bottom: i.bottom, description: i.description, uscs: i.uscs, stratumCode: i.stratumId ? code.get(i.stratumId) ?? null : null, moisture: i.moisture, consistency: i.consistency })),
       samples: (samplesBy.get(p.id) ?? []).map(({ sample: s, index: i }) => {
         const t = test.get(s.id)

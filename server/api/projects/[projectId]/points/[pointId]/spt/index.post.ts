@@ -1,11 +1,3 @@
-import { PointParamsSchema, SptInputSchema } from '#shared/schemas/investigation'
-import { createPointRow } from '~~/server/services/point-rows'
+import { SptInputSchema } from '#shared/schemas/investigation'
 
-export default defineEventHandler(async (event) => {
-  const { user, project } = await requireProjectRole(event, 'logs.write')
-  const { pointId } = validateParams(event, PointParamsSchema)
-  const body = await validateBody(event, SptInputSchema)
-  const row = await createPointRow('spt', { actorId: user.id, projectId: project.id, pointId }, { ...body, n: body.blows[1] + body.blows[2] })
-  setResponseStatus(event, 201)
-  return { row }
-})
+export default pointRowCreateHandler('spt', 'logs.write', SptInputSchema, body => ({ ...body, n: body.blows[1] + body.blows[2] }))

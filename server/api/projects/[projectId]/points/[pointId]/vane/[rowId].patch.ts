@@ -1,12 +1,3 @@
-import { PointRowParamsSchema, VaneUpdateSchema } from '#shared/schemas/investigation'
-import { updatePointRow } from '~~/server/services/point-rows'
+import { VaneUpdateSchema } from '#shared/schemas/investigation'
 
-const Body = VaneUpdateSchema
-
-export default defineEventHandler(async (event) => {
-  const { user, project } = await requireProjectRole(event, 'tests.write')
-  const { pointId, rowId } = validateParams(event, PointRowParamsSchema)
-  const { version, ...values } = await validateBody(event, Body)
-  const row = await updatePointRow('vane', { actorId: user.id, projectId: project.id, pointId }, rowId, version, values)
-  return { row }
-})
+export default pointRowUpdateHandler('vane', 'tests.write', VaneUpdateSchema)
