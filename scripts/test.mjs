@@ -35,6 +35,8 @@ function ensureChromium() {
 
 async function main() {
   const only = process.argv.slice(2)
+  // Nuxt's generated types and lint config follow the tree (new server utils, pages), as after `npm ci`.
+  if (!step('prepare', 'npx', ['nuxt', 'prepare'])) return 1
   if (!step('lint', 'npx', ['eslint', '.'])) return 1
   if (!step('typecheck', 'npx', ['nuxt', 'typecheck'])) return 1
   // tests/ is outside the app's tsconfigs: its own project, on the types nuxt typecheck just generated.
