@@ -1,4 +1,4 @@
-import { index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { timestamps } from './columns'
 import { projects } from './projects'
@@ -29,9 +29,58 @@ export const siteModelVersions = pgTable('site_model_versions', {
   definition: jsonb().$type<SiteModelDefinition>().notNull(),
   message: text().notNull(),
   status: modelVersionStatus().notNull().default('saved'),
+  /** The version this one was saved from (a resubmission after a return names the returned version). */
+  savedFrom: integer(),
   createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  submittedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  submittedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  decidedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  decidedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  decisionComment: text(),
+  /** Approval only: SHA-256 of the definition's canonical JSON (safe-stable-stringify). */
+  approvalHash: text(),
+  /** Approval only: the reason given for approving despite open exclude/questionable flags. */
+  approvalOverride: text(),
+  /** Approval only: the open flags on points the version's fits use, as they stood at approval. */
+  approvalFlags: jsonb().$type<ApprovalFlagRecord[]>(),
+  /** Set when a newer version of the same model is approved; the approval itself stays. */
+  supersededAt: timestamp({ withTimezone: true, mode: 'date' }),
+  supersededBy: integer(),
 }, t => [
   uniqueIndex('site_model_versions_model_version_idx').on(t.modelId, t.version),
   index('site_model_versions_model_idx').on(t.modelId),
+  index('site_model_versions_status_idx').on(t.modelId, t.status),
 ])
+
+/** A flag that stood open on a version's fitted points when it was approved. */
+export interface ApprovalFlagRecord {
+  flagId: string
+  targetType: string
+  targetId: string
+  verdict: string
+  comment: string
+}
+
+/** The reviewers a version was submitted to. */
+export const siteModelVersionReviewers = pgTable('site_model_version_reviewers', {
+  versionId: uuid().notNull().references(() => siteModelVersions.id, { onDelete: 'cascade' }),
+  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, t => [
+  primaryKey({ name: 'site_model_version_reviewers_pk', columns: [t.versionId, t.userId] }),
+  index('site_model_version_reviewers_user_idx').on(t.userId),
+])
+
+export const VERSION_EVENT_KINDS = ['submitted', 'returned', 'approved', 'superseded'] as const
+export const versionEventKind = pgEnum('version_event_kind', VERSION_EVENT_KINDS)
+
+/** A version's review history, shown as its timeline: who did what, when, with which comment. */
+export const siteModelVersionEvents = pgTable('site_model_version_events', {
+  id: uuid().primaryKey().defaultRandom(),
+  versionId: uuid().notNull().references(() => siteModelVersions.id, { onDelete: 'cascade' }),
+  kind: versionEventKind().notNull(),
+  actorId: uuid().references(() => users.id, { onDelete: 'set null' }),
+  comment: text().notNull().default(''),
+  at: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, t => [index('site_model_version_events_version_idx').on(t.versionId, t.at)])

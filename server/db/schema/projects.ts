@@ -1,6 +1,8 @@
+import type { AnyPgColumn } from 'drizzle-orm/pg-core'
 import { index, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { PROJECT_ROLES, UNIT_SYSTEMS } from '#shared/auth/roles'
 import { timestamps } from './columns'
+import { siteModels } from './models'
 import { users } from './users'
 
 export const projectRole = pgEnum('project_role', PROJECT_ROLES)
@@ -13,6 +15,8 @@ export const projects = pgTable('projects', {
   client: text().notNull().default(''),
   unitSystem: unitSystem().notNull().default('SI'),
   description: text().notNull().default(''),
+  /** The project's design model: its latest approved version is the model in force. */
+  designModelId: uuid().references((): AnyPgColumn => siteModels.id, { onDelete: 'set null' }),
   // A creator may leave; the project stays.
   createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,

@@ -8,6 +8,8 @@ export const users = pgTable('users', {
   displayName: text().notNull(),
   passwordHash: text().notNull(),
   isSiteAdmin: boolean().notNull().default(false),
+  /** A disabled account cannot sign in; its sessions and tokens stop at once. */
+  disabledAt: timestamp({ withTimezone: true, mode: 'date' }),
   ...timestamps,
 }, t => [
   // E-mail is unique regardless of case: "Ana@x" and "ana@x" are one account.
