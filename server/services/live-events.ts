@@ -238,6 +238,8 @@ export async function openProjectEventStream(event: H3Event, req: LiveStreamRequ
   }, PING_MS)
   timer.unref()
   stream.onClosed(stop)
+  // A first keep-alive at once, so the answer's headers go out now rather than with the first change.
+  void stream.push({ event: 'ping', data: String(Date.now()) }).catch(() => {})
   if (req.lastEventId !== null) void replay(req, send, () => stop())
   return stream.send()
 }
