@@ -80,3 +80,15 @@ export function useProjectLiveStream(projectId: MaybeRefOrGetter<string>) {
   onBeforeUnmount(close)
   return { status }
 }
+
+/**
+ * Refreshes every fetched entry of the page whose key starts with one of `prefixes`
+ * (`model-versions:` …), for events that name a record but not the pages' exact keys.
+ */
+export function useRefreshByPrefix() {
+  const nuxtApp = useNuxtApp()
+  return async (prefixes: readonly string[]) => {
+    const keys = Object.keys(nuxtApp.payload.data).filter(k => prefixes.some(p => k.startsWith(p)))
+    if (keys.length) await nuxtApp.runWithContext(() => refreshNuxtData(keys))
+  }
+}
