@@ -1,6 +1,7 @@
 import { applyMigrations } from '../db/migrate'
 import { seedDemoIfEmpty } from '../services/demo-seed'
 import { seedDemoAttachmentsAfterDemoSeed } from '../services/demo-seed-attachments'
+import { seedDemoModelAfterDemoSeed } from '../services/demo-seed-model'
 import { logServerError } from '../utils/error-log'
 import { markDatabaseFailed, markDatabaseReady } from '../utils/ready'
 
@@ -13,7 +14,10 @@ export default defineNitroPlugin(() => {
     if (process.env.PASTLOAD_SEED === 'demo') {
       const seeded = await seedDemoIfEmpty(db)
       console.info(seeded ? '[pastload:db] demo scenario seeded' : '[pastload:db] database has data: demo seed skipped')
-      if (seeded) await seedDemoAttachmentsAfterDemoSeed(db)
+      if (seeded) {
+        await seedDemoModelAfterDemoSeed(db)
+        await seedDemoAttachmentsAfterDemoSeed(db)
+      }
     }
   }
   start().then(markDatabaseReady, (err: unknown) => {

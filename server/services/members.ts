@@ -4,6 +4,7 @@ import { useDb } from '../db/client'
 import { projectMembers, users } from '../db/schema'
 import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
+import { publishLiveEvent } from './live-events'
 import { unprocessableError } from './http-errors'
 
 /**
@@ -32,12 +33,14 @@ export async function changeMemberRole(args: { actorId: string, projectId: strin
     if (role === null) {
       await tx.delete(projectMembers).where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
       await recordAudit({ actorId, projectId, action: 'delete', entity: 'project-member', entityId: userId, before: current }, tx)
+      await publishLiveEvent({ type: 'member.changed', projectId, entityId: userId }, tx)
       return null
     }
     const row = returnedRow(await tx.update(projectMembers).set({ role })
       .where(and(eq(projectMembers.projectId, projectId), eq(projectMembers.userId, userId)))
       .returning())
     await recordAudit({ actorId, projectId, action: 'update', entity: 'project-member', entityId: userId, before: current, after: row }, tx)
+    await publishLiveEvent({ type: 'member.changed', projectId, entityId: userId }, tx)
     return row
   })
 }
@@ -57,6 +60,7 @@ export async function addMember(args: { actorId: string, projectId: string, emai
   const member = await db.transaction(async (tx) => {
     const row = returnedRow(await tx.insert(projectMembers).values({ projectId, userId: target.id, role }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'project-member', entityId: target.id, after: row }, tx)
+    await publishLiveEvent({ type: 'member.changed', projectId, entityId: target.id }, tx)
     return row
   })
   return { userId: target.id, email: target.email, displayName: target.displayName, role: member.role }

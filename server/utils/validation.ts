@@ -48,3 +48,10 @@ export function validateQuery<S extends z.ZodType>(event: H3Event, schema: S): z
   if (!result.success) fail(result.error, 'query')
   return result.data
 }
+
+/** Validates request headers (names lower-case), e.g. `Last-Event-ID`; a bad value is 400. */
+export function validateHeaders<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+  const result = schema.safeParse(getRequestHeaders(event))
+  if (!result.success) fail(result.error, 'header')
+  return result.data
+}

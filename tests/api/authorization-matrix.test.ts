@@ -5,6 +5,7 @@
 import { readdirSync } from 'node:fs'
 import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
+import { openEventStream } from '../helpers/event-stream'
 import { Client, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
 import { CALLERS, type Caller, type Ctx, type RouteCase } from './matrix/types'
 
@@ -76,6 +77,12 @@ describe('authorization matrix', () => {
         const prepared = route.prepare ? await route.prepare(ctx) : {}
         const path = prepared.path ?? route.path.replace(':projectId', ctx.projectId)
         const body = prepared.body ?? (route.method === 'GET' || route.method === 'DELETE' ? undefined : {})
+        if (route.stream) {
+          const s = await openEventStream(ctx.clients[caller].base + path, ctx.clients[caller].cookie ? { cookie: ctx.clients[caller].cookie } : {})
+          s.close()
+          expect(s.status).toBe(want)
+          return
+        }
         const r = await ctx.clients[caller].request(route.method, path, body)
         expect(r.status, JSON.stringify(r.body)).toBe(want)
       })

@@ -22,6 +22,8 @@ export interface RouteCase {
   allowed: readonly ProjectRole[]
   /** Status an allowed caller gets. */
   ok: number
+  /** A Server-Sent Events stream: an allowed caller's answer is read up to its status, then closed. */
+  stream?: boolean
   /** Builds the concrete path and body for one call (fresh targets for writes). */
   prepare?: (ctx: Ctx) => Promise<{ path?: string, body?: unknown }>
 }
