@@ -6,7 +6,7 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { cptPointId } from '../../shared/review/flags'
-import { type Client, signedInDemo } from '../helpers/http'
+import { type Client, createUser, signedInDemo } from '../helpers/http'
 import { testBody } from '../helpers/lab'
 import { createPoint, createProject, must } from '../helpers/project'
 
@@ -178,9 +178,9 @@ describe('the model in force', () => {
     await must('naming it back', engineer.patch(base, { designModelId: design.id }))
   })
 
-  it('is read by every member and nobody else', async () => {
-    const { viewer } = signedInDemo('viewer')
-    expect((await viewer.get(`${base}/model-in-force`)).status).toBe(404)
+  it('is read by members only: someone outside the project gets 404', async () => {
+    const outsider = await createUser(owner, 'mif-outsider')
+    expect((await outsider.client.get(`${base}/model-in-force`)).status).toBe(404)
   })
 })
 
