@@ -89,6 +89,8 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
       // Saving a version bumps the draft's revision on the server; the content is unchanged.
       store.markRevision(store.revision + 1)
       out.version = version.version
+      // A saved version of the design model may be the model in force now (until one is approved).
+      void refreshNuxtData(modelInForceKey(toValue(projectId)))
       return version.version
     }, {
       done: n => `Version ${n} saved.`,

@@ -17,7 +17,7 @@ export const MODEL_PLOT = { top: 44, bottom: 604 } as const
 /** Where a track sits in the drawing, px. */
 export interface TrackFrame { x: number, width: number }
 
-export type CanvasTool = 'pan' | 'lasso'
+export type CanvasTool = 'pan' | 'lasso' | 'flag'
 
 /** What the tracks of one workspace share: the definition, the depth scale, data, selection and the way to edit. */
 export interface ModelWorkspace {
@@ -51,6 +51,9 @@ export interface ModelWorkspace {
   selectedPiezometer: Ref<number | null>
   selectedKnot: Ref<number | null>
   tool: Ref<CanvasTool>
+  /** Whether the caller may raise review flags (the Flag tool: a click on a σ'p point opens the flag form). */
+  canFlag: ComputedRef<boolean>
+  flagPoint: (point: PreconsolidationPointRow) => void
   lassoExcludes: Ref<boolean>
   /** A readout for screen readers and tests, e.g. after a drag. */
   announce: (text: string) => void

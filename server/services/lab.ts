@@ -28,26 +28,28 @@ type Db = ReturnType<typeof useDb> | Tx
 
 export interface StressContext {
   info: StressModelInfo
-  definition: SiteModelDefinition
-  /** Depth of the model's base, m. */
+  /** null when the design model has no saved version: σ'v0 is unavailable everywhere. */
+  definition: SiteModelDefinition | null
+  /** Depth of the model's base, m (0 without a model). */
   base: number
-  /** σv, u, σ'v0 at a depth; null outside the model. */
+  /** σv, u, σ'v0 at a depth; null outside the model (always null without one). */
   at: (depth: number) => StressAtDepth | null
   /** The model's stratum band at a depth (a band's top belongs to it); null outside the model. */
   bandAt: (depth: number) => ModelStratum | null
 }
 
 /**
- * σ'v0 for the interpretation pages: the stress model in force (`stressModelInForce`) turned into
- * an evaluator. A model the engine cannot use is 422 with the engine's message.
+ * σ'v0 for the interpretation pages: the design model's version in force (`stressModelInForce`)
+ * turned into an evaluator. A model the engine cannot use is 422 with the engine's message.
  */
 export async function stressContext(projectId: string): Promise<StressContext> {
   const { definition, info } = await stressModelInForce(projectId)
   return stressContextOf(definition, info)
 }
 
-/** The evaluator for a given definition (a working copy sent by the canvas, or a saved version). */
-export function stressContextOf(definition: SiteModelDefinition, info: StressModelInfo): StressContext {
+/** The evaluator for a given definition (a working copy sent by the canvas, or a saved version); none gives no stresses. */
+export function stressContextOf(definition: SiteModelDefinition | null, info: StressModelInfo): StressContext {
+  if (!definition) return { info, definition: null, base: 0, at: () => null, bandAt: () => null }
   const evaluate = runEngine(() => createStressEvaluator(toStressInput(definition)))
   const bounds = stratumBounds(definition)
   const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, isNull, sql } from 'drizzle-orm'
 import { returnedRow } from '../db/rows'
 import { computeStressProfile } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
@@ -7,7 +7,7 @@ import { diffDefinitions } from '#shared/site-model/diff'
 import type { ServerSiteModelRecord, ServerSiteModelRow } from '#shared/types/models'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
-import { siteModels, siteModelVersions } from '../db/schema'
+import { projects, siteModels, siteModelVersions } from '../db/schema'
 import type { ProjectRow } from '../utils/guards'
 import { runEngine } from '../utils/engine'
 import { recordAudit } from './audit'
@@ -61,6 +61,8 @@ export async function createModel(projectId: string, actorId: string, body: { na
   }
   return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
     const row = returnedRow(await tx.insert(siteModels).values({ projectId, name: body.name, description: body.description, draft, basedOn, createdBy: actorId }).returning())
+    // The project's first model (or the first after its design model was deleted) becomes its design model.
+    await tx.update(projects).set({ designModelId: row.id }).where(and(eq(projects.id, projectId), isNull(projects.designModelId)))
     await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model', entityId: row.id, after: { name: row.name, basedOn } }, tx)
     return modelJson(row)
   }), `A model named "${body.name}" already exists in this project.`)

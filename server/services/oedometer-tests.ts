@@ -100,7 +100,10 @@ export async function testInterpretation(projectId: string, testId: string) {
   const insitu = insituAt(stress, sampleDepth(ctx.sample))
   const out = runEngine(() => interpretTest(ctx.test, insitu.effectiveStress))
   const warnings = [...out.warnings]
-  if (insitu.effectiveStress === null) {
+  if (stress.definition === null) {
+    warnings.push(`${stress.info.description} No OCR or sample quality until a version of the design model is saved.`)
+  }
+  else if (insitu.effectiveStress === null) {
     warnings.push(`The stress model in force does not reach ${insitu.depth.toFixed(2)} m (or gives σ'v0 ≤ 0 there): no σ'v0, OCR or sample quality.`)
   }
   const [history, cc] = await Promise.all([adoptionHistory(testId), ccCheck(ctx, out.cc)])

@@ -247,7 +247,9 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
   }
   const cpt: PreconsolidationPoint[] = []
   const dense: DenseCpt[] = []
-  for (const c of soundings) {
+  // CPT σ'p = k·(qt − σv0) needs the stresses: none without a saved version of the design model.
+  if (!ctx.definition && soundings.length) warnings.push(`${ctx.info.description} CPT σ'p (k·qnet needs σv0) are not computed until a version of the design model is saved.`)
+  for (const c of ctx.definition ? soundings : []) {
     try {
       const profile = cptThroughModel(ctx, c)
       cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)))

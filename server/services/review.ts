@@ -7,6 +7,7 @@ import { useDb } from '../db/client'
 import { investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, reviewFlags, reviewReplies, samples, users, vaneReadings } from '../db/schema'
 import { recordAudit } from './audit'
 import { notFound, versionedUpdate } from './http-errors'
+import { publishLiveEvent } from './live-events'
 
 /** The flagged record must belong to the project (checked in the WHERE clause); anything else is 404. */
 export async function assertTargetInProject(projectId: string, type: FlagTarget, targetId: string): Promise<void> {
@@ -91,12 +92,25 @@ export async function listFlags(projectId: string, q: z.infer<typeof FlagListQue
   }
 }
 
-/** A reviewer flags a σ'p point, test or log interval (the target must be the project's: 404 otherwise). */
+/**
+ * A reviewer flags a σ'p point, test or log interval (the target must be the project's: 404
+ * otherwise). The same reviewer's open flag with the same verdict on the same target is 409.
+ */
 export async function createFlag(projectId: string, actorId: string, body: z.infer<typeof CreateFlagSchema>) {
   await assertTargetInProject(projectId, body.targetType, body.targetId)
   return useDb().transaction(async (tx) => {
+    // One at a time per target, so two identical requests cannot both pass the check below.
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`review-flag:${projectId}:${body.targetType}:${body.targetId}`}))`)
+    const [same] = await tx.select({ id: reviewFlags.id }).from(reviewFlags).where(and(
+      eq(reviewFlags.projectId, projectId), eq(reviewFlags.targetType, body.targetType), eq(reviewFlags.targetId, body.targetId),
+      eq(reviewFlags.verdict, body.verdict), eq(reviewFlags.createdBy, actorId), eq(reviewFlags.status, 'open'),
+    )).limit(1)
+    if (same) {
+      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'You already have an open flag with this verdict on this point: reply in its thread or change it instead.', data: { flagId: same.id } })
+    }
     const row = returnedRow(await tx.insert(reviewFlags).values({ ...body, projectId, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-flag', entityId: row.id, after: row }, tx)
+    await publishLiveEvent({ type: 'flag.changed', projectId, entityId: row.id }, tx)
     return row
   })
 }
@@ -127,6 +141,7 @@ export async function updateFlag(projectId: string, actorId: string, flagId: str
       current: () => before,
     })
     await recordAudit({ actorId, projectId, action: status === 'resolved' ? 'resolve' : status === 'open' ? 'reopen' : 'update', entity: 'review-flag', entityId: flagId, before, after: row }, tx)
+    await publishLiveEvent({ type: 'flag.changed', projectId, entityId: flagId }, tx)
     return row
   })
 }
@@ -138,6 +153,7 @@ export async function replyToFlag(projectId: string, actorId: string, flagId: st
     if (!flag) notFound('Flag')
     const row = returnedRow(await tx.insert(reviewReplies).values({ flagId, body, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-reply', entityId: row.id, after: row }, tx)
+    await publishLiveEvent({ type: 'flag.reply', projectId, entityId: flagId }, tx)
     return row
   })
 }

@@ -1,8 +1,12 @@
-import { and, asc, desc, eq } from 'drizzle-orm'
+import { and, asc, desc, eq, sql } from 'drizzle-orm'
+import { alias } from 'drizzle-orm/pg-core'
 import { SITE_MODEL_SCHEMA_VERSION, type SiteModelDefinition } from '#shared/site-model/definition'
 import { type Database, type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
-import { groundwaterObservations, investigationPoints, logIntervals, siteModels, siteModelVersions, strata } from '../db/schema'
+import { groundwaterObservations, investigationPoints, logIntervals, projects, siteModels, siteModelVersions, strata, users } from '../db/schema'
+import type { StressModelInfo } from '#shared/types/lab'
+import type { ServerModelInForce } from '#shared/types/model-in-force'
+import type { VersionStatus } from '#shared/types/models'
 
 /**
  * A starting model from the project's logs: one band per stratum in display
@@ -50,28 +54,83 @@ export async function definitionFromLogs(projectId: string, db: Database | Tx = 
   }
 }
 
-export interface StressModelInfo {
-  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
-  source: 'draft' | 'logs' | 'given'
-  modelId: string | null
-  modelName: string | null
-  /** How σ'v0 was obtained, in words for the page. */
-  description: string
+/** A saved version of the design model as the pages use it: the version in force and its definition. */
+export interface VersionInForce {
+  modelId: string
+  modelName: string
+  version: number
+  status: VersionStatus
+  approvedAt: Date | null
+  approvedBy: string | null
+  definition: SiteModelDefinition
 }
 
 /**
- * The stress model in force for the project's interpretation pages (the one
- * place that decides it): the most recently edited model's draft, or a model
- * built from the logs when there is none yet, with what it is in words.
+ * The version in force of the project's design model (the one place that decides it): the latest
+ * approved version not superseded, else the latest saved version (not yet approved), else null (no
+ * design model, or no saved version of it). Drafts never count: they are the canvas's working copy.
  */
-export async function stressModelInForce(projectId: string): Promise<{ definition: SiteModelDefinition, info: StressModelInfo }> {
-  const [model] = await useDb().select({ id: siteModels.id, name: siteModels.name, draft: siteModels.draft }).from(siteModels).where(eq(siteModels.projectId, projectId)).orderBy(desc(siteModels.updatedAt)).limit(1)
-  if (model) {
-    return { definition: model.draft, info: { source: 'draft', modelId: model.id, modelName: model.name, description: `Site model "${model.name}" (its current draft).` } }
+export async function versionInForce(projectId: string, db: Database | Tx = useDb()): Promise<VersionInForce | null> {
+  const approver = alias(users, 'approver')
+  const inForceFirst = sql`case when ${siteModelVersions.status} = 'approved' and ${siteModelVersions.supersededAt} is null then 0 when ${siteModelVersions.status} = 'approved' then 1 else 2 end`
+  const [row] = await db.select({
+    modelId: siteModels.id,
+    modelName: siteModels.name,
+    version: siteModelVersions.version,
+    status: siteModelVersions.status,
+    decidedAt: siteModelVersions.decidedAt,
+    approvedBy: approver.displayName,
+    definition: siteModelVersions.definition,
+  })
+    .from(projects)
+    .innerJoin(siteModels, and(eq(siteModels.id, projects.designModelId), eq(siteModels.projectId, projects.id)))
+    .innerJoin(siteModelVersions, eq(siteModelVersions.modelId, siteModels.id))
+    .leftJoin(approver, eq(approver.id, siteModelVersions.decidedBy))
+    .where(eq(projects.id, projectId))
+    .orderBy(inForceFirst, desc(siteModelVersions.version))
+    .limit(1)
+  if (!row) return null
+  const approved = row.status === 'approved'
+  return {
+    modelId: row.modelId,
+    modelName: row.modelName,
+    version: row.version,
+    status: row.status,
+    approvedAt: approved ? row.decidedAt : null,
+    approvedBy: approved ? row.approvedBy : null,
+    definition: row.definition,
   }
-  const definition = await definitionFromLogs(projectId)
-  const description = `No site model yet: strata at their mean logged thickness, hydrostatic pore pressure below the median standing level (${definition.groundwater.waterTableDepth} m).`
-  return { definition, info: { source: 'logs', modelId: null, modelName: null, description } }
+}
+
+/** GET …/model-in-force: the version in force without its definition, or `{ modelId: null }`. */
+export async function modelInForce(projectId: string): Promise<ServerModelInForce> {
+  const v = await versionInForce(projectId)
+  if (!v) return { modelId: null }
+  const { definition: _definition, ...rest } = v
+  return rest
+}
+
+/** What σ'v0 comes from, in words for the pages. */
+export function describeVersionInForce(v: Pick<VersionInForce, 'modelName' | 'version' | 'status'>): string {
+  return v.status === 'approved'
+    ? `Version ${v.version} of site model "${v.modelName}", approved.`
+    : `Version ${v.version} of site model "${v.modelName}", not yet approved.`
+}
+
+/** Said when the design model has no saved version: values that need σ'v0 are unavailable. */
+export const NO_VERSION_IN_FORCE = 'No saved version of the design model: values that need σ\'v0 are unavailable.'
+
+/**
+ * The stress model in force for the project's interpretation pages: the definition of the design
+ * model's version in force with what it is, or no definition (σ'v0 unavailable) when there is none.
+ */
+export async function stressModelInForce(projectId: string): Promise<{ definition: SiteModelDefinition | null, info: StressModelInfo }> {
+  const v = await versionInForce(projectId)
+  if (!v) return { definition: null, info: { source: 'none', modelId: null, modelName: null, version: null, status: null, description: NO_VERSION_IN_FORCE } }
+  return {
+    definition: v.definition,
+    info: { source: 'version', modelId: v.modelId, modelName: v.modelName, version: v.version, status: v.status, description: describeVersionInForce(v) },
+  }
 }
 
 export async function latestVersion(modelId: string) {

@@ -60,3 +60,15 @@ export async function requireProjectRole(event: H3Event, capability: Capability)
   }
   return { user, project: row.project, role: row.role }
 }
+
+/**
+ * A member's role checked against capabilities decided by the request itself (a PATCH whose fields
+ * need different capabilities): 403 with the same words as `requireProjectRole` when one is missing.
+ */
+export function requireRoleCan(role: ProjectRole, capabilities: Iterable<Capability>): void {
+  for (const capability of capabilities) {
+    if (!roleCan(role, capability)) {
+      throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `Your role (${role}) cannot do this.` })
+    }
+  }
+}

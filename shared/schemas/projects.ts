@@ -23,6 +23,8 @@ export const UpdateProjectSchema = z.object({
   client: str().trim().max(160).optional(),
   unitSystem: z.enum(UNIT_SYSTEMS).optional(),
   description: str().trim().max(4000).optional(),
+  /** The project's design model (owner or engineer): its version in force feeds every page's σ'v0. */
+  designModelId: UuidSchema.optional(),
 }).refine(v => Object.values(v).some(x => x !== undefined), { message: 'nothing to change' })
 
 export const RoleSchema = z.enum(PROJECT_ROLES)

@@ -8,6 +8,7 @@ import type { SecondaryResult, TaylorResult } from '#shared/lab/time-curve'
 import type { PreconsolidationPoint, PreconsolidationSource } from '#shared/schemas/lab'
 import type { OedometerStageJson, oedometerTests, preconsolidationAdoptions } from '~~/server/db/schema'
 import type { PointKind, SampleType } from '#shared/investigation/types'
+import type { VersionStatus } from './models'
 import type { Serialize } from './serialize'
 
 /** One loading stage as entered, with the void ratio it converts to. */
@@ -17,10 +18,13 @@ export type ServerOedometerTestRow = typeof oedometerTests.$inferSelect
 
 /** The stress model σ'v0 is read from. */
 export interface StressModelInfo {
-  /** The latest saved draft, the logs (no model yet), or a definition sent with the request. */
-  source: 'draft' | 'logs' | 'given'
+  /** A saved version of the design model (the version in force), none (σ'v0 unavailable), or a definition sent with the request. */
+  source: 'version' | 'none' | 'given'
   modelId: string | null
   modelName: string | null
+  /** The version in force and where it stands in review; null unless `source` is 'version'. */
+  version: number | null
+  status: VersionStatus | null
   /** How σ'v0 was obtained, in words for the page. */
   description: string
 }

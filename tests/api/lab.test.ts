@@ -8,9 +8,10 @@ import { degreeOfConsolidation } from '../../shared/geotech/consolidation'
 import { createStressEvaluator } from '../../shared/geotech/stress'
 import { cptPointId } from '../../shared/review/flags'
 import { toStressInput } from '../../shared/site-model/convert'
-import { type Client, createUser, demoEmail, demoProjectId, signIn, signedInDemo } from '../helpers/http'
+import { type Client, createUser, demoEmail, signIn, signedInDemo } from '../helpers/http'
 import { asDial, bilinearCurve, demoDefinitionFromRecord, DOUBLING, ESTUARINE, testBody } from '../helpers/lab'
-import { createPoint, createProject } from '../helpers/project'
+import { createDemoCopy } from '../helpers/demo-project'
+import { createPoint, createProject, createSavedModel } from '../helpers/project'
 
 interface TestJson {
   id: string
@@ -65,6 +66,8 @@ describe('oedometer tests and σ\'p adoption', () => {
     sampleId = s.body.sample.id
     // LL = 40 %: 0.009 (40 − 10) = 0.27, far below the curve's Cc = 0.85.
     expect((await geologist.request('PUT', `${pointUrl}/samples/${sampleId}/index-test`, { liquidLimit: 40, plasticLimit: 20 })).status).toBe(200)
+    // The design model, started from the logs, with version 1 saved: the model in force.
+    await createSavedModel(engineer, projectId)
   })
 
   it('creates a test from dial readings, converting them to void ratios, and lists it with its sample and depth', async () => {
@@ -149,12 +152,12 @@ describe('oedometer tests and σ\'p adoption', () => {
       interp = r.body
     })
 
-    it('takes σ\'v0 at the sample\'s mid-depth from the model built from the logs', () => {
+    it('takes σ\'v0 at the sample\'s mid-depth from the saved version of the design model (started from the logs)', () => {
       // σ'v0(4.75 m) = 18 × 4.75 − 9.81 × (4.75 − 1.0) = 85.5 − 36.7875 = 48.7125 kPa (hand calculation).
-      expect(interp.stressModel.source).toBe('logs')
+      expect(interp.stressModel.source).toBe('version')
       expect(interp.stressModel.depth).toBeCloseTo(4.75, 10)
       expect(interp.stressModel.effectiveStress).toBeCloseTo(48.7125, 3)
-      expect(interp.stressModel.description).toContain('No site model yet')
+      expect(interp.stressModel.description).toContain('not yet approved')
     })
 
     it('returns the four methods\' σ\'p near 80 kPa, with OCR from σ\'v0', () => {
@@ -285,41 +288,22 @@ describe('oedometer tests and σ\'p adoption', () => {
 
 describe('σ\'p points of the demo project', () => {
   let c: Client
-  let engineer: Client
   let projectId: string
   let points: SigmaPoint[]
-  let pinned: string
   const record = generateDemoInvestigation()
 
-  /**
-   * Other tests edit site models of the demo project, and the stress model in force is the most
-   * recently edited one. A fresh model started from the logs puts the logs' model back in force, so
-   * σ'v0 here is the scenario's; the answer says which model it used, and a read is repeated when
-   * another test's edit came in between.
-   */
-  async function pinModel(): Promise<string> {
-    const r = await engineer.post<{ model: { id: string } }>(`/api/projects/${projectId}/models`, { name: `σ'p points check ${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}` })
-    expect(r.status).toBe(201)
-    return r.body.model.id
-  }
-  async function readPinned<T extends { stressModel: { modelId: string | null } }>(url: string): Promise<T> {
-    for (let attempt = 0; ; attempt++) {
-      pinned = await pinModel()
-      const r = await c.get<T>(url)
-      expect(r.status).toBe(200)
-      if (r.body.stressModel.modelId === pinned || attempt === 2) {
-        expect(r.body.stressModel.modelId).toBe(pinned)
-        return r.body
-      }
-    }
+  /** A copy of the demo's content with a design model saved from the logs: σ'v0 is the scenario's. */
+  async function read<T extends { stressModel: { source: string } }>(url: string): Promise<T> {
+    const r = await c.get<T>(url)
+    expect(r.status).toBe(200)
+    expect(r.body.stressModel.source).toBe('version')
+    return r.body
   }
 
   beforeAll(async () => {
     c = await signIn(demoEmail('reviewer'))
-    engineer = await signIn(demoEmail('engineer'))
-    projectId = await demoProjectId(c)
-    const body = await readPinned<{ points: SigmaPoint[], stressModel: { modelId: string | null, source: string }, caution: string }>(`/api/projects/${projectId}/preconsolidation-points`)
-    expect(body.stressModel.source).toBe('draft')
+    projectId = await createDemoCopy('LAB-SIGMA')
+    const body = await read<{ points: SigmaPoint[], stressModel: { modelId: string | null, source: string }, caution: string }>(`/api/projects/${projectId}/preconsolidation-points`)
     expect(body.caution).toContain('licensed engineer')
     points = body.points
   })
@@ -381,9 +365,9 @@ describe('σ\'p points of the demo project', () => {
     expect((await c.get(`/api/projects/${projectId}/preconsolidation-points?spacing=0`)).status).toBe(400)
   })
 
-  it('the seeded adoptions carry σ\'v0 of the model the pages use while there is no site model', async () => {
+  it('the copied adoptions carry σ\'v0 of the version in force (the design model saved from the logs)', async () => {
     const evaluate = createStressEvaluator(toStressInput(demoDefinitionFromRecord(record)))
-    const list = await readPinned<{ stressModel: { modelId: string | null }, tests: { id: string, label: string, depth: number, point: { identifier: string }, sample: { identifier: string }, effectiveStress: number | null, adoption: Adoption | null }[] }>(`/api/projects/${projectId}/tests/oedometer`)
+    const list = await read<{ stressModel: { modelId: string | null, source: string }, tests: { id: string, label: string, depth: number, point: { identifier: string }, sample: { identifier: string }, effectiveStress: number | null, adoption: Adoption | null }[] }>(`/api/projects/${projectId}/tests/oedometer`)
     expect(list.tests).toHaveLength(14)
     const disturbed = DEMO_OEDOMETER_PLAN.filter(p => p.quality === 'very-poor').map(p => `${p.point}/${plannedOedometerSample(record, p)!.identifier}`)
     for (const t of list.tests) {
@@ -417,7 +401,7 @@ describe('σ\'p points of the demo project', () => {
     const pts = await c.get<{ points: { id: string, identifier: string }[] }>(`/api/projects/${projectId}/points?kind=cpt`)
     const cpt = pts.body.points.find(p => p.identifier === 'CPT-02')!
     const raw = await c.get<{ areaRatio: number, depth: number[], qc: number[], u2: number[], fs: number[] }>(`/api/projects/${projectId}/points/${cpt.id}/cpt`)
-    const r = { body: await readPinned<{ stressModel: { modelId: string | null }, count: number, rows: Record<string, (number | null)[]>, resampled: SigmaPoint[], coneFactors: { code: string, k: number }[] }>(`/api/projects/${projectId}/points/${cpt.id}/cpt/interpretation?spacing=0.5`) }
+    const r = { body: await read<{ stressModel: { modelId: string | null, source: string }, count: number, rows: Record<string, (number | null)[]>, resampled: SigmaPoint[], coneFactors: { code: string, k: number }[] }>(`/api/projects/${projectId}/points/${cpt.id}/cpt/interpretation?spacing=0.5`) }
     expect(r.body.count).toBe(raw.body.depth.length)
     const i = raw.body.depth.findIndex(d => d >= 8)
     // qt = qc + u2(1 − a) (Campanella et al. 1982); qnet = qt − σv0; Bq = (u2 − u0)/qnet; Rf = fs/qt·100.

@@ -7,7 +7,7 @@
 import { beforeAll } from 'vitest'
 import { DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { type Client, demoEmail, demoProjectId, signIn } from './http'
-import { createProject, must } from './project'
+import { createProject, createSavedModel, must } from './project'
 import { upload } from './upload'
 
 interface StoredStage { stress: number, entered: number, readings?: { minutes: number, dial: number }[] }
@@ -39,6 +39,8 @@ export async function createDemoCopy(tag: string): Promise<string> {
   const up = await upload<{ importId: string }>(owner, `${base}/imports`, 'saltmarsh-lane.ags', await res.text(), 'text/plain')
   if (up.status !== 201) throw new Error(`uploading the demo AGS4 file: ${up.status} ${JSON.stringify(up.body).slice(0, 400)}`)
   await must('importing the demo AGS4 file', owner.post(`${base}/imports/${up.body.importId}/commit-ags`, {}))
+  // A design model from the logs with a saved version, so σ'v0 (sample quality, OCR, CPT σ'p) is there as in the demo.
+  await createSavedModel(engineer, projectId)
 
   // Oedometer tests: the demo's labels and time readings, then its adoptions (by the engineer).
   const key = (t: { point: { identifier: string }, sample: { identifier: string } }) => `${t.point.identifier}/${t.sample.identifier}`

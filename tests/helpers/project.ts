@@ -59,3 +59,15 @@ export async function createPoint(c: Client, projectId: string, point: PointSpec
   const created = await must(`creating point ${point.identifier}`, c.post<{ point: { id: string } }>(`/api/projects/${projectId}/points`, body), 201)
   return created.point.id
 }
+
+/**
+ * A site model started from the project's logs with version 1 saved: the project's first model is
+ * its design model, so that version is the model in force (saved, not yet approved). Returns the
+ * model's id and URL.
+ */
+export async function createSavedModel(c: Client, projectId: string, name = 'Design model'): Promise<{ id: string, url: string }> {
+  const created = await must(`creating model ${name}`, c.post<{ model: { id: string, version: number } }>(`/api/projects/${projectId}/models`, { name }), 201)
+  const url = `/api/projects/${projectId}/models/${created.model.id}`
+  await must(`saving version 1 of ${name}`, c.post(`${url}/versions`, { message: 'Started from the logs', version: created.model.version }), 201)
+  return { id: created.model.id, url }
+}

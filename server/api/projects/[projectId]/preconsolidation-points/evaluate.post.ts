@@ -13,7 +13,7 @@ import type { ServerPreconsolidationPointsReply } from '#shared/types/lab'
 export default defineEventHandler(async (event): Promise<ServerPreconsolidationPointsReply> => {
   const { project } = await requireProjectRole(event, 'project.read')
   const { definition, spacing, dense, label } = await validateBody(event, PreconsolidationPointsEvaluateSchema)
-  const stress = stressContextOf(definition, { source: 'given', modelId: null, modelName: null, description: `The stresses of ${label}.` })
+  const stress = stressContextOf(definition, { source: 'given', modelId: null, modelName: null, version: null, status: null, description: `The stresses of ${label}.` })
   const result = await allPreconsolidationPoints(project.id, stress, { spacing, dense })
   return { ...result, spacing, stressModel: stress.info, caution: RESULT_CAUTION }
 })

@@ -28,14 +28,14 @@ export default defineEventHandler(async (event) => {
   const stress = await stressContext(project.id)
   const profile = runEngine(() => cptThroughModel(stress, sounding))
   const intervals = await loggedIntervals([point.id])
-  const bounds = stratumBounds(stress.definition)
+  const bounds = stress.definition ? stratumBounds(stress.definition) : []
   return {
     pointId: point.id,
     pointIdentifier: point.identifier,
     areaRatio: sounding.areaRatio,
     count: profile.depth.length,
     stressModel: stress.info,
-    coneFactors: stress.definition.strata.map((s, i) => ({ code: s.code, name: s.name, top: bounds[i]!.top, bottom: bounds[i]!.bottom, k: s.cptFactor ?? DEFAULT_CONE_FACTOR })),
+    coneFactors: (stress.definition?.strata ?? []).map((s, i) => ({ code: s.code, name: s.name, top: bounds[i]!.top, bottom: bounds[i]!.bottom, k: s.cptFactor ?? DEFAULT_CONE_FACTOR })),
     rows: {
       depth: Array.from(profile.depth),
       qt: wire(profile.qt, 1),
