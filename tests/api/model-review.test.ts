@@ -18,6 +18,7 @@ interface Version {
   savedFrom: number | null
   submittedBy: string | null
   decidedBy: string | null
+  decidedAt: string | null
   decisionComment: string | null
   approvalHash: string | null
   approvalOverride: string | null
