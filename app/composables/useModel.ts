@@ -25,10 +25,10 @@ export function useSiteModel(projectId: MaybeRefOrGetter<string>, modelId: Maybe
   )
 }
 
-/** One saved version, read-only. */
+/** One saved version, read-only, with its review (key `model-version:<modelId>:<version>`, refreshed by live version events). */
 export function useSiteModelVersion(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>, version: MaybeRefOrGetter<number>) {
   return useApi<ModelVersionReply | null>(
-    () => `model-version-${toValue(projectId)}-${toValue(modelId)}-${toValue(version)}`,
+    () => `model-version:${toValue(modelId)}:${toValue(version)}`,
     () => `${modelUrl(toValue(projectId), toValue(modelId))}/versions/${toValue(version)}`,
     () => null,
   )

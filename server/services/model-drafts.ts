@@ -14,6 +14,7 @@ import { recordAudit } from './audit'
 import { exportName } from './exports/logs'
 import { conflictOnDuplicate, notFound, versionedUpdate } from './http-errors'
 import { exportDocument, exportWorkbook } from './model-export'
+import { approvalOf } from './model-review'
 import { assertDefinitionComputable, listVersions, nextVersionNumber, requireModel, requireVersion } from './model-versions'
 import { flagsInForce } from './review'
 import { definitionFromLogs } from './site-models'
@@ -34,10 +35,20 @@ export async function listModels(projectId: string) {
   const models = await db.select({ id: siteModels.id, name: siteModels.name, description: siteModels.description, version: siteModels.draftRevision, basedOn: siteModels.basedOn, updatedAt: siteModels.updatedAt })
     .from(siteModels).where(eq(siteModels.projectId, projectId)).orderBy(asc(siteModels.name))
   const versions = models.length
-    ? await db.select({ modelId: siteModelVersions.modelId, version: siteModelVersions.version, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, message: siteModelVersions.message })
+    ? await db.select({ modelId: siteModelVersions.modelId, version: siteModelVersions.version, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, message: siteModelVersions.message, supersededAt: siteModelVersions.supersededAt, decidedAt: siteModelVersions.decidedAt })
       .from(siteModelVersions).where(anyOf(siteModelVersions.modelId, models.map(m => m.id))).orderBy(desc(siteModelVersions.version))
     : []
-  return models.map(m => ({ ...m, latest: versions.find(v => v.modelId === m.id) ?? null, versionCount: versions.filter(v => v.modelId === m.id).length }))
+  return models.map((m) => {
+    const own = versions.filter(v => v.modelId === m.id)
+    const latest = own[0]
+    const approved = own.find(v => v.status === 'approved' && v.supersededAt === null)
+    return {
+      ...m,
+      latest: latest ? { modelId: latest.modelId, version: latest.version, status: latest.status, createdAt: latest.createdAt, message: latest.message } : null,
+      versionCount: own.length,
+      approved: approved ? { version: approved.version, decidedAt: approved.decidedAt } : null,
+    }
+  })
 }
 
 /** The model with its draft and the list of saved versions. */
@@ -111,7 +122,8 @@ export async function saveVersion(projectId: string, actorId: string, modelId: s
     const definition = { ...model.draft, flagsInForce: await flagsInForce(projectId) }
     assertDefinitionComputable(definition)
     const number = await nextVersionNumber(tx, modelId)
-    const row = returnedRow(await tx.insert(siteModelVersions).values({ modelId, version: number, definition, message, createdBy: actorId }).returning())
+    // savedFrom: the version the draft started from (a returned version is resubmitted as a new version saved from it).
+    const row = returnedRow(await tx.insert(siteModelVersions).values({ modelId, version: number, definition, message, savedFrom: model.basedOn, createdBy: actorId }).returning())
     await tx.update(siteModels).set({ basedOn: number, draftRevision: sql`${siteModels.draftRevision} + 1` }).where(eq(siteModels.id, modelId))
     await recordAudit({ actorId, projectId, action: 'create', entity: 'site-model-version', entityId: row.id, after: { modelId, version: number, message } }, tx)
     return row
@@ -147,8 +159,9 @@ export async function compareVersions(projectId: string, modelId: string, a: num
 /** A saved version for other tools: the JSON export document, or the XLSX sublayer table with its file name. */
 export async function exportVersion(project: ProjectRow, modelId: string, version: number, { format, maxThickness }: { format: 'json' | 'xlsx', maxThickness: number }) {
   const { model, version: v } = await projectVersion(project.id, modelId, version)
+  const approval = await approvalOf(v)
   if (format === 'xlsx') {
     return { format, filename: exportName(project, `${model.name}-v${version}-sublayers`, 'xlsx'), workbook: exportWorkbook(project, model, v, maxThickness) } as const
   }
-  return { format, document: exportDocument(project, model, v, maxThickness) } as const
+  return { format, document: exportDocument(project, model, { ...v, approval }, maxThickness) } as const
 }

@@ -3,6 +3,7 @@ import { RESULT_CAUTION } from '#shared/caution'
 import { MAX_SETTLEMENT_LAYERS } from '#shared/schemas/calc'
 import { ModelIncompleteError } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
+import type { VersionApproval } from '#shared/types/review-lifecycle'
 import { sublayerTable } from '#shared/site-model/sublayers'
 import type { ProjectRow } from '../utils/guards'
 import { unprocessableError } from './http-errors'
@@ -29,7 +30,7 @@ function tableOrRefuse(def: SiteModelDefinition, maxThickness: number) {
  * ({ maxThickness }) is the settlement API's option of the same name, so the
  * engine's sublayers are the slices a compressibility depth trend was cut into.
  */
-export function exportDocument(project: ProjectRow, model: { id: string, name: string }, v: VersionMeta & { definition: SiteModelDefinition }, maxThickness: number) {
+export function exportDocument(project: ProjectRow, model: { id: string, name: string }, v: VersionMeta & { definition: SiteModelDefinition, approval: VersionApproval | null }, maxThickness: number) {
   const { layers } = tableOrRefuse(v.definition, maxThickness)
   // A stratum with compressibility depth trends comes as slices of maxThickness: thin slices can outnumber what the settlement API takes.
   if (layers.length > MAX_SETTLEMENT_LAYERS) {
@@ -44,6 +45,8 @@ export function exportDocument(project: ProjectRow, model: { id: string, name: s
     project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
     model: { id: model.id, name: model.name },
     version: { number: v.version, message: v.message, status: v.status, savedBy: v.author, savedAt: v.createdAt.toISOString() },
+    /** Who approved this version, when, and the SHA-256 of its definition's canonical JSON; null unless approved. */
+    approval: v.approval,
     units: { length: 'm', stress: 'kPa', unitWeight: 'kN/m³', cv: 'm²/year' },
     caution: RESULT_CAUTION,
     surcharge: v.definition.surcharge,

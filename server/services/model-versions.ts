@@ -24,9 +24,10 @@ export async function requireVersion(modelId: string, version: number, tx?: Tx):
 }
 
 export async function listVersions(modelId: string): Promise<ServerModelVersionSummary[]> {
-  return useDb().select({ version: siteModelVersions.version, message: siteModelVersions.message, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, author: users.displayName })
+  const rows = await useDb().select({ version: siteModelVersions.version, message: siteModelVersions.message, status: siteModelVersions.status, createdAt: siteModelVersions.createdAt, author: users.displayName, supersededAt: siteModelVersions.supersededAt })
     .from(siteModelVersions).leftJoin(users, eq(users.id, siteModelVersions.createdBy))
     .where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version))
+  return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null }))
 }
 
 export async function nextVersionNumber(tx: Tx, modelId: string): Promise<number> {

@@ -32,3 +32,26 @@ export const ExportQuerySchema = z.object({
   format: z.enum(['json', 'xlsx']).default('json'),
   maxThickness: z.coerce.number().gt(0).max(5).default(0.25),
 })
+
+/** At most this many reviewers per submission. */
+export const MAX_REVIEWERS = 20
+
+/** Sends a saved version for review to one or more project members who may review. */
+export const SubmitVersionSchema = z.object({
+  message: str(2000).trim().default(''),
+  reviewerIds: z.array(UuidSchema).min(1, { message: 'choose at least one reviewer' }).max(MAX_REVIEWERS, { message: `at most ${MAX_REVIEWERS} reviewers` }),
+})
+
+/**
+ * A reviewer's decision on a submitted version. Returning it needs a comment saying why;
+ * `override` is the reason for approving while open flags stand on points its fits use.
+ */
+export const VersionDecisionSchema = z.object({
+  decision: z.enum(['approve', 'return']),
+  comment: str(2000).trim().default(''),
+  override: str(2000).trim().min(3, { message: 'give the reason for approving despite the open flags (3 characters or more)' }).optional(),
+}).superRefine((b, ctx) => {
+  if (b.decision === 'return' && b.comment.length < 3) {
+    ctx.addIssue({ code: 'custom', path: ['comment'], message: 'say why it is returned (3 characters or more)' })
+  }
+})

@@ -6,6 +6,7 @@ import type { ProjectRole } from '#shared/auth/roles'
 import type { StressProfilePoint } from '#shared/geotech/stress'
 import type { siteModels, siteModelVersions } from '~~/server/db/schema'
 import type { DefinitionChange } from '../site-model/diff'
+import type { ServerVersionReview } from './review-lifecycle'
 import type { Serialize } from './serialize'
 
 /** A site model's database row (`draftRevision` counts the draft's saves). */
@@ -23,14 +24,16 @@ export type VersionStatus = ServerVersionRecord['status']
 export type ServerModelVersionRow = ServerVersionRecord & { author: string | null }
 export type ModelVersionRow = Serialize<ServerModelVersionRow>
 
-/** A saved version as the model's list shows it (`listVersions`). */
-export type ServerModelVersionSummary = Pick<ServerModelVersionRow, 'version' | 'message' | 'status' | 'createdAt' | 'author'>
+/** A saved version as the model's list shows it (`listVersions`); `superseded`: a newer version of the model is approved. */
+export type ServerModelVersionSummary = Pick<ServerModelVersionRow, 'version' | 'message' | 'status' | 'createdAt' | 'author'> & { superseded: boolean }
 export type ModelVersionSummary = Serialize<ServerModelVersionSummary>
 
 /** One model of GET …/models, with its latest saved version. */
 export type ServerModelListItem = Pick<ServerSiteModelRow, 'id' | 'name' | 'description' | 'version' | 'basedOn' | 'updatedAt'> & {
   latest: Pick<ServerVersionRecord, 'modelId' | 'version' | 'status' | 'createdAt' | 'message'> | null
   versionCount: number
+  /** The model's approved version not superseded, if any. */
+  approved: { version: number, decidedAt: Date | null } | null
 }
 export type ModelListItem = Serialize<ServerModelListItem>
 
@@ -41,8 +44,8 @@ export type ModelList = Serialize<ServerModelList>
 export interface ServerModelDetail { model: ServerSiteModelRow, versions: ServerModelVersionSummary[], role: ProjectRole }
 export type ModelDetail = Serialize<ServerModelDetail>
 
-/** GET …/models/:modelId/versions/:version */
-export interface ServerModelVersionReply { model: Pick<ServerSiteModelRow, 'id' | 'name'>, version: ServerModelVersionRow }
+/** GET …/models/:modelId/versions/:version: the version with its review (reviewers, timeline, blocking flags). */
+export interface ServerModelVersionReply { model: Pick<ServerSiteModelRow, 'id' | 'name'>, version: ServerModelVersionRow, review: ServerVersionReview }
 export type ModelVersionReply = Serialize<ServerModelVersionReply>
 
 /** One changed leaf between two definitions. */

@@ -17,7 +17,7 @@ import {
   SampleInputSchema, SampleUpdateSchema, SptInputSchema, SptUpdateSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema, VaneUpdateSchema,
 } from '../../shared/schemas/investigation'
 import { AdoptionInputSchema, OedometerTestInputSchema, OedometerTestUpdateSchema, PreconsolidationPointsEvaluateSchema } from '../../shared/schemas/lab'
-import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema } from '../../shared/schemas/models'
+import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema, SubmitVersionSchema, VersionDecisionSchema } from '../../shared/schemas/models'
 import { AddMemberSchema, CreateProjectSchema, UpdateMemberSchema, UpdateProjectSchema } from '../../shared/schemas/projects'
 import { CreateFlagSchema, ReplySchema, UpdateFlagSchema } from '../../shared/schemas/review'
 import { TINY_PDF } from '../helpers/attach'
@@ -60,6 +60,8 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'POST /api/projects/:projectId/models': CreateModelSchema,
   'PUT /api/projects/:projectId/models/:modelId/draft': SaveDraftSchema,
   'POST /api/projects/:projectId/models/:modelId/versions': SaveVersionSchema,
+  'POST /api/projects/:projectId/models/:modelId/versions/:version/submit': SubmitVersionSchema,
+  'POST /api/projects/:projectId/models/:modelId/versions/:version/decision': VersionDecisionSchema,
   'POST /api/projects/:projectId/flags': CreateFlagSchema,
   'PATCH /api/projects/:projectId/flags/:flagId': UpdateFlagSchema,
   'POST /api/projects/:projectId/flags/:flagId/replies': ReplySchema,
