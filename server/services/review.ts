@@ -7,6 +7,7 @@ import { useDb } from '../db/client'
 import { investigationPoints, logIntervals, oedometerTests, preconsolidationAdoptions, reviewFlags, reviewReplies, samples, users, vaneReadings } from '../db/schema'
 import { recordAudit } from './audit'
 import { notFound, versionedUpdate } from './http-errors'
+import { noticeFlagRaised, noticeFlagReply } from './review-notices'
 
 /** The flagged record must belong to the project (checked in the WHERE clause); anything else is 404. */
 export async function assertTargetInProject(projectId: string, type: FlagTarget, targetId: string): Promise<void> {
@@ -97,6 +98,7 @@ export async function createFlag(projectId: string, actorId: string, body: z.inf
   return useDb().transaction(async (tx) => {
     const row = returnedRow(await tx.insert(reviewFlags).values({ ...body, projectId, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-flag', entityId: row.id, after: row }, tx)
+    await noticeFlagRaised(tx, actorId, row)
     return row
   })
 }
@@ -138,6 +140,7 @@ export async function replyToFlag(projectId: string, actorId: string, flagId: st
     if (!flag) notFound('Flag')
     const row = returnedRow(await tx.insert(reviewReplies).values({ flagId, body, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-reply', entityId: row.id, after: row }, tx)
+    await noticeFlagReply(tx, actorId, flagId, row.id, body)
     return row
   })
 }
