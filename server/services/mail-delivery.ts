@@ -16,7 +16,7 @@ export function createMailTransport(s: MailSettings): Transporter {
     const url = new URL(s.smtpUrl)
     return nodemailer.createTransport({ host: url.hostname, port: Number(url.port), secure: false, ignoreTLS: true, ...timeouts })
   }
-  return nodemailer.createTransport(s.smtpUrl, timeouts)
+  return nodemailer.createTransport({ url: s.smtpUrl, ...timeouts })
 }
 
 /** What one delivery round did: outbox ids only (never addresses or bodies). */
