@@ -16,7 +16,7 @@ interface FlagRef {
 /** The page of a flag's thread. */
 const flagLink = (f: Pick<FlagRef, 'id' | 'projectId'>) => `/projects/${f.projectId}/review?status=all&flag=${f.id}`
 
-const depth = (m: number) => `${Number(m.toFixed(2))} m`
+const metres = (m: number) => String(Number(m.toFixed(2)))
 
 /** What a flag is on, in words, and who owns that work: the engineer of the adopted σ'p, the person who logged the interval. */
 async function flagSubject(tx: Tx, f: Pick<FlagRef, 'projectId' | 'targetType' | 'targetId'>): Promise<{ what: string, owners: string[] }> {
@@ -48,7 +48,7 @@ async function flagSubject(tx: Tx, f: Pick<FlagRef, 'projectId' | 'targetType' |
         sql`${auditEvents.after} @> ${JSON.stringify({ intervals: [{ id: target.id }] })}::jsonb`,
       ))
       .orderBy(desc(auditEvents.at), desc(auditEvents.id)).limit(1)
-    return { what: `${iv.point} ${depth(iv.top)}–${depth(iv.bottom)}`, owners: logged?.actorId ? [logged.actorId] : [] }
+    return { what: `${iv.point} ${metres(iv.top)}–${metres(iv.bottom)} m`, owners: logged?.actorId ? [logged.actorId] : [] }
   }
   if (f.targetType === 'cpt-point') return { what: 'a CPT-derived σ\'p point', owners: [] }
   return { what: 'a vane-derived σ\'p point', owners: [] }

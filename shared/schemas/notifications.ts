@@ -20,5 +20,5 @@ export const OutboxQuerySchema = PageQuerySchema.extend({
   status: z.enum(['pending', 'failed', 'sent']).optional(),
 })
 
-/** An outbox id (a bigint column; ids beyond int32 are years of mail away, and refused as 400 until then). */
+/** An outbox id (a bigint column; ids beyond int32 are years of mail away, and name nothing until then). */
 export const OutboxMessageParamsSchema = z.object({ messageId: z.coerce.number().int().min(1).max(INT32_MAX) })
