@@ -1,14 +1,15 @@
-// `npm start`: PostgreSQL (installed and created when missing), the object store, a build when stale,
+// `npm start`: PostgreSQL (installed and created when missing), the object store, the mail catcher, a build when stale,
 // then the app on 127.0.0.1, which applies the migrations and seeds the demo on an
 // empty database as it starts (server/plugins/database.ts).
 // If the app process dies it is started again after a growing pause (1 s, 2 s …
 // 30 s; it gives up at the sixth crash within ten minutes) while PostgreSQL and
-// the object store keep running. Ctrl-C / SIGTERM stops the app and the servers
+// the object store (and the mail catcher) keep running. Ctrl-C / SIGTERM stops the app and the servers
 // this script started.
 import { spawn } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
+import { externalSmtp, startMailCatcher } from './lib/mail-catcher.mjs'
 import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
 import { supervise } from './lib/supervise.mjs'
@@ -22,7 +23,8 @@ async function main() {
   const cluster = external ? null : await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_DB_DIR ?? 'pg', port: dbPort, database: 'pastload' })
   const databaseUrl = external ?? cluster.url
   const store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: 's3', port: Number(process.env.PASTLOAD_S3_PORT ?? 54331), optional: true })
-  const stopAll = () => { store?.stop(); cluster?.stop() }
+  const mail = externalSmtp() ? null : await startMailCatcher({ projectRoot: root, name: 'mail', port: Number(process.env.PASTLOAD_SMTP_PORT ?? 54332), webPort: Number(process.env.PASTLOAD_MAIL_WEB_PORT ?? 54333), optional: true })
+  const stopAll = () => { mail?.stop(); store?.stop(); cluster?.stop() }
 
   try {
     buildIfStale(root)
@@ -39,6 +41,7 @@ async function main() {
     env: {
       ...process.env,
       ...store?.env,
+      ...mail?.env,
       DATABASE_URL: databaseUrl,
       PASTLOAD_SEED: process.env.PASTLOAD_SEED ?? 'demo',
       PASTLOAD_MIGRATIONS_DIR: `${root}migrations`,

@@ -1,8 +1,10 @@
-import { and, eq, inArray } from 'drizzle-orm'
+import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { NotificationKind } from '#shared/notifications/kinds'
 import { type Tx, useDb } from '~~/server/db/client'
 import { mailOutbox, notificationPreferences, notifications, users } from '~~/server/db/schema'
 import { publishLiveEvent } from '~~/server/services/live-events'
+import { MAIL_OUTBOX_CHANNEL, publicBaseUrl } from '~~/server/services/mail-settings'
+import { renderMail } from '~~/server/services/mail-templates'
 
 /** One event told to some people: an inbox entry each, and an e-mail each unless they turned the kind off. */
 export interface NoticeInput {
@@ -50,8 +52,9 @@ export async function notify(input: NoticeInput, tx?: Tx): Promise<void> {
       toAddress: p.email,
       toUserId: p.id,
       projectId: input.projectId,
-      ...renderMail({ title: input.title, body: input.body ?? '', link: input.link }),
+      ...renderMail({ kind: input.kind, title: input.title, body: input.body ?? '', link: input.link, baseUrl: publicBaseUrl() }),
     })))
+    await wakeMailWorker(db)
   }
   for (const p of active) await publishLiveEvent({ type: 'inbox.changed', projectId: null, userId: p.id }, tx)
 }
@@ -64,16 +67,12 @@ export async function sendAccountMail(input: { kind: 'invitation' | 'password-re
     toAddress: input.to,
     toUserId: input.userId ?? null,
     projectId: input.projectId ?? null,
-    ...renderMail({ title: input.title, body: input.body, link: input.link }),
+    ...renderMail({ kind: input.kind, title: input.title, body: input.body, link: input.link, baseUrl: publicBaseUrl() }),
   })
+  await wakeMailWorker(db)
 }
 
-/** Plain text and HTML of one message from one template. (Placeholder: replaced by the mail templates.) */
-function renderMail(m: { title: string, body: string, link: string }): { subject: string, textBody: string, htmlBody: string } {
-  const escape = (s: string) => s.replace(/[&<>"']/g, c => `&#${c.charCodeAt(0)};`)
-  return {
-    subject: m.title,
-    textBody: `${m.body}\n\n${m.link}\n`,
-    htmlBody: `<p>${escape(m.body)}</p><p><a href="${escape(m.link)}">${escape(m.link)}</a></p>`,
-  }
+/** Tells the delivery workers (every app process) that mail is waiting: PostgreSQL delivers it at commit. */
+async function wakeMailWorker(db: Tx | ReturnType<typeof useDb>): Promise<void> {
+  await db.execute(sql`select pg_notify(${MAIL_OUTBOX_CHANNEL}, '')`)
 }

@@ -8,6 +8,7 @@ import { investigationPoints, logIntervals, oedometerTests, preconsolidationAdop
 import { recordAudit } from './audit'
 import { notFound, versionedUpdate } from './http-errors'
 import { publishLiveEvent } from './live-events'
+import { noticeFlagRaised, noticeFlagReply } from './review-notices'
 
 /** The flagged record must belong to the project (checked in the WHERE clause); anything else is 404. */
 export async function assertTargetInProject(projectId: string, type: FlagTarget, targetId: string): Promise<void> {
@@ -111,6 +112,7 @@ export async function createFlag(projectId: string, actorId: string, body: z.inf
     const row = returnedRow(await tx.insert(reviewFlags).values({ ...body, projectId, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-flag', entityId: row.id, after: row }, tx)
     await publishLiveEvent({ type: 'flag.changed', projectId, entityId: row.id }, tx)
+    await noticeFlagRaised(tx, actorId, row)
     return row
   })
 }
@@ -154,6 +156,7 @@ export async function replyToFlag(projectId: string, actorId: string, flagId: st
     const row = returnedRow(await tx.insert(reviewReplies).values({ flagId, body, createdBy: actorId }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'review-reply', entityId: row.id, after: row }, tx)
     await publishLiveEvent({ type: 'flag.reply', projectId, entityId: flagId }, tx)
+    await noticeFlagReply(tx, actorId, flagId, row.id, body)
     return row
   })
 }

@@ -7,11 +7,14 @@ import { join, relative, resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { openEventStream } from '../helpers/event-stream'
 import { Client, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
-import { CALLERS, type Caller, type Ctx, type RouteCase } from './matrix/types'
+import { CALLERS, type Caller, type Ctx, type RouteCase, type SiteRouteCase } from './matrix/types'
 
 // Each domain's routes live in tests/api/matrix/<domain>.routes.ts (export ROUTES).
 const modules = import.meta.glob<{ ROUTES: RouteCase[] }>('./matrix/*.routes.ts', { eager: true })
 const PROJECT_ROUTES: RouteCase[] = Object.keys(modules).sort().flatMap(k => modules[k]!.ROUTES)
+// Account and site-admin routes (optional `SITE_ROUTES` of the same files).
+const siteModules = import.meta.glob<{ SITE_ROUTES?: SiteRouteCase[] }>('./matrix/*.routes.ts', { eager: true })
+const SITE_ROUTES: SiteRouteCase[] = Object.keys(siteModules).sort().flatMap(k => siteModules[k]!.SITE_ROUTES ?? [])
 
 /** Site-wide routes: the site admin may, a project member may not (403), anonymous 401. */
 const SITE_WIDE_CASES: { method: 'GET' | 'POST', path: string, body?: () => unknown, admin: number }[] = [
@@ -101,6 +104,20 @@ describe('authorization matrix', () => {
         expect((await ctx.clients.engineer.request(c.method, c.path, c.body?.())).status).toBe(403)
         expect((await ctx.clients.anonymous.request(c.method, c.path, c.body?.())).status).toBe(401)
       })
+    }
+    for (const route of SITE_ROUTES) {
+      const callers: Caller[] = route.who === 'account' ? ['owner', 'viewer', 'nonMember', 'anonymous'] : ['owner', 'engineer', 'nonMember', 'anonymous']
+      for (const caller of callers) {
+        // The demo owner is the site admin; everyone else here is not.
+        const want = caller === 'anonymous' ? 401 : route.who === 'account' || caller === 'owner' ? route.ok : 403
+        it(`${route.method} ${route.path} as ${caller} → ${want}`, async () => {
+          const client = ctx.clients[caller]
+          const prepared = route.prepare ? await route.prepare(ctx, client) : {}
+          const body = prepared.body ?? (route.method === 'GET' || route.method === 'DELETE' ? undefined : {})
+          const r = await client.request(route.method, prepared.path ?? route.path, body)
+          expect(r.status, JSON.stringify(r.body)).toBe(want)
+        })
+      }
     }
     for (const path of SIGNED_IN_READS) {
       it(`GET ${path}: any signed-in user 200, anonymous 401`, async () => {

@@ -91,3 +91,16 @@ export async function freshAgsUpload(ctx: Ctx): Promise<string> {
   if (r.status !== 201) throw new Error(`fixture AGS4 upload failed: ${r.status} ${JSON.stringify(r.body)}`)
   return `/api/projects/${ctx.projectId}/imports/${r.body.importId}`
 }
+
+/**
+ * A route outside projects: `account` routes answer any signed-in person about themselves (`ok`), anonymous 401;
+ * `site-admin` routes answer a site admin (`ok`), anyone else signed in 403, anonymous 401.
+ */
+export interface SiteRouteCase {
+  method: RouteCase['method']
+  path: string
+  who: 'account' | 'site-admin'
+  ok: number
+  /** Builds the concrete path and body for one caller's call (the caller's own client is given). */
+  prepare?: (ctx: Ctx, caller: Client) => Promise<{ path?: string, body?: unknown }>
+}
