@@ -15,8 +15,9 @@ export default defineNitroErrorHandler((error, event) => {
   if (!error.unhandled && !error.fatal) return
   const unavailable = isDatabaseUnavailable(error)
   const status = unavailable ? 503 : 500
-  // The path only: a query string may carry something private.
-  logServerError(`${status} ${event.method} ${getRequestURL(event).pathname}`, error, { stack: !unavailable })
+  // The path only: a query string may carry something private; a one-time link's token (a long run) is cut out.
+  const path = getRequestURL(event).pathname.replace(/[A-Za-z0-9_-]{40,}/g, '[token]')
+  logServerError(`${status} ${event.method} ${path}`, error, { stack: !unavailable })
   if (unavailable) setResponseHeader(event, 'Retry-After', DATABASE_RETRY_AFTER_SECONDS)
   error.statusCode = status
   error.statusMessage = unavailable ? 'Service Unavailable' : 'Server Error'

@@ -2,6 +2,8 @@
 export default defineNuxtRouteMiddleware(async (to) => {
   const { user, loaded, refresh } = useAuth()
   if (!loaded.value) await refresh()
+  // The one-time links and the reset request work without an account.
+  if (to.path === '/forgot-password' || to.path.startsWith('/reset-password/') || to.path.startsWith('/invitations/')) return
   if (to.path === '/login') {
     if (user.value) return navigateTo(typeof to.query.next === 'string' && to.query.next.startsWith('/') ? to.query.next : '/')
     return

@@ -21,6 +21,12 @@ export default defineEventHandler(async (event) => {
     writeSessionCookie(event, lucia.createBlankSessionCookie())
     return
   }
+  // A disabled account's sessions are deleted when it is disabled; one that slipped in since ends here.
+  if (user.disabledAt) {
+    await lucia.invalidateUserSessions(user.id)
+    writeSessionCookie(event, lucia.createBlankSessionCookie())
+    return
+  }
   if (session.fresh) writeSessionCookie(event, lucia.createSessionCookie(token))
   event.context.user = { id: user.id, email: user.email, displayName: user.displayName, isSiteAdmin: user.isSiteAdmin }
   event.context.sessionId = session.id

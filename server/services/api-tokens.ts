@@ -72,7 +72,7 @@ export type TokenCheck =
 
 const UNKNOWN = 'The API token is invalid or revoked.'
 
-/** Looks a bearer token up: its user and scope, or why it is refused (unknown, revoked, expired). */
+/** Looks a bearer token up: its user and scope, or why it is refused (unknown, revoked, expired, account disabled). */
 export async function authenticateToken(token: string): Promise<TokenCheck> {
   if (!token.startsWith(PREFIX) || token.length > 200) return { ok: false, message: UNKNOWN }
   const db = useDb()
@@ -85,12 +85,14 @@ export async function authenticateToken(token: string): Promise<TokenCheck> {
     email: users.email,
     displayName: users.displayName,
     isSiteAdmin: users.isSiteAdmin,
+    disabledAt: users.disabledAt,
   })
     .from(apiTokens)
     .innerJoin(users, eq(users.id, apiTokens.userId))
     .where(eq(apiTokens.tokenHash, hashToken(token)))
     .limit(1)
   if (!row || row.revokedAt) return { ok: false, message: UNKNOWN }
+  if (row.disabledAt) return { ok: false, message: 'The account this API token belongs to is disabled.' }
   if (row.expiresAt.getTime() <= Date.now()) {
     return { ok: false, message: `The API token expired on ${row.expiresAt.toISOString().slice(0, 10)}; create a new one on the account page.` }
   }

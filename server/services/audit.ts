@@ -1,13 +1,14 @@
 import { type Tx, useDb } from '../db/client'
 import { auditEvents } from '../db/schema'
 
-/** The actions the audit log records: row writes, imports, σ'p adoptions, review-flag state, sign-in and password events. */
+/** The actions the audit log records: row writes, imports, σ'p adoptions, review-flag state, sign-in and password events, invitations and accounts disabled or enabled. */
 export type AuditAction
   = | 'create' | 'update' | 'delete'
     | 'import'
     | 'adopt' | 'withdraw'
     | 'resolve' | 'reopen'
     | 'login' | 'logout' | 'password-change'
+    | 'invite' | 'revoke' | 'accept' | 'password-reset' | 'disable' | 'enable'
 
 export interface AuditEntry {
   actorId: string | null

@@ -24,10 +24,27 @@ const ipKey = (ip: string) => `ip:${ip}`
  * cannot lock the real owner out from everywhere else.
  */
 export async function takeAttempt(email: string, ip: string): Promise<number> {
+  return takeKeyedAttempt(ipKey(ip), MAX_PER_IP, pairKey(email, ip), MAX_PER_PAIR)
+}
+
+/**
+ * The same counters for another public door than the sign-in (a password-reset request, a
+ * one-time link): its own keys under `scope`, per IP and per (subject, IP) when a subject is
+ * given, so it never spends the sign-in's allowance. Returns the seconds to wait, or 0.
+ */
+export async function takeScopedAttempt(scope: string, ip: string, limits: { perIp: number, perPair?: number }, subject = ''): Promise<number> {
+  const pair = subject && limits.perPair ? { key: `${scope}:${pairKey(subject, ip)}`, max: limits.perPair } : null
+  return takeKeyedAttempt(`${scope}:${ipKey(ip)}`, limits.perIp, pair?.key, pair?.max)
+}
+
+async function takeKeyedAttempt(ipCounter: string, maxIp: number, pairCounter?: string, maxPair = 0): Promise<number> {
   const windowSeconds = WINDOW_MS / 1000
+  const values = pairCounter
+    ? sql`(${ipCounter}, 1, now()), (${pairCounter}, 1, now())`
+    : sql`(${ipCounter}, 1, now())`
   const { rows } = await useDb().execute<{ key: string, attempts: number, wait: number }>(sql`
     insert into login_throttle as t (key, attempts, window_start)
-    values (${ipKey(ip)}, 1, now()), (${pairKey(email, ip)}, 1, now())
+    values ${values}
     on conflict (key) do update set
       attempts = case when t.window_start <= now() - make_interval(secs => ${windowSeconds}) then 1 else t.attempts + 1 end,
       window_start = case when t.window_start <= now() - make_interval(secs => ${windowSeconds}) then now() else t.window_start end
@@ -35,7 +52,7 @@ export async function takeAttempt(email: string, ip: string): Promise<number> {
       ceil(extract(epoch from (t.window_start + make_interval(secs => ${windowSeconds}) - now())))::int as wait`)
   let wait = 0
   for (const row of rows) {
-    const limit = row.key.startsWith('ip:') ? MAX_PER_IP : MAX_PER_PAIR
+    const limit = row.key === ipCounter ? maxIp : maxPair
     if (row.attempts > limit) wait = Math.max(wait, row.wait, 1)
   }
   return wait

@@ -11,6 +11,7 @@ interface DatabaseUserAttributes {
   email: string
   displayName: string
   isSiteAdmin: boolean
+  disabledAt: Date | null
 }
 
 /** Lucia v3 over the sessions table; 14-day sessions, extended while in use (sliding expiry). */
@@ -21,7 +22,7 @@ export function useLucia() {
       name: 'pastload_session',
       attributes: { sameSite: 'lax', secure: false },
     },
-    getUserAttributes: a => ({ email: a.email, displayName: a.displayName, isSiteAdmin: a.isSiteAdmin }),
+    getUserAttributes: a => ({ email: a.email, displayName: a.displayName, isSiteAdmin: a.isSiteAdmin, disabledAt: a.disabledAt }),
   })
   return instance
 }
@@ -58,6 +59,12 @@ export async function startSession(event: H3Event, userId: string): Promise<void
   const token = generateIdFromEntropySize(25)
   await lucia.createSession(userId, {}, { sessionId: sessionIdFromToken(token) })
   writeSessionCookie(event, lucia.createSessionCookie(token))
+}
+
+/** Signs this browser in as the user, ending the session the request came with (if any). */
+export async function replaceSession(event: H3Event, userId: string): Promise<void> {
+  if (event.context.sessionId) await useLucia().invalidateSession(event.context.sessionId)
+  await startSession(event, userId)
 }
 
 /** True when the request came over HTTPS (directly or through a trusted proxy). */

@@ -21,6 +21,9 @@ const SITE_WIDE_CASES: { method: 'GET' | 'POST', path: string, body?: () => unkn
   { method: 'GET', path: '/api/users', admin: 200 },
   { method: 'POST', path: '/api/users', body: () => ({ email: uniqueEmail('matrix'), displayName: 'Matrix', password: 'correct-horse-battery-9' }), admin: 201 },
   { method: 'POST', path: '/api/projects', body: () => ({ jobNumber: `MXP-${Math.random().toString(36).slice(2, 8)}`, name: 'Matrix project' }), admin: 201 },
+  { method: 'GET', path: '/api/admin/users', admin: 200 },
+  { method: 'POST', path: '/api/admin/users', body: () => ({ email: uniqueEmail('matrix-site-invite') }), admin: 201 },
+  { method: 'GET', path: '/api/admin/invitations', admin: 200 },
 ]
 /** Routes any signed-in user may read. */
 const SIGNED_IN_READS = ['/api/projects', '/api/auth/me', '/api/account/tokens']

@@ -19,6 +19,7 @@ import {
 import { AdoptionInputSchema, OedometerTestInputSchema, OedometerTestUpdateSchema, PreconsolidationPointsEvaluateSchema } from '../../shared/schemas/lab'
 import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema, SubmitVersionSchema, VersionDecisionSchema } from '../../shared/schemas/models'
 import { AddMemberSchema, CreateProjectSchema, UpdateMemberSchema, UpdateProjectSchema } from '../../shared/schemas/projects'
+import { InviteSchema } from '../../shared/schemas/people'
 import { CreateFlagSchema, ReplySchema, UpdateFlagSchema } from '../../shared/schemas/review'
 import { TINY_PDF } from '../helpers/attach'
 import { upload } from '../helpers/upload'
@@ -40,6 +41,7 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'PATCH /api/projects/:projectId': UpdateProjectSchema,
   'POST /api/projects/:projectId/members': AddMemberSchema,
   'PATCH /api/projects/:projectId/members/:userId': UpdateMemberSchema,
+  'POST /api/projects/:projectId/invitations': InviteSchema,
   'POST /api/projects/:projectId/points': PointInputSchema,
   'PATCH /api/projects/:projectId/points/:pointId': PointUpdateSchema,
   'PUT /api/projects/:projectId/points/:pointId/intervals': LogReplaceSchema,

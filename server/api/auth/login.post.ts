@@ -24,6 +24,10 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: WRONG })
   }
   await recordSuccess(email, ip)
+  // Told only to someone who knows the password: no probing of which accounts are disabled.
+  if (user.disabledAt) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'This account is disabled. Ask a site admin to enable it.' })
+  }
 
   await startSession(event, user.id)
   await recordAudit({ actorId: user.id, action: 'login', entity: 'session', entityId: null, after: { ip } })
