@@ -50,7 +50,7 @@ function demoGroundwater(sandTop: number): SiteModelDefinition['groundwater'] {
 
 /** Fits each compressible stratum's trend to the σ'p points the definition gives (its own σ'v0). */
 async function fitted(projectId: string, definition: SiteModelDefinition): Promise<{ definition: SiteModelDefinition, pointIds: Map<string, string[]> }> {
-  const ctx = stressContextOf(definition, { source: 'given', modelId: null, modelName: null, description: 'Demo model being seeded.' })
+  const ctx = stressContextOf(definition, { source: 'given', modelId: null, modelName: null, version: null, status: null, description: 'Demo model being seeded.' })
   const { points } = await allPreconsolidationPoints(projectId, ctx, { spacing: 0.25, dense: false })
   const pointIds = new Map<string, string[]>()
   const strata = definition.strata.map((s) => {
