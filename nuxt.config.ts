@@ -101,6 +101,9 @@ export default defineNuxtConfig({
     // only starts PostgreSQL and the object store and passes DATABASE_URL and PASTLOAD_MIGRATIONS_DIR. The database
     // URL is read from DATABASE_URL (or NUXT_DATABASE_URL) by server/db/client.ts, not from runtimeConfig.
     experimental: { openAPI: false },
+    // The built scripts, styles and fonts are stored brotli- and gzip-compressed beside the originals and
+    // served in the form the browser accepts (pages themselves: server/plugins/compress-pages.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     output: { dir: process.env.PASTLOAD_OUTPUT_DIR ?? '.output' },
     hooks: {
       // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
