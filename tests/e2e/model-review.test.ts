@@ -42,6 +42,7 @@ describe('reviewing a model version in Chromium', () => {
     await page.getByTestId('version-title').getByTestId('status-badge-submitted').waitFor()
   }
 
+  // Four sign-ins and two review rounds in one story: longer than the default time of a browser test.
   it('the engineer sends v1, the reviewer returns it with a comment, the engineer reads it; v2 is resubmitted and approved', async () => {
     let page = await signInAs(browser.context, demoEmail('engineer'))
     await sendForReview(page, 1, 'Estuarine trend ready for a check.')
@@ -87,5 +88,5 @@ describe('reviewing a model version in Chromium', () => {
     await expect(page.getByTestId(`approved-${modelId}`).textContent()).resolves.toContain('v2')
     await page.getByTestId('model-list').getByTestId('status-badge-approved').waitFor()
     await screenshot(page, 'model-review-models-list')
-  })
+  }, 240_000)
 })
