@@ -132,7 +132,7 @@ const MESSAGE_CSP = "sandbox allow-popups allow-popups-to-escape-sandbox; defaul
 const STYLE = `body{font:15px/1.45 system-ui,sans-serif;margin:0;color:#1f2a30;background:#f4f6f5}
 header{background:#123b4a;color:#fff;padding:10px 18px}header b{font-size:17px}main{max-width:960px;margin:0 auto;padding:16px}
 table{width:100%;border-collapse:collapse;background:#fff}td,th{padding:6px 8px;border-bottom:1px solid #dde3e1;text-align:left;vertical-align:top}
-a{color:#0f5c73}pre{white-space:pre-wrap;background:#fff;padding:12px;border:1px solid #dde3e1}iframe{width:100%;height:520px;border:1px solid #dde3e1;background:#fff}
+a{color:#0f5c73}pre{white-space:pre-wrap;overflow-wrap:anywhere;background:#fff;padding:12px;border:1px solid #dde3e1}iframe{width:100%;height:520px;border:1px solid #dde3e1;background:#fff}
 .meta{color:#55646b;font-size:13px}`
 
 function page(title, body) {
