@@ -116,13 +116,23 @@ function launch(directory, port, webPort, removeOnStop) {
 // ---- the child process ----
 
 const escapeHtml = s => String(s ?? '').replace(/[&<>"']/g, c => `&#${c.charCodeAt(0)};`)
+/** Plain text with its http(s) addresses as links (opened in a new tab), so a demo user can follow a message's link. */
+function linkify(text) {
+  let out = ''
+  let last = 0
+  for (const m of String(text ?? '').matchAll(/https?:\/\/[^\s<>"]+/g)) {
+    out += `${escapeHtml(text.slice(last, m.index))}<a href="${escapeHtml(m[0])}" target="_blank" rel="noopener noreferrer">${escapeHtml(m[0])}</a>`
+    last = m.index + m[0].length
+  }
+  return out + escapeHtml(String(text ?? '').slice(last))
+}
 const PAGE_CSP = "default-src 'none'; style-src 'unsafe-inline'; frame-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'"
 // A message's own HTML is shown in a sandboxed frame: no scripts, no forms, nothing fetched.
 const MESSAGE_CSP = "sandbox allow-popups allow-popups-to-escape-sandbox; default-src 'none'; style-src 'unsafe-inline'; img-src data:; frame-ancestors 'self'"
 const STYLE = `body{font:15px/1.45 system-ui,sans-serif;margin:0;color:#1f2a30;background:#f4f6f5}
 header{background:#123b4a;color:#fff;padding:10px 18px}header b{font-size:17px}main{max-width:960px;margin:0 auto;padding:16px}
 table{width:100%;border-collapse:collapse;background:#fff}td,th{padding:6px 8px;border-bottom:1px solid #dde3e1;text-align:left;vertical-align:top}
-a{color:#0f5c73}pre{white-space:pre-wrap;background:#fff;padding:12px;border:1px solid #dde3e1}iframe{width:100%;height:520px;border:1px solid #dde3e1;background:#fff}
+a{color:#0f5c73}pre{white-space:pre-wrap;overflow-wrap:anywhere;background:#fff;padding:12px;border:1px solid #dde3e1}iframe{width:100%;height:520px;border:1px solid #dde3e1;background:#fff}
 .meta{color:#55646b;font-size:13px}`
 
 function page(title, body) {
@@ -215,7 +225,7 @@ async function serve(directory, port, webPort) {
         const body = `<p><a href="/">← All messages</a></p><h1>${escapeHtml(m.mail.subject)}</h1>`
           + `<p class="meta">From ${escapeHtml(m.mail.from?.text)} · to ${escapeHtml(m.mail.to?.text)} · ${escapeHtml(m.mail.date?.toISOString())} · <a href="/messages/${one[1]}.eml">.eml file</a></p>`
           + (m.mail.html ? `<h2>As HTML</h2><iframe title="The message as HTML" sandbox="allow-popups allow-popups-to-escape-sandbox" src="/messages/${one[1]}/html"></iframe>` : '')
-          + `<h2>As plain text</h2><pre>${escapeHtml(m.mail.text)}</pre>`
+          + `<h2>As plain text</h2><pre>${linkify(m.mail.text ?? '')}</pre>`
         res.writeHead(200, { ...headers, 'content-type': 'text/html; charset=utf-8', 'content-security-policy': PAGE_CSP })
         res.end(page(m.mail.subject ?? 'Message', body))
         return
