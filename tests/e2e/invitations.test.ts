@@ -39,7 +39,7 @@ describe('invitations, password reset and people in the browser', () => {
     const page = await signInAs(browser.context, owner.email, TEST_PASSWORD)
     await page.goto(`${baseUrl()}/projects/${project.id}`)
     const team = page.getByTestId('members-table')
-    await team.getByText(colleague.email).waitFor()
+    await team.getByRole('cell', { name: colleague.email }).waitFor()
 
     // A role change waits for the owner's confirmation.
     const colleagueRole = page.getByLabel(/^Role of Test e2e-inv-colleague/)
