@@ -171,6 +171,13 @@ describe('every write route under hostile input', () => {
     ctx.projectId = p.body.project.id
     ctx.clients = { owner: ctx.owner } as Ctx['clients']
     ctx.ids = {} as Ctx['ids']
+    // Routes whose fixtures need another member (a version saved by the engineer, sent to the reviewer).
+    for (const role of ['engineer', 'reviewer'] as const) {
+      const u = await createUser(ctx.owner, `fuzz-${role}`)
+      expect((await ctx.owner.post(`/api/projects/${ctx.projectId}/members`, { email: u.email, role })).status).toBe(201)
+      ctx.clients[role] = u.client
+      ctx.ids[role] = u.id
+    }
     tokenOwner = (await createUser(ctx.owner, 'fuzz-tokens')).client
     const pw = await createUser(ctx.owner, 'fuzz-password')
     passwordUser = { client: pw.client, email: pw.email }
