@@ -28,6 +28,12 @@ export default defineNuxtConfig({
   // Lint config is generated at one fixed path whatever the build folder; eslint.config.mjs extends it.
   eslint: { config: { configFile: '.nuxt/eslint.config.mjs', typescript: { strict: false } } },
   css: ['~/assets/css/main.css'],
+  // The page's CSS (Tailwind's output with the font faces, about 7 kB compressed) is written into the HTML,
+  // so the first paint waits for no stylesheet request.
+  features: { inlineStyles: true },
+  // A link's page is fetched when the pointer reaches the link or it takes the focus, not as soon as it is on
+  // screen: the section navigation alone would otherwise load and run every project page right after each load.
+  experimental: { defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } } },
   app: {
     head: {
       htmlAttrs: { lang: 'en' },

@@ -39,7 +39,7 @@ function startChromium(): Promise<{ port: number, stop: () => void }> {
   ], { stdio: ['ignore', 'ignore', 'pipe'] })
   const stop = () => {
     child.kill('SIGTERM')
-    rmSync(dir, { recursive: true, force: true })
+    rmSync(dir, { recursive: true, force: true, maxRetries: 10 }) // Chromium may still be writing its profile as it exits
   }
   return new Promise((resolve, reject) => {
     let seen = ''
