@@ -31,7 +31,7 @@ describe('API tokens on the account page', () => {
     await page.getByTestId('token-expiry-days-mode').check()
     await page.getByLabel('Read-only (read and compute; no changes)').uncheck()
     await page.getByRole('button', { name: 'Create token' }).click()
-    const rows = page.locator('table.pl-table tbody tr')
+    const rows = page.getByTestId('token-table').locator('tbody tr')
     await rows.nth(1).waitFor()
     expect(await rows.count()).toBe(2)
     // Newest first: the default (read and write, 90 days) above the read-only one.
