@@ -4,11 +4,11 @@
 // back with `mailparser`) on 127.0.0.1. Run in a child process like the object
 // store, so scripts that block in spawnSync keep it serving. Used by `npm start`,
 // `npm run dev` and `npm test` unless PASTLOAD_SMTP_URL names a real SMTP server.
-import { fork } from 'node:child_process'
-import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { readdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { createServer } from 'node:http'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { forkService, serviceFolder, stopper } from './child-service.mjs'
 import { log } from './log.mjs'
 
 const SELF = fileURLToPath(import.meta.url)
@@ -20,26 +20,7 @@ export function externalSmtp(env = process.env) {
   return Boolean(env.PASTLOAD_SMTP_URL)
 }
 
-function alive(pid) {
-  try {
-    process.kill(pid, 0)
-    return true
-  }
-  catch (err) {
-    return err.code === 'EPERM'
-  }
-}
 
-/** Per-run mail folders (`mail-test-<pid>`) left behind by a run that was killed. */
-function removeStaleRunFolders(dataDir) {
-  let entries = []
-  try { entries = readdirSync(dataDir) }
-  catch { return }
-  for (const entry of entries) {
-    const m = /^mail-(?:test|bench)-(\d+)$/.exec(entry)
-    if (m && !alive(Number(m[1]))) rmSync(join(dataDir, entry), { recursive: true, force: true })
-  }
-}
 
 /**
  * Starts the catcher: SMTP on 127.0.0.1:`port`, the web inbox on 127.0.0.1:`webPort`
@@ -50,13 +31,8 @@ function removeStaleRunFolders(dataDir) {
  * app then keeps its messages in the outbox and retries).
  */
 export async function startMailCatcher({ projectRoot, name, port, webPort, fresh = false, optional = false }) {
-  const directory = join(projectRoot, '.data', name)
   try {
-    if (fresh) {
-      removeStaleRunFolders(join(projectRoot, '.data'))
-      rmSync(directory, { recursive: true, force: true })
-    }
-    mkdirSync(directory, { recursive: true })
+    const directory = serviceFolder(projectRoot, name, 'mail', fresh)
     return await launch(directory, port, webPort, fresh)
   }
   catch (err) {
@@ -67,50 +43,12 @@ export async function startMailCatcher({ projectRoot, name, port, webPort, fresh
   }
 }
 
-function launch(directory, port, webPort, removeOnStop) {
-  return new Promise((resolve, reject) => {
-    let child
-    try {
-      child = fork(SELF, ['--serve', directory, String(port ?? 0), String(webPort ?? 0)], { stdio: ['ignore', 'inherit', 'inherit', 'ipc'] })
-    }
-    catch (err) {
-      reject(err)
-      return
-    }
-    const timer = setTimeout(() => {
-      child.kill('SIGKILL')
-      reject(new Error('no answer within 20 s'))
-    }, 20_000)
-    child.once('error', (err) => {
-      clearTimeout(timer)
-      reject(err)
-    })
-    child.once('exit', (code) => {
-      clearTimeout(timer)
-      reject(new Error(`it exited with code ${code}`))
-    })
-    child.once('message', (msg) => {
-      clearTimeout(timer)
-      child.removeAllListeners('exit')
-      if (msg?.error) {
-        reject(Object.assign(new Error(msg.error), { code: msg.code, port: msg.port }))
-        return
-      }
-      child.unref()
-      child.channel?.unref()
-      const webUrl = `http://127.0.0.1:${msg.webPort}`
-      log('mail', `Mail catcher: SMTP on 127.0.0.1:${msg.port}; read the messages at ${webUrl} (files in ${directory})`)
-      let running = true
-      const stop = () => {
-        if (!running) return
-        running = false
-        child.kill('SIGTERM')
-        if (removeOnStop) rmSync(directory, { recursive: true, force: true })
-        log('mail', `Mail catcher on port ${msg.port} stopped`)
-      }
-      resolve({ env: { PASTLOAD_SMTP_PORT: String(msg.port), PASTLOAD_MAIL_DIR: directory, PASTLOAD_MAIL_WEB_URL: webUrl }, port: msg.port, webUrl, directory, stop })
-    })
-  })
+async function launch(directory, port, webPort, removeOnStop) {
+  const { child, msg } = await forkService(SELF, ['--serve', directory, String(port ?? 0), String(webPort ?? 0)])
+  const webUrl = `http://127.0.0.1:${msg.webPort}`
+  log('mail', `Mail catcher: SMTP on 127.0.0.1:${msg.port}; read the messages at ${webUrl} (files in ${directory})`)
+  const stop = stopper(child, directory, removeOnStop, () => log('mail', `Mail catcher on port ${msg.port} stopped`))
+  return { env: { PASTLOAD_SMTP_PORT: String(msg.port), PASTLOAD_MAIL_DIR: directory, PASTLOAD_MAIL_WEB_URL: webUrl }, port: msg.port, webUrl, directory, stop }
 }
 
 // ---- the child process ----

@@ -3,11 +3,9 @@
 // on 127.0.0.1 with its files under `.data/<name>`. Used by `npm start`,
 // `npm run dev`, `npm test` and `npm run bench` unless PASTLOAD_S3_ENDPOINT or
 // PASTLOAD_S3_BUCKET points at a real store.
-import { fork } from 'node:child_process'
-import { mkdirSync, readdirSync, rmSync } from 'node:fs'
 import { createServer } from 'node:http'
-import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { forkService, serviceFolder, stopper } from './child-service.mjs'
 import { log } from './log.mjs'
 
 const SELF = fileURLToPath(import.meta.url)
@@ -42,26 +40,7 @@ async function answersLikeS3(port) {
   }
 }
 
-function alive(pid) {
-  try {
-    process.kill(pid, 0)
-    return true
-  }
-  catch (err) {
-    return err.code === 'EPERM'
-  }
-}
 
-/** Per-run stores (`<name>-<pid>`) left behind by a run that was killed. */
-function removeStaleRunStores(dataDir) {
-  let entries = []
-  try { entries = readdirSync(dataDir) }
-  catch { return }
-  for (const entry of entries) {
-    const m = /^s3-(?:test|bench)-(\d+)$/.exec(entry)
-    if (m && !alive(Number(m[1]))) rmSync(join(dataDir, entry), { recursive: true, force: true })
-  }
-}
 
 /**
  * Starts the fake on 127.0.0.1:`port` (0: a free port) with the bucket created,
@@ -72,13 +51,8 @@ function removeStaleRunStores(dataDir) {
  * app still starts (attachments then answer 503).
  */
 export async function startObjectStore({ projectRoot, name, port, fresh = false, optional = false }) {
-  const directory = join(projectRoot, '.data', name)
   try {
-    if (fresh) {
-      removeStaleRunStores(join(projectRoot, '.data'))
-      rmSync(directory, { recursive: true, force: true })
-    }
-    mkdirSync(directory, { recursive: true })
+    const directory = serviceFolder(projectRoot, name, 's3', fresh)
     return await launch(directory, port, fresh)
   }
   catch (err) {
@@ -93,50 +67,11 @@ export async function startObjectStore({ projectRoot, name, port, fresh = false,
   }
 }
 
-function launch(directory, port, removeOnStop) {
-  return new Promise((resolve, reject) => {
-    let child
-    try {
-      child = fork(SELF, ['--serve', directory, String(port ?? 0)], { stdio: ['ignore', 'inherit', 'inherit', 'ipc'] })
-    }
-    catch (err) {
-      reject(err)
-      return
-    }
-    const timer = setTimeout(() => {
-      child.kill('SIGKILL')
-      reject(new Error('no answer within 20 s'))
-    }, 20_000)
-    child.once('error', (err) => {
-      clearTimeout(timer)
-      reject(err)
-    })
-    child.once('exit', (code) => {
-      clearTimeout(timer)
-      reject(new Error(`it exited with code ${code}`))
-    })
-    child.once('message', (msg) => {
-      clearTimeout(timer)
-      child.removeAllListeners('exit')
-      if (msg?.error) {
-        reject(Object.assign(new Error(msg.error), { code: msg.code }))
-        return
-      }
-      // The store must not keep the parent's event loop alive, nor outlive it (see `--serve`).
-      child.unref()
-      child.channel?.unref()
-      log('s3', `Object store (s3rver) on http://127.0.0.1:${msg.port}, bucket "${FAKE_BUCKET}", data in ${directory}`)
-      let running = true
-      const stop = () => {
-        if (!running) return
-        running = false
-        child.kill('SIGTERM')
-        if (removeOnStop) rmSync(directory, { recursive: true, force: true })
-        log('s3', `Object store on port ${msg.port} stopped`)
-      }
-      resolve({ env: envFor(msg.port), port: msg.port, stop })
-    })
-  })
+async function launch(directory, port, removeOnStop) {
+  const { child, msg } = await forkService(SELF, ['--serve', directory, String(port ?? 0)])
+  log('s3', `Object store (s3rver) on http://127.0.0.1:${msg.port}, bucket "${FAKE_BUCKET}", data in ${directory}`)
+  const stop = stopper(child, directory, removeOnStop, () => log('s3', `Object store on port ${msg.port} stopped`))
+  return { env: envFor(msg.port), port: msg.port, stop }
 }
 
 async function serve(directory, port) {
