@@ -122,6 +122,7 @@ export async function seedDemoModel(db: Database): Promise<void> {
       basedOn: 2,
       createdBy: engineer,
       createdAt: at(9),
+      updatedAt: at(2),
     }).returning())
     await tx.update(projects).set({ designModelId: model.id }).where(eq(projects.id, project.id))
     const versionPath = (n: number) => `/projects/${project.id}/models/${model.id}/versions/${n}`
