@@ -163,6 +163,9 @@ describe('the reviewer\'s tools in Chromium', () => {
     const engineer = await signIn(demoEmail('engineer'))
     expect((await engineer.post(`${P()}/flags/${flagId}/replies`, { body: REPLY })).status).toBe(201)
     const page = await signInAs(browser.context, demoEmail('reviewer'))
+    // A page whose live connection is down (here: refused) keeps what it read; the save then meets the newer
+    // flag. With the connection up the thread would have shown the edit by itself (see the live test below).
+    await page.route('**/api/projects/*/events', route => route.abort())
     await page.goto(reviewPage())
     const entry = item(page, flagId)
     await entry.getByTestId('flag-toggle').click()
@@ -206,6 +209,27 @@ describe('the reviewer\'s tools in Chromium', () => {
     expect(await rowOf(page, target).getByTestId('review-badge').count()).toBe(0)
     expect(await page.locator(`[data-testid="review-mark"][aria-label*="${intervalText(target)}"]`).count()).toBe(0)
     await page.close()
+  })
+
+  it('a thread open on the review page shows someone else\'s reply and edit live, without a reload', async () => {
+    const target = intervals[5]!
+    const flagId = await flagInterval(target)
+    const page = await signInAs(browser.context, demoEmail('reviewer'))
+    await page.goto(reviewPage())
+    const entry = item(page, flagId)
+    await entry.getByTestId('flag-toggle').click()
+    const thread = entry.getByTestId('flag-thread')
+    await thread.getByTestId('thread-comment').waitFor()
+
+    const live = 'Live: the driller confirms the change of colour at this depth.'
+    const engineer = await signIn(demoEmail('engineer'))
+    expect((await engineer.post(`${P()}/flags/${flagId}/replies`, { body: live })).status).toBe(201)
+    await thread.getByTestId('thread-reply').filter({ hasText: live }).waitFor({ timeout: 15_000 })
+
+    const before = (await flagsOn(target.id)).find(f => f.id === flagId)!
+    const edited = `${REASON} (edited elsewhere)`
+    expect((await reviewer.patch(`${P()}/flags/${flagId}`, { comment: edited, version: before.version })).status).toBe(200)
+    await expect.poll(() => thread.getByTestId('thread-comment').textContent(), { timeout: 15_000 }).toBe(edited)
   })
 
   it('a designer sees the flags and threads but no flag, reply or resolve controls', async () => {
