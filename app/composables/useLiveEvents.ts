@@ -12,6 +12,38 @@ function dispatch(m: LiveEventMessage) {
   }
 }
 
+/** A burst of events is read as one change: wait this long after the first before refreshing. */
+const SETTLE_MS = 150
+
+/**
+ * The handler run at most once at a time, shortly after an event, and once more after it if more
+ * events came meanwhile. A refresh is never cut short by the next event, so a busy project (many
+ * changes a second) still shows its latest state instead of starting over and over.
+ */
+function coalesced(handler: Handler): Handler {
+  let running = false
+  let again = false
+  let last: LiveEventMessage | null = null
+  return async (m) => {
+    last = m
+    if (running) {
+      again = true
+      return
+    }
+    running = true
+    try {
+      do {
+        again = false
+        await new Promise(r => setTimeout(r, SETTLE_MS))
+        await handler(last ?? m)
+      } while (again)
+    }
+    finally {
+      running = false
+    }
+  }
+}
+
 /**
  * Runs `handler` whenever one of `types` arrives on the open project stream, while the
  * calling component is mounted. Handlers refresh their data by key (`refreshNuxtData`),
@@ -20,6 +52,7 @@ function dispatch(m: LiveEventMessage) {
 export function useLiveEvent(types: Kind | readonly Kind[], handler: Handler) {
   if (import.meta.server) return
   const kinds = Array.isArray(types) ? types as readonly Kind[] : [types as Kind]
+  handler = coalesced(handler)
   onMounted(() => {
     for (const k of kinds) {
       const set = listeners.get(k) ?? new Set<Handler>()
