@@ -40,6 +40,11 @@ export type SublayerOptions = { maxThickness: number } | { count: number }
 export interface SettlementInput extends Omit<StressProfileInput, 'layers' | 'depths'> {
   layers: SettlementLayer[]
   load: Load
+  /**
+   * Δσz(depth) of several plan loads at one point (settlement runs), used instead of `load`
+   * when given; `load` then only names the case.
+   */
+  stressIncrease?: (depth: number) => number
   /** Default { maxThickness: 0.25 } m. */
   sublayers?: SublayerOptions
   /** Times (years after loading) at which to report consolidation settlement. */
@@ -395,7 +400,7 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
   const checkConvergence = options.convergence ?? true
   const model = buildStressModel(input)
   const warnings: string[] = [...model.warnings]
-  const loadAt = createStressIncrease(input.load)
+  const loadAt = input.stressIncrease ?? createStressIncrease(input.load)
   const sublayering = input.sublayers ?? { maxThickness: DEFAULT_MAX_SUBLAYER_THICKNESS }
 
   const compiled: CompressibleLayer[] = []

@@ -6,6 +6,7 @@ export const LIVE_EVENT_TYPES = [
   'review.changed',
   'inbox.changed',
   'member.changed',
+  'run.changed',
 ] as const
 export type LiveEventType = (typeof LIVE_EVENT_TYPES)[number]
 

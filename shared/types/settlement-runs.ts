@@ -1,0 +1,164 @@
+/**
+ * Settlement runs: what the routes under `/api/projects/{projectId}/settlement-runs` answer.
+ * SI throughout (m, kPa, years; `degree` 0–1). `Server…` is what a service returns (dates as
+ * `Date`), the plain name what the page reads (`Serialize<…>`).
+ */
+import type { CompressionCase } from '../geotech/settlement'
+import type { RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
+import type { VersionStatus } from './models'
+import type { Serialize } from './serialize'
+
+export const RUN_STATUSES = ['queued', 'running', 'finished', 'failed'] as const
+export type RunStatus = (typeof RUN_STATUSES)[number]
+
+/** The site-model version a run used, as it stood when the run was made. */
+export interface ServerRunModel {
+  modelId: string
+  modelName: string
+  version: number
+  /** The version's status at run time ('approved', or anything else: not approved). */
+  status: VersionStatus
+  approvedBy: string | null
+  approvedAt: Date | null
+}
+
+export interface RunPersonRef { id: string, name: string }
+
+/** One point's time–settlement: at the designer's years, and a dense log-spaced curve for the plot. */
+export interface RunTimePoint { years: number, degree: number, settlement: number }
+export interface RunTimeCurve {
+  /** Log-spaced times, years. */
+  years: number[]
+  /** Primary consolidation settlement, m, at each time. */
+  primary: number[]
+  /** Secondary compression, m (0 until each layer's 95 % primary). */
+  secondary: number[]
+  /** primary + secondary, m. */
+  total: number[]
+  /** Primary settlement of each stratum (its own drainage path), m. */
+  layers: { name: string, settlement: number[] }[]
+}
+
+/** One named point's result (`results.points[]`). */
+export interface RunPointResult {
+  label: string
+  x: number
+  y: number
+  /** Final primary consolidation settlement, m. */
+  settlement: number
+  /** By stratum, m. */
+  layers: { name: string, settlement: number }[]
+  /** Years to 50 % / 90 % of primary settlement; null where no cv or no settlement. */
+  t50: number | null
+  t90: number | null
+  /** At the options' years. */
+  time: RunTimePoint[]
+  /** Secondary compression over the design life, m (null when no stratum has Cα). */
+  secondary: number | null
+  curve: RunTimeCurve | null
+  /** Total with every sublayer halved, and the relative change. */
+  convergence: { halved: number, relativeChange: number } | null
+  /** Δσ at the ground surface under this point, kPa. */
+  surfaceStressIncrease: number
+  warnings: string[]
+}
+
+/** A grid pair and its difference: `a` and `b` are plan points (m). */
+export interface RunGridPair { a: { x: number, y: number }, b: { x: number, y: number }, value: number }
+
+export interface RunGridResult {
+  /** Column and row coordinates, m. */
+  xs: number[]
+  ys: number[]
+  /** Row-major: settlement[j][i] at (xs[i], ys[j]), m. */
+  settlement: number[][]
+  /** Largest settlement difference between neighbouring grid points (along x, y or a diagonal), m. */
+  maxDifferential: number
+  /** Largest differential / distance between neighbouring grid points. */
+  maxAngularDistortion: number
+  worstDifferential: RunGridPair | null
+  worstAngularDistortion: RunGridPair | null
+  /** The options' limit and whether the worst pair exceeds it. */
+  angularDistortionLimit: number
+  exceedsLimit: boolean
+}
+
+export interface RunResults {
+  points: RunPointResult[]
+  grid?: RunGridResult
+  /** The largest settlement over the named points and the grid. */
+  maximum: { settlement: number, x: number, y: number, label: string | null }
+  warnings: string[]
+  caution: string
+  /** Worker time, ms, and sublayers computed. */
+  stats: { computeMs: number, sublayers: number }
+}
+
+/** One sublayer row of a point's table (`GET …/points/{index}`). */
+export interface RunSublayerRow {
+  layer: string
+  top: number
+  bottom: number
+  depth: number
+  thickness: number
+  effectiveStress: number
+  stressIncrease: number
+  finalEffectiveStress: number
+  preconsolidation: number
+  finalPreconsolidation: number
+  case: CompressionCase
+  voidRatioChange: number
+  strain: number
+  compression: number
+}
+
+export interface RunPointDetail extends RunPointResult {
+  index: number
+  sublayers: RunSublayerRow[]
+}
+
+export interface ServerSettlementRun {
+  id: string
+  name: string
+  status: RunStatus
+  /** 0–1. */
+  progress: number
+  error: { message: string, code: string | null } | null
+  model: ServerRunModel
+  loads: RunLoad[]
+  points: RunPoint[]
+  grid: RunGrid | null
+  options: RunOptions
+  createdBy: RunPersonRef | null
+  createdAt: Date
+  startedAt: Date | null
+  finishedAt: Date | null
+  results: RunResults | null
+}
+export type SettlementRun = Serialize<ServerSettlementRun>
+
+/** A row of the project's run list, with its headline figures once finished. */
+export interface ServerSettlementRunSummary {
+  id: string
+  name: string
+  status: RunStatus
+  progress: number
+  model: ServerRunModel
+  createdBy: RunPersonRef | null
+  createdAt: Date
+  finishedAt: Date | null
+  loadCount: number
+  pointCount: number
+  gridPoints: number
+  headline: {
+    maxSettlement: number
+    maxAt: { x: number, y: number, label: string | null }
+    /** Longest t90 over the named points, years. */
+    t90: number | null
+    maxAngularDistortion: number | null
+  } | null
+}
+export type SettlementRunSummary = Serialize<ServerSettlementRunSummary>
+
+export interface ServerSettlementRunList { runs: ServerSettlementRunSummary[], total: number }
+export type SettlementRunList = Serialize<ServerSettlementRunList>
