@@ -106,7 +106,7 @@ export function computeRun(input: RunComputeInput, onProgress?: (fraction: numbe
   }
   const points = details.map(({ index: _i, sublayers: _s, ...rest }) => rest)
   const best = points.reduce<{ settlement: number, x: number, y: number, label: string | null }>((m, p) => (p.settlement > m.settlement ? { settlement: p.settlement, x: p.x, y: p.y, label: p.label } : m), { settlement: -Infinity, x: 0, y: 0, label: null })
-  if (grid) grid.settlement.forEach((row, j) => row.forEach((s, i) => { if (s > best.settlement) Object.assign(best, { settlement: s, x: grid!.xs[i], y: grid!.ys[j], label: null }) }))
+  if (grid) grid.settlement.forEach((row, j) => row.forEach((s, i) => { if (s > best.settlement) Object.assign(best, { settlement: s, x: grid.xs[i], y: grid.ys[j], label: null }) }))
   onProgress?.(1)
   return { results: { points, grid, maximum: best, warnings: [], caution: RESULT_CAUTION, stats: { computeMs: Date.now() - started, sublayers } }, details }
 }
