@@ -72,3 +72,17 @@ export type StrataReply = Serialize<ServerStrataReply>
 /** PUT …/points/:pointId/intervals: the log as saved, with its gaps. */
 export interface ServerLogReply { intervals: ServerIntervalRow[], gaps: DepthRange[] }
 export type LogReply = Serialize<ServerLogReply>
+
+/** A ground area on the site plan (site grid, m). */
+export interface PlanExtent { minX: number, maxX: number, minY: number, maxY: number }
+
+/** The site plan's current view, for drawing over it: ground → screen pixels and back. */
+export interface PlanView {
+  x: (easting: number) => number
+  y: (northing: number) => number
+  invert: (px: number, py: number) => { x: number, y: number }
+  /** Screen pixels per metre of ground (the same both ways). */
+  pxPerMetre: number
+  width: number
+  height: number
+}
