@@ -186,18 +186,22 @@ function edgeSum(k: Float64Array, z: number): number {
   let sum = 0
   for (let i = 0; i < k.length; i += EDGE_STRIDE) {
     const d2 = k[i]!
-    const D2 = d2 + z2
+    const zOverD2 = z / (d2 + z2)
     const tA = k[i + 5]!
     const cA = k[i + 6]!
     const tB = k[i + 7]!
     const cB = k[i + 8]!
     const QA = Math.sqrt(d2 + z2 * cA * cA)
     const QB = Math.sqrt(d2 + z2 * cB * cB)
-    const aA = tA / QA
-    const aB = tB / QB
-    const zd2D = (z * d2) / D2
-    const uniform = Math.atan2(z * tB, QB) - Math.atan2(z * tA, QA) - zd2D * (aB - aA)
-    sum += k[i + 1]! - k[i + 2]! * uniform + (k[i + 3]! * z / D2) * (aB - aA) - k[i + 4]! * z * (cB / QB - cA / QA)
+    const iA = 1 / QA
+    const iB = 1 / QB
+    const dA = tB * iB - tA * iA
+    // atan2(z·tB, QB) − atan2(z·tA, QA) as one atan2: both angles lie in (−π/2, π/2).
+    const ztA = z * tA
+    const ztB = z * tB
+    const angle = Math.atan2(ztB * QA - ztA * QB, QA * QB + ztA * ztB)
+    const uniform = angle - zOverD2 * d2 * dA
+    sum += k[i + 1]! - k[i + 2]! * uniform + k[i + 3]! * zOverD2 * dA - k[i + 4]! * z * (cB * iB - cA * iA)
   }
   return sum / TWO_PI
 }
@@ -356,8 +360,12 @@ export function circleStressPlan(load: Extract<PlanLoad, { type: 'circle' }>, x:
 
 // --------------------------------------------------------------- dispatch
 
-/** Shape and edges per embankment object, so a grid of points sets them up once (loads are not mutated by callers). */
-const preparedEmbankments = new WeakMap<PlanLoad, { shape: EmbankmentShape, edges: FieldEdge[] }>()
+/**
+ * Shape and edges per embankment object, so a grid of points sets them up once. Keyed by the
+ * object and checked against its dimensions, so a load edited in place is set up afresh
+ * (position and rotation are applied per point and need no check).
+ */
+const preparedEmbankments = new WeakMap<PlanLoad, { key: string, shape: EmbankmentShape, edges: FieldEdge[] }>()
 
 function stressAt(load: PlanLoad, x: number, y: number): (z: number) => number {
   switch (load.type) {
@@ -380,9 +388,10 @@ function stressAt(load: PlanLoad, x: number, y: number): (z: number) => number {
       return circleStressAt(load.radius, load.pressure, Math.hypot(x - load.x, y - load.y))
     case 'embankment': {
       let prepared = preparedEmbankments.get(load)
-      if (!prepared) {
+      const key = `${load.crestWidth},${load.crestLength},${load.height},${load.sideSlope},${load.unitWeight}`
+      if (!prepared || prepared.key !== key) {
         const shape = embankmentShape(load)
-        prepared = { shape, edges: embankmentEdges(shape) }
+        prepared = { key, shape, edges: embankmentEdges(shape) }
         preparedEmbankments.set(load, prepared)
       }
       const p = toLocal(load, x, y)
