@@ -121,8 +121,9 @@ function embankmentEdges(e: EmbankmentShape): FieldEdge[] {
 }
 
 /**
- * Per-point constants of the edges, packed 8 per edge:
- * [d², Δφ·p0, p0, gn·d³, gt·d, tA, cA, tB, cB] → see `edgeSum`.
+ * Per-point constants of the edges, packed 9 per edge:
+ * [d², Δφ·p0, p0, gn·d³, gt·d, tA, cA, tB, cB] → see `edgeSum`. gn, gt: the pressure
+ * gradient along the normal from P to the edge and along the edge (anticlockwise about P).
  *
  * Derivation (Boussinesq 1885 point load 3Pz³/(2πρ⁵) integrated over the triangle
  * formed by the plan point P and the edge, in polar co-ordinates about P): with the
@@ -133,7 +134,7 @@ function embankmentEdges(e: EmbankmentShape): FieldEdge[] {
  * perpendicular), and with t = sin φ, c = cos φ, D² = d² + z², Q = √(d² + z²c²):
  *   ∫ z³c³/(d² + z²c²)^{3/2} dφ = atan2(z t, Q) − z d² t/(D² Q)
  *   ∫ z d³ c/(d² + z²c²)^{3/2} dφ = z d³ t/(D² Q)
- *   ∫ z d³ s/(d² + z²c²)^{3/2} dφ = −z d c/Q   (s = sin φ)
+ *   ∫ z d³ t/(d² + z²c²)^{3/2} dφ = −z d c/Q
  * (elementary substitutions t = sin φ and c = cos φ). The triangle's signed sweep
  * makes the sum over a polygon's edges the integral over the polygon, inside or out.
  */
