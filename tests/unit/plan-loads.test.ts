@@ -35,7 +35,7 @@ function embankmentPressure(e: Embankment, u: number, v: number): number {
  * with ρ = z·tan ψ so that 3z³ρ dρ/(2π(ρ² + z²)^{5/2}) = (3/2π) sin ψ cos² ψ dψ (bounded, no
  * singularity), dense midpoint rules in θ and ψ out to the farthest footprint corner.
  */
-function bruteForce(pressure: (x: number, y: number) => number, px: number, py: number, z: number, reach: number, nTheta = 1440, nPsi = 1600): number {
+function bruteForce(pressure: (x: number, y: number) => number, px: number, py: number, z: number, reach: number, nTheta = 720, nPsi = 800): number {
   const psiMax = Math.atan(reach / z)
   const dT = (2 * Math.PI) / nTheta
   const dP = psiMax / nPsi
@@ -68,8 +68,10 @@ describe('embankment against brute-force quadrature of Boussinesq (1885)', () =>
     ['mid-slope', 8, 0],
     ['toe', 11, 0],
     ['outside the toe', 14, 3],
-    ['corner slope (hip region)', 8, 18],
+    ['on a hip line', 8, 18],
     ['end toe', 2, 21],
+    ['crest corner', 5, 15],
+    ['on the toe line beyond the toe corner', 11, 30],
   ]
   const depths = [0.1, 1, 5, 20, 40]
   for (const [name, px, py] of points) {
@@ -82,7 +84,7 @@ describe('embankment against brute-force quadrature of Boussinesq (1885)', () =>
         // 0.5 % of the value, or 0.01 kPa where the value itself is nearly nil (far outside at shallow depth).
         expect(Math.abs(got - ref), `z = ${z}: ${got} vs ${ref}`).toBeLessThanOrEqual(Math.max(0.005 * ref, 0.01))
       }
-    })
+    }, 30_000)
   }
 
   it('at depth 0 is the surface pressure: γh on the crest, linear on the slope, 0 outside', () => {
