@@ -149,7 +149,7 @@ export function circleAxisStress(radius: number, pressure: number, depth: number
 }
 
 /** Gauss–Legendre nodes and weights on [−1, 1] by Newton iteration on the Legendre polynomial Pₙ (classic method). */
-function gaussLegendre(n: number): { x: Float64Array, w: Float64Array } {
+export function gaussLegendre(n: number): { x: Float64Array, w: Float64Array } {
   const x = new Float64Array(n)
   const w = new Float64Array(n)
   for (let i = 0; i < n; i++) {

@@ -3,6 +3,7 @@
 import { performance } from 'node:perf_hooks'
 import { linearRegression } from 'simple-statistics'
 import { computeSettlement } from '../../shared/geotech/settlement'
+import { planStressIncrease, type PlanLoad } from '../../shared/geotech/plan-loads'
 import { computeStressProfile } from '../../shared/geotech/stress'
 import { fitTrend } from '../../shared/geotech/trends'
 
@@ -131,9 +132,61 @@ function trendBench(n: number): BenchRow {
   return compare(`trend fit (linear), ${n.toLocaleString('en')} points`, 2, () => fitTrend(pts, { model: 'linear' }).parameters.gradient!, () => linearRegression(data).m, 15, 'baseline: simple-statistics linearRegression')
 }
 
+/**
+ * Δσz under plan loads on a settlement grid: 41 × 41 points × 100 depths per load, set-up per
+ * point included. Baseline: a bare loop of Newmark's (1935) corner formula for a rectangle of
+ * the same footprint at the same points and depths (the cheapest exact area formula).
+ */
+function planLoadBench(): BenchRow[] {
+  const side = 41
+  const depths = Array.from({ length: 100 }, (_, i) => 0.125 + 0.25 * i)
+  const points: [number, number][] = []
+  for (let i = 0; i < side; i++) for (let j = 0; j < side; j++) points.push([-40 + 2 * i, -40 + 2 * j])
+  const evals = points.length * depths.length
+  const corner = (a: number, b: number, z: number) => {
+    const a2 = a * a
+    const b2 = b * b
+    const z2 = z * z
+    const r2 = a2 + b2 + z2
+    const r = Math.sqrt(r2)
+    const ab = a * b
+    const num = 2 * ab * z * r
+    return ((num * (a2 + b2 + 2 * z2)) / ((z2 * r2 + ab * ab) * r2) + Math.atan2(num, z2 * r2 - ab * ab)) / (4 * Math.PI)
+  }
+  const signed = (dx: number, dy: number, z: number) => Math.sign(dx) * Math.sign(dy) * corner(Math.abs(dx), Math.abs(dy), z)
+  const bareRectangle = (hx: number, hy: number, q: number) => () => {
+    let s = 0
+    for (const [x, y] of points) {
+      for (const z of depths) s += q * (signed(hx - x, hy - y, z) - signed(-hx - x, hy - y, z) - signed(hx - x, -hy - y, z) + signed(-hx - x, -hy - y, z))
+    }
+    return s
+  }
+  const engine = (load: PlanLoad) => () => {
+    let s = 0
+    for (const [x, y] of points) {
+      const f = planStressIncrease([load], x, y)
+      for (const z of depths) s += f(z)
+    }
+    return s
+  }
+  // Goals: the rectangle is the same formula (2×); the embankment sums 12 edges against the
+  // baseline's 4 corners (5×); the circle adds an angular rule set up per point (4×).
+  const rows: [string, PlanLoad, number, number, number][] = [
+    ['rectangle 20 m × 30 m, rotated 30°', { type: 'rectangle', x: 0, y: 0, width: 20, length: 30, rotation: 30, pressure: 50 }, 10, 15, 2],
+    ['embankment crest 10 m × 40 m, 3 m high at 2:1, rotated 20°', { type: 'embankment', x: 0, y: 0, crestWidth: 10, crestLength: 40, height: 3, sideSlope: 2, unitWeight: 20, rotation: 20 }, 11, 26, 5],
+    ['circle radius 15 m', { type: 'circle', x: 0, y: 0, radius: 15, pressure: 50 }, 15, 15, 4],
+  ]
+  return rows.map(([label, load, hx, hy, goal]) => {
+    const row = compare(`Δσz under a plan load, ${label}: ${side}×${side} points × ${depths.length} depths`, goal, engine(load), bareRectangle(hx, hy, 50), 7)
+    row.note = `${((row.ours * 1000) / evals).toFixed(2)} µs per depth, point set-up included; baseline a bare Newmark rectangle loop`
+    return row
+  })
+}
+
 /** Each benchmark runs in its own process (tests/bench/one.ts). */
 export const BENCHES: Record<string, () => BenchRow[]> = {
   settlement: () => settlementBench(100_000),
   stress: () => [stressBench(100_000)],
   trend: () => [trendBench(50_000)],
+  planLoads: () => planLoadBench(),
 }
