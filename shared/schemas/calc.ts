@@ -129,6 +129,7 @@ export const SettlementLayerSchema = CalcLayerSchema.extend({
   cv: num('Coefficient of consolidation, m²/year', magnitude(L.cv, 'm²/year')).optional(),
   drainage: DrainageSchema.optional().describe('Drained faces of the layer (default double)'),
   calpha: num('Secondary compression index Cα', magnitude(L.calpha)).optional(),
+  drainageGroup: str(80).min(1).optional().describe('Consecutive layers with the same group consolidate as one layer of their combined thickness (the group\'s drainage, thickness-weighted harmonic mean of cv): give the slices of one stratum the same group'),
 }).superRefine((layer, ctx) => {
   if (!layer.compressible) return
   for (const key of ['cc', 'cr', 'e0', 'preconsolidation'] as const) {
