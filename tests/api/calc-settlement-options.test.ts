@@ -1,7 +1,8 @@
 // POST /api/calc/settlement: the `sublayers` query (rows left out, answer otherwise the same)
 // and drainage groups over HTTP (a sliced stratum consolidates as one layer).
 import { beforeAll, describe, expect, it } from 'vitest'
-import { Client, demoEmail, signIn } from '../helpers/http'
+import type { Client} from '../helpers/http';
+import { demoEmail, signIn } from '../helpers/http'
 
 const clay = { unitWeight: 16, unitWeightSaturated: 16, compressible: true, cc: 0.85, cr: 0.09, e0: 2.1, preconsolidation: { type: 'pop', value: 25 }, cv: 1.2, drainage: 'double', calpha: 0.03 }
 const BODY = {
