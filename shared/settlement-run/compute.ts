@@ -112,6 +112,13 @@ export function checkRunInput(input: RunComputeInput): RunInputProblem | null {
     evaluate = createStressEvaluator(toStressInput(def))
   }
   catch (e) {
+    if (e instanceof GeotechError && e.code === 'effective-stress-not-positive' && e.depth !== undefined) {
+      // The stress model finds the first depth where σ'v0 reaches 0 (its breakpoints bound it).
+      const bounds = stratumBounds(def)
+      const i = Math.max(0, bounds.findIndex(b => e.depth! >= b.top && e.depth! <= b.bottom))
+      const s = def.strata[i]!
+      return { code: e.code, message: `σ'v0 falls to 0 kPa at ${Number(e.depth.toFixed(2))} m in stratum ${s.code} (${s.name}) ${inVersion}: the water pressures exceed the weight of the ground (uplift). Check the groundwater.`, path: ['model'] }
+    }
     if (e instanceof GeotechError) return { code: e.code, message: `The ground model ${inVersion} cannot be used: ${e.message}`, path: ['model'] }
     throw e
   }
