@@ -60,9 +60,9 @@ export function timeCurve(layers: readonly CurveLayer[], strata: readonly string
       for (const m of unit.members) {
         const l = layers[m]!
         const s = l.settlement * u
-        primary[i] += s
+        primary[i] = primary[i]! + s
         const row = rowOf.get(l.stratum)
-        if (row) row.settlement[i] += s
+        if (row) row.settlement[i] = row.settlement[i]! + s
       }
     })
     const tp = tv95 * scale[k]!
@@ -72,7 +72,7 @@ export function timeCurve(layers: readonly CurveLayer[], strata: readonly string
       const ep = l.e0 - (l.settlement / l.thickness) * (1 + l.e0)
       if (!(ep > 0)) continue
       years.forEach((t, i) => {
-        secondary[i] += secondaryCompression({ calpha: l.calpha!, ep, thickness: l.thickness, tp, t })
+        secondary[i] = secondary[i]! + secondaryCompression({ calpha: l.calpha!, ep, thickness: l.thickness, tp, t })
       })
     }
   })
