@@ -65,6 +65,11 @@ function calcPath(summary: string, description: string, request: z.ZodType, resp
   }
 }
 
+/** A path's operation with query parameters listed. */
+function withQuery(path: ReturnType<typeof calcPath>, parameters: JsonSchema[]) {
+  return { post: { ...path.post, parameters } }
+}
+
 /** The OpenAPI 3.1 document of the public compute API, generated from the shared zod schemas. */
 export function buildOpenApiDocument(serverUrl = '/') {
   return {
@@ -89,7 +94,9 @@ export function buildOpenApiDocument(serverUrl = '/') {
         },
       },
       '/api/calc/stress-profile': calcPath('In-situ stress profile', 'σv, u and σ\'v0 at every breakpoint (surface, layer boundaries, water table, piezometers) and at the requested depths, sorted by depth.', StressProfileRequestSchema, StressProfileResponseSchema),
-      '/api/calc/settlement': calcPath('1-D consolidation settlement', 'Primary consolidation settlement by sublayers (NC, OC, OC-NC cases), the load\'s stress increase with depth, a convergence check with sublayers halved, optional time rate (Terzaghi) and secondary compression.', SettlementRequestSchema, SettlementResponseSchema),
+      '/api/calc/settlement': withQuery(calcPath('1-D consolidation settlement', 'Primary consolidation settlement by sublayers (NC, OC, OC-NC cases), the load\'s stress increase with depth, a convergence check with sublayers halved, optional time rate (Terzaghi) and secondary compression.', SettlementRequestSchema, SettlementResponseSchema), [
+        { name: 'sublayers', in: 'query', required: false, description: '`false` (or `0`) leaves the sublayer rows out of the answer; everything else is unchanged. Default `true`.', schema: { type: 'string', enum: ['true', 'false', '1', '0'], default: 'true' } },
+      ]),
       '/api/calc/preconsolidation': calcPath('σ\'p from an oedometer curve', 'Casagrande, Pacheco Silva, work (Becker et al. 1987) and bilinear log(1+e)–log σ\' methods side by side, with Cc, Cr and sample quality (Lunne et al. 1997).', PreconsolidationRequestSchema, PreconsolidationResponseSchema),
       '/api/calc/trend-fit': calcPath('σ\'p trend with depth in one stratum', 'Least-squares fit of constant, linear, constant-POP, constant-OCR or crust models, or `auto` (lowest AICc), with R², RMSE, AIC and a 95 % confidence band.', TrendFitRequestSchema, TrendFitResponseSchema),
     },

@@ -130,3 +130,72 @@ export function secondaryCompression(input: SecondaryCompressionInput): number {
   if (t <= tp) return 0
   return (calpha / (1 + ep)) * thickness * Math.log10(t / tp)
 }
+
+/** One layer as the time rate sees it: thickness (m), cv (m²/year), drained faces, and its drainage group. */
+export interface ConsolidatingLayer {
+  thickness: number
+  cv?: number
+  drainage?: Drainage
+  /** Consecutive layers with the same group consolidate as one layer (a stratum cut into slices). */
+  drainageGroup?: string
+}
+
+/** A run of consecutive layers that consolidates as one: `members` index the input array. */
+export interface ConsolidationUnit {
+  members: number[]
+  thickness: number
+  /** Thickness-weighted harmonic mean of the members' cv (undefined when any member lacks cv). */
+  cv?: number
+  drainage: Drainage
+  /** Longest drainage path of the whole unit, m. */
+  hdr: number
+  /** Members whose drainage differs from the unit's (the first member's). */
+  mixedDrainage: boolean
+}
+
+/**
+ * Groups consecutive layers with the same `drainageGroup` into one consolidating layer
+ * (each layer without a group is a unit of its own). A stratum the model cuts into
+ * slices (for a depth trend, or at a σ'p breakpoint) is still one clay layer whose pore
+ * water drains to its own top and bottom: the drainage path is that of the whole
+ * stratum, never of a slice (Terzaghi 1925: Hdr is set by the drained faces).
+ *
+ * The unit's cv is the thickness-weighted harmonic mean, H / Σ(hᵢ/cvᵢ): cv = k/(mv·γw),
+ * and vertical flow across layers in series takes the harmonic mean of k (Darcy's law
+ * for layers in series; e.g. Freeze & Cherry 1979, §2.4); with mv alike across the
+ * slices of one stratum, cv averages the same way. The harmonic mean is governed by the
+ * slowest slice, the safe side for t90; for a constant cv every mean gives cv exactly.
+ * Applying it to cv is common practice rather than a single published rule.
+ * The unit's drainage is its first member's (slices of one stratum share it).
+ */
+export function consolidationUnits(layers: readonly ConsolidatingLayer[]): ConsolidationUnit[] {
+  const units: ConsolidationUnit[] = []
+  let current: { group: string, unit: ConsolidationUnit } | null = null
+  layers.forEach((layer, i) => {
+    const group = layer.drainageGroup
+    if (current && group !== undefined && group === current.group) {
+      current.unit.members.push(i)
+      if ((layer.drainage ?? 'double') !== current.unit.drainage) current.unit.mixedDrainage = true
+      return
+    }
+    const unit: ConsolidationUnit = { members: [i], thickness: 0, drainage: layer.drainage ?? 'double', hdr: 0, mixedDrainage: false }
+    units.push(unit)
+    current = group === undefined ? null : { group, unit }
+  })
+  for (const unit of units) {
+    let thickness = 0
+    let resistance = 0
+    let timed = true
+    for (const i of unit.members) {
+      const l = layers[i]!
+      thickness += l.thickness
+      if (l.cv === undefined || !(l.cv > 0)) timed = false
+      else resistance += l.thickness / l.cv
+    }
+    unit.thickness = thickness
+    if (timed && unit.members.length === 1) unit.cv = layers[unit.members[0]!]!.cv
+    else if (timed) unit.cv = thickness / resistance
+    unit.hdr = thickness > 0 ? drainagePath(thickness, unit.drainage) : 0
+  }
+  return units
+}

@@ -1,7 +1,7 @@
 import { GeotechError } from './errors'
 import { buildStressModel, segmentIndex, type StressLayer, type StressModel, type StressProfileInput } from './stress'
 import { createStressIncrease, type Load } from './loads'
-import { degreeOfConsolidation, drainagePath, secondaryCompression, timeFactorForDegree, type Drainage } from './consolidation'
+import { consolidationUnits, degreeOfConsolidation, secondaryCompression, timeFactorForDegree, type ConsolidationUnit, type Drainage } from './consolidation'
 
 /**
  * 1-D primary consolidation settlement of a layered profile (Terzaghi & Peck;
@@ -32,6 +32,12 @@ export interface SettlementLayer extends StressLayer {
   drainage?: Drainage
   /** Secondary compression index Cα. */
   calpha?: number
+  /**
+   * Consecutive layers with the same group consolidate as ONE layer of their combined
+   * thickness (a stratum cut into slices): its drainage, the thickness-weighted harmonic
+   * mean of cv (see `consolidationUnits`). Without a group a layer drains on its own.
+   */
+  drainageGroup?: string
 }
 
 /** Sublayering of each compressible layer: by maximum thickness (m) or a fixed count per layer. */
@@ -153,6 +159,7 @@ interface CompressibleLayer {
   cv?: number
   drainage: Drainage
   calpha?: number
+  drainageGroup?: string
 }
 
 /** Flags a layer's sublayer loop raises, so warnings are reported once per layer. */
@@ -229,7 +236,7 @@ function compileLayer(layer: SettlementLayer, index: number, top: number, bottom
     requireParameter(layer.calpha, name, 'Cα')
     if (layer.calpha < 0) fail('calpha-negative', name, `Cα is ${layer.calpha}; it must be ≥ 0.`)
   }
-  return { index, name, top, bottom, cc, cr, e0, c0, c1, c2, cv: layer.cv, drainage, calpha: layer.calpha }
+  return { index, name, top, bottom, cc, cr, e0, c0, c1, c2, cv: layer.cv, drainage, calpha: layer.calpha, drainageGroup: layer.drainageGroup }
 }
 
 function sublayerCount(options: SublayerOptions, thickness: number): number {
@@ -378,6 +385,18 @@ function materialiseRows(layers: CompressibleLayer[], counts: number[], columns:
   return rows
 }
 
+/**
+ * The compressible layers' consolidation units: consecutive layers (adjacent in the
+ * profile) with the same drainage group consolidate as one (`consolidationUnits`).
+ */
+function compressibleUnits(compiled: readonly CompressibleLayer[]): ConsolidationUnit[] {
+  let run = 0
+  return consolidationUnits(compiled.map((l, j) => {
+    if (j > 0 && compiled[j - 1]!.index + 1 !== l.index) run++
+    return { thickness: l.bottom - l.top, cv: l.cv, drainage: l.drainage, drainageGroup: l.drainageGroup === undefined ? undefined : `${run}\u0000${l.drainageGroup}` }
+  }))
+}
+
 /** Largest t in [0, hi] with f(t) < target, by bisection (f increasing). */
 function solveTime(f: (t: number) => number, target: number, hi: number): number {
   let lo = 0
@@ -479,13 +498,17 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
   })
 
   const timed = compiled.every(l => l.cv !== undefined)
+  const units = compressibleUnits(compiled)
+  for (const unit of units) {
+    if (unit.mixedDrainage) warnings.push(`Layer "${compiled[unit.members[0]!]!.name}": the layers of drainage group "${compiled[unit.members[0]!]!.drainageGroup}" give different drainage; the first layer's (${unit.drainage}) is used.`)
+  }
+  const unitSettlement = units.map(u => u.members.reduce((a, j) => a + layerSettlement[compiled[j]!.index]!, 0))
   const degreeAt = (t: number): number => {
     if (settlement === 0) return 0
     let s = 0
-    for (const layer of compiled) {
-      const hdr = drainagePath(layer.bottom - layer.top, layer.drainage)
-      s += layerSettlement[layer.index]! * degreeOfConsolidation((layer.cv! * t) / (hdr * hdr))
-    }
+    units.forEach((unit, k) => {
+      s += unitSettlement[k]! * degreeOfConsolidation((unit.cv! * t) / (unit.hdr * unit.hdr))
+    })
     return s / settlement
   }
   if (years !== undefined) {
@@ -496,10 +519,7 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
   }
   if (timed && compiled.length > 0 && settlement !== 0) {
     let hi = 0
-    for (const layer of compiled) {
-      const hdr = drainagePath(layer.bottom - layer.top, layer.drainage)
-      hi = Math.max(hi, (timeFactorForDegree(0.9999) * hdr * hdr) / layer.cv!)
-    }
+    for (const unit of units) hi = Math.max(hi, (timeFactorForDegree(0.9999) * unit.hdr * unit.hdr) / unit.cv!)
     result.times = { t50: solveTime(degreeAt, 0.5, hi), t90: solveTime(degreeAt, 0.9, hi) }
   }
 
@@ -507,15 +527,18 @@ export function computeSettlement(input: SettlementInput, options: SettlementOpt
     const designLife = input.designLife
     const layers: { name: string, endOfPrimary: number, settlement: number }[] = []
     let total = 0
-    for (const layer of compiled) {
+    const unitOf = new Map<number, ConsolidationUnit>()
+    for (const unit of units) for (const j of unit.members) unitOf.set(j, unit)
+    for (const [j, layer] of compiled.entries()) {
       if (layer.calpha === undefined) continue
-      if (layer.cv === undefined) {
+      if (layer.cv === undefined || unitOf.get(j)!.cv === undefined) {
         warnings.push(`Layer "${layer.name}": secondary compression needs cv to place the end of primary consolidation; left out.`)
         continue
       }
       const thickness = layer.bottom - layer.top
-      const hdr = drainagePath(thickness, layer.drainage)
-      const tp = (timeFactorForDegree(END_OF_PRIMARY_DEGREE) * hdr * hdr) / layer.cv
+      // End of primary of the layer's drainage group (the whole stratum), not of a slice.
+      const unit = unitOf.get(j)!
+      const tp = (timeFactorForDegree(END_OF_PRIMARY_DEGREE) * unit.hdr * unit.hdr) / unit.cv!
       // Void ratio at the end of primary: e0 less the layer's mean Δe.
       const ep = layer.e0 - (layerSettlement[layer.index]! / thickness) * (1 + layer.e0)
       if (!(ep > 0)) fail('void-ratio-not-positive', layer.name, `the void ratio at the end of primary consolidation would be ${ep.toFixed(3)}; check Cc, e0 and the load.`)

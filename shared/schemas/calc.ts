@@ -129,6 +129,7 @@ export const SettlementLayerSchema = CalcLayerSchema.extend({
   cv: num('Coefficient of consolidation, m²/year', magnitude(L.cv, 'm²/year')).optional(),
   drainage: DrainageSchema.optional().describe('Drained faces of the layer (default double)'),
   calpha: num('Secondary compression index Cα', magnitude(L.calpha)).optional(),
+  drainageGroup: str(80).min(1).optional().describe('Consecutive layers with the same group consolidate as one layer of their combined thickness (the group\'s drainage, thickness-weighted harmonic mean of cv): give the slices of one stratum the same group'),
 }).superRefine((layer, ctx) => {
   if (!layer.compressible) return
   for (const key of ['cc', 'cr', 'e0', 'preconsolidation'] as const) {
@@ -165,6 +166,15 @@ export const SettlementRequestSchema = z.object({
 }).meta({ id: 'SettlementRequest' })
 export type SettlementRequest = z.infer<typeof SettlementRequestSchema>
 
+/**
+ * Query of `POST /api/calc/settlement`: `sublayers=false` (or 0) leaves the sublayer rows out of
+ * the answer (totals, layers, time rate and secondary are unchanged); default true.
+ */
+export const SettlementQuerySchema = z.object({
+  sublayers: z.enum(['0', '1', 'true', 'false']).optional().transform(v => v !== '0' && v !== 'false')
+    .describe('false (or 0) leaves the sublayer rows out of the answer; default true'),
+})
+
 export const SublayerRowSchema = z.object({
   layer: z.string(),
   top: z.number(),
@@ -185,7 +195,7 @@ export const SublayerRowSchema = z.object({
 export const SettlementResponseSchema = z.object({
   settlement: z.number().describe('Total primary consolidation settlement, m'),
   convergence: z.object({ halved: z.number(), relativeChange: z.number() }).nullable().describe('Total with every sublayer halved, and the relative change'),
-  sublayers: z.array(SublayerRowSchema),
+  sublayers: z.array(SublayerRowSchema).optional().describe('Absent when the query asks sublayers=false'),
   layers: z.array(z.object({ name: z.string(), settlement: z.number() })),
   time: z.array(z.object({ years: z.number(), degree: z.number(), settlement: z.number() })).optional(),
   times: z.object({ t50: z.number(), t90: z.number() }).optional(),

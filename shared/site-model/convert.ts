@@ -82,6 +82,8 @@ export interface SettlementLayerOptions {
  * with a compressibility depth trend is further cut into slices of at most
  * `maxThickness`, each with Cc, Cr, e0, cv and Cα at its mid-depth, so the
  * settlement engine's sublayers of the same thickness see the trend's values.
+ * Every layer of a compressible stratum carries `drainageGroup` = the stratum's code, so
+ * its slices consolidate as the one stratum they are (the whole stratum's drainage path).
  */
 export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: (depth: number) => number, opts: SettlementLayerOptions = {}): SettlementLayer[] {
   const bounds = stratumBounds(def)
@@ -101,7 +103,7 @@ export function toSettlementLayers(def: SiteModelDefinition, effectiveStressAt: 
     if (problem) throw new ModelIncompleteError(`Stratum "${s.name}": ${problem.message}.`)
     const props = (z: number) => {
       const v = compressibilityAt(c, z)
-      return { compressible: true, cc: v.cc, cr: v.cr, e0: v.e0, ...(v.cv !== undefined ? { cv: v.cv } : {}), ...(v.calpha !== undefined ? { calpha: v.calpha } : {}), drainage: c.drainage }
+      return { compressible: true, cc: v.cc, cr: v.cr, e0: v.e0, ...(v.cv !== undefined ? { cv: v.cv } : {}), ...(v.calpha !== undefined ? { calpha: v.calpha } : {}), drainage: c.drainage, drainageGroup: s.code }
     }
     // σ'p pieces. Piecewise: a crust splits at its breakpoint (linear above, the model below as it is);
     // a hand-drawn trend splits at its knots (linear between them).

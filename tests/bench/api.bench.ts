@@ -23,31 +23,42 @@ export function tenLayerSettlementBody() {
   return { layers, groundwater: { waterTableDepth: 1.6 }, load: { type: 'rectangle', width: 80, length: 120, pressure: 120 }, sublayers: { maxThickness: 0.05 }, time: { years: [0.5, 1, 2, 5, 10] } }
 }
 
-export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>> }> {
+/**
+ * Median and p95 latency of `POST /api/calc/settlement` with the ten-layer body, with the sublayer
+ * rows (the default) or without them (`?sublayers=false`), after 30 warm-up calls.
+ */
+export async function measureCalcSettlement(url: string, cookie: string, calls: number, sublayers: boolean): Promise<{ median: number, p95: number }> {
+  const body = JSON.stringify(tenLayerSettlementBody())
+  const path = sublayers ? '/api/calc/settlement' : '/api/calc/settlement?sublayers=false'
+  const call = async () => {
+    const r = await fetch(`${url}${path}`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': url, cookie }, body })
+    const json = await r.json() as { sublayers?: unknown[] }
+    if (!r.ok || (sublayers ? json.sublayers?.length !== 400 : json.sublayers !== undefined)) throw new Error(`bench call failed: ${r.status}`)
+  }
+  for (let i = 0; i < 30; i++) await call()
+  const times: number[] = []
+  for (let i = 0; i < calls; i++) {
+    const t0 = performance.now()
+    await call()
+    times.push(performance.now() - t0)
+  }
+  times.sort((a, b) => a - b)
+  return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]! }
+}
+
+export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, lean: { median: number, p95: number }, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>> }> {
   const server = await startServer({ PASTLOAD_SEED: 'demo' })
   try {
     const designer = DEMO_PEOPLE.find(p => p.role === 'designer')!
     const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url }, body: JSON.stringify({ email: designer.email, password: DEMO_PASSWORD }) })
     if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`)
     const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
-    const body = JSON.stringify(tenLayerSettlementBody())
-    const call = async () => {
-      const r = await fetch(`${server.url}/api/calc/settlement`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url, cookie }, body })
-      const json = await r.json() as { sublayers: unknown[] }
-      if (!r.ok || json.sublayers.length !== 400) throw new Error(`bench call failed: ${r.status}`)
-    }
-    for (let i = 0; i < 30; i++) await call()
-    const times: number[] = []
-    for (let i = 0; i < calls; i++) {
-      const t0 = performance.now()
-      await call()
-      times.push(performance.now() - t0)
-    }
-    times.sort((a, b) => a - b)
+    const full = await measureCalcSettlement(server.url, cookie, calls, true)
+    const lean = await measureCalcSettlement(server.url, cookie, calls, false)
     const imported = await runImportBench(server.url, process.env.DATABASE_URL!)
     const browser = await runBrowserBench(server.url)
     const lighthouse = await runLighthouseBench(server.url)
-    return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]!, calls, import: imported, browser, lighthouse }
+    return { median: full.median, p95: full.p95, lean, calls, import: imported, browser, lighthouse }
   }
   finally {
     await server.stop()

@@ -4,7 +4,11 @@ import { performance } from 'node:perf_hooks'
 import { linearRegression } from 'simple-statistics'
 import { computeSettlement } from '../../shared/geotech/settlement'
 import { planStressIncrease, type PlanLoad } from '../../shared/geotech/plan-loads'
-import { computeStressProfile } from '../../shared/geotech/stress'
+import { computeStressProfile, createStressEvaluator } from '../../shared/geotech/stress'
+import type { RunLoad } from '../../shared/schemas/settlement-runs'
+import { computeRun, resolveLoads } from '../../shared/settlement-run/compute'
+import { toStressInput } from '../../shared/site-model/convert'
+import { scenarioDefinition } from '../helpers/scenario-definition'
 import { fitTrend } from '../../shared/geotech/trends'
 
 export interface BenchRow { name: string, ours: number, baseline: number, ratio: number, goal: number, note?: string }
@@ -181,6 +185,70 @@ function planLoadBench(): BenchRow[] {
     row.note = `${((row.ours * 1000) / evals).toFixed(2)} µs per depth, point set-up included; baseline a bare Newmark rectangle loop`
     return row
   })
+ * A settlement run's grid: 41 × 41 points under an embankment and two rectangles on the demo
+ * ground model, 102 sublayers a point (0.2 m), against a bare loop of the same Δσ (the plan-load
+ * superposition) and the same NC / OC / OC-NC formulas over hand-set σ'v0, σ'p, Cc, Cr, e0.
+ * Target besides the ratio: the whole grid ≤ 1 s.
+ */
+function runGridBench(): BenchRow {
+  const definition = scenarioDefinition()
+  const loads: RunLoad[] = [
+    { type: 'embankment', x: 0, y: 0, crestWidth: 40, crestLength: 60, height: 3, sideSlope: 2, unitWeight: 20, rotation: 0 },
+    { type: 'rectangle', x: 40, y: 40, width: 20, length: 20, rotation: 0, pressure: 50 },
+    { type: 'rectangle', x: -40, y: -40, width: 20, length: 20, rotation: 0, pressure: 50 },
+  ]
+  // Footprints span −50…50 m both ways: 2.5 m spacing gives 41 × 41.
+  const grid = { spacing: 2.5, margin: 0 }
+  const options = { maxSublayerThickness: 0.2, years: [1, 10], designLife: 50, angularDistortionLimit: 1 / 500 }
+  const ours = () => {
+    const g = computeRun({ definition, loads, points: [], grid, options }).results.grid!
+    if (g.xs.length !== 41 || g.ys.length !== 41) throw new Error('run grid bench: expected 41 × 41')
+    return g.settlement[20]![20]!
+  }
+  const bare = () => {
+    // The demo's compressible strata (tests/helpers/scenario-definition.ts): top, bottom, Cc, Cr, e0, σ'p(z, σ'v0).
+    const strata = [
+      { top: 3.4 - 2.2, bottom: 3.4, cc: 0.35, cr: 0.04, e0: 1.1, sp: (z: number) => 210 + (115 / 2.2) * 1.2 - (115 / 2.2) * z },
+      { top: 3.4, bottom: 15, cc: 0.85, cr: 0.09, e0: 2.1, sp: (_z: number, s0: number) => s0 + 25 },
+      { top: 15, bottom: 21.5, cc: 0.22, cr: 0.03, e0: 0.65, sp: (_z: number, s0: number) => 2.4 * s0 },
+    ]
+    const ev = createStressEvaluator(toStressInput(definition))
+    const z: number[] = []
+    const s0: number[] = []
+    const sp: number[] = []
+    const cc: number[] = []
+    const cr: number[] = []
+    const f: number[] = []
+    for (const st of strata) {
+      const n = Math.ceil((st.bottom - st.top) / 0.2 - 1e-9)
+      const h = (st.bottom - st.top) / n
+      for (let i = 0; i < n; i++) {
+        const zm = st.top + (i + 0.5) * h
+        const e = ev(zm).effectiveStress
+        z.push(zm); s0.push(e); sp.push(Math.max(e, st.sp(zm, e))); cc.push(st.cc); cr.push(st.cr); f.push(h / (1 + st.e0))
+      }
+    }
+    const planLoads = resolveLoads(loads)
+    let centre = 0
+    for (let j = 0; j <= 40; j++) {
+      for (let i = 0; i <= 40; i++) {
+        const loadAt = planStressIncrease(planLoads, -50 + 2.5 * i, -50 + 2.5 * j)
+        let s = 0
+        for (let k = 0; k < z.length; k++) {
+          const a = s0[k]!
+          const p = sp[k]!
+          const b = a + loadAt(z[k]!)
+          const de = b < a ? cr[k]! * Math.log10(b / a) : p <= a ? cc[k]! * Math.log10(b / a) : b <= p ? cr[k]! * Math.log10(b / a) : cr[k]! * Math.log10(p / a) + cc[k]! * Math.log10(b / p)
+          s += de * f[k]!
+        }
+        if (i === 20 && j === 20) centre = s
+      }
+    }
+    return centre
+  }
+  const check = Math.abs(ours() - bare()) / bare()
+  if (check > 1e-9) throw new Error(`run grid bench: run and bare loop disagree (${check})`)
+  return compare('settlement run grid, 41 × 41 points × 102 sublayers, embankment + 2 rectangles', 2, ours, bare, 7, 'target also: the grid ≤ 1 s')
 }
 
 /** Each benchmark runs in its own process (tests/bench/one.ts). */
@@ -189,4 +257,5 @@ export const BENCHES: Record<string, () => BenchRow[]> = {
   stress: () => [stressBench(100_000)],
   trend: () => [trendBench(50_000)],
   planLoads: () => planLoadBench(),
+  runGrid: () => [runGridBench()],
 }

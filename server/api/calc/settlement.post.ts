@@ -1,11 +1,12 @@
 import { RESULT_CAUTION } from '#shared/caution'
 import { computeSettlement } from '#shared/geotech/settlement'
-import { SettlementRequestSchema } from '#shared/schemas/calc'
+import { SettlementQuerySchema, SettlementRequestSchema } from '#shared/schemas/calc'
 import { unprocessableError } from '~~/server/services/http-errors'
 
 /** 1-D primary consolidation settlement, optionally with time rate and secondary compression. */
 export default defineEventHandler(async (event) => {
   requireUser(event)
+  const { sublayers } = validateQuery(event, SettlementQuerySchema)
   const body = await validateBody(event, SettlementRequestSchema)
   // The convergence report doubles the count: bound the work before starting it.
   const planned = body.layers.reduce((n, l) => {
@@ -18,5 +19,10 @@ export default defineEventHandler(async (event) => {
     throw unprocessableError(`The sublayering asks for ${planned} sublayers; the limit is ${MAX_SUBLAYERS}. Use a larger maxThickness.`, { code: 'too-many-sublayers' })
   }
   const result = runEngine(() => computeSettlement(body))
+  if (!sublayers) {
+    // The rows are built only when read: leaving them out skips that work too.
+    const { settlement, convergence, layers, time, times, secondary, warnings } = result
+    return { settlement, convergence, layers, time, times, secondary, warnings, caution: RESULT_CAUTION }
+  }
   return { ...result, caution: RESULT_CAUTION }
 })
