@@ -133,6 +133,16 @@ describe('settlement runs', () => {
     expect(r.body.message).toContain('Estuarine clay')
     const none = await pool.query('select count(*)::int as n from settlement_runs where model->>\'modelId\' = $1', [noCc.modelId])
     expect(none.rows[0].n).toBe(0)
+
+    // σ'v0 ≤ 0: saving refuses such a version, so one is written into the database to reach the run's own check.
+    const uplift = await createRunModel(engineer, base.split('/').pop()!, scenarioDefinition(), 'Uplift')
+    const bad = scenarioDefinition()
+    bad.groundwater.piezometers = [{ depth: 6, porePressure: 300 }]
+    await pool.query('update site_model_versions set definition = $2 where model_id = $1 and version = 1', [uplift.modelId, JSON.stringify(bad)])
+    const u = await designer.post<{ message: string, data: { code: string, depth?: number } }>(`${base}/settlement-runs`, smallRunBody(uplift))
+    expect(u.status).toBe(422)
+    expect(u.body.data.code).toBe('effective-stress-not-positive')
+    expect(u.body.message).toContain('Desiccated crust')
   })
 
   it('refuses shapes with 400 and names the field', async () => {
