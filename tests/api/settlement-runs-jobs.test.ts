@@ -79,6 +79,17 @@ describe('settlement runs through the job queue', () => {
     expect(summary.headline).not.toBeNull()
   })
 
+  it('fails a queued run the engine refuses while computing, with the plain reason', async () => {
+    const body = smallRunBody(model, { name: 'Grid excavation', points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 20, length: 20, pressure: -500 }], grid: { spacing: 5, margin: 0 } })
+    const created = await must('failing grid run', designer.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, body), 201)
+    expect(created.run.status).toBe('queued')
+    const r = await until('failed', () => row(created.run.id), x => x.status === 'finished' || x.status === 'failed')
+    expect(r).toMatchObject({ status: 'failed', has_results: false, points: 0, attempts: 1 })
+    const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))
+    expect(run.error?.code).toBe('final-effective-stress-not-positive')
+    expect(run.error?.message).toMatch(/must stay positive/)
+  })
+
   describe('a standalone worker killed mid-run', () => {
     const schema = `pgboss_kill_${Date.now().toString(36)}`
     const workers: ChildProcess[] = []

@@ -145,6 +145,23 @@ describe('settlement runs', () => {
     expect(u.body.message).toContain('Desiccated crust')
   })
 
+  it('records an engine refusal met while computing as a failed run with the plain reason (201, never a 500)', async () => {
+    const body = smallRunBody(model, { name: 'Deep excavation', loads: [{ type: 'rectangle', x: 0, y: 0, width: 40, length: 30, pressure: -500 }] })
+    const c = await must('failing run', designer.post<Created>(`${base}/settlement-runs`, body), 201)
+    expect(c.run.status).toBe('failed')
+    const { run } = await must('read', reviewer.get<{ run: SettlementRun }>(`${base}/settlement-runs/${c.run.id}`))
+    expect(run.status).toBe('failed')
+    expect(run.results).toBeNull()
+    expect(run.error?.code).toBe('final-effective-stress-not-positive')
+    expect(run.error?.message).toContain('Desiccated crust')
+    const point = await reviewer.get<{ data: { status: string } }>(`${base}/settlement-runs/${c.run.id}/points/0`)
+    expect(point.status).toBe(409)
+    expect(point.body.data.status).toBe('failed')
+    expect((await reviewer.get(`${base}/settlement-runs/${c.run.id}/export?format=xlsx`)).status).toBe(409)
+    const list = await must('list', reviewer.get<SettlementRunList>(`${base}/settlement-runs`))
+    expect(list.runs.find(r => r.id === c.run.id)?.headline).toBeNull()
+  })
+
   it('refuses shapes with 400 and names the field', async () => {
     const cases: unknown[] = [
       {},
