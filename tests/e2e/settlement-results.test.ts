@@ -1,4 +1,5 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
@@ -6,6 +7,9 @@ import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Created { run: { id: string, status: string } }
+
+const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
+afterAll(() => pool.end())
 
 describe('settlement results in Chromium', () => {
   const browser = useBrowser()
@@ -119,6 +123,31 @@ describe('settlement results in Chromium', () => {
     await screenshot(page, 'settlement-results-compare-laptop')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'settlement-results-compare-phone')
+    await page.close()
+  })
+
+  it('moves the progress bar of a run being computed, then shows its results once it has finished', async () => {
+    // A run of this test's own, written as a worker would leave it part-way (the page cannot tell).
+    const { rows: [copy] } = await pool.query<{ id: string }>(
+      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
+       select project_id, 'Slab computing', model, definition, loads, points, grid, options, 'running', 0.3, created_by, now() from settlement_runs where id = $1 returning id`,
+      [approvedRun],
+    )
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${copy!.id}`)
+    const bar = page.getByRole('progressbar', { name: 'Run progress' })
+    await bar.waitFor()
+    expect(await bar.getAttribute('aria-valuenow')).toBe('30')
+    await screenshot(page, 'settlement-results-running-laptop')
+    await pool.query('update settlement_runs set progress = 0.6 where id = $1', [copy!.id])
+    await expect.poll(() => bar.getAttribute('aria-valuenow'), { timeout: 10_000 }).toBe('60')
+    await pool.query('insert into settlement_run_points (run_id, index, detail) select $1, index, detail from settlement_run_points where run_id = $2', [copy!.id, approvedRun])
+    await pool.query(`update settlement_runs r set status = 'finished', progress = 1, finished_at = now(), results = s.results from settlement_runs s where r.id = $1 and s.id = $2`, [copy!.id, approvedRun])
+    await page.getByTestId('headline-cards').waitFor({ timeout: 10_000 })
+    expect(await page.getByTestId('run-progress').count()).toBe(0)
+    expect(await page.getByTestId('headline-max').textContent()).toContain('at Centre')
+    await page.getByTestId('sublayer-table').waitFor()
     await page.close()
   })
 })
