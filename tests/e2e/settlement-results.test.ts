@@ -67,6 +67,9 @@ describe('settlement results in Chromium', () => {
     const readout = page.getByTestId('section-readout')
     const before = await readout.textContent()
     const handle = page.getByTestId('section-handle-b')
+    // The point's tables arrive after the map; drag once the page has its final layout, with the handle on screen.
+    await page.getByTestId('sublayer-table').waitFor()
+    await handle.scrollIntoViewIfNeeded()
     const box = (await handle.boundingBox())!
     await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2)
     await page.mouse.down()
