@@ -85,6 +85,12 @@ describe('settlement results in Chromium', () => {
     expect(await page.getByTestId('convergence-line').textContent()).toMatch(/^Halving every sublayer changes the total by (less than 0\.01|\d+\.\d\d) %/)
     await page.getByTestId('depth-plot').waitFor()
     await page.getByTestId('time-curve').waitFor()
+    // Another named point: its own table, whose total is that point's settlement in the headline card.
+    const centreTotal = await page.getByTestId('sublayer-total').textContent()
+    await page.getByTestId('point-select').selectOption({ label: (await page.getByTestId('point-select').locator('option').nth(1).textContent())! })
+    await expect.poll(() => page.getByTestId('sublayer-total').textContent()).not.toBe(centreTotal)
+    const cornerCard = (await page.getByTestId('headline-points').locator('li').nth(1).textContent())!.replace(/\s+/g, '')
+    expect(cornerCard).toBe(`Corner${(await page.getByTestId('sublayer-total').textContent())!.trim()}mm`)
     expect(await page.getByTestId('run-caution').textContent()).toContain('licensed engineer')
 
     expect(await page.getByTestId('export-xlsx').getAttribute('href')).toBe(`/api/projects/${projectId}/settlement-runs/${approvedRun}/export?format=xlsx`)
