@@ -1,7 +1,7 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
-import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
+import { baseUrl, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 import { screenshot, signInAs, useBrowser } from './helpers'
@@ -166,6 +166,23 @@ describe('settlement results in Chromium', () => {
     expect(await page.getByRole('status').textContent()).toContain('“Slab computing” deleted.')
     const { rows } = await pool.query('select 1 from settlement_runs where id = $1', [copy!.id])
     expect(rows).toEqual([])
+    await page.close()
+  })
+
+  it('shows the demo\'s seeded embankment run on its approved version (read only)', async () => {
+    const demoId = await demoProjectId(designer)
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${demoId}/settlement`)
+    const link = page.getByTestId('run-list').getByRole('link', { name: 'Yard embankment, 6 m on version 1' })
+    await link.waitFor()
+    await link.click()
+    await page.locator('[data-testid="run-version-line"][data-state="approved"]').waitFor()
+    await page.getByTestId('contour-band').first().waitFor()
+    // The embankment is outlined at its toe and its crest.
+    expect(await page.getByTestId('load-outline').count()).toBe(2)
+    await page.getByTestId('sublayer-table').waitFor()
+    await screenshot(page, 'settlement-results-demo-laptop')
     await page.close()
   })
 })
