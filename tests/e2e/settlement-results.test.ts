@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
@@ -76,6 +77,12 @@ describe('settlement results in Chromium', () => {
     await page.mouse.move(box.x - 60, box.y - 50, { steps: 6 })
     await page.mouse.up()
     await expect.poll(() => readout.textContent()).not.toBe(before)
+    // The section as a drawing: an SVG file with the caution under it.
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('section-plot').getByTestId('plot-svg').click()])
+    expect(download.suggestedFilename()).toBe('settlement-section.svg')
+    const svgText = readFileSync((await download.path())!, 'utf8')
+    expect(svgText).toContain('<svg')
+    expect(svgText).toContain('licensed engineer')
 
     // The first named point's sublayer table, its subtotals and the convergence line.
     const table = page.getByTestId('sublayer-table')
