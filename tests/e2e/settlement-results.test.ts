@@ -63,6 +63,11 @@ describe('settlement results in Chromium', () => {
     expect(await page.getByTestId('load-outline').count()).toBe(1)
     expect(await page.getByTestId('named-point').count()).toBe(3)
     expect(await page.getByTestId('headline-max').textContent()).toContain('at Centre')
+    // The settlement under the pointer, near the slab's centre.
+    await page.getByTestId('named-point').first().scrollIntoViewIfNeeded()
+    const centre = (await page.getByTestId('named-point').first().boundingBox())!
+    await page.mouse.move(centre.x + centre.width / 2 + 25, centre.y + centre.height / 2 + 25)
+    await expect.poll(() => page.getByTestId('contour-probe').textContent()).toMatch(/^\d+\.\d mm$/)
 
     // Dragging end B of the section towards the slab's centre changes the read-out.
     const readout = page.getByTestId('section-readout')
