@@ -3,7 +3,7 @@
 // no demo seed, no mail delivery, and its HTTP side bound to 127.0.0.1 on an unused port
 // (PASTLOAD_WORKER_PORT to choose it): the compute code is the server's own bundle and its bundled
 // worker thread, so nothing here needs TypeScript. Stop it with Ctrl-C / SIGTERM: the run in progress
-// may finish first (up to 20 s); one cut short is started again by the next worker after the job's expiry.
+// may finish first (up to 20 s); one cut short goes back to the queue and is started again by the next worker.
 import { createServer } from 'node:net'
 import { resolve } from 'node:path'
 import { fileURLToPath, pathToFileURL } from 'node:url'

@@ -143,7 +143,7 @@ export async function startRunWorker(settings = runJobSettingsFromEnv()): Promis
       console.info(`[pastload:runs] run ${job.data.runId}: ${status ?? 'nothing to do'}`)
     }
   })
-  console.info(`[pastload:runs] settlement-run worker started (schema ${settings.schema})`)
+  console.info(`[pastload:runs] settlement-run worker started (schema ${settings.schema}; runs computed ${workerScript() ? 'in a worker thread' : 'in this thread'})`)
 }
 
 /** Stops taking jobs, lets a run in progress finish (up to `timeoutMs`), then closes the queue. */

@@ -94,7 +94,7 @@ describe('settlement runs through the job queue', () => {
     const schema = `pgboss_kill_${Date.now().toString(36)}`
     const workers: ChildProcess[] = []
 
-    async function startWorker(): Promise<{ child: ChildProcess, url: string }> {
+    async function startWorker(): Promise<{ child: ChildProcess, url: string, log: () => string }> {
       const port = await freePort()
       let log = ''
       const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
@@ -124,7 +124,7 @@ describe('settlement runs through the job queue', () => {
           return false
         }
       }, ready => ready, 60)
-      return { child, url }
+      return { child, url, log: () => log }
     }
 
     afterAll(async () => {
@@ -139,6 +139,7 @@ describe('settlement runs through the job queue', () => {
 
     it('leaves the run running and unwritten, and the next worker finishes it (attempts 2)', async () => {
       const first = await startWorker()
+      expect(first.log()).toContain('runs computed in a worker thread')
       // Sent through the worker's own HTTP side, so the job lands in its queue schema.
       const viaWorker = new Client(first.url)
       await must('sign-in on the worker', viaWorker.post('/api/auth/login', { email: demoEmail('designer'), password: DEMO_PASSWORD }))
