@@ -68,8 +68,14 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
 
   const loads = computed(() => draft.value.loads)
   const points = computed(() => draft.value.points)
-  const selectedLoad = computed(() => (selected.value?.kind === 'load' ? draft.value.loads.find(l => l.id === selected.value!.id) ?? null : null))
-  const selectedPoint = computed(() => (selected.value?.kind === 'point' ? draft.value.points.find(p => p.id === selected.value!.id) ?? null : null))
+  const selectedLoad = computed(() => {
+    const s = selected.value
+    return s?.kind === 'load' ? draft.value.loads.find(l => l.id === s.id) ?? null : null
+  })
+  const selectedPoint = computed(() => {
+    const s = selected.value
+    return s?.kind === 'point' ? draft.value.points.find(p => p.id === s.id) ?? null : null
+  })
 
   function persist() {
     const ss = storage()

@@ -140,8 +140,8 @@ export function loadPressure(l: DraftLoad): number {
 /** A rectangle of `w` × `l` centred at (cx, cy), turned by `rot` degrees. */
 function rect(cx: number, cy: number, w: number, l: number, rot: number): { x: number, y: number }[] {
   const a = (rot * Math.PI) / 180
-  return [[-w / 2, -l / 2], [w / 2, -l / 2], [w / 2, l / 2], [-w / 2, l / 2]]
-    .map(([u, v]) => ({ x: cx + u! * Math.cos(a) - v! * Math.sin(a), y: cy + u! * Math.sin(a) + v! * Math.cos(a) }))
+  const corners: [number, number][] = [[-w / 2, -l / 2], [w / 2, -l / 2], [w / 2, l / 2], [-w / 2, l / 2]]
+  return corners.map(([u, v]) => ({ x: cx + u * Math.cos(a) - v * Math.sin(a), y: cy + u * Math.sin(a) + v * Math.cos(a) }))
 }
 
 /** What the plan draws of a load: its footprint (the toe of an embankment) and an embankment's crest. */
