@@ -3,8 +3,8 @@ import { computed, ref, shallowRef, toRaw } from 'vue'
 import {
   draftFromRun, emptyDraft, loadFromBox, newLoad, nextLabel, round,
   type DraftLoad, type DraftLoadType, type DraftPoint, type RunInputs, type SettlementDraft,
-} from '../../shared/settlement-run/draft'
-import { RUN_LIMITS, type RunOptions } from '../../shared/schemas/settlement-runs'
+} from '#shared/settlement-run/draft'
+import { RUN_LIMITS, type RunOptions } from '#shared/schemas/settlement-runs'
 import { useUndoHistory } from '../composables/useUndoHistory'
 
 /**
