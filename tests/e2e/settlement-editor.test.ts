@@ -100,6 +100,19 @@ describe('the settlement run editor in Chromium', () => {
     await expect(page.getByTestId('run-name-error').textContent()).resolves.toContain('Name is required')
     await page.getByTestId('run-name').fill('Yard embankment, drawn')
 
+    // A grid over the loads: its size is shown, and one past 10 000 points is refused before sending.
+    await page.getByTestId('grid-on').check()
+    const count = page.getByTestId('grid-count')
+    await count.waitFor()
+    await page.getByTestId('grid-spacing').fill('0.5')
+    await page.getByTestId('grid-spacing').press('Enter')
+    await expect.poll(() => count.textContent()).toMatch(/more than 10,000/)
+    await page.getByTestId('run').click()
+    await expect(page.getByTestId('grid-spacing-error').textContent()).resolves.toMatch(/at most 10,000/)
+    await page.getByTestId('grid-spacing').fill('5')
+    await page.getByTestId('grid-spacing').press('Enter')
+    await expect.poll(() => count.textContent()).toMatch(/^\d{2,3} grid points\.$/)
+
     // A reload keeps the draft (the tab's session).
     await page.getByTestId('run-name').press('Tab')
     await page.reload()
@@ -118,6 +131,28 @@ describe('the settlement run editor in Chromium', () => {
     expect(run.loads[0]).toMatchObject({ type: 'embankment', height: 6, sideSlope: 2, unitWeight: 20, crestWidth })
     expect(run.points.map(p => p.label)).toEqual(['P1', 'P2'])
     expect(run.model).toMatchObject({ modelName: 'Yard model', version: 1, status: 'approved' })
+    expect(run.grid).toEqual({ spacing: 5, margin: 10 })
+
+    // The run's page: done (or its progress until then), the contour map, a point's sublayers, the workbook.
+    await page.locator('[data-testid="run-progress"], [data-testid="run-status-finished"]').first().waitFor()
+    await page.getByTestId('run-status-finished').first().waitFor({ timeout: 30_000 })
+    await page.getByTestId('contour-band').first().waitFor()
+    const table = page.getByTestId('sublayer-table')
+    await table.waitFor()
+    expect(await table.getByTestId('sublayer-row').count()).toBeGreaterThan(10)
+    const xlsx = await page.request.get(`${baseUrl()}${await page.getByTestId('export-xlsx').getAttribute('href')}`)
+    expect(xlsx.status()).toBe(200)
+    await screenshot(page, 'settlement-editor-run-laptop')
+
+    // Run again with changes: the editor opens with this run's inputs.
+    await page.getByTestId('run-again').click()
+    await page.waitForURL(/\/settlement\/new\?from=/)
+    await page.getByTestId('from-run-note').waitFor()
+    await expect.poll(() => page.getByTestId('run-name').inputValue()).toBe('Yard embankment, drawn (changed)')
+    expect(await page.getByTestId('load-type-0').inputValue()).toBe('embankment')
+    expect(await page.getByTestId('load-0-crestWidth').inputValue()).toBe(String(crestWidth))
+    expect(await page.getByTestId('point-row-1').count()).toBe(1)
+    expect(await page.getByTestId('grid-on').isChecked()).toBe(true)
     await page.close()
   })
 
