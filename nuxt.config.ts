@@ -114,8 +114,15 @@ export default defineNuxtConfig({
     hooks: {
       // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
       // bundle; the packages they import are traced into .output because the bundle imports them too.
-      compiled(nitro) {
+      async compiled(nitro) {
         cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true })
+        // The settlement-run worker imports the TypeScript engine: bundled into one plain file (esbuild, Vite's own).
+        const { build } = await import('esbuild')
+        await build({
+          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/settlement-run.mjs')],
+          outfile: join(nitro.options.output.serverDir, 'workers', 'settlement-run.bundle.mjs'),
+          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
+        })
       },
     },
   },

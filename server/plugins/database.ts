@@ -2,6 +2,7 @@ import { applyMigrations } from '../db/migrate'
 import { seedDemoIfEmpty } from '../services/demo-seed'
 import { seedDemoAttachmentsAfterDemoSeed } from '../services/demo-seed-attachments'
 import { seedDemoModelAfterDemoSeed } from '../services/demo-seed-model'
+import { seedDemoRunsAfterDemoSeed } from '../services/demo-seed-runs'
 import { logServerError } from '../utils/error-log'
 import { markDatabaseFailed, markDatabaseReady } from '../utils/ready'
 
@@ -17,6 +18,7 @@ export default defineNitroPlugin(() => {
       if (seeded) {
         await seedDemoModelAfterDemoSeed(db)
         await seedDemoAttachmentsAfterDemoSeed(db)
+        await seedDemoRunsAfterDemoSeed(db)
       }
     }
   }

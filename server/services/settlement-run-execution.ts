@@ -69,8 +69,17 @@ export async function failRun(runId: string, projectId: string, message: string,
   })
 }
 
+/** A refusal by the engine reported from a worker thread: its plain message and code. */
+export class RunComputeFailure extends Error {
+  constructor(message: string, readonly code: string) {
+    super(message)
+    this.name = 'RunComputeFailure'
+  }
+}
+
 /** What a failed computation tells the user: the engine's plain message, or a general one for a fault. */
 export function describeComputeError(err: unknown): { message: string, code: string | null } {
+  if (err instanceof RunComputeFailure) return { message: err.message, code: err.code }
   if (isGeotechError(err)) return { message: err.message, code: err.code ?? 'engine' }
   if (err instanceof ModelIncompleteError) return { message: err.message, code: 'model-incomplete' }
   logServerError('settlement run computation failed', err)

@@ -21,6 +21,7 @@ import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema, SubmitVersionSch
 import { AddMemberSchema, CreateProjectSchema, UpdateMemberSchema, UpdateProjectSchema } from '../../shared/schemas/projects'
 import { InviteSchema } from '../../shared/schemas/people'
 import { CreateFlagSchema, ReplySchema, UpdateFlagSchema } from '../../shared/schemas/review'
+import { CreateSettlementRunSchema } from '../../shared/schemas/settlement-runs'
 import { TINY_PDF } from '../helpers/attach'
 import { upload } from '../helpers/upload'
 import { bodiesOf, mutate, mutation, serialise, type Json } from '../helpers/fuzz'
@@ -71,6 +72,7 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'PATCH /api/projects/:projectId/tests/oedometer/:testId': OedometerTestUpdateSchema,
   'POST /api/projects/:projectId/tests/oedometer/:testId/adoptions': AdoptionInputSchema,
   'POST /api/projects/:projectId/preconsolidation-points/evaluate': PreconsolidationPointsEvaluateSchema,
+  'POST /api/projects/:projectId/settlement-runs': CreateSettlementRunSchema,
   'POST /api/projects': CreateProjectSchema,
   'POST /api/users': CreateUserSchema,
   'POST /api/account/tokens': CreateTokenSchema,

@@ -5,7 +5,7 @@ import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { RESULT_CAUTION } from '../../shared/caution'
 import type { RunPointDetail, SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
-import { signedInDemo } from '../helpers/http'
+import { demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { scenarioDefinition } from '../helpers/scenario-definition'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
@@ -185,5 +185,35 @@ describe('settlement runs', () => {
     expect(points.rows[0].n).toBe(0)
     const audit = await pool.query('select action from audit_events where entity = \'settlement-run\' and entity_id = $1 order by at', [c.run.id])
     expect(audit.rows.map(r => r.action)).toEqual(['create', 'delete'])
+  })
+})
+
+describe('the demo\'s settlement run', () => {
+  const { designer } = signedInDemo('designer')
+
+  it('is seeded finished on the approved Yard model version 1, with the yard\'s points and a 5 m grid', async () => {
+    const projectId = await demoProjectId(designer)
+    const list = await must('list', designer.get<SettlementRunList>(`/api/projects/${projectId}/settlement-runs`))
+    const seeded = list.runs.find(r => r.name === 'Yard embankment, 6 m on version 1')
+    expect(seeded).toBeDefined()
+    expect(seeded!.status).toBe('finished')
+    const { run } = await must('run', designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${seeded!.id}`))
+    expect(run.model).toMatchObject({ modelName: 'Yard model', version: 1, status: 'approved', approvedBy: 'Priya Natarajan' })
+    expect(run.createdBy?.name).toBe('Sam Okafor')
+    // The yard (easting 50–170 m, northing 40–120 m) is the toe: crest 96 m × 56 m for 6 m at 2:1.
+    expect(run.loads).toEqual([expect.objectContaining({ type: 'embankment', x: 110, y: 80, crestWidth: 96, crestLength: 56, height: 6, sideSlope: 2, unitWeight: 20 })])
+    expect(run.points.map(p => p.label)).toEqual(['Yard centre', 'South-west corner', 'South edge, middle', 'BH-03'])
+    expect(run.points[3]).toMatchObject({ x: 157.6, y: 56.3 })
+    expect(run.points[3]!.pointId).toMatch(/^[0-9a-f-]{36}$/)
+    expect(run.grid).toEqual({ spacing: 5, margin: 10 })
+    const [centre, corner, edge] = run.results!.points
+    // 120 kPa over the scenario's 11.6 m of soft estuarine clay: metre-scale at the centre (plausibility band).
+    expect(centre!.settlement).toBeGreaterThan(0.5)
+    expect(centre!.settlement).toBeLessThan(4)
+    expect(corner!.settlement).toBeLessThan(edge!.settlement)
+    expect(edge!.settlement).toBeLessThan(centre!.settlement)
+    expect(run.results!.grid!.xs[0]).toBe(40)
+    expect(run.results!.grid!.xs).toHaveLength(29)
+    expect(run.results!.grid!.ys).toHaveLength(21)
   })
 })

@@ -1,0 +1,154 @@
+// Settlement runs through the job queue: a grid run goes queued → running → finished in the app
+// process's worker, with progress; and a run whose worker is killed mid-run is left running and
+// unwritten, then finished by the next worker after the job's expiry (attempts 2).
+import { spawn, type ChildProcess } from 'node:child_process'
+import { resolve } from 'node:path'
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEMO_PASSWORD } from '../../shared/demo/scenario'
+import type { SettlementRun } from '../../shared/types/settlement-runs'
+import { Client, demoEmail, signedInDemo } from '../helpers/http'
+import { createProject, must } from '../helpers/project'
+import { freePort, ROOT } from '../helpers/server'
+import { createRunModel, smallRunBody } from '../helpers/settlement-run'
+
+const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
+afterAll(() => pool.end())
+
+interface RunRow { status: string, progress: number, attempts: number, has_results: boolean, points: number }
+async function row(runId: string): Promise<RunRow> {
+  const r = await pool.query<RunRow>(`select status, progress, attempts, results is not null as has_results,
+    (select count(*)::int from settlement_run_points p where p.run_id = r.id) as points from settlement_runs r where id = $1`, [runId])
+  return r.rows[0]!
+}
+
+/** Polls until `done` holds (generous: the machine may be busy); returns the last value. */
+async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => boolean, seconds = 240): Promise<T> {
+  const deadline = Date.now() + seconds * 1000
+  for (;;) {
+    const v = await read()
+    if (done(v)) return v
+    if (Date.now() > deadline) throw new Error(`${what}: still ${JSON.stringify(v)} after ${seconds} s`)
+    await new Promise(r => setTimeout(r, 100))
+  }
+}
+
+/** A grid run large enough to take a few seconds: a 70 m × 50 m slab, a 1 m grid with 10 m margin (91 × 71 points). */
+function gridRunBody(model: { modelId: string, version: number }, name: string) {
+  return smallRunBody(model, { name, points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 70, length: 50, pressure: 80 }], grid: { spacing: 1, margin: 10 } })
+}
+
+describe('settlement runs through the job queue', () => {
+  const { owner, engineer, designer } = signedInDemo('owner', 'engineer', 'designer')
+  let project: { id: string, base: string }
+  let model: { modelId: string, version: number }
+
+  beforeAll(async () => {
+    project = await createProject(owner, 'SRJ', 'Settlement jobs site', ['engineer', 'designer'])
+    model = await createRunModel(engineer, project.id)
+  })
+
+  it('queues a grid run and the app\'s worker finishes it, writing progress on the way', async () => {
+    const created = await must('grid run', designer.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, gridRunBody(model, 'Grid run')), 201)
+    expect(created.run.status).toBe('queued')
+    const seen: { status: string, progress: number }[] = []
+    const finished = await until('grid run', async () => {
+      const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))
+      seen.push({ status: run.status, progress: run.progress })
+      return run
+    }, run => run.status === 'finished' || run.status === 'failed')
+    expect(finished.status).toBe('finished')
+    expect(finished.startedAt).not.toBeNull()
+    const grid = finished.results!.grid!
+    expect(grid.xs).toHaveLength(91)
+    expect(grid.ys).toHaveLength(71)
+    // Progress never goes back, and statuses only move forward.
+    const order = ['queued', 'running', 'finished']
+    for (let i = 1; i < seen.length; i++) {
+      expect(order.indexOf(seen[i]!.status)).toBeGreaterThanOrEqual(order.indexOf(seen[i - 1]!.status))
+      if (seen[i]!.status === 'running' && seen[i - 1]!.status === 'running') expect(seen[i]!.progress).toBeGreaterThanOrEqual(seen[i - 1]!.progress)
+    }
+    const r = await row(created.run.id)
+    expect(r).toMatchObject({ status: 'finished', progress: 1, attempts: 1, has_results: true, points: 1 })
+    // Live pages heard of it: created, started, progress, finished.
+    const events = await pool.query('select count(*)::int as n from live_events where type = \'run.changed\' and entity_id = $1', [created.run.id])
+    expect(events.rows[0].n).toBeGreaterThanOrEqual(3)
+    const list = await must('list', designer.get<{ runs: { id: string, gridPoints: number, headline: { maxAngularDistortion: number | null } | null }[] }>(`${project.base}/settlement-runs`))
+    const summary = list.runs.find(x => x.id === created.run.id)!
+    expect(summary.gridPoints).toBe(91 * 71)
+    expect(summary.headline).not.toBeNull()
+  })
+
+  describe('a standalone worker killed mid-run', () => {
+    const schema = `pgboss_kill_${Date.now().toString(36)}`
+    const workers: ChildProcess[] = []
+
+    async function startWorker(): Promise<{ child: ChildProcess, url: string }> {
+      const port = await freePort()
+      let log = ''
+      const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
+        cwd: ROOT,
+        env: {
+          ...process.env,
+          PASTLOAD_JOBS_SCHEMA: schema,
+          PASTLOAD_RUN_JOB_EXPIRY_S: '60',
+          PASTLOAD_JOBS_MAINTENANCE_S: '1',
+          PASTLOAD_WORKER_PORT: String(port),
+          PASTLOAD_WORKER_SKIP_BUILD: '1',
+          PASTLOAD_TRUST_PROXY: '1',
+        },
+        stdio: ['ignore', 'pipe', 'pipe'],
+      })
+      child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
+      child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
+      workers.push(child)
+      const url = `http://127.0.0.1:${port}`
+      await until('worker ready', async () => {
+        if (child.exitCode !== null) throw new Error(`the worker exited (${child.exitCode}):\n${log}`)
+        try {
+          const health = await (await fetch(`${url}/api/health`)).json() as { db?: string }
+          return health.db === 'ok' && log.includes('settlement-run worker started')
+        }
+        catch {
+          return false
+        }
+      }, ready => ready, 60)
+      return { child, url }
+    }
+
+    afterAll(async () => {
+      for (const w of workers) {
+        if (w.exitCode === null && w.signalCode === null) {
+          w.kill('SIGTERM')
+          await new Promise(r => w.once('exit', r))
+        }
+      }
+      await pool.query(`drop schema if exists ${schema} cascade`)
+    })
+
+    it('leaves the run running and unwritten, and the next worker finishes it (attempts 2)', async () => {
+      const first = await startWorker()
+      // Sent through the worker's own HTTP side, so the job lands in its queue schema.
+      const viaWorker = new Client(first.url)
+      await must('sign-in on the worker', viaWorker.post('/api/auth/login', { email: demoEmail('designer'), password: DEMO_PASSWORD }))
+      const body = smallRunBody(model, { name: 'Killed worker run', points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 80, length: 60, pressure: 80 }], grid: { spacing: 1, margin: 9 }, options: { maxSublayerThickness: 0.1 } })
+      const created = await must('run on the worker', viaWorker.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, body), 201)
+      expect(created.run.status).toBe('queued')
+
+      const running = await until('progress', () => row(created.run.id), r => r.status !== 'queued' && r.progress > 0)
+      expect(running.status).toBe('running')
+      first.child.kill('SIGKILL')
+      await new Promise(r => first.child.once('exit', r))
+
+      const left = await row(created.run.id)
+      expect(left).toMatchObject({ status: 'running', attempts: 1, has_results: false, points: 0 })
+
+      await startWorker()
+      const done = await until('finished by the second worker', () => row(created.run.id), r => r.status === 'finished' || r.status === 'failed', 300)
+      expect(done).toMatchObject({ status: 'finished', progress: 1, attempts: 2, has_results: true, points: 1 })
+      const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))
+      expect(run.results!.grid!.xs).toHaveLength(99)
+      expect(run.results!.grid!.ys).toHaveLength(79)
+    }, 420_000)
+  })
+})
