@@ -140,9 +140,9 @@ describe('the settlement run editor in Chromium', () => {
     const table = page.getByTestId('sublayer-table')
     await table.waitFor()
     expect(await table.getByTestId('sublayer-row').count()).toBeGreaterThan(10)
+    await screenshot(page, 'settlement-editor-run-laptop')
     const xlsx = await page.request.get(`${baseUrl()}${await page.getByTestId('export-xlsx').getAttribute('href')}`)
     expect(xlsx.status()).toBe(200)
-    await screenshot(page, 'settlement-editor-run-laptop')
 
     // Run again with changes: the editor opens with this run's inputs.
     await page.getByTestId('run-again').click()
