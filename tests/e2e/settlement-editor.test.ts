@@ -1,10 +1,11 @@
+import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { createPoint, createProject, must } from '../helpers/project'
 import { createRunModel } from '../helpers/settlement-run'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 /** Both screen sizes of the page as it stands. */
 async function shoot(page: Page, name: string) {
@@ -12,6 +13,11 @@ async function shoot(page: Page, name: string) {
   await screenshot(page, `${name}-laptop`)
   await page.setViewportSize({ width: 390, height: 844 })
   await screenshot(page, `${name}-phone`)
+  // The plan and its tools as a phone shows them, at full size.
+  await page.getByTestId('draw-tools').scrollIntoViewIfNeeded()
+  await page.screenshot({ path: join(SCREENSHOTS, `${name}-phone-plan.png`) })
+  await page.getByTestId('load-table').scrollIntoViewIfNeeded()
+  await page.screenshot({ path: join(SCREENSHOTS, `${name}-phone-table.png`) })
   await page.setViewportSize({ width: 1366, height: 800 })
 }
 
