@@ -119,6 +119,15 @@ describe('the settlement run editor in Chromium', () => {
     await page.getByTestId('grid-spacing').press('Enter')
     await expect.poll(() => count.textContent()).toMatch(/^\d{2,3} grid points\.$/)
 
+    // A load beyond the site's ±5 km passes the form but the server refuses it (422): the reason shows on its row.
+    const x = await page.getByTestId('load-0-x').inputValue()
+    await page.getByTestId('load-0-x').fill('6000')
+    await page.getByTestId('load-0-x').press('Enter')
+    await page.getByTestId('run').click()
+    await expect(page.getByTestId('load-0-error').textContent()).resolves.toMatch(/beyond ±5000 m of the site origin/)
+    await page.getByTestId('undo').click()
+    await expect.poll(() => page.getByTestId('load-0-x').inputValue()).toBe(x)
+
     // A reload keeps the draft (the tab's session).
     await page.getByTestId('run-name').press('Tab')
     await page.reload()
@@ -147,8 +156,7 @@ describe('the settlement run editor in Chromium', () => {
     await table.waitFor()
     expect(await table.getByTestId('sublayer-row').count()).toBeGreaterThan(10)
     await screenshot(page, 'settlement-editor-run-laptop')
-    const xlsx = await page.request.get(`${baseUrl()}${await page.getByTestId('export-xlsx').getAttribute('href')}`)
-    expect(xlsx.status()).toBe(200)
+    const xlsxHref = await page.getByTestId('export-xlsx').getAttribute('href')
 
     // Run again with changes: the editor opens with this run's inputs.
     await page.getByTestId('run-again').click()
@@ -159,6 +167,11 @@ describe('the settlement run editor in Chromium', () => {
     expect(await page.getByTestId('load-0-crestWidth').inputValue()).toBe(String(crestWidth))
     expect(await page.getByTestId('point-row-1').count()).toBe(1)
     expect(await page.getByTestId('grid-on').isChecked()).toBe(true)
+
+    // The run's workbook downloads.
+    const xlsx = await page.request.get(`${baseUrl()}${xlsxHref}`)
+    expect(xlsx.status()).toBe(200)
+    expect(xlsx.headers()['content-type']).toContain('spreadsheetml')
     await page.close()
   })
 
