@@ -57,6 +57,7 @@ describe('the settlement run editor in Chromium', () => {
     // The live stream is not part of this story.
     await page.route('**/api/projects/*/events', route => route.abort())
     await page.goto(`${baseUrl()}/projects/${projectId}/settlement/new`)
+    await page.locator('[data-testid="run-editor"][data-ready="yes"]').waitFor()
 
     // The model in force is the default, with its standing.
     const standing = page.getByTestId('version-standing')
@@ -172,6 +173,30 @@ describe('the settlement run editor in Chromium', () => {
     const xlsx = await page.request.get(`${baseUrl()}${xlsxHref}`)
     expect(xlsx.status()).toBe(200)
     expect(xlsx.headers()['content-type']).toContain('spreadsheetml')
+    await page.close()
+  })
+
+  it('a project in US units takes feet and psf in the table and keeps SI in the draft', async () => {
+    const owner = await signIn(demoEmail('owner'))
+    const us = await createProject(owner, 'E2E-RUN-US', 'Run editor in US units (browser)', ['designer'], { unitSystem: 'US' })
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.route('**/api/projects/*/events', route => route.abort())
+    await page.goto(`${baseUrl()}/projects/${us.id}/settlement/new`)
+    await page.locator('[data-testid="run-editor"][data-ready="yes"]').waitFor()
+    await page.getByTestId('table-add-rectangle').click()
+    await page.getByTestId('load-row-0').waitFor()
+    expect(await page.getByTestId('load-row-0').getByText('Width').textContent()).toContain('(ft)')
+    // The default 20 m is 65.617 ft (1 ft = 0.3048 m exactly, NIST SP 811, 2008, App. B.8).
+    expect(await page.getByTestId('load-0-width').inputValue()).toBe('65.617')
+    await page.getByTestId('load-0-width').fill('100')
+    await page.getByTestId('load-0-width').press('Enter')
+    await page.getByTestId('load-0-pressure').fill('2000')
+    await page.getByTestId('load-0-pressure').press('Enter')
+    await expect.poll(() => page.getByTestId('load-pressure-0').textContent()).toBe('q = 2000 psf')
+    const kept = await page.evaluate(id => JSON.parse(sessionStorage.getItem(`pastload.settlement-draft.v1:${id}`) ?? 'null'), us.id) as { draft: { loads: { width: number, pressure: number }[] } }
+    expect(kept.draft.loads[0]!.width).toBeCloseTo(30.48, 9)
+    // 1 psf = 0.047880 kPa.
+    expect(kept.draft.loads[0]!.pressure).toBeCloseTo(95.76, 2)
     await page.close()
   })
 
