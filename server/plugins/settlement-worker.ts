@@ -1,4 +1,4 @@
-import { runJobSettingsFromEnv, startRunQueue, startRunWorker, stopRunQueue } from '../services/settlement-run-jobs'
+import { registerRunQueue, runJobSettingsFromEnv, startRunQueue, startRunWorker, stopRunQueue } from '../services/settlement-run-jobs'
 import { logServerError } from '../utils/error-log'
 import { databaseReady } from '../utils/ready'
 
@@ -10,6 +10,7 @@ export default defineNitroPlugin((nitro) => {
   const settings = runJobSettingsFromEnv()
   const work = process.env.PASTLOAD_SETTLEMENT_WORKER !== 'off'
   let closed = false
+  registerRunQueue(settings)
   databaseReady.then(async () => {
     if (closed) return
     if (work) await startRunWorker(settings)

@@ -17,6 +17,9 @@ import { publishLiveEvent } from './live-events'
 
 type RunRow = typeof settlementRuns.$inferSelect
 
+/** Starts a run may have: a run whose worker died this many times is failed rather than started again. */
+export const MAX_RUN_ATTEMPTS = 3
+
 export function computeInputOf(row: Pick<RunRow, 'definition' | 'loads' | 'points' | 'grid' | 'options'>): RunComputeInput {
   return { definition: row.definition, loads: row.loads, points: row.points, grid: row.grid ?? null, options: row.options }
 }
@@ -96,6 +99,10 @@ export async function executeRun(
 ): Promise<'finished' | 'failed' | null> {
   const row = await claimRun(runId)
   if (!row) return null
+  if (row.attempts > MAX_RUN_ATTEMPTS) {
+    await failRun(runId, row.projectId, `The run stopped ${MAX_RUN_ATTEMPTS} times before it finished (a worker was stopped or ran out of time). Try a coarser grid or thicker sublayers, or ask the site administrator to check the workers.`, 'attempts-exhausted')
+    return 'failed'
+  }
   let lastWrite = 0
   let pending: Promise<void> = Promise.resolve()
   const onProgress = (f: number) => {

@@ -6,7 +6,7 @@ import PgBoss from 'pg-boss'
 import { computeRun, type RunComputeInput, type RunComputeOutput } from '#shared/settlement-run/compute'
 import { databaseUrl } from '~~/server/db/client'
 import { logServerError } from '~~/server/utils/error-log'
-import { executeRun, RunComputeFailure } from './settlement-run-execution'
+import { executeRun, MAX_RUN_ATTEMPTS, RunComputeFailure } from './settlement-run-execution'
 import { setRunEnqueuer } from './settlement-runs'
 
 /**
@@ -23,6 +23,8 @@ import { setRunEnqueuer } from './settlement-runs'
  */
 
 export const RUN_QUEUE = 'settlement-run'
+/** Retries after a worker died or a job expired: one start more than MAX_RUN_ATTEMPTS, which marks the run failed at once. */
+const RUN_RETRY_LIMIT = MAX_RUN_ATTEMPTS
 
 export interface RunJobSettings {
   schema: string
@@ -59,11 +61,8 @@ export async function startRunQueue(settings = runJobSettingsFromEnv()): Promise
     })
     b.on('error', err => logServerError('settlement-run job queue', err))
     await b.start()
-    await b.createQueue(RUN_QUEUE, { name: RUN_QUEUE, expireInSeconds: settings.expirySeconds, retryLimit: 3, retryDelay: 1 })
+    await b.createQueue(RUN_QUEUE, { name: RUN_QUEUE, expireInSeconds: settings.expirySeconds, retryLimit: RUN_RETRY_LIMIT, retryDelay: 1 })
     boss = b
-    setRunEnqueuer(async (runId) => {
-      await b.send(RUN_QUEUE, { runId }, { expireInSeconds: settings.expirySeconds, retryLimit: 3, retryDelay: 1 })
-    })
     return b
   })()
   try {
@@ -72,6 +71,17 @@ export async function startRunQueue(settings = runJobSettingsFromEnv()): Promise
   finally {
     starting = null
   }
+}
+
+/**
+ * Lets the run service hand large runs to the queue from now on (the queue starts on first use,
+ * so a run created while the process is still starting waits for it rather than running inline).
+ */
+export function registerRunQueue(settings = runJobSettingsFromEnv()): void {
+  setRunEnqueuer(async (runId) => {
+    const b = await startRunQueue(settings)
+    await b.send(RUN_QUEUE, { runId }, { expireInSeconds: settings.expirySeconds, retryLimit: RUN_RETRY_LIMIT, retryDelay: 1 })
+  })
 }
 
 /** The bundled worker-thread script next to the built server, or null (development: compute in this thread). */
@@ -133,7 +143,7 @@ export async function startRunWorker(settings = runJobSettingsFromEnv()): Promis
       console.info(`[pastload:runs] run ${job.data.runId}: ${status ?? 'nothing to do'}`)
     }
   })
-  console.info(`[pastload:runs] settlement-run worker started (schema ${settings.schema})`)
+  console.info(`[pastload:runs] settlement-run worker started (schema ${settings.schema}; runs computed ${workerScript() ? 'in a worker thread' : 'in this thread'})`)
 }
 
 /** Stops taking jobs, lets a run in progress finish (up to `timeoutMs`), then closes the queue. */

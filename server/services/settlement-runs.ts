@@ -7,11 +7,12 @@ import type { RunPointDetail, ServerRunModel, ServerSettlementRun, ServerSettlem
 import { useDb } from '~~/server/db/client'
 import { settlementRunPoints, settlementRuns, users } from '~~/server/db/schema'
 import { runEngine } from '~~/server/utils/engine'
+import { logServerError } from '~~/server/utils/error-log'
 import { recordAudit } from './audit'
 import { notFound, unprocessableError } from './http-errors'
 import { publishLiveEvent } from './live-events'
 import { requireModel, requireVersion } from './model-versions'
-import { executeRun } from './settlement-run-execution'
+import { executeRun, failRun } from './settlement-run-execution'
 
 /**
  * Settlement runs of a project: create (the model version's definition copied in, the input
@@ -105,7 +106,14 @@ export async function createSettlementRun(projectId: string, userId: string, bod
     const status = await executeRun(row.id)
     return { run: { id: row.id, status: status ?? 'queued' } }
   }
-  await enqueue(row.id)
+  try {
+    await enqueue(row.id)
+  }
+  catch (err) {
+    logServerError('settlement run could not be queued', err)
+    await failRun(row.id, projectId, 'The run could not be queued for a worker. Try again; if it fails again, tell the site administrator.', 'queue-unavailable')
+    return { run: { id: row.id, status: 'failed' } }
+  }
   return { run: { id: row.id, status: 'queued' } }
 }
 

@@ -79,11 +79,22 @@ describe('settlement runs through the job queue', () => {
     expect(summary.headline).not.toBeNull()
   })
 
+  it('fails a queued run the engine refuses while computing, with the plain reason', async () => {
+    const body = smallRunBody(model, { name: 'Grid excavation', points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 20, length: 20, pressure: -500 }], grid: { spacing: 5, margin: 0 } })
+    const created = await must('failing grid run', designer.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, body), 201)
+    expect(created.run.status).toBe('queued')
+    const r = await until('failed', () => row(created.run.id), x => x.status === 'finished' || x.status === 'failed')
+    expect(r).toMatchObject({ status: 'failed', has_results: false, points: 0, attempts: 1 })
+    const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))
+    expect(run.error?.code).toBe('final-effective-stress-not-positive')
+    expect(run.error?.message).toMatch(/must stay positive/)
+  })
+
   describe('a standalone worker killed mid-run', () => {
     const schema = `pgboss_kill_${Date.now().toString(36)}`
     const workers: ChildProcess[] = []
 
-    async function startWorker(): Promise<{ child: ChildProcess, url: string }> {
+    async function startWorker(): Promise<{ child: ChildProcess, url: string, log: () => string }> {
       const port = await freePort()
       let log = ''
       const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
@@ -113,7 +124,7 @@ describe('settlement runs through the job queue', () => {
           return false
         }
       }, ready => ready, 60)
-      return { child, url }
+      return { child, url, log: () => log }
     }
 
     afterAll(async () => {
@@ -128,13 +139,15 @@ describe('settlement runs through the job queue', () => {
 
     it('leaves the run running and unwritten, and the next worker finishes it (attempts 2)', async () => {
       const first = await startWorker()
+      expect(first.log()).toContain('runs computed in a worker thread')
       // Sent through the worker's own HTTP side, so the job lands in its queue schema.
       const viaWorker = new Client(first.url)
       await must('sign-in on the worker', viaWorker.post('/api/auth/login', { email: demoEmail('designer'), password: DEMO_PASSWORD }))
-      const body = smallRunBody(model, { name: 'Killed worker run', points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 80, length: 60, pressure: 80 }], grid: { spacing: 1, margin: 9 }, options: { maxSublayerThickness: 0.1 } })
+      const body = smallRunBody(model, { name: 'Killed worker run', points: [{ label: 'Centre', x: 0, y: 0 }], loads: [{ type: 'rectangle', x: 0, y: 0, width: 80, length: 60, pressure: 80 }], grid: { spacing: 1, margin: 10 }, options: { maxSublayerThickness: 0.05 } })
       const created = await must('run on the worker', viaWorker.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, body), 201)
       expect(created.run.status).toBe('queued')
 
+      // 101 × 81 grid points at 0.05 m sublayers: seconds of work, so the kill lands mid-run.
       const running = await until('progress', () => row(created.run.id), r => r.status !== 'queued' && r.progress > 0)
       expect(running.status).toBe('running')
       first.child.kill('SIGKILL')
@@ -147,8 +160,8 @@ describe('settlement runs through the job queue', () => {
       const done = await until('finished by the second worker', () => row(created.run.id), r => r.status === 'finished' || r.status === 'failed', 300)
       expect(done).toMatchObject({ status: 'finished', progress: 1, attempts: 2, has_results: true, points: 1 })
       const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))
-      expect(run.results!.grid!.xs).toHaveLength(99)
-      expect(run.results!.grid!.ys).toHaveLength(79)
+      expect(run.results!.grid!.xs).toHaveLength(101)
+      expect(run.results!.grid!.ys).toHaveLength(81)
     }, 420_000)
   })
 })

@@ -133,6 +133,33 @@ describe('settlement runs', () => {
     expect(r.body.message).toContain('Estuarine clay')
     const none = await pool.query('select count(*)::int as n from settlement_runs where model->>\'modelId\' = $1', [noCc.modelId])
     expect(none.rows[0].n).toBe(0)
+
+    // σ'v0 ≤ 0: saving refuses such a version, so one is written into the database to reach the run's own check.
+    const uplift = await createRunModel(engineer, base.split('/').pop()!, scenarioDefinition(), 'Uplift')
+    const bad = scenarioDefinition()
+    bad.groundwater.piezometers = [{ depth: 6, porePressure: 300 }]
+    await pool.query('update site_model_versions set definition = $2 where model_id = $1 and version = 1', [uplift.modelId, JSON.stringify(bad)])
+    const u = await designer.post<{ message: string, data: { code: string, depth?: number } }>(`${base}/settlement-runs`, smallRunBody(uplift))
+    expect(u.status).toBe(422)
+    expect(u.body.data.code).toBe('effective-stress-not-positive')
+    expect(u.body.message).toContain('Desiccated crust')
+  })
+
+  it('records an engine refusal met while computing as a failed run with the plain reason (201, never a 500)', async () => {
+    const body = smallRunBody(model, { name: 'Deep excavation', loads: [{ type: 'rectangle', x: 0, y: 0, width: 40, length: 30, pressure: -500 }] })
+    const c = await must('failing run', designer.post<Created>(`${base}/settlement-runs`, body), 201)
+    expect(c.run.status).toBe('failed')
+    const { run } = await must('read', reviewer.get<{ run: SettlementRun }>(`${base}/settlement-runs/${c.run.id}`))
+    expect(run.status).toBe('failed')
+    expect(run.results).toBeNull()
+    expect(run.error?.code).toBe('final-effective-stress-not-positive')
+    expect(run.error?.message).toContain('Desiccated crust')
+    const point = await reviewer.get<{ data: { status: string } }>(`${base}/settlement-runs/${c.run.id}/points/0`)
+    expect(point.status).toBe(409)
+    expect(point.body.data.status).toBe('failed')
+    expect((await reviewer.get(`${base}/settlement-runs/${c.run.id}/export?format=xlsx`)).status).toBe(409)
+    const list = await must('list', reviewer.get<SettlementRunList>(`${base}/settlement-runs`))
+    expect(list.runs.find(r => r.id === c.run.id)?.headline).toBeNull()
   })
 
   it('refuses shapes with 400 and names the field', async () => {
