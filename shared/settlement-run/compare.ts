@@ -60,9 +60,12 @@ export function inputDifferences(a: RunInputs, b: RunInputs): InputDifference[] 
   if (a.model.modelId !== b.model.modelId || a.model.version !== b.model.version || a.model.status !== b.model.status) out.push({ what: 'Model version', a: ver(a), b: ver(b) })
   const n = Math.max(a.loads.length, b.loads.length)
   for (let i = 0; i < n; i++) {
-    const la = a.loads[i] ? describeLoad(a.loads[i]!) : '—'
-    const lb = b.loads[i] ? describeLoad(b.loads[i]!) : '—'
-    if (la !== lb) out.push({ what: `Load ${i + 1}${a.loads[i]?.label ?? b.loads[i]?.label ? ` (${a.loads[i]?.label ?? b.loads[i]?.label})` : ''}`, a: la, b: lb })
+    const loadA = a.loads[i]
+    const loadB = b.loads[i]
+    const la = loadA ? describeLoad(loadA) : '—'
+    const lb = loadB ? describeLoad(loadB) : '—'
+    const label = loadA?.label ?? loadB?.label
+    if (la !== lb) out.push({ what: `Load ${i + 1}${label ? ` (${label})` : ''}`, a: la, b: lb })
   }
   const pts = (r: RunInputs) => r.points.map(p => `${p.label} (${fmt(p.x, 1)}, ${fmt(p.y, 1)})`).join('; ') || '—'
   if (pts(a) !== pts(b)) out.push({ what: 'Named points', a: pts(a), b: pts(b) })
@@ -71,7 +74,7 @@ export function inputDifferences(a: RunInputs, b: RunInputs): InputDifference[] 
   const oa = describeOptions(a.options)
   const ob = describeOptions(b.options)
   oa.forEach(([what, va], i) => {
-    const vb = ob[i]![1]
+    const vb = ob[i]?.[1] ?? '—'
     if (va !== vb) out.push({ what, a: va, b: vb })
   })
   return out

@@ -27,12 +27,14 @@ export interface SectionSummary {
 /** Index i with axis[i] ≤ v ≤ axis[i + 1] on an ascending axis, or -1 outside it. */
 function bracket(axis: readonly number[], v: number): number {
   const n = axis.length
-  if (n < 2 || v < axis[0]! - 1e-9 || v > axis[n - 1]! + 1e-9) return -1
+  const first = axis[0]
+  const last = axis[n - 1]
+  if (n < 2 || first === undefined || last === undefined || v < first - 1e-9 || v > last + 1e-9) return -1
   let lo = 0
   let hi = n - 1
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1
-    if (axis[mid]! <= v) lo = mid
+    if ((axis[mid] ?? Infinity) <= v) lo = mid
     else hi = mid
   }
   return lo
@@ -41,20 +43,21 @@ function bracket(axis: readonly number[], v: number): number {
 /** Settlement at plan point (x, y) by bilinear interpolation on the grid, or null outside it. */
 export function gridValueAt(grid: Pick<RunGridResult, 'xs' | 'ys' | 'settlement'>, x: number, y: number): number | null {
   const { xs, ys, settlement } = grid
-  if (xs.length === 1 && ys.length === 1) return Math.abs(x - xs[0]!) < 1e-9 && Math.abs(y - ys[0]!) < 1e-9 ? settlement[0]![0]! : null
   const i = bracket(xs, x)
   const j = bracket(ys, y)
   if (i < 0 || j < 0) return null
-  const x0 = xs[i]!
-  const x1 = xs[i + 1]!
-  const y0 = ys[j]!
-  const y1 = ys[j + 1]!
+  const x0 = xs[i]
+  const x1 = xs[i + 1]
+  const y0 = ys[j]
+  const y1 = ys[j + 1]
+  const s00 = settlement[j]?.[i]
+  const s10 = settlement[j]?.[i + 1]
+  const s01 = settlement[j + 1]?.[i]
+  const s11 = settlement[j + 1]?.[i + 1]
+  if (x0 === undefined || x1 === undefined || y0 === undefined || y1 === undefined) return null
+  if (s00 === undefined || s10 === undefined || s01 === undefined || s11 === undefined) return null
   const tx = Math.min(1, Math.max(0, (x - x0) / (x1 - x0)))
   const ty = Math.min(1, Math.max(0, (y - y0) / (y1 - y0)))
-  const s00 = settlement[j]![i]!
-  const s10 = settlement[j]![i + 1]!
-  const s01 = settlement[j + 1]![i]!
-  const s11 = settlement[j + 1]![i + 1]!
   return (1 - ty) * ((1 - tx) * s00 + tx * s10) + ty * ((1 - tx) * s01 + tx * s11)
 }
 
@@ -77,16 +80,17 @@ export function sectionAlong(
   let max: SectionSample | null = null
   let min: SectionSample | null = null
   let maxSlope = 0
-  let prev: SectionSample | null = null
+  let prev: { chainage: number, settlement: number } | null = null
   for (const s of samples) {
-    if (s.settlement === null) {
+    const v = s.settlement
+    if (v === null) {
       prev = null
       continue
     }
-    if (!max || s.settlement > max.settlement!) max = s
-    if (!min || s.settlement < min.settlement!) min = s
-    if (prev && s.chainage > prev.chainage) maxSlope = Math.max(maxSlope, Math.abs(s.settlement - prev.settlement!) / (s.chainage - prev.chainage))
-    prev = s
+    if (!max || v > (max.settlement ?? -Infinity)) max = s
+    if (!min || v < (min.settlement ?? Infinity)) min = s
+    if (prev && s.chainage > prev.chainage) maxSlope = Math.max(maxSlope, Math.abs(v - prev.settlement) / (s.chainage - prev.chainage))
+    prev = { chainage: s.chainage, settlement: v }
   }
   return { length, samples, max, min, maxSlope }
 }

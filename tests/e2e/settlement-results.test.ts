@@ -1,4 +1,5 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
@@ -6,6 +7,9 @@ import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Created { run: { id: string, status: string } }
+
+const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
+afterAll(() => pool.end())
 
 describe('settlement results in Chromium', () => {
   const browser = useBrowser()
@@ -42,7 +46,7 @@ describe('settlement results in Chromium', () => {
     await page.goto(`${baseUrl()}/projects/${projectId}/settlement`)
     const row = page.getByTestId(`run-row-${approvedRun}`)
     await row.waitFor()
-    expect(await page.locator('[data-run-row]').count()).toBe(2)
+    await page.getByTestId(`run-row-${provisionalRun}`).waitFor()
     expect(await row.textContent()).toContain('Slab on v1')
     expect(await row.getByTestId('run-headline-max').textContent()).toMatch(/\d+\.\d mm\s*Centre/)
     expect(await page.getByTestId('new-run').getAttribute('href')).toBe(`/projects/${projectId}/settlement/new`)
@@ -63,6 +67,9 @@ describe('settlement results in Chromium', () => {
     const readout = page.getByTestId('section-readout')
     const before = await readout.textContent()
     const handle = page.getByTestId('section-handle-b')
+    // The point's tables arrive after the map; drag once the page has its final layout, with the handle on screen.
+    await page.getByTestId('sublayer-table').waitFor()
+    await handle.scrollIntoViewIfNeeded()
     const box = (await handle.boundingBox())!
     await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2)
     await page.mouse.down()
@@ -78,6 +85,12 @@ describe('settlement results in Chromium', () => {
     expect(await page.getByTestId('convergence-line').textContent()).toMatch(/^Halving every sublayer changes the total by (less than 0\.01|\d+\.\d\d) %/)
     await page.getByTestId('depth-plot').waitFor()
     await page.getByTestId('time-curve').waitFor()
+    // Another named point: its own table, whose total is that point's settlement in the headline card.
+    const centreTotal = await page.getByTestId('sublayer-total').textContent()
+    await page.getByTestId('point-select').selectOption({ label: (await page.getByTestId('point-select').locator('option').nth(1).textContent())! })
+    await expect.poll(() => page.getByTestId('sublayer-total').textContent()).not.toBe(centreTotal)
+    const cornerCard = (await page.getByTestId('headline-points').locator('li').nth(1).textContent())!.replace(/\s+/g, '')
+    expect(cornerCard).toBe(`Corner${(await page.getByTestId('sublayer-total').textContent())!.trim()}mm`)
     expect(await page.getByTestId('run-caution').textContent()).toContain('licensed engineer')
 
     expect(await page.getByTestId('export-xlsx').getAttribute('href')).toBe(`/api/projects/${projectId}/settlement-runs/${approvedRun}/export?format=xlsx`)
@@ -119,6 +132,40 @@ describe('settlement results in Chromium', () => {
     await screenshot(page, 'settlement-results-compare-laptop')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'settlement-results-compare-phone')
+    await page.close()
+  })
+
+  it('moves the progress bar of a run being computed, then shows its results once it has finished', async () => {
+    // A run of this test's own, written as a worker would leave it part-way (the page cannot tell).
+    const { rows: [copy] } = await pool.query<{ id: string }>(
+      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
+       select project_id, 'Slab computing', model, definition, loads, points, grid, options, 'running', 0.3, created_by, now() from settlement_runs where id = $1 returning id`,
+      [approvedRun],
+    )
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${copy!.id}`)
+    const bar = page.getByRole('progressbar', { name: 'Run progress' })
+    await bar.waitFor()
+    expect(await bar.getAttribute('aria-valuenow')).toBe('30')
+    await screenshot(page, 'settlement-results-running-laptop')
+    await pool.query('update settlement_runs set progress = 0.6 where id = $1', [copy!.id])
+    await expect.poll(() => bar.getAttribute('aria-valuenow'), { timeout: 10_000 }).toBe('60')
+    await pool.query('insert into settlement_run_points (run_id, index, detail) select $1, index, detail from settlement_run_points where run_id = $2', [copy!.id, approvedRun])
+    await pool.query(`update settlement_runs r set status = 'finished', progress = 1, finished_at = now(), results = s.results from settlement_runs s where r.id = $1 and s.id = $2`, [copy!.id, approvedRun])
+    await page.getByTestId('headline-cards').waitFor({ timeout: 10_000 })
+    expect(await page.getByTestId('run-progress').count()).toBe(0)
+    expect(await page.getByTestId('headline-max').textContent()).toContain('at Centre')
+    await page.getByTestId('sublayer-table').waitFor()
+
+    // Its creator deletes it from the list (after saying yes).
+    await page.goto(`${baseUrl()}/projects/${projectId}/settlement`)
+    page.once('dialog', d => void d.accept())
+    await page.getByTestId(`run-delete-${copy!.id}`).click()
+    await page.getByTestId(`run-row-${copy!.id}`).waitFor({ state: 'detached' })
+    expect(await page.getByRole('status').textContent()).toContain('“Slab computing” deleted.')
+    const { rows } = await pool.query('select 1 from settlement_runs where id = $1', [copy!.id])
+    expect(rows).toEqual([])
     await page.close()
   })
 })
