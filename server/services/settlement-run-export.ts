@@ -38,7 +38,7 @@ export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, 
   const m = run.model
   const inputs: (string | number | null)[][] = [
     ['Run', run.name],
-    ['Model', `${m.modelName}, version ${m.version} (${m.status}${m.approvedBy ? `, approved by ${m.approvedBy}` : ''}${m.approvedAt ? ` on ${m.approvedAt.toISOString().slice(0, 10)}` : ''})`],
+    ['Model', `${m.modelName}, version ${m.version} (${m.status}${m.approvedBy ? `, approved by ${m.approvedBy}` : ''}${m.approvedAt ? ` on ${new Date(m.approvedAt).toISOString().slice(0, 10)}` : ''})`],
     ['Made', `${run.createdAt.toISOString()}${run.createdBy ? ` by ${run.createdBy.name}` : ''}`],
     ['Finished', run.finishedAt?.toISOString() ?? ''],
     ['Units', 'm, kPa, kN/m³, years'],
