@@ -185,6 +185,9 @@ function planLoadBench(): BenchRow[] {
     row.note = `${((row.ours * 1000) / evals).toFixed(2)} µs per depth, point set-up included; baseline a bare Newmark rectangle loop`
     return row
   })
+}
+
+/**
  * A settlement run's grid: 41 × 41 points under an embankment and two rectangles on the demo
  * ground model, 102 sublayers a point (0.2 m), against a bare loop of the same Δσ (the plan-load
  * superposition) and the same NC / OC / OC-NC formulas over hand-set σ'v0, σ'p, Cc, Cr, e0.
