@@ -129,7 +129,7 @@ describe('settlement runs', () => {
     const noCc = await createRunModel(engineer, base.split('/').pop()!, def, 'Without Cc')
     const r = await designer.post<{ message: string, data: { code: string } }>(`${base}/settlement-runs`, smallRunBody(noCc))
     expect(r.status).toBe(422)
-    expect(r.body.data.code).toBe('model-incomplete')
+    expect(r.body.data.code).toBe('compressibility-missing')
     expect(r.body.message).toContain('Estuarine clay')
     const none = await pool.query('select count(*)::int as n from settlement_runs where model->>\'modelId\' = $1', [noCc.modelId])
     expect(none.rows[0].n).toBe(0)
