@@ -1,7 +1,9 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
-import { cpSync } from 'node:fs'
-import { join, resolve } from 'node:path'
+import { cpSync, mkdirSync } from 'node:fs'
+import { createRequire } from 'node:module'
+import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { REPORT_FONT_FILES } from './shared/reports/fonts'
 
 // Browser features the product never uses are switched off for every page.
 const PERMISSIONS_POLICY: Record<string, string[]> = {
@@ -123,6 +125,11 @@ export default defineNuxtConfig({
           outfile: join(nitro.options.output.serverDir, 'workers', 'settlement-run.bundle.mjs'),
           bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
         })
+        // Reports embed Source Sans 3 from its TrueType files (server/services/reports/render.ts).
+        const fonts = join(dirname(createRequire(import.meta.url).resolve('source-sans/package.json')), 'TTF')
+        mkdirSync(join(nitro.options.output.serverDir, 'fonts'), { recursive: true })
+        for (const f of Object.values(REPORT_FONT_FILES)) cpSync(join(fonts, f), join(nitro.options.output.serverDir, 'fonts', f))
+        cpSync(join(fonts, '..', 'LICENSE.md'), join(nitro.options.output.serverDir, 'fonts', 'LICENSE.md'))
       },
     },
   },

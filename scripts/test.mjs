@@ -1,6 +1,6 @@
 // `npm test`: lint, typecheck (the app, then tests/ through tests/tsconfig.json), then unit, API and browser tests against a separate
 // test database on its own port (never the demo data). Starts and stops the test
-// PostgreSQL itself; installs Debian's chromium for the browser tests when missing.
+// PostgreSQL itself; installs Debian's chromium and poppler-utils for the browser and report tests when missing.
 import { execFileSync, spawnSync } from 'node:child_process'
 import { existsSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
@@ -26,12 +26,16 @@ function step(name, cmd, args, extraEnv = {}) {
   return true
 }
 
-function ensureChromium() {
-  if (existsSync('/usr/bin/chromium')) return
-  if (process.getuid?.() !== 0) throw new Error('Chromium is missing: run `sudo apt-get install -y chromium` once.')
-  log('test', 'Installing Debian\'s chromium for the browser tests…')
+/** Debian packages the browser and report tests use: chromium, and poppler-utils (pdftotext, pdftoppm). */
+const TOOL_PACKAGES = [['/usr/bin/chromium', 'chromium'], ['/usr/bin/pdftotext', 'poppler-utils']]
+
+function ensureTestTools() {
+  const missing = TOOL_PACKAGES.filter(([bin]) => !existsSync(bin)).map(([, pkg]) => pkg)
+  if (!missing.length) return
+  if (process.getuid?.() !== 0) throw new Error(`Missing test tools: run \`sudo apt-get install -y ${missing.join(' ')}\` once.`)
+  log('test', `Installing Debian's ${missing.join(', ')} for the browser and report tests…`)
   execFileSync('apt-get', ['update', '-q'], { stdio: 'inherit' })
-  execFileSync('apt-get', ['install', '-y', '-q', 'chromium'], { stdio: 'inherit', env: { ...env, DEBIAN_FRONTEND: 'noninteractive' } })
+  execFileSync('apt-get', ['install', '-y', '-q', ...missing], { stdio: 'inherit', env: { ...env, DEBIAN_FRONTEND: 'noninteractive' } })
 }
 
 async function main() {
@@ -42,7 +46,7 @@ async function main() {
   if (!step('typecheck', 'npx', ['nuxt', 'typecheck'])) return 1
   // tests/ is outside the app's tsconfigs: its own project, on the types nuxt typecheck just generated.
   if (!step('typecheck tests', 'npx', ['tsc', '--noEmit', '-p', 'tests'])) return 1
-  ensureChromium()
+  ensureTestTools()
   const cluster = await ensureCluster({
     projectRoot: root,
     name: process.env.PASTLOAD_TEST_DB_DIR ?? 'pg-test',
