@@ -46,3 +46,18 @@ export async function renderPdf(doc: TDocumentDefinitions): Promise<Buffer> {
   prepare()
   return await pdfmake.createPdf(doc).getBuffer()
 }
+
+/** The PDF and its page count (read from the footer pdfmake draws on every page). */
+export async function renderReport(doc: TDocumentDefinitions): Promise<{ pdf: Buffer, pages: number }> {
+  let pages = 0
+  const footer = doc.footer
+  const counted: TDocumentDefinitions = {
+    ...doc,
+    footer: (page, count, size) => {
+      pages = count
+      return typeof footer === 'function' ? footer(page, count, size) : (footer ?? null)
+    },
+  }
+  const pdf = await renderPdf(counted)
+  return { pdf, pages }
+}

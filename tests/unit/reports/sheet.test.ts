@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { renderPdf } from '~~/server/services/reports/render'
+import { renderPdf, renderReport } from '~~/server/services/reports/render'
 import { RESULT_CAUTION } from '#shared/caution'
 import { NOT_APPROVED_BAND, reportDocument, type ReportHeader } from '#shared/reports/sheet'
 import { pdfInfo, pdfPagesText, pdfPageToPng } from '../../helpers/pdf'
@@ -55,5 +55,13 @@ describe('report sheet', () => {
     const text = pdfPagesText(pdf)[0]!
     expect(text).toContain('σ\'v0 ≈ 120 kPa, γ 18 kN/m³')
     expect(text).toContain('σ′p γ Δσ')
+  })
+})
+
+describe('renderReport', () => {
+  it('counts the pages it drew', async () => {
+    const { pdf, pages } = await renderReport(reportDocument(header, lines(140)))
+    expect(pages).toBe(pdfInfo(pdf).pages)
+    expect(pages).toBe(3)
   })
 })
