@@ -10,13 +10,13 @@
 import { spawn } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { createWriteStream, mkdirSync, writeFileSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { cpus, loadavg } from 'node:os'
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { parseArgs } from 'node:util'
 import pg from 'pg'
 import { buildIfStale } from './lib/build.mjs'
+import { freePort } from './lib/free-port.mjs'
 import { log } from './lib/log.mjs'
 import { startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster, ensurePostgresInstalled } from './lib/postgres.mjs'
@@ -47,17 +47,6 @@ const DB_PORT = Number(process.env.PASTLOAD_SOAK_DB_PORT ?? 54379)
 const REQUEST_TIMEOUT_MS = 15_000
 
 const sleep = ms => new Promise(r => setTimeout(r, ms))
-
-function freePort() {
-  return new Promise((res, rej) => {
-    const srv = createServer()
-    srv.once('error', rej)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address()
-      srv.close(() => res(port))
-    })
-  })
-}
 
 /** pg_ctl as the postgres user, without blocking the load generator. */
 function pgCtl(args) {

@@ -4,24 +4,13 @@
 // (PASTLOAD_WORKER_PORT to choose it): the compute code is the server's own bundle and its bundled
 // worker thread, so nothing here needs TypeScript. Stop it with Ctrl-C / SIGTERM: the run in progress
 // may finish first (up to 20 s); one cut short goes back to the queue and is started again by the next worker.
-import { createServer } from 'node:net'
 import { resolve } from 'node:path'
 import { fileURLToPath, pathToFileURL } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
+import { freePort } from './lib/free-port.mjs'
 import { log } from './lib/log.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
-
-function freePort() {
-  return new Promise((res, rej) => {
-    const srv = createServer()
-    srv.once('error', rej)
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address()
-      srv.close(() => res(port))
-    })
-  })
-}
 
 if (!process.env.DATABASE_URL) {
   log('worker', 'DATABASE_URL is not set: point the worker at the database the app uses.')

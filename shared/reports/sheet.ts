@@ -1,4 +1,4 @@
-import type { Content, DynamicContent, TDocumentDefinitions, Watermark } from 'pdfmake/interfaces'
+import type { Column, Content, DynamicContent, TDocumentDefinitions, Watermark } from 'pdfmake/interfaces'
 import { RESULT_CAUTION } from '../caution'
 import type { UnitSystem } from '../units'
 
@@ -60,8 +60,9 @@ export const REPORT_MARGINS: [number, number, number, number] = [36, 62, 36, 74]
 
 const UNIT_WORDS: Record<UnitSystem, string> = { SI: 'SI units (m, kPa, kN/m³)', US: 'US customary units (ft, psf, pcf)' }
 
-function signOffCell(label: string, s: ReportSignOff | null | undefined): Content {
+function signOffCell(label: string, s: ReportSignOff | null | undefined): Column {
   return {
+    width: 92,
     stack: [
       { text: label, fontSize: 6.5, color: REPORT_INK.silt, characterSpacing: 0.4 },
       { text: s ? s.name : '—', fontSize: 8, bold: !!s },
@@ -113,9 +114,9 @@ export function reportFooterContent(h: ReportHeader, page: number, pages: number
       {
         margin: [0, 4, 0, 0],
         columns: [
-          { width: 92, ...signOffCell('PREPARED', h.prepared) },
-          { width: 92, ...signOffCell('CHECKED', h.checked) },
-          { width: 92, ...signOffCell('APPROVED', h.approved) },
+          signOffCell('PREPARED', h.prepared),
+          signOffCell('CHECKED', h.checked),
+          signOffCell('APPROVED', h.approved),
           {
             width: '*',
             stack: [

@@ -1,22 +1,12 @@
 // Starts a built Pastload server (.output) as a child process on a free port.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { existsSync } from 'node:fs'
-import { createServer } from 'node:net'
 import { resolve } from 'node:path'
+import { freePort } from '../../scripts/lib/free-port.mjs'
 
 export const ROOT = resolve(import.meta.dirname, '../..')
 
-export function freePort(): Promise<number> {
-  return new Promise((res, rej) => {
-    const srv = createServer()
-    srv.once('error', rej)
-    srv.listen(0, '127.0.0.1', () => {
-      const addr = srv.address()
-      const port = typeof addr === 'object' && addr ? addr.port : 0
-      srv.close(() => res(port))
-    })
-  })
-}
+export { freePort }
 
 export interface RunningServer {
   url: string
