@@ -1,5 +1,6 @@
-import { loadFootprint, type PlanLoad } from '../geotech/plan-loads'
+import { loadOutlines, type PlanLoad } from '../geotech/plan-loads'
 import { convert, type Quantity, type UnitSystem } from '../units'
+import { gridAxes } from './grid'
 import { RUN_OPTION_DEFAULTS, type RunGrid, type RunLoad, type RunLoadInput, type RunOptions, type RunPoint } from '../schemas/settlement-runs'
 
 /**
@@ -137,18 +138,11 @@ export function loadPressure(l: DraftLoad): number {
   return l.loading === 'fill' ? l.fillThickness * l.fillUnitWeight : l.pressure
 }
 
-/** A rectangle of `w` × `l` centred at (cx, cy), turned by `rot` degrees. */
-function rect(cx: number, cy: number, w: number, l: number, rot: number): { x: number, y: number }[] {
-  const a = (rot * Math.PI) / 180
-  const corners: [number, number][] = [[-w / 2, -l / 2], [w / 2, -l / 2], [w / 2, l / 2], [-w / 2, l / 2]]
-  return corners.map(([u, v]) => ({ x: cx + u * Math.cos(a) - v * Math.sin(a), y: cy + u * Math.sin(a) + v * Math.cos(a) }))
-}
-
 /** What the plan draws of a load: its footprint (the toe of an embankment) and an embankment's crest. */
 export function draftOutlines(l: DraftLoad): { toe: { x: number, y: number }[], crest: { x: number, y: number }[] | null } | null {
-  const toe = loadFootprint(planLoadOf(l))
+  const { toe, crest } = loadOutlines(planLoadOf(l))
   if (!toe) return null
-  return { toe, crest: l.type === 'embankment' ? rect(l.x, l.y, l.crestWidth, l.crestLength, l.rotation) : null }
+  return { toe, crest: l.type === 'embankment' ? crest : null }
 }
 
 /** The ground the loads and points take up (for the plan's first view), or null with nothing placed. */
@@ -168,12 +162,8 @@ export function draftExtent(d: Pick<SettlementDraft, 'loads' | 'points'>): { min
  * (the same axes the run computes; 0 without a load that has a footprint or with no valid spacing).
  */
 export function gridPointCount(loads: readonly DraftLoad[], grid: RunGrid): number {
-  const pts = loads.flatMap(l => loadFootprint(planLoadOf(l)) ?? [])
-  if (!pts.length || !(grid.spacing > 0) || !(grid.margin >= 0)) return 0
-  const n = (a: number, b: number) => Math.floor((b - a + 2 * grid.margin) / grid.spacing + 1e-9) + 1
-  const xs = pts.map(p => p.x)
-  const ys = pts.map(p => p.y)
-  return n(Math.min(...xs), Math.max(...xs)) * n(Math.min(...ys), Math.max(...ys))
+  const axes = gridAxes(loads.map(planLoadOf), grid)
+  return axes ? axes.xs.length * axes.ys.length : 0
 }
 
 /** The load as the request sends it (SI). */

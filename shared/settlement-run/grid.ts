@@ -1,27 +1,16 @@
-import { loadFootprint, type PlanLoad } from '../geotech/plan-loads'
+import { footprintExtent, type PlanLoad } from '../geotech/plan-loads'
 import type { RunGrid } from '../schemas/settlement-runs'
 import type { RunGridPair } from '../types/settlement-runs'
 
-/** The grid's columns and rows: the loads' footprints and the margin, at the spacing. */
+/** The grid's columns and rows: the loads' footprints (`footprintExtent`) and the margin, at the spacing. */
 export function gridAxes(loads: readonly PlanLoad[], grid: RunGrid): { xs: number[], ys: number[] } | null {
-  let x0 = Infinity
-  let x1 = -Infinity
-  let y0 = Infinity
-  let y1 = -Infinity
-  for (const l of loads) {
-    for (const p of loadFootprint(l) ?? []) {
-      if (p.x < x0) x0 = p.x
-      if (p.x > x1) x1 = p.x
-      if (p.y < y0) y0 = p.y
-      if (p.y > y1) y1 = p.y
-    }
-  }
-  if (x0 === Infinity) return null
+  const box = footprintExtent(loads)
+  if (!box || !(grid.spacing > 0) || !(grid.margin >= 0)) return null
   const axis = (a: number, b: number) => {
     const n = Math.floor((b - a + 2 * grid.margin) / grid.spacing + 1e-9)
     return Array.from({ length: n + 1 }, (_, i) => a - grid.margin + i * grid.spacing)
   }
-  return { xs: axis(x0, x1), ys: axis(y0, y1) }
+  return { xs: axis(box.x0, box.x1), ys: axis(box.y0, box.y1) }
 }
 
 export interface GridDistortion {

@@ -3,7 +3,7 @@
  * SI throughout (m, kPa, years; `degree` 0–1). `Server…` is what a service returns (dates as
  * `Date`), the plain name what the page reads (`Serialize<…>`).
  */
-import type { CompressionCase } from '../geotech/settlement'
+import type { SublayerResult } from '../geotech/settlement'
 import type { RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
 import type { VersionStatus } from './models'
 import type { Serialize } from './serialize'
@@ -94,23 +94,8 @@ export interface RunResults {
   stats: { computeMs: number, sublayers: number }
 }
 
-/** One sublayer row of a point's table (`GET …/points/{index}`). */
-export interface RunSublayerRow {
-  layer: string
-  top: number
-  bottom: number
-  depth: number
-  thickness: number
-  effectiveStress: number
-  stressIncrease: number
-  finalEffectiveStress: number
-  preconsolidation: number
-  finalPreconsolidation: number
-  case: CompressionCase
-  voidRatioChange: number
-  strain: number
-  compression: number
-}
+/** One sublayer row of a point's table (`GET …/points/{index}`): the engine's own sublayer result. */
+export type RunSublayerRow = SublayerResult
 
 export interface RunPointDetail extends RunPointResult {
   index: number
