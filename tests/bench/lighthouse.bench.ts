@@ -28,6 +28,7 @@ export const LIGHTHOUSE_GOALS: Record<string, { performance: number }> = {
   'sign-in': { performance: 95 },
   'project overview': { performance: 95 },
   'stress-model page': { performance: 90 },
+  'settlement-run page': { performance: 90 },
 }
 
 /** Debian's Chromium with a DevTools port for Lighthouse; resolves once the port is known. */
@@ -62,8 +63,8 @@ async function signIn(serverUrl: string, email: string): Promise<string> {
   return login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
 }
 
-/** The demo project and its first stress model, as the engineer sees them. */
-async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: string, model: string }> {
+/** The demo project, its first stress model and its seeded settlement run, as the engineer sees them. */
+async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: string, model: string, run: string | null }> {
   const get = async <T>(path: string) => (await (await fetch(`${serverUrl}${path}`, { headers: { cookie } })).json()) as T
   const { projects } = await get<{ projects: { id: string }[] }>('/api/projects')
   const projectId = projects[0]?.id
@@ -76,7 +77,9 @@ async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: 
     if (!made.ok) throw new Error(`creating the stress model failed: ${made.status}`)
     modelId = ((await made.json()) as { model: { id: string } }).model.id
   }
-  return { project: `/projects/${projectId}`, model: `/projects/${projectId}/models/${modelId}` }
+  const { runs } = await get<{ runs: { id: string }[] }>(`/api/projects/${projectId}/settlement-runs`)
+  const runId = runs[0]?.id
+  return { project: `/projects/${projectId}`, model: `/projects/${projectId}/models/${modelId}`, run: runId ? `/projects/${projectId}/settlement/${runId}` : null }
 }
 
 export async function runLighthouseBench(serverUrl: string): Promise<LighthouseRow[]> {
@@ -87,6 +90,7 @@ export async function runLighthouseBench(serverUrl: string): Promise<LighthouseR
     { page: 'sign-in', url: `${serverUrl}/login` },
     { page: 'project overview', url: `${serverUrl}${paths.project}`, cookie },
     { page: 'stress-model page', url: `${serverUrl}${paths.model}`, cookie },
+    ...(paths.run ? [{ page: 'settlement-run page', url: `${serverUrl}${paths.run}`, cookie }] : []),
   ]
   const chromium = await startChromium()
   try {
