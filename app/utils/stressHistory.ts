@@ -5,9 +5,9 @@ import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { stratumBounds } from '#shared/site-model/definition'
 import { trendPreconsolidation } from '#shared/site-model/convert'
-import { sampleTrend, stressAt, type StressAt, type TrendSample } from '#shared/plots/stress-history'
+import { assignBands, sampleTrend, stressAt, type StressAt, type TrendSample } from '#shared/plots/stress-history'
 
-export { sampleTrend, stressAt }
+export { assignBands, sampleTrend, stressAt }
 export type { StressAt, TrendSample }
 
 /**
@@ -66,37 +66,6 @@ export function flaggedUnadoptedTests(tests: readonly ListedTest[], flags: reado
     .filter(t => !t.adoption && byTest.has(t.id))
     .map(t => ({ testId: t.id, pointIdentifier: t.point.identifier, sampleIdentifier: t.sample.identifier, depth: t.depth, stratumCode: t.stratumCode, qualityClass: t.reading.qualityClass, flags: byTest.get(t.id)! }))
     .sort((a, b) => a.depth - b.depth || a.pointIdentifier.localeCompare(b.pointIdentifier))
-}
-
-/**
- * The band each point belongs to: the band of its logged stratum (the nearest by
- * depth when the model has that stratum twice), else the band at its depth.
- * −1 for a point below the model's base.
- */
-export function assignBands(points: readonly PreconsolidationPointRow[], def: Pick<SiteModelDefinition, 'strata'>): Int32Array {
-  const bounds = stratumBounds(def)
-  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
-  const byCode = new Map<string, number[]>()
-  def.strata.forEach((s, i) => byCode.set(s.code, [...(byCode.get(s.code) ?? []), i]))
-  const out = new Int32Array(points.length)
-  points.forEach((p, k) => {
-    const candidates = p.stratumCode ? byCode.get(p.stratumCode) : undefined
-    if (candidates?.length) {
-      let best = candidates[0]!
-      let bestDistance = Infinity
-      for (const i of candidates) {
-        const b = bounds[i]!
-        const d = p.depth < b.top ? b.top - p.depth : p.depth > b.bottom ? p.depth - b.bottom : 0
-        if (d < bestDistance) { best = i; bestDistance = d }
-      }
-      out[k] = best
-      return
-    }
-    if (p.depth > base) { out[k] = -1; return }
-    const i = bounds.findIndex(b => p.depth >= b.top && p.depth < b.bottom)
-    out[k] = i === -1 ? bounds.length - 1 : i
-  })
-  return out
 }
 
 export type PointState = 'included' | 'excluded' | 'flagged-out' | 'unassigned'

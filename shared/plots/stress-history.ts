@@ -67,3 +67,34 @@ export function sampleTrend(def: SiteModelDefinition, bandIndex: number, profile
   }
   return out
 }
+
+/**
+ * The band each point belongs to: the band of its logged stratum (the nearest by
+ * depth when the model has that stratum twice), else the band at its depth.
+ * −1 for a point below the model's base.
+ */
+export function assignBands(points: readonly { depth: number, stratumCode: string | null }[], def: Pick<SiteModelDefinition, 'strata'>): Int32Array {
+  const bounds = stratumBounds(def)
+  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
+  const byCode = new Map<string, number[]>()
+  def.strata.forEach((s, i) => byCode.set(s.code, [...(byCode.get(s.code) ?? []), i]))
+  const out = new Int32Array(points.length)
+  points.forEach((p, k) => {
+    const candidates = p.stratumCode ? byCode.get(p.stratumCode) : undefined
+    if (candidates?.length) {
+      let best = candidates[0]!
+      let bestDistance = Infinity
+      for (const i of candidates) {
+        const b = bounds[i]!
+        const d = p.depth < b.top ? b.top - p.depth : p.depth > b.bottom ? p.depth - b.bottom : 0
+        if (d < bestDistance) { best = i; bestDistance = d }
+      }
+      out[k] = best
+      return
+    }
+    if (p.depth > base) { out[k] = -1; return }
+    const i = bounds.findIndex(b => p.depth >= b.top && p.depth < b.bottom)
+    out[k] = i === -1 ? bounds.length - 1 : i
+  })
+  return out
+}
