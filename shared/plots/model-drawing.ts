@@ -39,6 +39,8 @@ export interface ModelDrawingInput {
   range?: { top: number, bottom: number }
   width?: number
   height?: number
+  /** Draw the key under the drawing (default true; a report draws it once). */
+  legend?: boolean
 }
 
 export interface ModelDrawing {
@@ -64,7 +66,8 @@ export function modelDrawing(input: ModelDrawingInput): ModelDrawing {
   const bounds = stratumBounds(def)
   const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
   const range = input.range ?? { top: 0, bottom: base }
-  const band: PlotBand = { top: 44, bottom: height - LEGEND_HEIGHT - 14 }
+  const legend = input.legend ?? true
+  const band: PlotBand = { top: 44, bottom: height - (legend ? LEGEND_HEIGHT : 0) - 14 }
   const y = d3.scaleLinear().domain([range.top, range.bottom]).range([band.top, band.bottom])
 
   const fixed = { strata: 54, ocr: 92, pop: 100 }
@@ -141,7 +144,7 @@ export function modelDrawing(input: ModelDrawingInput): ModelDrawing {
       content: ratioTrackSvg(ratioTrackScene({ kind, y, scale, lines: lines }), { band, dots: ratioDotsSvg(dots) }),
     }))
   }
-  parts.push(legendSvg(8, band.bottom + 18, width - 16))
+  if (legend) parts.push(legendSvg(8, band.bottom + 18, width - 16))
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="SourceSans3">${parts.join('')}</svg>`
   return { svg, width, height, y, stress, band, frames }
 }

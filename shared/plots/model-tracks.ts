@@ -4,7 +4,7 @@ import type { PreconsolidationSource } from '../schemas/lab'
 import type { FlagVerdict } from '../review/flags'
 import type { ProfilePoint } from '../types/calc'
 import { displayTicks, px, svgEscape, type AxisTick } from './axes'
-import { INK, markStyle, RING_PATH, SLASH_PATH } from './palette'
+import { INK, MARK_SIZES, markStyle, ringPathAt, slashPathAt, symbolPath } from './palette'
 import type { TrendSample } from './stress-history'
 
 /**
@@ -152,20 +152,34 @@ export function stressTrackSvg(scene: StressTrackScene, args: { width: number, p
 // --- σ'p points ------------------------------------------------------------------
 
 /** A σ'p point where a track draws it (x in the track's own px). */
-export interface PointMarkInput { x: number, y: number, source: PreconsolidationSource, qualityClass: string | null, state: PointState, verdict: FlagVerdict | null, title?: string }
+export interface PointMarkInput { x: number, y: number, source: PreconsolidationSource, qualityClass: string | null, state: PointState, verdict: FlagVerdict | null }
 
-/** The σ'p symbols as SVG: left-out points first so fitted ones sit on top. */
+/**
+ * The σ'p symbols as SVG: left-out points first so fitted ones sit on top. Marks of one look share one
+ * path (a few elements instead of one per point: hundreds of CPT points stay light in a PDF).
+ */
 export function pointMarksSvg(marks: readonly PointMarkInput[], dx = 0): string {
   const list = [...marks].sort((a, b) => Number(a.state === 'included') - Number(b.state === 'included'))
-  return list.map((m) => {
+  const shapes = new Map<string, string[]>()
+  const rings = new Map<string, string[]>()
+  const slashes: string[] = []
+  const add = (m: Map<string, string[]>, key: string, d: string) => {
+    const l = m.get(key)
+    if (l) l.push(d)
+    else m.set(key, [d])
+  }
+  for (const m of list) {
     const st = markStyle(m.source, m.qualityClass, m.state, m.verdict)
-    return `<g transform="translate(${px(dx + m.x)},${px(m.y)})" opacity="${st.opacity}">`
-      + `<path d="${st.d}" fill="${st.fill}" stroke="${st.stroke}" stroke-width="${st.width}"${st.dash ? ` stroke-dasharray="${st.dash}"` : ''}/>`
-      + (st.ring ? `<path d="${RING_PATH}" fill="none" stroke="${st.ring.stroke}" stroke-width="${st.ring.width}"${st.ring.dash ? ` stroke-dasharray="${st.ring.dash}"` : ''}/>` : '')
-      + (st.slash ? `<path d="${SLASH_PATH}" stroke="#c0392b" stroke-width="1.4"/>` : '')
-      + (m.title ? `<title>${svgEscape(m.title)}</title>` : '')
-      + '</g>'
-  }).join('')
+    const x = dx + m.x
+    add(shapes, `fill="${st.fill}" stroke="${st.stroke}" stroke-width="${st.width}"${st.dash ? ` stroke-dasharray="${st.dash}"` : ''}${st.opacity < 1 ? ` opacity="${st.opacity}"` : ''}`, symbolPath(m.source, MARK_SIZES[m.source], x, m.y))
+    if (st.ring) add(rings, `fill="none" stroke="${st.ring.stroke}" stroke-width="${st.ring.width}"${st.ring.dash ? ` stroke-dasharray="${st.ring.dash}"` : ''}${st.opacity < 1 ? ` opacity="${st.opacity}"` : ''}`, ringPathAt(x, m.y))
+    if (st.slash) slashes.push(slashPathAt(x, m.y))
+  }
+  const out: string[] = []
+  for (const [attrs, ds] of shapes) out.push(`<path d="${ds.join('')}" ${attrs}/>`)
+  for (const [attrs, ds] of rings) out.push(`<path d="${ds.join('')}" ${attrs}/>`)
+  if (slashes.length) out.push(`<path d="${slashes.join('')}" stroke="#c0392b" stroke-width="1.4"/>`)
+  return out.join('')
 }
 
 /** Colour of the points' own OCR or POP dots in the ratio tracks. */
@@ -173,7 +187,8 @@ export const RATIO_DOT = 'rgba(201,128,36,0.28)'
 
 /** The points' OCR or POP as small dots (x in the track's own px). */
 export function ratioDotsSvg(dots: readonly { x: number, y: number }[], dx = 0): string {
-  return `<g fill="${RATIO_DOT}">${dots.map(d => `<circle cx="${px(dx + d.x)}" cy="${px(d.y)}" r="1.6"/>`).join('')}</g>`
+  if (!dots.length) return ''
+  return `<path fill="${RATIO_DOT}" d="${dots.map(d => `M${px(dx + d.x - 1.6)},${px(d.y)}a1.6,1.6 0 1,0 3.2,0a1.6,1.6 0 1,0 -3.2,0Z`).join('')}"/>`
 }
 
 // --- the OCR and POP tracks -----------------------------------------------------

@@ -54,18 +54,19 @@ export function qualityShade(cls: string | null): QualityShade {
 }
 
 /** A symbol's outline centred on 0,0, about `size` px across. */
-export function symbolPath(source: PointSource, size = 7): string {
+export function symbolPath(source: PointSource, size = 7, cx = 0, cy = 0): string {
   const h = size / 2
+  const n = (v: number) => Math.round(v * 100) / 100
   switch (source) {
     // A lab specimen: a square.
-    case 'oedometer': return `M${-h},${-h}H${h}V${h}H${-h}Z`
+    case 'oedometer': return `M${n(cx - h)},${n(cy - h)}H${n(cx + h)}V${n(cy + h)}H${n(cx - h)}Z`
     // A resampled cone value: a small disc.
     case 'cpt': {
       const r = h * 0.72
-      return `M${-r},0a${r},${r} 0 1,0 ${2 * r},0a${r},${r} 0 1,0 ${-2 * r},0Z`
+      return `M${n(cx - r)},${n(cy)}a${r},${r} 0 1,0 ${2 * r},0a${r},${r} 0 1,0 ${-2 * r},0Z`
     }
     // A vane blade seen end-on: a triangle.
-    case 'vane': return `M0,${-h * 1.1}L${h * 1.05},${h * 0.8}H${-h * 1.05}Z`
+    case 'vane': return `M${n(cx)},${n(cy - h * 1.1)}L${n(cx + h * 1.05)},${n(cy + h * 0.8)}H${n(cx - h * 1.05)}Z`
   }
 }
 
@@ -88,9 +89,14 @@ export interface MarkStyle {
   slash: boolean
 }
 
+/** Symbol sizes of the σ'p marks, px across. */
+export const MARK_SIZES: Record<PointSource, number> = { oedometer: 8, cpt: 6, vane: 7.5 }
 const MARK_SYMBOLS: Record<PointSource, string> = { oedometer: symbolPath('oedometer', 8), cpt: symbolPath('cpt', 6), vane: symbolPath('vane', 7.5) }
 export const RING_PATH = 'M-7,0a7,7 0 1,0 14,0a7,7 0 1,0 -14,0Z'
 export const SLASH_PATH = 'M-5,-5L5,5'
+/** The ring and slash at a point (for marks drawn as one path per style). */
+export const ringPathAt = (x: number, y: number) => `M${Math.round((x - 7) * 100) / 100},${Math.round(y * 100) / 100}a7,7 0 1,0 14,0a7,7 0 1,0 -14,0Z`
+export const slashPathAt = (x: number, y: number) => `M${Math.round((x - 5) * 100) / 100},${Math.round((y - 5) * 100) / 100}l10,10`
 
 export function markStyle(source: PointSource, qualityClass: string | null, state: 'included' | 'excluded' | 'flagged-out' | 'unassigned', verdict: keyof typeof VERDICT_INK | null): MarkStyle {
   const out = state === 'excluded' || state === 'flagged-out'

@@ -176,9 +176,10 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
     content.push({ text: `${s.code} — ${s.name}`, style: 'section', pageBreak: 'before' })
     content.push({ text: `${shown(b.top, 'length', u)} to ${shown(b.bottom, 'length', u)} · σ'p points: ${c.included} fitted, ${c.excluded} left out by the engineer, ${c.flaggedOut} excluded by reviewer flags`, fontSize: 8.5, color: REPORT_INK.silt, margin: [0, 0, 0, 4] })
     const pad = Math.max(0.2, (b.bottom - b.top) * 0.04)
-    const drawing = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, range: { top: Math.max(0, b.top - pad), bottom: b.bottom + pad }, width: 720, height: 740 })
+    const drawing = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, range: { top: Math.max(0, b.top - pad), bottom: b.bottom + pad }, width: 720, height: 700, legend: false })
     content.push({ svg: drawing.svg, width: inner })
     content.push({ text: trendWords(t, u), fontSize: 8.5, margin: [0, 4, 0, 0] })
+    content.push({ text: 'Symbols and lines as in the key under the whole-depth drawing (page 2).', style: 'note', margin: [0, 2, 0, 0] })
   })
 
   // --- tables: trends, compressibility, flags, changes ---------------------------------------------

@@ -84,7 +84,7 @@ export async function buildModelVersionReport(ctx: ReportContext, modelId: strin
   const subject = `${model.name}, version ${version}`
   return {
     pdf,
-    filename: cleanFilename(`${project.jobNumber}_${model.name}_v${version}_model-report.pdf`),
+    filename: cleanFilename(`${project.jobNumber}_${model.name}_v${version}_model-report.pdf`.replace(/\s+/g, '_')),
     title: MODEL_VERSION_REPORT_TITLE,
     subject,
     approvedRecord: approved,

@@ -18,8 +18,8 @@ describe('stress-history track geometry', () => {
     expect(scale.domain()).toEqual([0, 200])
     expect(scale(120)).toBe(240)
     const svg = pointMarksSvg([{ x: scale(120), y: y(5), source: 'oedometer', qualityClass: null, state: 'included', verdict: null }], 100)
-    // Track at x = 100, depth 5 m at 44 + 280 = 324 px.
-    expect(svg).toContain('translate(340,324)')
+    // Track at x = 100, depth 5 m at 44 + 280 = 324 px: the 8 px square about (340, 324).
+    expect(svg).toContain('d="M336,320H344V328H336Z"')
   })
 
   it('lets the bulk of the σ\'p points widen the stress axis, or a chosen maximum set it', () => {
