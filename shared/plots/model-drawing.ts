@@ -89,7 +89,9 @@ export function modelDrawing(input: ModelDrawingInput): ModelDrawing {
   const pointsShown = input.points.filter(p => inRange(p.depth))
 
   const stress = stressAxis({ profile: profileShown, preconsolidation: pointsShown, base: range.bottom, width: frames.stress.width })
-  const lines: { band: number, samples: TrendSample[] }[] = def.strata.map((_s, i) => ({ band: i, samples: sampleTrend(def, i, input.profile) })).filter(l => l.samples.length)
+  // Only the strata the range shows (a stratum's page draws its own trend and its neighbours' ends).
+  const overlaps = (i: number) => bounds[i]!.bottom > range.top && bounds[i]!.top < range.bottom
+  const lines: { band: number, samples: TrendSample[] }[] = def.strata.map((_s, i) => ({ band: i, samples: overlaps(i) ? sampleTrend(def, i, input.profile) : [] })).filter(l => l.samples.length)
   const linesShown = lines.map(l => ({ band: l.band, samples: l.samples.filter(s => inRange(s.depth)) })).filter(l => l.samples.length)
   const ocr = ocrAxis(linesShown, frames.ocr.width)
   const pop = popAxis(linesShown, frames.pop.width)
