@@ -71,7 +71,7 @@ describe('site-model version report', () => {
     const pages = pdfPagesText(r.pdf)
     expect(pdfInfo(r.pdf).pages).toBe(pages.length)
     const cover = flat(pages[0]!)
-    // A long job number may wrap inside the header's job block: read in drawing order, without white space.
+    // pdftotext's layout mode can split the header's job block around the title: read in drawing order, without white space.
     expect(pdfPagesText(r.pdf, 'raw')[0]!.replace(/\s/g, '')).toContain(jobNumber)
     expect(cover).toContain('Report yard model, version 1')
     expect(cover).toContain(`Approved by ${reviewerName}`)
