@@ -1,4 +1,4 @@
-import * as d3 from 'd3'
+import { ocrAxis, popAxis, stressAxis } from '#shared/plots/model-tracks'
 import type { FlagVerdict } from '#shared/review/flags'
 import type { ModelWorkspace } from '~/composables/useModelWorkspace'
 import { strongestVerdict } from '~/utils/reviewDisplay'
@@ -19,32 +19,15 @@ export interface RatioMark { ocr: number, pop: number, cy: number, ocrX: number,
  */
 export function usePointMarks(ws: ModelWorkspace, widths: () => { stress: number, ocr: number, pop: number }, stressMax: () => number | null) {
   /** Stress axis: automatic from σv at the base and the bulk of the σ'p points, or the engineer's maximum. */
-  const stressScale = computed(() => {
-    let hi = stressMax()
-    if (hi === null) {
-      const base = modelBase(ws.definition.value)
-      const sv = ws.profile.value.reduce((m, p) => Math.max(m, p.totalStress), 0)
-      const inModel = ws.points.value.filter(p => p.depth <= base).map(p => p.preconsolidation).sort((a, b) => a - b)
-      const q = inModel.length ? d3.quantileSorted(inModel, 0.8) ?? 0 : 0
-      hi = Math.max(100, sv * 1.1, q * 1.15)
-    }
-    return d3.scaleLinear().domain([0, hi]).nice(5).range([0, widths().stress])
-  })
+  const stressScale = computed(() => stressAxis({ profile: ws.profile.value, preconsolidation: ws.points.value, base: modelBase(ws.definition.value), width: widths().stress, max: stressMax() }))
 
   /** Each stratum's trend sampled within it, with OCR and POP (shared by the ratio tracks). */
   const trendSamples = computed((): { band: number, samples: TrendSample[] }[] => ws.definition.value.strata
     .map((_s, i) => ({ band: i, samples: sampleTrend(ws.definition.value, i, ws.profile.value) }))
     .filter(l => l.samples.length))
 
-  const ocrScale = computed(() => {
-    const values = trendSamples.value.flatMap(l => l.samples.map(s => s.ocr))
-    const hi = Math.min(12, Math.max(3, ...values) * 1.1)
-    return d3.scaleLinear().domain([0, hi]).nice(3).range([4, widths().ocr - 4])
-  })
-  const popScale = computed(() => {
-    const values = trendSamples.value.flatMap(l => l.samples.map(s => s.pop))
-    return d3.scaleLinear().domain([Math.min(0, ...values), Math.max(50, ...values) * 1.1]).nice(3).range([4, widths().pop - 4])
-  })
+  const ocrScale = computed(() => ocrAxis(trendSamples.value, widths().ocr))
+  const popScale = computed(() => popAxis(trendSamples.value, widths().pop))
 
   /** Per point: its state and verdict, independent of the zoom. */
   const states = computed(() => {

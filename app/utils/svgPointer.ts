@@ -1,5 +1,3 @@
-import * as d3 from 'd3'
-
 /** A point in the drawing's own coordinates (px of the root <svg>). */
 export interface SvgPoint { x: number, y: number }
 
@@ -48,15 +46,5 @@ export function dragPointer(e: PointerEvent, handlers: { move: (p: SvgPoint, ev:
   el.addEventListener('pointercancel', onUp as EventListener)
 }
 
-export interface AxisTick { at: number, label: string }
-
-/**
- * Ticks of an SI scale placed at round values of the display unit: `factor` is how
- * many display units one SI unit is (1 for SI).
- */
-export function displayTicks(scale: d3.ScaleLinear<number, number>, factor: number, count: number): AxisTick[] {
-  const [a, b] = scale.domain() as [number, number]
-  const shown = d3.scaleLinear().domain([a * factor, b * factor])
-  const fmt = shown.tickFormat(count)
-  return shown.ticks(count).map(t => ({ at: scale(t / factor), label: fmt(t) }))
-}
+export { displayTicks } from '#shared/plots/axes'
+export type { AxisTick } from '#shared/plots/axes'

@@ -5,6 +5,7 @@ import { startServer } from '../helpers/server'
 import { runBrowserBench } from './browser.bench'
 import { runImportBench } from './import.bench'
 import { runLighthouseBench } from './lighthouse.bench'
+import { type ReportBenchRow, runModelReportBench } from './reports.bench'
 
 /** A 10-layer profile whose compressible layers make 400 sublayers in all. */
 export function tenLayerSettlementBody() {
@@ -46,7 +47,7 @@ export async function measureCalcSettlement(url: string, cookie: string, calls: 
   return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]! }
 }
 
-export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, lean: { median: number, p95: number }, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>> }> {
+export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, lean: { median: number, p95: number }, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>>, reports: ReportBenchRow[] }> {
   const server = await startServer({ PASTLOAD_SEED: 'demo' })
   try {
     const designer = DEMO_PEOPLE.find(p => p.role === 'designer')!
@@ -55,10 +56,11 @@ export async function runApiBench(calls = 300): Promise<{ median: number, p95: n
     const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
     const full = await measureCalcSettlement(server.url, cookie, calls, true)
     const lean = await measureCalcSettlement(server.url, cookie, calls, false)
+    const reports = [await runModelReportBench(server.url, cookie)]
     const imported = await runImportBench(server.url, process.env.DATABASE_URL!)
     const browser = await runBrowserBench(server.url)
     const lighthouse = await runLighthouseBench(server.url)
-    return { median: full.median, p95: full.p95, lean, calls, import: imported, browser, lighthouse }
+    return { median: full.median, p95: full.p95, lean, calls, import: imported, browser, lighthouse, reports }
   }
   finally {
     await server.stop()

@@ -1,0 +1,42 @@
+// Server time of the report PDFs on loopback against the built server with the demo seeded.
+import { performance } from 'node:perf_hooks'
+
+export interface ReportBenchRow { name: string, pages: number, median: number, p95: number, calls: number, goalMs: number }
+
+/** The pages of a PDF: pdfmake writes `/Type /Pages … /Count n` once. */
+function pageCount(pdf: Uint8Array): number {
+  const m = /\/Type \/Pages[^>]*\/Count (\d+)/.exec(Buffer.from(pdf).toString('latin1'))
+  return m ? Number(m[1]) : 0
+}
+
+async function measure(url: string, cookie: string, path: string, calls: number): Promise<{ pages: number, median: number, p95: number }> {
+  const call = async () => {
+    const r = await fetch(`${url}${path}`, { headers: { cookie } })
+    const pdf = new Uint8Array(await r.arrayBuffer())
+    if (r.status !== 200) throw new Error(`report bench call failed: ${r.status}`)
+    return pdf
+  }
+  const pages = pageCount(await call())
+  for (let i = 0; i < 4; i++) await call()
+  const times: number[] = []
+  for (let i = 0; i < calls; i++) {
+    const t0 = performance.now()
+    await call()
+    times.push(performance.now() - t0)
+  }
+  times.sort((a, b) => a - b)
+  return { pages, median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]! }
+}
+
+/** The demo's Yard model, version 1 (approved): the site-model version report (goal ≤ 500 ms for 10 pages). */
+export async function runModelReportBench(url: string, cookie: string, calls = 20): Promise<ReportBenchRow> {
+  const projects = await (await fetch(`${url}/api/projects`, { headers: { cookie } })).json() as { projects: { id: string }[] }
+  for (const p of projects.projects) {
+    const list = await (await fetch(`${url}/api/projects/${p.id}/models`, { headers: { cookie } })).json() as { models: { id: string, name: string }[] }
+    const yard = list.models?.find(m => /yard/i.test(m.name))
+    if (!yard) continue
+    const m = await measure(url, cookie, `/api/projects/${p.id}/models/${yard.id}/versions/1/report.pdf`, calls)
+    return { name: `GET …/models/{yard}/versions/1/report.pdf, the demo model (${m.pages} pages)`, ...m, calls, goalMs: 500 }
+  }
+  throw new Error('report bench: the demo Yard model was not found')
+}
