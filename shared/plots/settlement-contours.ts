@@ -102,6 +102,7 @@ export function loadPaths(loads: RunLoad[], toScreen: (p: { x: number, y: number
       d: pts.length ? `M${pts.map(p => `${p[0].toFixed(1)},${p[1].toFixed(1)}`).join('L')}Z` : '',
       label: k === 0 ? (l.label ?? `Load ${i + 1}`) : '',
       at: pts.length ? { x: Math.max(...pts.map(p => p[0])), y: Math.min(...pts.map(p => p[1])) } : null,
+      topLeft: pts.length ? { x: Math.min(...pts.map(p => p[0])), y: Math.min(...pts.map(p => p[1])) } : null,
     }
   }))
 }
@@ -142,7 +143,7 @@ export function settlementPlanSvg(input: PlanSceneInput): string {
   const maxX = xs.length ? Math.max(...xs) : 1
   const minY = ys.length ? Math.min(...ys) : 0
   const maxY = ys.length ? Math.max(...ys) : 1
-  const pad = 0.04 * Math.max(maxX - minX, maxY - minY, 1)
+  const pad = 0.06 * Math.max(maxX - minX, maxY - minY, 1)
   const innerW = width - M.left - M.right
   const innerH = height - M.top - M.bottom
   const scale = Math.min(innerW / (maxX - minX + 2 * pad), innerH / (maxY - minY + 2 * pad))
@@ -192,13 +193,16 @@ export function settlementPlanSvg(input: PlanSceneInput): string {
     if (!l.d) continue
     if (l.crest) p.push(el('path', { d: l.d, fill: 'none', stroke: '#ffffff', 'stroke-width': 3, 'stroke-opacity': 0.75 }))
     p.push(el('path', { d: l.d, fill: 'none', stroke: l.crest ? '#8a481a' : '#27231f', 'stroke-width': l.crest ? 1.2 : 1.6, 'stroke-dasharray': l.crest ? '5 3' : undefined }))
-    if (l.label && l.at) p.push(text(l.at.x + 3, l.at.y - 3, l.label, { 'font-size': 9, 'font-weight': 'bold', fill: '#27231f' }))
+    // Inside the outline's top-left corner, clear of the named points' labels (which sit up and right).
+    if (l.label && l.topLeft) p.push(text(l.topLeft.x + 4, l.topLeft.y + 11, l.label, { 'font-size': 9, 'font-style': 'italic', fill: '#27231f' }))
   }
   for (const pt of input.points) {
     const [x, y] = toScreen(pt)
     p.push(el('path', { d: `M${n(x - 5)},${n(y)}H${n(x + 5)}M${n(x)},${n(y - 5)}V${n(y + 5)}`, stroke: '#0c242b', 'stroke-width': 1.6 }))
     p.push(el('circle', { cx: x, cy: y, r: 2.8, fill: '#ffffff', stroke: '#0c242b', 'stroke-width': 1.2 }))
-    p.push(text(x + 6, y - 5, pt.label, { 'font-size': 9, 'font-weight': 'bold', fill: '#0c242b' }))
+    // Label right of the point, or left of it near the plan's right edge (about 5 px a character at 9 px).
+    const flip = x + 6 + 5 * pt.label.length > M.left + innerW
+    p.push(text(flip ? x - 6 : x + 6, y - 5, pt.label, { 'font-size': 9, 'font-weight': 'bold', fill: '#0c242b', 'text-anchor': flip ? 'end' : undefined }))
   }
   if (input.maximum) {
     const [x, y] = toScreen(input.maximum)
