@@ -4,9 +4,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import pg from 'pg'
 import { RESULT_CAUTION } from '../../shared/caution'
+import { DEMO_PROJECT } from '../../shared/demo/scenario'
 import { NOT_APPROVED_BAND } from '../../shared/reports/sheet'
-import type { SettlementRun } from '../../shared/types/settlement-runs'
-import { type Client, signedInDemo, useNewAccount } from '../helpers/http'
+import type { SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
+import { type Client, demoProjectId, signedInDemo, useNewAccount } from '../helpers/http'
 import { pdfInfo, pdfPagesText, pdfPageToPng } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
@@ -91,5 +92,18 @@ describe('settlement-run report', () => {
     const failed = await viewer.get<{ message: string }>(`${base}/settlement-runs/${draftRun.id}/report.pdf`)
     expect(failed.status).toBe(422)
     expect(failed.body.message).toBe('The run failed: it has no results to report.')
+  })
+
+  it('the demo project\'s run (read only): its report names the approved Yard model version; page 1 for docs/report-design.md', async () => {
+    const demo = await demoProjectId(reviewer)
+    const list = await must('runs', reviewer.get<SettlementRunList>(`/api/projects/${demo}/settlement-runs`))
+    const run = list.runs.find(r => r.status === 'finished')!
+    const r = await fetchBytes(reviewer, `/api/projects/${demo}/settlement-runs/${run.id}/report.pdf`)
+    expect(r.status).toBe(200)
+    const text = flat(pdfPagesText(r.bytes))
+    expect(text).toContain(DEMO_PROJECT.jobNumber)
+    expect(text).toContain(`${run.model.modelName}, version ${run.model.version} — approved`)
+    expect(text).toContain(`${(run.headline!.maxSettlement * 1000).toFixed(1)} mm`)
+    pdfPageToPng(r.bytes, 'report-demo-run-p1', 1, 100)
   })
 })
