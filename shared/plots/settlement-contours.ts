@@ -61,9 +61,11 @@ export function settlementBands(grid: Pick<RunGridResult, 'xs' | 'ys' | 'settlem
  */
 export function gridToPlan(grid: Pick<RunGridResult, 'xs' | 'ys'>): (ix: number, iy: number) => { x: number, y: number } {
   const { xs, ys } = grid
-  const dx = xs.length > 1 ? (xs[xs.length - 1]! - xs[0]!) / (xs.length - 1) : 1
-  const dy = ys.length > 1 ? (ys[ys.length - 1]! - ys[0]!) / (ys.length - 1) : 1
-  return (ix, iy) => ({ x: xs[0]! + (ix - 0.5) * dx, y: ys[0]! + (iy - 0.5) * dy })
+  const x0 = xs[0] ?? 0
+  const y0 = ys[0] ?? 0
+  const dx = xs.length > 1 ? ((xs[xs.length - 1] ?? x0) - x0) / (xs.length - 1) : 1
+  const dy = ys.length > 1 ? ((ys[ys.length - 1] ?? y0) - y0) / (ys.length - 1) : 1
+  return (ix, iy) => ({ x: x0 + (ix - 0.5) * dx, y: y0 + (iy - 0.5) * dy })
 }
 
 /** SVG path data of a contour band drawn through a plan → screen mapping. */
@@ -194,15 +196,23 @@ export function settlementPlanSvg(input: PlanSceneInput): string {
     if (l.crest) p.push(el('path', { d: l.d, fill: 'none', stroke: '#ffffff', 'stroke-width': 3, 'stroke-opacity': 0.75 }))
     p.push(el('path', { d: l.d, fill: 'none', stroke: l.crest ? '#8a481a' : '#27231f', 'stroke-width': l.crest ? 1.2 : 1.6, 'stroke-dasharray': l.crest ? '5 3' : undefined }))
     // Inside the outline's top-left corner, clear of the named points' labels (which sit up and right).
-    if (l.label && l.topLeft) p.push(text(l.topLeft.x + 4, l.topLeft.y + 11, l.label, { 'font-size': 9, 'font-style': 'italic', fill: '#27231f' }))
+    if (l.label && l.topLeft) {
+      p.push(text(l.topLeft.x + 4, l.topLeft.y + 11, l.label, { 'font-size': 9, 'font-style': 'italic', fill: '#ffffff', stroke: '#ffffff', 'stroke-width': 2.6, 'stroke-linejoin': 'round' }))
+      p.push(text(l.topLeft.x + 4, l.topLeft.y + 11, l.label, { 'font-size': 9, 'font-style': 'italic', fill: '#27231f' }))
+    }
   }
   for (const pt of input.points) {
     const [x, y] = toScreen(pt)
+    // A white halo under the mark and its label keeps both legible on the darkest band (drawn twice: PDF
+    // renderers ignore paint-order).
+    p.push(el('path', { d: `M${n(x - 5)},${n(y)}H${n(x + 5)}M${n(x)},${n(y - 5)}V${n(y + 5)}`, stroke: '#ffffff', 'stroke-width': 3.6, 'stroke-linecap': 'round' }))
     p.push(el('path', { d: `M${n(x - 5)},${n(y)}H${n(x + 5)}M${n(x)},${n(y - 5)}V${n(y + 5)}`, stroke: '#0c242b', 'stroke-width': 1.6 }))
     p.push(el('circle', { cx: x, cy: y, r: 2.8, fill: '#ffffff', stroke: '#0c242b', 'stroke-width': 1.2 }))
     // Label right of the point, or left of it near the plan's right edge (about 5 px a character at 9 px).
     const flip = x + 6 + 5 * pt.label.length > M.left + innerW
-    p.push(text(flip ? x - 6 : x + 6, y - 5, pt.label, { 'font-size': 9, 'font-weight': 'bold', fill: '#0c242b', 'text-anchor': flip ? 'end' : undefined }))
+    const at = { 'font-size': 9, 'font-weight': 'bold', 'text-anchor': flip ? 'end' : undefined }
+    p.push(text(flip ? x - 6 : x + 6, y - 5, pt.label, { ...at, fill: '#ffffff', stroke: '#ffffff', 'stroke-width': 2.6, 'stroke-linejoin': 'round' }))
+    p.push(text(flip ? x - 6 : x + 6, y - 5, pt.label, { ...at, fill: '#0c242b' }))
   }
   if (input.maximum) {
     const [x, y] = toScreen(input.maximum)

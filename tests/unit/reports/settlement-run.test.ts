@@ -93,7 +93,7 @@ describe('settlement-run report document', () => {
     expect(all).not.toContain('(mm)')
   })
 
-  it('renders: job number, the version and its approval, the settlement of each point, the caution; page 1 as PNG', async () => {
+  it('renders: job number, the version and its approval, the settlement of each point, the caution; page 1 as PNG', { timeout: 60_000 }, async () => {
     const { pdf, pages } = await renderReport(settlementRunReport(input()))
     expect(pages).toBeGreaterThanOrEqual(2 + points.length)
     const text = pdfPagesText(pdf).join('\n')
@@ -106,5 +106,11 @@ describe('settlement-run report document', () => {
     expect(flat).toContain(RESULT_CAUTION.slice(0, 60))
     pdfPageToPng(pdf, 'report-settlement-run-unit-p1')
     pdfPageToPng(pdf, 'report-settlement-run-unit-p3', 3)
+  })
+
+  it('keeps a long job number on one line in the header', { timeout: 60_000 }, async () => {
+    const inp = input()
+    const { pdf } = await renderReport(settlementRunReport({ ...inp, project: { ...inp.project, jobNumber: 'RPR-mx731l1w1-LONG' } }))
+    for (const page of pdfPagesText(pdf)) expect(page).toContain('RPR-mx731l1w1-LONG')
   })
 })
