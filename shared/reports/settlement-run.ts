@@ -1,4 +1,4 @@
-import type { Content, TableCell, TDocumentDefinitions } from 'pdfmake/interfaces'
+import type { Content, ContentStack, TableCell, TDocumentDefinitions } from 'pdfmake/interfaces'
 import { RESULT_CAUTION } from '../caution'
 import { settlementPlanSvg } from '../plots/settlement-contours'
 import { settlementDepthScene, settlementDepthSvg } from '../plots/settlement-depth'
@@ -245,7 +245,7 @@ function pointPages(inp: SettlementRunReportInput): Content[] {
 
 function approvalBlock(inp: SettlementRunReportInput): Content[] {
   const m = inp.run.model
-  const box = (role: string, who: string) => ({
+  const box = (role: string, who: string): ContentStack => ({
     stack: [
       { text: role.toUpperCase(), fontSize: 6.5, color: REPORT_INK.silt, characterSpacing: 0.4 },
       { text: who || ' ', fontSize: 9, bold: true, margin: [0, 2, 0, 14] },
