@@ -1,12 +1,12 @@
 import { eq } from 'drizzle-orm'
-import { settlementRunReport, settlementRunReportTitle } from '#shared/reports/settlement-run'
+import { settlementRunReportTitle } from '#shared/reports/settlement-run'
 import { useDb } from '~~/server/db/client'
 import { projects } from '~~/server/db/schema'
 import { notFound, unprocessableError } from '~~/server/services/http-errors'
 import { runFileName } from '~~/server/services/settlement-run-export'
 import { settlementRunForExport } from '~~/server/services/settlement-runs'
 import type { ReportBuild, ReportContext } from './kinds'
-import { renderReport } from './render'
+import { renderSettlementRunReport } from './render-worker'
 
 /**
  * A finished settlement run's PDF report, from the run as stored (its copy of the model version's standing,
@@ -21,8 +21,8 @@ export async function buildSettlementRunReport(ctx: ReportContext, runId: string
   const [project] = await useDb().select({ name: projects.name, jobNumber: projects.jobNumber, client: projects.client, unitSystem: projects.unitSystem })
     .from(projects).where(eq(projects.id, ctx.projectId)).limit(1)
   if (!project) notFound('Project')
-  const doc = settlementRunReport({ project, run: { ...run, results: run.results }, details, issue: ctx.issue })
-  const { pdf, pages } = await renderReport(doc)
+  // Rendered in a worker thread: a run with many named points makes hundreds of pages.
+  const { pdf, pages } = await renderSettlementRunReport({ project, run: { ...run, results: run.results }, details, issue: ctx.issue })
   const { title, subject } = settlementRunReportTitle(run)
   return {
     pdf,
