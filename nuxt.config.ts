@@ -125,6 +125,12 @@ export default defineNuxtConfig({
           outfile: join(nitro.options.output.serverDir, 'workers', 'settlement-run.bundle.mjs'),
           bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
         })
+        // The report renderer's worker: the report builders bundled, pdfmake resolved from .output's node_modules.
+        await build({
+          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/report-render.mjs')],
+          outfile: join(nitro.options.output.serverDir, 'workers', 'report-render.bundle.mjs'),
+          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning', external: ['pdfmake'],
+        })
         // Reports embed Source Sans 3 from its TrueType files (server/services/reports/render.ts).
         const fonts = join(dirname(createRequire(import.meta.url).resolve('source-sans/package.json')), 'TTF')
         mkdirSync(join(nitro.options.output.serverDir, 'fonts'), { recursive: true })

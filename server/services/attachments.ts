@@ -5,7 +5,7 @@ import sharp from 'sharp'
 import { ATTACHMENT_TYPES, attachmentKind, type AttachmentContentType, type AttachmentOwnerType, type AttachmentView, MAX_ATTACHMENT_BYTES, THUMBNAIL_MAX_PX } from '#shared/schemas/attachments'
 import { type Tx, useDb } from '../db/client'
 import { anyOf } from '../db/any'
-import { attachments, investigationPoints, oedometerTests, samples, users } from '../db/schema'
+import { attachments, investigationPoints, issuedReports, oedometerTests, samples, users } from '../db/schema'
 import { returnedRow } from '../db/rows'
 import { AttachmentContentError, sniffAttachment } from './attachment-content'
 import { recordAudit } from './audit'
@@ -175,6 +175,8 @@ export async function removeAttachment(projectId: string, attachmentId: string, 
       .where(and(eq(attachments.id, attachmentId), eq(attachments.projectId, projectId)))
       .for('update')
     if (!row) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'Attachment not found.' })
+    const [issued] = await tx.select({ id: issuedReports.id }).from(issuedReports).where(eq(issuedReports.attachmentId, row.id)).limit(1)
+    if (issued) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This file is an issued report: issued reports are kept for good and cannot be deleted.', data: { code: 'issued-report' } })
     await tx.delete(attachments).where(and(eq(attachments.id, attachmentId), eq(attachments.projectId, projectId)))
     await recordAudit({ actorId, projectId, action: 'delete', entity: 'attachment', entityId: row.id, before: auditRecord(row) }, tx)
     await deleteObject(row.objectKey)

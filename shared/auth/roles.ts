@@ -27,6 +27,7 @@ export const CAPABILITIES = {
   'review.write': ['owner', 'reviewer'],
   'review.reply': ['owner', 'engineer', 'geologist', 'reviewer'],
   'settlement.run': ['owner', 'engineer', 'designer'],
+  'reports.issue': ['owner', 'engineer', 'designer'],
   'export.read': ['owner', 'engineer', 'geologist', 'reviewer', 'designer', 'viewer'],
 } as const satisfies Record<string, readonly ProjectRole[]>
 

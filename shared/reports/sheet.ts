@@ -90,8 +90,8 @@ export function reportHeaderContent(h: ReportHeader, pageWidth: number): Content
             width: 'auto',
             table: {
               body: [[
-                { text: [{ text: 'JOB ', fontSize: 6.5, color: REPORT_INK.tideLight }, { text: h.project.jobNumber, bold: true, fontSize: 10, color: '#ffffff' }], fillColor: REPORT_INK.tide, margin: [6, 3, 6, 2] },
-                { text: [{ text: 'REV ', fontSize: 6.5, color: REPORT_INK.tide }, { text: h.revision ?? '–', bold: true, fontSize: 10, color: REPORT_INK.tideDark }], fillColor: REPORT_INK.tideLight, margin: [6, 3, 6, 2] },
+                { text: [{ text: 'JOB ', fontSize: 6.5, color: REPORT_INK.tideLight }, { text: h.project.jobNumber, bold: true, fontSize: 10, color: '#ffffff' }], noWrap: true, fillColor: REPORT_INK.tide, margin: [6, 3, 6, 2] },
+                { text: [{ text: 'REV ', fontSize: 6.5, color: REPORT_INK.tide }, { text: h.revision ?? '–', bold: true, fontSize: 10, color: REPORT_INK.tideDark }], noWrap: true, fillColor: REPORT_INK.tideLight, margin: [6, 3, 6, 2] },
               ]],
             },
             layout: 'noBorders',

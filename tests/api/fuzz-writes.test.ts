@@ -23,6 +23,7 @@ import { InviteSchema } from '../../shared/schemas/people'
 import { CreateFlagSchema, ReplySchema, UpdateFlagSchema } from '../../shared/schemas/review'
 import { CreateSettlementRunSchema } from '../../shared/schemas/settlement-runs'
 import { TINY_PDF } from '../helpers/attach'
+import { IssueReportSchema } from '../../shared/schemas/reports'
 import { upload } from '../helpers/upload'
 import { bodiesOf, mutate, mutation, serialise, type Json } from '../helpers/fuzz'
 import { Client, createUser, demoEmail, signIn, TEST_PASSWORD, uniqueEmail } from '../helpers/http'
@@ -73,6 +74,7 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'POST /api/projects/:projectId/tests/oedometer/:testId/adoptions': AdoptionInputSchema,
   'POST /api/projects/:projectId/preconsolidation-points/evaluate': PreconsolidationPointsEvaluateSchema,
   'POST /api/projects/:projectId/settlement-runs': CreateSettlementRunSchema,
+  'POST /api/projects/:projectId/reports': IssueReportSchema,
   'POST /api/projects': CreateProjectSchema,
   'POST /api/users': CreateUserSchema,
   'POST /api/account/tokens': CreateTokenSchema,

@@ -10,6 +10,7 @@ import { computeRun, resolveLoads } from '../../shared/settlement-run/compute'
 import { toStressInput } from '../../shared/site-model/convert'
 import { scenarioDefinition } from '../helpers/scenario-definition'
 import { fitTrend } from '../../shared/geotech/trends'
+import { runReportBench } from './report.bench'
 
 export interface BenchRow { name: string, ours: number, baseline: number, ratio: number, goal: number, note?: string }
 
@@ -255,10 +256,11 @@ function runGridBench(): BenchRow {
 }
 
 /** Each benchmark runs in its own process (tests/bench/one.ts). */
-export const BENCHES: Record<string, () => BenchRow[]> = {
+export const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   settlement: () => settlementBench(100_000),
   stress: () => [stressBench(100_000)],
   trend: () => [trendBench(50_000)],
   planLoads: () => planLoadBench(),
   runGrid: () => [runGridBench()],
+  runReport: async () => [await runReportBench()],
 }

@@ -8,4 +8,4 @@ if (!bench) {
   console.error(`unknown benchmark "${name}"; known: ${Object.keys(BENCHES).join(', ')}`)
   process.exit(2)
 }
-console.log(JSON.stringify(bench()))
+console.log(JSON.stringify(await bench()))

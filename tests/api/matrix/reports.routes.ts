@@ -1,4 +1,7 @@
-import { ALL, next, ok, type Ctx, type RouteCase } from './types'
+import { createRunModel, smallRunBody } from '../../helpers/settlement-run'
+import { ALL, next, ok, SETTLEMENT_RUNNERS, type Ctx, type RouteCase } from './types'
+
+// Reports. Each report kind keeps its own block below.
 
 // --- site-model version report ---------------------------------------------------
 async function savedModelVersion(ctx: Ctx): Promise<string> {
@@ -8,7 +11,28 @@ async function savedModelVersion(ctx: Ctx): Promise<string> {
   return `${url}/versions/1`
 }
 
-/** Report PDFs: every member who can see the record can download its report. */
+// ── Settlement-run report and issued reports ──
+/** One finished small run and one issued report of it per matrix project, made by the owner. */
+const fixtures = new WeakMap<Ctx, Promise<{ runId: string, reportId: string }>>()
+function fixture(ctx: Ctx) {
+  let f = fixtures.get(ctx)
+  if (!f) {
+    f = (async () => {
+      const model = await createRunModel(ctx.owner, ctx.projectId, undefined, 'Matrix report model')
+      const r = await ok(ctx.owner.post<{ run: { id: string } }>(`/api/projects/${ctx.projectId}/settlement-runs`, smallRunBody(model, { name: 'Matrix report run' })))
+      const issued = await ok(ctx.owner.post<{ report: { id: string } }>(`/api/projects/${ctx.projectId}/reports`, { kind: 'settlement-run', runId: r.run.id }))
+      return { runId: r.run.id, reportId: issued.report.id }
+    })()
+    fixtures.set(ctx, f)
+  }
+  return f
+}
+
+/** Report PDFs: every member who can see the record can download its report; owner, engineer and designer issue. */
 export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId/models/:modelId/versions/:version/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${await savedModelVersion(ctx)}/report.pdf` }) },
+  { method: 'GET', path: '/api/projects/:projectId/settlement-runs/:runId/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/settlement-runs/${(await fixture(ctx)).runId}/report.pdf` }) },
+  { method: 'GET', path: '/api/projects/:projectId/reports', allowed: ALL, ok: 200 },
+  { method: 'POST', path: '/api/projects/:projectId/reports', allowed: SETTLEMENT_RUNNERS, ok: 201, prepare: async ctx => ({ body: { kind: 'settlement-run', runId: (await fixture(ctx)).runId } }) },
+  { method: 'GET', path: '/api/projects/:projectId/reports/:reportId/pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/reports/${(await fixture(ctx)).reportId}/pdf` }) },
 ]

@@ -1,0 +1,44 @@
+import { boolean, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { attachments } from './attachments'
+import { projects } from './projects'
+import { users } from './users'
+
+export const reportKind = pgEnum('report_kind', ['point-log', 'model-version', 'settlement-run'])
+
+/**
+ * An issued report: the PDF of one record stored as a project attachment, with its revision letter (A, B, …
+ * per project, kind and record), who issued it and its SHA-256. Permanent: no route deletes one, and the
+ * record it was made from is kept by id only (no foreign key), so deleting the run, model or point leaves
+ * the issued list whole. The attachment cannot be deleted while a report refers to it.
+ */
+export const issuedReports = pgTable('issued_reports', {
+  id: uuid().primaryKey().defaultRandom(),
+  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  kind: reportKind().notNull(),
+  /** The run, model or point id. */
+  sourceId: uuid().notNull(),
+  /** The model's version for a site-model report; null otherwise. */
+  sourceVersion: integer(),
+  /** What the report was made with (a log's scale). */
+  sourceOptions: jsonb().$type<Record<string, unknown>>().notNull().default({}),
+  /** The record the letters count on: the source id, with `@v<version>` for a model version. */
+  sourceKey: text().notNull(),
+  revision: text().notNull(),
+  attachmentId: uuid().notNull().references(() => attachments.id),
+  sha256: text().notNull(),
+  size: integer().notNull(),
+  filename: text().notNull(),
+  title: text().notNull(),
+  subject: text().notNull(),
+  pages: integer().notNull(),
+  /** False when the record (or the version a run used) was not approved: the PDF carries the band. */
+  approvedRecord: boolean().notNull(),
+  issuedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  /** The issuer's name as printed on the report. */
+  issuedByName: text().notNull(),
+  issuedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, t => [
+  uniqueIndex('issued_reports_revision_idx').on(t.projectId, t.kind, t.sourceKey, t.revision),
+  index('issued_reports_project_idx').on(t.projectId, t.issuedAt),
+  index('issued_reports_attachment_idx').on(t.attachmentId),
+])

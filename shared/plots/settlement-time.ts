@@ -1,0 +1,147 @@
+import * as d3 from 'd3'
+import type { RunPointResult } from '../types/settlement-runs'
+import type { UnitSystem } from '../units'
+import { settlementFactor, settlementUnitLabel } from './settlement-units'
+import { el, svgDocument, text, type AxisTick } from './svg'
+
+/**
+ * Settlement against time (log time, settlement down) at one or more named points: the total, the primary
+ * consolidation of each stratum and the secondary compression after 95 % primary, with t50 and t90 marked.
+ * One scene serves the run page (`SettlementTimeCurve.vue` renders it) and the PDF report (`settlementTimeSvg`).
+ */
+
+export interface TimeSeries { name: string, point: Pick<RunPointResult, 'label' | 'curve' | 'time' | 't50' | 't90'> }
+export interface TimeLine { key: string, label: string, colour: string, width: number, dash?: string, d: string }
+export interface TimeMark { key: string, at: number, row: number, label: string }
+
+export interface TimePlotScene {
+  width: number
+  height: number
+  margin: { left: number, right: number, top: number, bottom: number }
+  lines: TimeLine[]
+  xTicks: AxisTick[]
+  yTicks: AxisTick[]
+  marks: TimeMark[]
+  xLabel: string
+  yLabel: string
+}
+
+const LAYER_INK = ['#4d9aa8', '#c98024', '#7d5a4a', '#216641', '#8e6fb0', '#b86d2c']
+const RUN_INK = ['#1c4450', '#b86d2c']
+const MARGIN = { left: 52, right: 14, top: 18, bottom: 42 }
+
+interface RawLine { key: string, label: string, colour: string, width: number, dash?: string, pts: [number, number][] }
+
+function rawLines(series: TimeSeries[]): RawLine[] {
+  const single = series.length === 1
+  const out: RawLine[] = []
+  series.forEach((s, si) => {
+    const c = s.point.curve
+    const tag = single ? '' : `${s.name}: `
+    const ink = RUN_INK[si % 2] ?? '#1c4450'
+    if (c && c.years.length) {
+      const zip = (ys: number[]) => c.years.map((t, i) => [t, ys[i] ?? 0] as [number, number])
+      out.push({ key: `${si}-total`, label: `${tag}total`, colour: ink, width: 2.4, dash: si ? '7 4' : undefined, pts: zip(c.total) })
+      if (single) {
+        out.push({ key: `${si}-primary`, label: 'primary', colour: '#317d8c', width: 1.6, dash: '6 3', pts: zip(c.primary) })
+        if (c.secondary.some(v => v > 0)) out.push({ key: `${si}-secondary`, label: 'secondary (after 95 % primary)', colour: '#7f7360', width: 1.4, dash: '2 3', pts: zip(c.secondary) })
+        c.layers.forEach((l, li) => out.push({ key: `${si}-l${li}`, label: `${l.name}, primary`, colour: LAYER_INK[li % LAYER_INK.length] ?? '#4d9aa8', width: 1, pts: zip(l.settlement) }))
+      }
+    }
+    else if (s.point.time.length) {
+      out.push({ key: `${si}-times`, label: `${tag}at the times of interest`, colour: ink, width: 2, dash: si ? '7 4' : undefined, pts: s.point.time.map(t => [t.years, t.settlement] as [number, number]) })
+    }
+  })
+  return out
+}
+
+const tickLabel = (t: number) => (t >= 1 ? String(t) : String(Number(t.toPrecision(1))))
+
+export function settlementTimeScene(input: { series: TimeSeries[], years: number[], unitSystem: UnitSystem, width: number, height?: number }): TimePlotScene {
+  const width = input.width
+  const height = input.height ?? 320
+  const M = MARGIN
+  const single = input.series.length === 1
+  const sF = settlementFactor(input.unitSystem)
+  const raw = rawLines(input.series)
+
+  const ts = raw.flatMap(l => l.pts.map(p => p[0])).filter(t => t > 0)
+  let domainX: [number, number] = [0.01, 100]
+  if (ts.length) {
+    // Start where something happens: a thousandth of the earliest t50, or the first time of interest if earlier.
+    const t50s = input.series.map(s => s.point.t50).filter((t): t is number => t !== null && t > 0)
+    const early = Math.min(...input.years.filter(y => y > 0), ...(t50s.length ? [Math.min(...t50s) / 1000] : []))
+    const lo = Math.max(Math.min(...ts), Number.isFinite(early) ? early : 0)
+    const hi = Math.max(...ts)
+    domainX = [Math.min(lo, hi / 10), hi]
+  }
+  const x = d3.scaleLog().domain(domainX).range([M.left, width - M.right]).clamp(true)
+  const max = Math.max(1e-6, ...raw.flatMap(l => l.pts.map(p => p[1]))) * sF
+  const y = d3.scaleLinear().domain([0, max]).nice().range([M.top, height - M.bottom])
+
+  const lines = raw.map(l => ({
+    key: l.key,
+    label: l.label,
+    colour: l.colour,
+    width: l.width,
+    dash: l.dash,
+    d: d3.line<[number, number]>().defined(p => p[0] > 0 && p[0] >= domainX[0] * 0.999).x(p => x(p[0])).y(p => y(p[1] * sF))(l.pts) ?? '',
+  }))
+  const xTicks: AxisTick[] = []
+  for (let e = Math.floor(Math.log10(domainX[0])); e <= Math.ceil(Math.log10(domainX[1])); e++) {
+    const t = 10 ** e
+    if (t >= domainX[0] * 0.999 && t <= domainX[1] * 1.001) xTicks.push({ at: x(t), label: tickLabel(t) })
+  }
+  const yTicks = y.ticks(6).map(t => ({ at: y(t), label: String(t) }))
+  const marks = input.series.flatMap((s, si) => [
+    ...(s.point.t50 !== null ? [{ key: `${si}-t50`, t: s.point.t50, row: si, label: single ? 't50' : `t50 ${s.name}` }] : []),
+    ...(s.point.t90 !== null ? [{ key: `${si}-t90`, t: s.point.t90, row: si, label: single ? 't90' : `t90 ${s.name}` }] : []),
+  ]).filter(m => m.t >= domainX[0] && m.t <= domainX[1]).map(m => ({ key: m.key, at: x(m.t), row: m.row, label: m.label }))
+  return {
+    width,
+    height,
+    margin: M,
+    lines: ts.length ? lines : [],
+    xTicks,
+    yTicks,
+    marks,
+    xLabel: 'Time (years, log scale)',
+    yLabel: `Settlement (${settlementUnitLabel(input.unitSystem)})`,
+  }
+}
+
+/** The scene as an SVG string, with its legend drawn below the plot when `legend` is set. */
+export function settlementTimeSvg(s: TimePlotScene, opts: { legend?: boolean } = {}): string {
+  const M = s.margin
+  const parts: string[] = []
+  for (const t of s.yTicks) {
+    parts.push(el('line', { x1: M.left, x2: s.width - M.right, y1: t.at, y2: t.at, stroke: '#efede7' }))
+    parts.push(text(M.left - 6, t.at + 3.5, t.label, { 'text-anchor': 'end', 'font-size': 10, 'fill': '#48423a' }))
+  }
+  for (const t of s.xTicks) {
+    parts.push(el('line', { x1: t.at, x2: t.at, y1: M.top, y2: s.height - M.bottom, stroke: '#efede7' }))
+    parts.push(text(t.at, s.height - M.bottom + 14, t.label, { 'text-anchor': 'middle', 'font-size': 10, 'fill': '#48423a' }))
+  }
+  parts.push(el('line', { x1: M.left, x2: s.width - M.right, y1: s.height - M.bottom, y2: s.height - M.bottom, stroke: '#7f7360' }))
+  parts.push(el('line', { x1: M.left, x2: M.left, y1: M.top, y2: s.height - M.bottom, stroke: '#7f7360' }))
+  parts.push(text((M.left + s.width - M.right) / 2, s.height - 6, s.xLabel, { 'text-anchor': 'middle', 'font-size': 11, 'font-weight': 'bold', 'fill': '#48423a' }))
+  parts.push(text(0, 0, s.yLabel, { 'transform': `translate(12,${(M.top + s.height - M.bottom) / 2}) rotate(-90)`, 'text-anchor': 'middle', 'font-size': 11, 'font-weight': 'bold', 'fill': '#48423a' }))
+  for (const m of s.marks) {
+    parts.push(el('line', { x1: m.at, x2: m.at, y1: M.top, y2: s.height - M.bottom, 'stroke': '#dc9c38', 'stroke-dasharray': '3 3' }))
+    parts.push(text(m.at + 3, M.top + 10 + m.row * 12, m.label, { 'font-size': 10, 'font-weight': 'bold', 'fill': '#8a481a' }))
+  }
+  for (const l of s.lines) parts.push(el('path', { 'd': l.d, 'fill': 'none', 'stroke': l.colour, 'stroke-width': l.width, 'stroke-dasharray': l.dash }))
+  let height = s.height
+  if (opts.legend && s.lines.length) {
+    const cols = s.width < 440 ? 2 : 3
+    const colW = (s.width - M.left - M.right) / cols
+    s.lines.forEach((l, i) => {
+      const lx = M.left + (i % cols) * colW
+      const ly = s.height + 6 + Math.floor(i / cols) * 14
+      parts.push(el('line', { 'x1': lx, 'x2': lx + 20, 'y1': ly, 'y2': ly, 'stroke': l.colour, 'stroke-width': l.width, 'stroke-dasharray': l.dash }))
+      parts.push(text(lx + 24, ly + 3.5, l.label, { 'font-size': 10, 'fill': '#27231f' }))
+    })
+    height += 10 + Math.ceil(s.lines.length / cols) * 14
+  }
+  return svgDocument(s.width, height, parts.join(''))
+}

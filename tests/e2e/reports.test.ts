@@ -1,0 +1,62 @@
+// Reports in Chromium: the run page's "PDF report" and "Issue" buttons (the confirmation names the revision
+// letter), then the project's Reports page with the issued revision and its download.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import pg from 'pg'
+import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
+import { createProject, must } from '../helpers/project'
+import { createRunModel, smallRunBody } from '../helpers/settlement-run'
+import { screenshot, signInAs, useBrowser } from './helpers'
+
+const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
+afterAll(() => pool.end())
+
+describe('reports in Chromium', () => {
+  const browser = useBrowser()
+  const { owner, engineer, designer } = signedInDemo('owner', 'engineer', 'designer')
+  let projectId = ''
+  let runId = ''
+
+  beforeAll(async () => {
+    const project = await createProject(owner, 'E2E-RP', 'Reports (browser)', ['engineer', 'designer'])
+    projectId = project.id
+    const model = await createRunModel(engineer, project.id, undefined, 'Yard model')
+    runId = (await must('run', designer.post<{ run: { id: string } }>(`${project.base}/settlement-runs`, smallRunBody(model, { name: 'Reported slab' })), 201)).run.id
+  })
+
+  it('issues revision A from the run page after a confirmation naming it, then lists it on the Reports page', async () => {
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${runId}`)
+    const pdf = page.getByTestId('report-pdf')
+    await pdf.waitFor()
+    expect(await pdf.getAttribute('href')).toBe(`/api/projects/${projectId}/settlement-runs/${runId}/report.pdf`)
+    expect(await pdf.getAttribute('target')).toBe('_blank')
+    const issue = page.getByTestId('report-issue')
+    await expect.poll(() => issue.textContent()).toContain('Issue rev A')
+    await screenshot(page, 'reports-run-buttons-laptop')
+
+    let asked = ''
+    page.once('dialog', (d) => {
+      asked = d.message()
+      void d.accept()
+    })
+    await issue.click()
+    await page.getByTestId('report-issue-notice').waitFor()
+    expect(asked).toContain('as revision A?')
+    expect(await page.getByTestId('report-issue-notice').textContent()).toMatch(/Issued as revision A \(\d+ pages\)/)
+    await expect.poll(() => issue.textContent()).toContain('Issue rev B')
+
+    await page.getByTestId('project-nav').getByRole('link', { name: 'Reports' }).click()
+    const table = page.getByTestId('issued-reports')
+    await table.waitFor()
+    expect(await page.getByTestId('project-nav').getByRole('link', { name: 'Reports' }).getAttribute('aria-current')).toBe('page')
+    const { rows } = await pool.query<{ id: string, sha256: string }>('select id, sha256 from issued_reports where project_id = $1', [projectId])
+    expect(rows).toHaveLength(1)
+    const row = page.getByTestId(`issued-${rows[0]!.id}`)
+    expect(await row.getByTestId('issued-revision').textContent()).toBe('A')
+    expect(await row.textContent()).toContain(rows[0]!.sha256.slice(0, 12))
+    expect(await row.textContent()).toContain('Not approved — for discussion')
+    expect(await row.getByTestId('issued-download').getAttribute('href')).toBe(`/api/projects/${projectId}/reports/${rows[0]!.id}/pdf`)
+    await screenshot(page, 'reports-list-laptop')
+  })
+})
