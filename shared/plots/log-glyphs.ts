@@ -46,7 +46,8 @@ function capsule(w: number, h: number): string {
  * length; a block and a bag are objects drawn at their depth (centred on the span).
  */
 export function sampleGlyph(type: SampleType, w: number, h: number): LogGlyphPart[] {
-  const hh = Math.max(h, 5)
+  // Tubes and cores stay longer than wide at small scales, so a tube never reads as a ring.
+  const hh = Math.max(h, w + 3)
   const mid = h / 2
   switch (type) {
     case 'thin-walled-tube':

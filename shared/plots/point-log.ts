@@ -70,10 +70,10 @@ export interface PointLogData {
 export const LOG_COLUMNS = {
   ruler: { x0: 0, x1: 40 },
   strata: { x0: 42, x1: 84 },
-  description: { x0: 89, x1: 262 },
-  samples: { x0: 267, x1: 352 },
-  water: { x0: 356, x1: 412 },
-  stress: { x0: 420, x1: 490 },
+  description: { x0: 89, x1: 256 },
+  samples: { x0: 261, x1: 344 },
+  water: { x0: 348, x1: 418 },
+  stress: { x0: 423, x1: 488 },
   ocr: { x0: 495, x1: 523 },
 } as const
 export const LOG_WIDTH = 523
@@ -218,8 +218,10 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
     const yy = y(dU / f)
     const digits = step < 1 ? 1 : 0
     parts.push(`<path d="M${C.ruler.x1 - 4},${round2(yy)}H${C.ruler.x1}" stroke="${LOG_INK.text}" stroke-width="0.8"/>`)
-    parts.push(text(16, yy + 2.5, dU.toFixed(digits), `font-size="7.5" font-weight="bold" fill="${LOG_INK.text}" text-anchor="end"`))
-    parts.push(text(C.ruler.x1 - 5, yy + 2.5, (gl * f - dU).toFixed(1), `font-size="6" fill="${LOG_INK.silt}" text-anchor="end"`))
+    // The top tick's labels sit under the head rule, the bottom one's above the foot.
+    const ty = yy - LOG_HEAD < 4 ? yy + 6 : yy + 2.5
+    parts.push(text(16, ty, dU.toFixed(digits), `font-size="7.5" font-weight="bold" fill="${LOG_INK.text}" text-anchor="end"`))
+    parts.push(text(C.ruler.x1 - 5, ty, (gl * f - dU).toFixed(1), `font-size="6" fill="${LOG_INK.silt}" text-anchor="end"`))
   }
 
   // Strata: fill and pattern per interval, the USCS symbol on a white chip, unlogged depths hatched.
@@ -307,14 +309,16 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
 
   // Water levels with their dates; labels never overlap.
   const levels = data.groundwater.map((w, i) => ({ w, i })).filter((e): e is { w: LogWater & { depth: number }, i: number } => e.w.depth !== null && within(e.w.depth))
-  const waterWishes = levels.map(({ w, i }) => ({ id: `w${i}`, want: y(w.depth) - LABEL_LINE / 2, height: LABEL_LINE }))
+  const waterWishes = levels.map(({ w, i }) => ({ id: `w${i}`, want: y(w.depth) - LABEL_LINE / 2 - 2.5, height: LABEL_LINE + 1.5 }))
   const placedWater = placeLabels(waterWishes, LOG_HEAD + 1, LOG_HEAD + drawH + LOG_FOOT - 2, 0.5)
   for (const { w, i } of levels) {
-    parts.push(logGlyphMarkup(waterGlyph(w.kind), C.water.x0, y(w.depth), `water:${w.kind}`))
+    // A short level tick at the true depth; the mark and its date where the label could go, joined by a leader.
     const p = placedWater.find(q => q.id === `w${i}`)!
-    const ly = p.y + LABEL_LINE / 2
-    if (Math.abs(ly - y(w.depth)) > 2) parts.push(`<path d="M${C.water.x0 + 10},${round2(y(w.depth))}L${C.water.x0 + 13},${round2(ly)}" stroke="${LOG_INK.water}" stroke-width="0.4"/>`)
-    parts.push(text(C.water.x0 + 14, p.y + 6, `${isoDate(w.observedAt)} ${lengthText(w.depth, units)}`, `font-size="6" fill="${LOG_INK.water}"`))
+    const ly = p.y + LABEL_LINE / 2 + 2.5
+    parts.push(`<path d="M${C.water.x0},${round2(y(w.depth))}H${C.water.x0 + 4}" stroke="${LOG_INK.water}" stroke-width="1.3"/>`)
+    if (Math.abs(ly - y(w.depth)) > 1) parts.push(`<path d="M${C.water.x0 + 4},${round2(y(w.depth))}L${C.water.x0 + 6},${round2(ly)}" stroke="${LOG_INK.water}" stroke-width="0.5"/>`)
+    parts.push(logGlyphMarkup(waterGlyph(w.kind), C.water.x0 + 6, ly, `water:${w.kind}`))
+    parts.push(text(C.water.x0 + 18, ly - 1, `${isoDate(w.observedAt)} ${lengthText(w.depth, units)}`, `font-size="6" fill="${LOG_INK.water}"`))
   }
 
   // Stress-history strip: σ'v0, the adopted trend, σ'p points; then the OCR strip.

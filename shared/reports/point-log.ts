@@ -110,7 +110,7 @@ function factsBand(data: PointLogData, page: LogPage, pages: number, scale: LogS
   const p = data.point
   const u = data.units
   const lu = unitLabel('length', u)
-  const small = (label: string, value: string): Content => ({ text: [{ text: `${label} `, color: REPORT_INK.silt, fontSize: 6.5 }, { text: value, fontSize: 8 }] })
+  const runs = (label: string, value: string, last = false) => [{ text: `${label} `, color: REPORT_INK.silt, fontSize: 6.5 }, { text: last ? value : `${value}     `, fontSize: 8 }]
   const base = p.groundElevation - p.finalDepth
   return {
     margin: [0, 0, 0, 6],
@@ -129,17 +129,13 @@ function factsBand(data: PointLogData, page: LogPage, pages: number, scale: LogS
           fillColor: REPORT_INK.siltLight,
           margin: [6, 3, 4, 2],
           stack: [
-            { columns: [
-              small('E', `${lengthText(p.easting, u)} ${lu}`),
-              small('N', `${lengthText(p.northing, u)} ${lu}`),
-              small('ground', `${lengthText(p.groundElevation, u)} ${lu}`),
-              small('to', `${lengthText(p.finalDepth, u)} ${lu} (base ${lengthText(base, u)})`),
-            ], columnGap: 6 },
-            { margin: [0, 2, 0, 0], columns: [
-              small('dates', `${fmtDate(p.startedOn)} → ${fmtDate(p.endedOn)}`),
-              { width: '*', ...small('method', p.method || '—') as object },
-              { width: 'auto', ...small('logged by', p.loggedBy || '—') as object },
-            ], columnGap: 6 },
+            { text: [
+              ...runs('E', `${lengthText(p.easting, u)} ${lu}`), ...runs('N', `${lengthText(p.northing, u)} ${lu}`),
+              ...runs('ground', `${lengthText(p.groundElevation, u)} ${lu}`), ...runs('depth', `${lengthText(p.finalDepth, u)} ${lu}`),
+              ...runs('base', `${lengthText(base, u)} ${lu}`, true),
+            ] },
+            { text: [...runs('dates', `${fmtDate(p.startedOn)} → ${fmtDate(p.endedOn)}`), ...runs('logged by', p.loggedBy || '—', true)] },
+            { text: runs('method', p.method || '—', true) },
           ],
         },
         {
