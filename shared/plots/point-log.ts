@@ -270,8 +270,10 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
     if (b > a) blocks.push({ id: `g${g.top}`, want: y(a) + 1.5, lines: [`${lengthText(g.top, units)}–${lengthText(g.bottom, units)}  Not logged`], top: y(a) })
   }
   const placedDesc = placeLabels(blocks.map(bl => ({ id: bl.id, want: bl.want, height: bl.lines.length * DESC_LINE })), LOG_HEAD + 1, LOG_HEAD + drawH, 1.5)
+  const blockById = new Map(blocks.map(b => [b.id, b]))
   for (const p of placedDesc) {
-    const bl = blocks.find(b => b.id === p.id)!
+    const bl = blockById.get(p.id)
+    if (!bl) continue
     // The boundary across the description lane, and a leader when the text had to move down.
     parts.push(`<path d="M${C.strata.x1},${round2(bl.top)}H${C.description.x0 + 10}" stroke="${LOG_INK.silt}" stroke-width="0.5"/>`)
     if (p.y - bl.want > 3) parts.push(`<path d="M${C.description.x0 + 10},${round2(bl.top)}L${C.description.x0 + 16},${round2(p.y)}" stroke="${LOG_INK.silt}" stroke-width="0.4"/>`)
@@ -299,8 +301,10 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
     sampleLabels.push({ id: `t${i}`, want: yy - LABEL_LINE / 2, anchor: yy, text: sptLabel(t) })
   })
   const placedSamples = placeLabels(sampleLabels.map(l => ({ id: l.id, want: l.want, height: LABEL_LINE })), LOG_HEAD + 1, LOG_HEAD + drawH + LOG_FOOT - 2, 0.5)
+  const labelById = new Map(sampleLabels.map(l => [l.id, l]))
   for (const p of placedSamples) {
-    const l = sampleLabels.find(s => s.id === p.id)!
+    const l = labelById.get(p.id)
+    if (!l) continue
     const isSpt = p.id.startsWith('t')
     const lx = sx + (isSpt ? 25 : 11)
     if (Math.abs(p.y + LABEL_LINE / 2 - l.anchor) > 2) parts.push(`<path d="M${lx - 3},${round2(l.anchor)}L${lx - 1},${round2(p.y + LABEL_LINE / 2)}" stroke="${LOG_INK.silt}" stroke-width="0.4"/>`)
@@ -313,7 +317,8 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
   const placedWater = placeLabels(waterWishes, LOG_HEAD + 1, LOG_HEAD + drawH + LOG_FOOT - 2, 0.5)
   for (const { w, i } of levels) {
     // A short level tick at the true depth; the mark and its date where the label could go, joined by a leader.
-    const p = placedWater.find(q => q.id === `w${i}`)!
+    const p = placedWater.find(q => q.id === `w${i}`)
+    if (!p) continue
     const ly = p.y + LABEL_LINE / 2 + 2.5
     parts.push(`<path d="M${C.water.x0},${round2(y(w.depth))}H${C.water.x0 + 4}" stroke="${LOG_INK.water}" stroke-width="1.3"/>`)
     if (Math.abs(ly - y(w.depth)) > 1) parts.push(`<path d="M${C.water.x0 + 4},${round2(y(w.depth))}L${C.water.x0 + 6},${round2(ly)}" stroke="${LOG_INK.water}" stroke-width="0.5"/>`)

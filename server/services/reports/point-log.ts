@@ -43,8 +43,8 @@ async function stressStrip(projectId: string, pointId: string, finalDepth: numbe
   const bounds = stratumBounds(def)
   const trend: LogStress['trend'] = []
   def.strata.forEach((s, i) => {
-    const b = bounds[i]!
-    if (!s.trend || b.top >= bottom) return
+    const b = bounds[i]
+    if (!b || !s.trend || b.top >= bottom) return
     const run: LogStress['trend'][number] = []
     for (const depth of depthsDown(b.top, Math.min(b.bottom, bottom))) {
       // Just inside the band at its edges, so a band's own trend is evaluated there.
