@@ -287,22 +287,25 @@ describe('the field geologist\'s workspace in Chromium', () => {
     await page.getByTestId('log-drawing').first().waitFor()
     expect(await page.getByTestId('project-nav').count()).toBe(0)
     expect(await page.getByTestId('user-menu').count()).toBe(0)
-    // 18.5 m at 1:100: one sheet of drawing (20 m a sheet), the key below it.
-    expect(await page.getByTestId('log-sheet-page').count()).toBe(1)
+    // The 20 m hole at 1:100 fills one sheet (20 m a sheet); the key takes a sheet of its own.
+    expect(await page.getByTestId('log-sheet-page').count()).toBe(2)
+    expect(await page.getByTestId('log-drawing').count()).toBe(1)
     const drawing = await page.getByTestId('log-drawing').first().innerHTML()
     expect(drawing).toContain('Soft grey CLAY with shell')
     expect(drawing).toContain("σ'v0")
     expect(await page.getByTestId('sheet-legend').textContent()).toContain('EC Estuarine clay')
     expect(await page.getByTestId('sheet-caution').first().textContent()).toBe(RESULT_CAUTION)
     expect(await page.getByTestId('sheet-pdf').getAttribute('href')).toMatch(/\/report\.pdf\?scale=100$/)
-    // Nothing runs past the A4 sheet: the footer sits inside it.
-    const fits = await page.getByTestId('log-sheet-page').first().evaluate(el => el.scrollHeight <= el.clientHeight + 1)
-    expect(fits).toBe(true)
+    // Nothing runs past an A4 sheet: each footer sits inside its sheet.
+    const fits = await page.getByTestId('log-sheet-page').evaluateAll(els => els.map(el => el.scrollHeight <= el.clientHeight + 1))
+    expect(fits).toEqual([true, true])
     await screenshot(page, 'log-sheet')
-    // At 1:50 the hole takes two sheets, each with its header and footer.
+    // At 1:50 the hole takes two sheets of drawing (10 m each) and the key a third, each with its header and footer.
     await page.getByTestId('sheet-scale').selectOption('50')
-    await expect.poll(() => page.getByTestId('log-sheet-page').count()).toBe(2)
-    expect(await page.getByTestId('sheet-caution').count()).toBe(2)
+    await expect.poll(() => page.getByTestId('log-drawing').count()).toBe(2)
+    expect(await page.getByTestId('log-sheet-page').count()).toBe(3)
+    expect(await page.getByTestId('sheet-caution').count()).toBe(3)
+    await screenshot(page, 'log-sheet-1-50')
     expect(await page.getByTestId('sheet-pdf').getAttribute('href')).toMatch(/scale=50$/)
     expect(await page.getByTestId('print-sheet').isVisible()).toBe(true)
     await page.emulateMedia({ media: 'print' })
