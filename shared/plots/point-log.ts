@@ -336,24 +336,26 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
   const toU = (kPa: number) => convert(kPa, 'stress', 'SI', units)
   const xs = (kPa: number) => sx0 + Math.min(1, Math.max(0, toU(kPa) / axes.stress.max)) * sw
   const xo = (ocr: number) => ox0 + Math.min(1, Math.max(0, ocr / axes.ocr.max)) * ow
-  // Axis ticks in the head row (stress) and faint grid lines.
-  for (let v = 0; v <= axes.stress.max + 1e-9; v += axes.stress.step) {
-    const x = sx0 + (v / axes.stress.max) * sw
-    parts.push(`<path d="M${round2(x)},${LOG_HEAD - 4}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.white}" stroke-width="0.8"/>`)
-    const last = v + axes.stress.step > axes.stress.max + 1e-9
-    if (v === 0 || last || axes.stress.max / axes.stress.step <= 4) parts.push(text(x, LOG_HEAD - 5, String(round2(v)), `font-size="5.5" fill="${LOG_INK.silt}" text-anchor="${v === 0 ? 'start' : last ? 'end' : 'middle'}"`))
-  }
-  parts.push(text(sx0 + sw / 2, 17, stressU, `font-size="6.5" fill="${LOG_INK.silt}" text-anchor="middle"`))
-  for (let v = 0; v <= axes.ocr.max + 1e-9; v += axes.ocr.step) {
-    const x = ox0 + (v / axes.ocr.max) * ow
-    parts.push(`<path d="M${round2(x)},${LOG_HEAD - 4}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.white}" stroke-width="0.8"/>`)
-    if (v === 0 || v + axes.ocr.step > axes.ocr.max + 1e-9) parts.push(text(x, LOG_HEAD - 5, String(v), `font-size="5.5" fill="${LOG_INK.silt}" text-anchor="${v === 0 ? 'start' : 'end'}"`))
-  }
-  if (axes.ocr.max >= 1) {
-    const x1 = xo(1)
-    parts.push(`<path d="M${round2(x1)},${LOG_HEAD}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.silt}" stroke-width="0.5" stroke-dasharray="1.5 1.5"/>`)
-  }
   const s = data.stress
+  if (s.available) {
+    // Axis ticks in the head row (stress) and faint grid lines.
+    for (let v = 0; v <= axes.stress.max + 1e-9; v += axes.stress.step) {
+      const x = sx0 + (v / axes.stress.max) * sw
+      parts.push(`<path d="M${round2(x)},${LOG_HEAD - 4}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.white}" stroke-width="0.8"/>`)
+      const last = v + axes.stress.step > axes.stress.max + 1e-9
+      if (v === 0 || last || axes.stress.max / axes.stress.step <= 4) parts.push(text(x, LOG_HEAD - 5, String(round2(v)), `font-size="5.5" fill="${LOG_INK.silt}" text-anchor="${v === 0 ? 'start' : last ? 'end' : 'middle'}"`))
+    }
+    parts.push(text(sx0 + sw / 2, 17, stressU, `font-size="6.5" fill="${LOG_INK.silt}" text-anchor="middle"`))
+    for (let v = 0; v <= axes.ocr.max + 1e-9; v += axes.ocr.step) {
+      const x = ox0 + (v / axes.ocr.max) * ow
+      parts.push(`<path d="M${round2(x)},${LOG_HEAD - 4}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.white}" stroke-width="0.8"/>`)
+      if (v === 0 || v + axes.ocr.step > axes.ocr.max + 1e-9) parts.push(text(x, LOG_HEAD - 5, String(v), `font-size="5.5" fill="${LOG_INK.silt}" text-anchor="${v === 0 ? 'start' : 'end'}"`))
+    }
+    if (axes.ocr.max >= 1) {
+      const x1 = xo(1)
+      parts.push(`<path d="M${round2(x1)},${LOG_HEAD}V${round2(LOG_HEAD + drawH)}" stroke="${LOG_INK.silt}" stroke-width="0.5" stroke-dasharray="1.5 1.5"/>`)
+    }
+  }
   if (!s.available) {
     const lines = wrapText("σ'v0 unavailable: no saved version of the design model.", sw + ow, 6.5)
     lines.forEach((ln, k) => parts.push(text(sx0 + 2, LOG_HEAD + 10 + k * 7.5, ln, `font-size="6.5" font-style="italic" fill="${LOG_INK.silt}"`)))

@@ -83,7 +83,7 @@ describe('point log report', () => {
       expect(all).toContain('Log model')
       pdfPageToPng(r.pdf, `report-point-log-1-${scale}-p1`)
     }
-  })
+  }, 60_000)
 
   it('gives the sheet page the same data: σ\'v0 from the model in force down the hole', async () => {
     const r = await must('stress log', geologist.get<PointLogReply>(`${base}/stress-log`))

@@ -61,5 +61,5 @@ describe('point log document', () => {
       pdfPageToPng(pdf, `report-point-log-unit-1-${scale}-p1`, 1, 100)
     }
     expect(LOG_DRAW_HEIGHT).toBeGreaterThan(560)
-  })
+  }, 60_000)
 })
