@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { pointLogPageSvg } from '#shared/plots/point-log'
 import { LOG_DRAW_HEIGHT, pointLogPages } from '#shared/reports/point-log'
 import { depthPerPage, labelsOverlap, LOG_SCALES, paginateLog, placeLabels, ptPerMetre, wrapText } from '#shared/reports/point-log-layout'
-import { demoLogData } from './point-log-fixture'
+import { demoLogData } from '../../helpers/point-log-data'
 
 describe('point log pagination', () => {
   it('draws 1 m of ground as 1000/scale mm of paper', () => {

@@ -5,7 +5,7 @@ import { pointLogPageSvg, sptLabel, stressAxes } from '#shared/plots/point-log'
 import { keysDrawn, LOG_DRAW_HEIGHT, pointLogDocument, pointLogKey, pointLogPages } from '#shared/reports/point-log'
 import { LOG_SCALES } from '#shared/reports/point-log-layout'
 import { pdfInfo, pdfPagesText, pdfPageToPng } from '../../helpers/pdf'
-import { demoLogData } from './point-log-fixture'
+import { demoLogData } from '../../helpers/point-log-data'
 
 describe('point log document', () => {
   it('writes a refusal as blows over the penetration, a full drive as N', () => {
