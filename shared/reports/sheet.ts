@@ -1,4 +1,4 @@
-import type { Content, DynamicContent, TDocumentDefinitions, Watermark } from 'pdfmake/interfaces'
+import type { Content, ContentStack, DynamicContent, TDocumentDefinitions, Watermark } from 'pdfmake/interfaces'
 import { RESULT_CAUTION } from '../caution'
 import type { UnitSystem } from '../units'
 
@@ -60,7 +60,7 @@ export const REPORT_MARGINS: [number, number, number, number] = [36, 62, 36, 74]
 
 const UNIT_WORDS: Record<UnitSystem, string> = { SI: 'SI units (m, kPa, kN/m³)', US: 'US customary units (ft, psf, pcf)' }
 
-function signOffCell(label: string, s: ReportSignOff | null | undefined): Content {
+function signOffCell(label: string, s: ReportSignOff | null | undefined): ContentStack {
   return {
     stack: [
       { text: label, fontSize: 6.5, color: REPORT_INK.silt, characterSpacing: 0.4 },
