@@ -28,6 +28,15 @@ describe('point log document', () => {
     }
   })
 
+  it('labels a US project in feet and psf, the drawing still at the metric depth scale', () => {
+    const data = demoLogData({ units: 'US' })
+    const { svg } = pointLogPageSvg(data, { scale: 100, from: 0, to: 20 })
+    expect(svg).toContain('>ft<')
+    expect(svg).toContain('>psf<')
+    // The end of the 24 m hole is on the second page: 24 m = 78.74 ft (1 ft = 0.3048 m, exact).
+    expect(pointLogPageSvg(data, { scale: 100, from: 20, to: 24 }).svg).toContain('End 78.74 ft')
+  })
+
   it('keeps the key to what is drawn: no σ\'p or line entries without a stress model', () => {
     const data = demoLogData({ stress: { available: false, model: 'No saved version of the design model.', profile: [], trend: [], points: [] } })
     const keys = pointLogKey(data).map(e => e.key)
