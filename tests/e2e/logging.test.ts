@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
+import { pdfInfo } from '../helpers/pdf'
 import { createProject } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -310,6 +311,9 @@ describe('the field geologist\'s workspace in Chromium', () => {
     expect(await page.getByTestId('print-sheet').isVisible()).toBe(true)
     await page.emulateMedia({ media: 'print' })
     expect(await page.getByTestId('print-sheet').isVisible()).toBe(false)
+    // Printed on A4, each sheet is one page: nothing spills onto an extra page.
+    const printed = await page.pdf({ format: 'A4', preferCSSPageSize: true, printBackground: true })
+    expect(pdfInfo(printed).pages).toBe(3)
     await page.emulateMedia({ media: 'screen' })
     await page.close()
   })
