@@ -357,7 +357,8 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
     }
   }
   if (!s.available) {
-    const lines = wrapText("σ'v0 unavailable: no saved version of the design model.", sw + ow, 6.5)
+    // The reason in full is under the key; the strip says what is missing.
+    const lines = wrapText(`σ'v0 unavailable. ${s.model}`, sw + ow, 6.5).slice(0, 8)
     lines.forEach((ln, k) => parts.push(text(sx0 + 2, LOG_HEAD + 10 + k * 7.5, ln, `font-size="6.5" font-style="italic" fill="${LOG_INK.silt}"`)))
   }
   else {

@@ -6,7 +6,8 @@ import { trendPreconsolidation } from '#shared/site-model/convert'
 import { stratumBounds } from '#shared/site-model/definition'
 import { useDb } from '~~/server/db/client'
 import { projects } from '~~/server/db/schema'
-import { stressContext, type StressContext } from '~~/server/services/lab'
+import { stressContextOf, type StressContext } from '~~/server/services/lab'
+import { stressModelInForce } from '~~/server/services/site-models'
 import { pointDetail, requirePoint } from '~~/server/services/points'
 import { cptResampled, cptSoundingRows, cptThroughModel, oedometerPoints, vanePoints } from '~~/server/services/preconsolidation-points'
 import { listStrata } from '~~/server/services/strata'
@@ -72,12 +73,28 @@ async function stressStrip(projectId: string, pointId: string, finalDepth: numbe
   return { available: true, model: ctx.info.description, profile, trend, points }
 }
 
+/**
+ * The stress model in force as an evaluator. A log can be drawn without stresses: a model version the
+ * engine refuses (a 422 elsewhere) leaves the strip empty with the engine's reason instead.
+ */
+async function logStressContext(projectId: string): Promise<StressContext> {
+  const { definition, info } = await stressModelInForce(projectId)
+  try {
+    return stressContextOf(definition, info)
+  }
+  catch (err) {
+    const status = (err as { statusCode?: unknown } | null)?.statusCode
+    if (status !== 422 || !(err instanceof Error)) throw err
+    return stressContextOf(null, { ...info, description: `${info.description} σ'v0 cannot be computed from it: ${err.message}` })
+  }
+}
+
 /** What the log of one point draws: the sheet page's data and the report's. */
 export async function pointLogData(projectId: string, pointId: string): Promise<PointLogData> {
   const [project] = await useDb().select().from(projects).where(eq(projects.id, projectId))
   if (!project) notFound('Project')
   const point = await requirePoint(projectId, pointId)
-  const [detail, strata, ctx] = await Promise.all([pointDetail(point), listStrata(projectId), stressContext(projectId)])
+  const [detail, strata, ctx] = await Promise.all([pointDetail(point), listStrata(projectId), logStressContext(projectId)])
   const byId = new Map(strata.map(s => [s.id, s]))
   const stress = await stressStrip(projectId, pointId, point.finalDepth, ctx)
   return {
