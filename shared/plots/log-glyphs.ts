@@ -85,7 +85,7 @@ export function sampleGlyph(type: SampleType, w: number, h: number): LogGlyphPar
     case 'core': {
       // Sticks of core stacked down the run, a small break between each.
       const sticks: LogGlyphPart[] = []
-      const n = Math.max(1, Math.round(hh / 6))
+      const n = Math.max(1, Math.round(hh / 13))
       const step = hh / n
       for (let i = 0; i < n; i++) sticks.push({ d: translatePath(capsule(w, Math.max(2, step - 1.2)), 0, i * step), fill: LOG_INK.siltLight, stroke: LOG_INK.silt, strokeWidth: 0.8 })
       return sticks
