@@ -8,7 +8,7 @@ import {
 } from '../plots/point-log'
 import { stratumColour, stratumPattern, FALLBACK_APPEARANCE } from '../strata/appearance'
 import { unitLabel } from '../units'
-import { type LogPage, type LogScale, paginateLog } from './point-log-layout'
+import { type LogPage, type LogScale, paginateLog, wrapText } from './point-log-layout'
 import { REPORT_INK, REPORT_MARGINS, reportDocument, type ReportHeader } from './sheet'
 
 /**
@@ -46,6 +46,36 @@ export interface KeyEntry {
   svg: string
   width: number
   height: number
+}
+
+/** The markup inside a swatch's `<svg>` (to place it in the key's one drawing). */
+function swatchInner(svg: string): string {
+  return svg.replace(/^<svg[^>]*>/, '').replace(/<\/svg>$/, '')
+}
+
+const KEY_COLUMNS = 3
+const KEY_ROW = 19
+const KEY_FONT = 7
+
+/**
+ * The key as one SVG (the PDF embeds one drawing rather than one per mark): three columns of a swatch and
+ * its words, wrapped to two lines.
+ */
+export function pointLogKeySvg(entries: readonly KeyEntry[], width: number): { svg: string, height: number } {
+  const colW = width / KEY_COLUMNS
+  const rows = Math.ceil(entries.length / KEY_COLUMNS)
+  const height = rows * KEY_ROW + 2
+  const parts = entries.map((e, i) => {
+    const x = (i % KEY_COLUMNS) * colW
+    const y = Math.floor(i / KEY_COLUMNS) * KEY_ROW + 1
+    const sx = x + (26 - e.width) / 2
+    const sy = y + (KEY_ROW - 2 - e.height) / 2
+    const lines = wrapText(e.label, colW - 34, KEY_FONT).slice(0, 2)
+    const ty = lines.length === 1 ? y + 10.5 : y + 6.5
+    const words = lines.map((ln, k) => `<text x="${(x + 30).toFixed(2)}" y="${(ty + k * 8).toFixed(2)}" font-family="SourceSans3" font-size="${KEY_FONT}" fill="${LOG_INK.text}">${escapeXml(ln)}</text>`).join('')
+    return `<g data-key="${e.key}" transform="translate(${sx.toFixed(2)},${sy.toFixed(2)})">${swatchInner(e.svg)}</g>${words}`
+  })
+  return { svg: `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">${parts.join('')}</svg>`, height }
 }
 
 function swatchSvg(inner: string, w: number, h: number): string {
@@ -154,18 +184,8 @@ function factsBand(data: PointLogData, page: LogPage, pages: number, scale: LogS
 
 function keyContent(data: PointLogData): Content[] {
   const entries = pointLogKey(data)
-  const cells: Content[] = entries.map(e => ({
-    columns: [
-      { width: 26, svg: e.svg, fit: [e.width, e.height] },
-      { width: '*', text: e.label, fontSize: 7, margin: [0, 1, 0, 0] },
-    ],
-    columnGap: 3,
-    margin: [0, 1, 0, 1],
-  }))
-  const rows: Content[][] = []
-  for (let i = 0; i < cells.length; i += 3) rows.push([cells[i] ?? '', cells[i + 1] ?? '', cells[i + 2] ?? ''])
   const out: Content[] = [{ text: 'Key', style: 'subsection', margin: [0, 4, 0, 2] }]
-  if (rows.length) out.push({ table: { widths: ['*', '*', '*'], body: rows }, layout: 'noBorders' })
+  if (entries.length) out.push({ svg: pointLogKeySvg(entries, LOG_WIDTH).svg, width: LOG_WIDTH })
   out.push({ text: `Stresses: ${data.stress.model}`, fontSize: 7, color: REPORT_INK.silt, margin: [0, 3, 0, 0] })
   out.push({ text: `Depths below ground level; elevations on the site datum; local grid coordinates. OCR = σ'p / σ'v0 at the same depth.`, fontSize: 7, color: REPORT_INK.silt })
   if (data.point.remarks.trim()) {
