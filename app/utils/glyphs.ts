@@ -1,4 +1,5 @@
 import type { GroundwaterKind, PointKind, SampleType } from '#shared/investigation/types'
+import { sampleGlyph } from '#shared/plots/log-glyphs'
 
 /**
  * Pastload's own marks for plans and logs, as plain SVG path parts so D3 drawings
@@ -61,27 +62,12 @@ export const SAMPLE_TYPE_LABELS: Record<SampleType, string> = {
   'core': 'Core',
 }
 
-const INK = '#27231f'
-
 /**
- * A sample's mark in a log column `w` px wide spanning `h` px (the sampled length):
- * tube open, piston solid, block crossed, bulk half-filled, split spoon divided, core ruled.
+ * A sample's mark in a log column `w` px wide spanning `h` px (the sampled length): the shape of what was
+ * taken, as on the stress-history log (`shared/plots/log-glyphs.ts`).
  */
 export function sampleMarkParts(type: SampleType, w: number, h: number): GlyphPart[] {
-  const box = `M0,0H${w}V${h}H0Z`
-  const frame: GlyphPart = { d: box, fill: WHITE, stroke: INK, strokeWidth: 1 }
-  switch (type) {
-    case 'thin-walled-tube': return [frame]
-    case 'piston': return [{ d: box, fill: INK, stroke: INK, strokeWidth: 1 }]
-    case 'block': return [frame, { d: `M0,0L${w},${h}M${w},0L0,${h}`, fill: 'none', stroke: INK, strokeWidth: 1 }]
-    case 'bulk': return [frame, { d: `M0,0H${w / 2}V${h}H0Z`, fill: INK }]
-    case 'spt-split-spoon': return [frame, { d: `M${w / 2},0V${h}`, fill: 'none', stroke: INK, strokeWidth: 1 }]
-    case 'core': {
-      let rules = ''
-      for (let y = 3; y < h; y += 3) rules += `M0,${y}H${w}`
-      return [frame, ...(rules ? [{ d: rules, fill: 'none', stroke: INK, strokeWidth: 0.6 }] : [])]
-    }
-  }
+  return sampleGlyph(type, w, h)
 }
 
 export const GROUNDWATER_KIND_LABELS: Record<GroundwaterKind, string> = {

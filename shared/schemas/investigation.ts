@@ -111,6 +111,8 @@ export const SampleUpdateSchema = z.object({
 export const SptInputSchema = z.object({
   depth: depth('Depth'),
   blows: z.tuple([int(0, 500), int(0, 500), int(0, 500)]),
+  /** mm of the 300 mm test drive achieved when the test stopped short (a refusal); null for a full drive. */
+  penetration: int(1, 299).nullable().default(null),
 })
 
 export const GroundwaterInputSchema = z.object({

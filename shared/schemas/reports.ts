@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { int, UuidSchema } from './common'
+import { PointParamsSchema } from './investigation'
 import { VersionParamsSchema } from './models'
 import { SettlementRunParamsSchema } from './settlement-runs'
 
@@ -14,6 +15,13 @@ export const ModelVersionReportParamsSchema = VersionParamsSchema
 // --- settlement-run report ---------------------------------------------------------
 /** GET …/settlement-runs/{runId}/report.pdf. */
 export const SettlementRunReportParamsSchema = SettlementRunParamsSchema
+
+// --- point log ---------------------------------------------------------------------
+export const PointLogReportParamsSchema = PointParamsSchema
+/** Drawing scale 1:50, 1:100 or 1:200 (default 1:100). */
+export const PointLogReportQuerySchema = z.object({
+  scale: z.enum(['50', '100', '200']).default('100').transform(s => Number(s) as 50 | 100 | 200),
+})
 
 // --- issued reports ----------------------------------------------------------------
 /** `POST …/reports` makes the PDF of one record and stores it with the next revision letter. */

@@ -85,7 +85,7 @@ describe('issued reports', () => {
     expect(del.body.message).toMatch(/issued report/)
   })
 
-  it('400 on a bad body, 404 for another project\'s run or report, 422 for a kind not available yet', async () => {
+  it('400 on a bad body, 404 for another project\'s run or report or an unknown point', async () => {
     for (const body of [{}, { kind: 'settlement-run' }, { kind: 'settlement-run', runId: 'x' }, { kind: 'nope', runId }, { kind: 'point-log', pointId: runId, scale: 75 }, { kind: 'settlement-run', runId, extra: 1 }]) {
       const r = await designer.post(`${base}/reports`, body)
       expect(r.status, JSON.stringify(body)).toBe(400)
@@ -96,9 +96,9 @@ describe('issued reports', () => {
     expect((await designer.post(`${base}/reports`, { kind: 'settlement-run', runId: otherRun })).status).toBe(404)
     const otherReport = await must('issue', owner.post<{ report: IssuedReport }>(`${other.base}/reports`, { kind: 'settlement-run', runId: otherRun }), 201)
     expect((await viewer.get(`${base}/reports/${otherReport.report.id}/pdf`)).status).toBe(404)
-    // A point log of an id that is no point of the project: 404 once the log builder is wired, 422 until then; never stored.
+    // A point log of an id that is no point of the project: 404, never stored.
     const r = await designer.post<{ message: string }>(`${base}/reports`, { kind: 'point-log', pointId: runId, scale: 100 })
-    expect([404, 422]).toContain(r.status)
+    expect(r.status).toBe(404)
     const stored = await pool.query('select 1 from issued_reports where project_id = $1 and kind = $2', [projectId, 'point-log'])
     expect(stored.rowCount).toBe(0)
   })

@@ -7,6 +7,7 @@ import { runApiBench } from './api.bench'
 import { replaceDocSection } from './doc'
 import { BENCHES, type BenchRow } from './engine.bench'
 import { lighthouseSection } from './lighthouse.bench'
+import { runPointLogReportBench } from './point-log-report.bench'
 
 function runInFreshProcess(name: string): BenchRow[] {
   const out = execFileSync(process.execPath, ['--import', 'tsx', resolve(import.meta.dirname, 'one.ts'), name], { encoding: 'utf8' })
@@ -18,6 +19,7 @@ const fmt = (ms: number) => (ms < 10 ? ms.toFixed(2) : ms.toFixed(1))
 async function main() {
   const rows: BenchRow[] = Object.keys(BENCHES).flatMap(runInFreshProcess)
   const api = await runApiBench()
+  const reports = await runPointLogReportBench()
   const lines = [
     `Measured ${new Date().toISOString().slice(0, 10)} on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}.`,
     '',
@@ -44,6 +46,10 @@ async function main() {
     `| stress canvas: dense-layer redraw | – | ${fmt(api.browser.canvas.drawP95Ms)} | – | – |`,
     `| stress canvas: water-table edit → redrawn σ'v0 curve (${api.browser.canvas.edits} edits, includes the 60 ms debounce) | ${fmt(api.browser.canvas.editToCurveMedianMs)} | ${fmt(api.browser.canvas.editToCurveP95Ms)} | ≤ 150 ms | ${api.browser.canvas.editToCurveMedianMs <= 150 ? 'yes' : 'no'} |`,
     `| point page: CPT plot of 3 000 rows, draw after data arrives (${api.browser.cptDrawMs.length} loads) | ${fmt([...api.browser.cptDrawMs].sort((a, b) => a - b)[Math.floor(api.browser.cptDrawMs.length / 2)]!)} | ${fmt(Math.max(...api.browser.cptDrawMs))} (max) | < 200 ms | ${Math.max(...api.browser.cptDrawMs) < 200 ? 'yes' : 'no'} |`,
+    '',
+    '| report benchmark (server time) | median (ms) | p95 (ms) | pages | runs | goal | met |',
+    '|---|---:|---:|---:|---:|---:|:-:|',
+    ...reports.map(r => `| ${r.name} | ${fmt(r.median)} | ${fmt(r.p95)} | ${r.pages} | ${r.runs} | ≤ ${r.goal} ms | ${r.median <= r.goal ? 'yes' : 'no'} |`),
   ]
   const table = lines.join('\n')
   console.log(`\n${table}\n`)

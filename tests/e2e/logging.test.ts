@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
+import { pdfInfo } from '../helpers/pdf'
 import { createProject } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
@@ -278,22 +279,42 @@ describe('the field geologist\'s workspace in Chromium', () => {
     await page.close()
   })
 
-  it('the printable sheet carries the log, the key and the caution, without the app shell', async () => {
+  it('the printable sheet is the stress-history log: one A4 sheet per depth range, the key and the caution, without the app shell', async () => {
     await seedLog()
     const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1366, height: 800 })
     await page.goto(`${baseUrl()}${pointPath(boreholeId)}/sheet`)
     await page.getByTestId('log-sheet').waitFor()
-    await page.getByTestId('graphic-log').waitFor()
+    await page.getByTestId('log-drawing').first().waitFor()
     expect(await page.getByTestId('project-nav').count()).toBe(0)
     expect(await page.getByTestId('user-menu').count()).toBe(0)
-    expect(await page.getByTestId('sheet-intervals').locator('tbody tr').count()).toBe(5)
+    // The 20 m hole at 1:100 fills one sheet (20 m a sheet); the key takes a sheet of its own.
+    expect(await page.getByTestId('log-sheet-page').count()).toBe(2)
+    expect(await page.getByTestId('log-drawing').count()).toBe(1)
+    const drawing = await page.getByTestId('log-drawing').first().innerHTML()
+    expect(drawing).toContain('Soft grey CLAY with shell')
+    expect(drawing).toContain("σ'v0")
     expect(await page.getByTestId('sheet-legend').textContent()).toContain('EC Estuarine clay')
-    expect(await page.getByTestId('sheet-caution').textContent()).toBe(RESULT_CAUTION)
+    expect(await page.getByTestId('sheet-caution').first().textContent()).toBe(RESULT_CAUTION)
+    expect(await page.getByTestId('sheet-pdf').getAttribute('href')).toMatch(/\/report\.pdf\?scale=100$/)
+    // Nothing runs past an A4 sheet: each footer sits inside its sheet.
+    const fits = await page.getByTestId('log-sheet-page').evaluateAll(els => els.map(el => el.scrollHeight <= el.clientHeight + 1))
+    expect(fits).toEqual([true, true])
+    await screenshot(page, 'log-sheet')
+    // At 1:50 the hole takes two sheets of drawing (10 m each) and the key a third, each with its header and footer.
+    await page.getByTestId('sheet-scale').selectOption('50')
+    await expect.poll(() => page.getByTestId('log-drawing').count()).toBe(2)
+    expect(await page.getByTestId('log-sheet-page').count()).toBe(3)
+    expect(await page.getByTestId('sheet-caution').count()).toBe(3)
+    await screenshot(page, 'log-sheet-1-50')
+    expect(await page.getByTestId('sheet-pdf').getAttribute('href')).toMatch(/scale=50$/)
     expect(await page.getByTestId('print-sheet').isVisible()).toBe(true)
     await page.emulateMedia({ media: 'print' })
     expect(await page.getByTestId('print-sheet').isVisible()).toBe(false)
+    // Printed on A4, each sheet is one page: nothing spills onto an extra page.
+    const printed = await page.pdf({ format: 'A4', preferCSSPageSize: true, printBackground: true })
+    expect(pdfInfo(printed).pages).toBe(3)
     await page.emulateMedia({ media: 'screen' })
-    await screenshot(page, 'log-sheet')
     await page.close()
   })
 

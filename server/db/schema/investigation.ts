@@ -102,6 +102,8 @@ export const sptResults = pgTable('spt_results', {
   depth: doublePrecision().notNull(),
   blows: integer().array().notNull(),
   n: integer().notNull(),
+  /** Penetration of the test drive in mm when it stopped short of 300 mm (a refusal, written "N/penetration mm"); null: full drive. */
+  penetration: integer(),
   ...version,
   ...timestamps,
 }, t => [index('spt_results_point_idx').on(t.pointId, t.depth)])

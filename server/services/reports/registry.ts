@@ -1,7 +1,7 @@
 import type { IssueReport } from '#shared/schemas/reports'
-import { unprocessableError } from '~~/server/services/http-errors'
 import type { ReportBuild, ReportContext, ReportKind } from './kinds'
 import { buildModelVersionReport } from './model-version'
+import { buildPointLogReport } from './point-log'
 import { buildSettlementRunReport } from './settlement-run'
 
 /**
@@ -11,15 +11,9 @@ import { buildSettlementRunReport } from './settlement-run'
 type Request<K extends ReportKind> = Extract<IssueReport, { kind: K }>
 type Builder<K extends ReportKind> = (ctx: ReportContext, req: Request<K>) => Promise<ReportBuild>
 
-/** A kind whose builder is not part of this server yet: 422, nothing stored. */
-function notAvailable<K extends ReportKind>(kind: K): Builder<K> {
-  return () => Promise.reject(unprocessableError(`Issuing a ${kind} report is not available yet on this server.`, { code: 'report-kind-unavailable', kind }))
-}
-
 export const REPORT_BUILDERS: { [K in ReportKind]: Builder<K> } = {
   'settlement-run': (ctx, req) => buildSettlementRunReport(ctx, req.runId),
-  // Point log: `(ctx, req) => buildPointLogReport(ctx, req.pointId, { scale: req.scale })` from './point-log'.
-  'point-log': notAvailable('point-log'),
+  'point-log': (ctx, req) => buildPointLogReport(ctx, req.pointId, { scale: req.scale }),
   'model-version': (ctx, req) => buildModelVersionReport(ctx, req.modelId, req.version),
 }
 

@@ -1,5 +1,5 @@
 import { createRunModel, smallRunBody } from '../../helpers/settlement-run'
-import { ALL, next, ok, SETTLEMENT_RUNNERS, type Ctx, type RouteCase } from './types'
+import { ALL, freshPoint, next, ok, SETTLEMENT_RUNNERS, type Ctx, type RouteCase } from './types'
 
 // Reports. Each report kind keeps its own block below.
 
@@ -35,4 +35,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId/reports', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/reports', allowed: SETTLEMENT_RUNNERS, ok: 201, prepare: async ctx => ({ body: { kind: 'settlement-run', runId: (await fixture(ctx)).runId } }) },
   { method: 'GET', path: '/api/projects/:projectId/reports/:reportId/pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/reports/${(await fixture(ctx)).reportId}/pdf` }) },
+  // Point log (the stress-history log and the data its sheet page draws)
+  { method: 'GET', path: '/api/projects/:projectId/points/:pointId/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/report.pdf?scale=200` }) },
+  { method: 'GET', path: '/api/projects/:projectId/points/:pointId/stress-log', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/stress-log` }) },
 ]

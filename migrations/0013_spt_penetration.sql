@@ -1,0 +1,1 @@
+ALTER TABLE "spt_results" ADD COLUMN "penetration" integer;
