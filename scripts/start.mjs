@@ -9,9 +9,8 @@ import { spawn } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
-import { externalSmtp, startMailCatcher } from './lib/mail-catcher.mjs'
-import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
+import { startAppServices } from './lib/services.mjs'
 import { supervise } from './lib/supervise.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -22,9 +21,8 @@ async function main() {
   const external = process.env.DATABASE_URL
   const cluster = external ? null : await ensureCluster({ projectRoot: root, name: process.env.PASTLOAD_DB_DIR ?? 'pg', port: dbPort, database: 'pastload' })
   const databaseUrl = external ?? cluster.url
-  const store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: 's3', port: Number(process.env.PASTLOAD_S3_PORT ?? 54331), optional: true })
-  const mail = externalSmtp() ? null : await startMailCatcher({ projectRoot: root, name: 'mail', port: Number(process.env.PASTLOAD_SMTP_PORT ?? 54332), webPort: Number(process.env.PASTLOAD_MAIL_WEB_PORT ?? 54333), optional: true })
-  const stopAll = () => { mail?.stop(); store?.stop(); cluster?.stop() }
+  const services = await startAppServices(root)
+  const stopAll = () => { services.stop(); cluster?.stop() }
 
   try {
     buildIfStale(root)
@@ -38,17 +36,11 @@ async function main() {
   const runApp = () => spawn(process.execPath, [`${process.env.PASTLOAD_OUTPUT_DIR ?? '.output'}/server/index.mjs`], {
     cwd: root,
     stdio: 'inherit',
-    env: {
-      ...process.env,
-      ...store?.env,
-      ...mail?.env,
-      DATABASE_URL: databaseUrl,
-      PASTLOAD_SEED: process.env.PASTLOAD_SEED ?? 'demo',
+    env: services.appEnv(databaseUrl, {
       PASTLOAD_MIGRATIONS_DIR: `${root}migrations`,
       NITRO_HOST: process.env.HOST ?? '127.0.0.1',
       NITRO_PORT: String(port),
-      NUXT_TELEMETRY_DISABLED: '1',
-    },
+    }),
   })
   // The app is restarted when it dies (back-off, see lib/supervise.mjs); PostgreSQL and the store stay up.
   const app = supervise(runApp)

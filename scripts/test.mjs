@@ -6,9 +6,8 @@ import { existsSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
 import { log } from './lib/log.mjs'
-import { externalSmtp, startMailCatcher } from './lib/mail-catcher.mjs'
-import { externalObjectStore, startObjectStore } from './lib/object-store.mjs'
 import { ensureCluster } from './lib/postgres.mjs'
+import { startTestServices } from './lib/services.mjs'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
 const env = { ...process.env, NUXT_TELEMETRY_DISABLED: '1' }
@@ -55,17 +54,14 @@ async function main() {
     fresh: true,
   })
   let ok = false
-  let store = null
-  let mail = null
+  let services = null
   try {
-    store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: `s3-test-${process.pid}`, port: Number(process.env.PASTLOAD_TEST_S3_PORT ?? 0), fresh: true })
-    mail = externalSmtp() ? null : await startMailCatcher({ projectRoot: root, name: `mail-test-${process.pid}`, port: Number(process.env.PASTLOAD_TEST_SMTP_PORT ?? 0), webPort: 0, fresh: true })
+    services = await startTestServices(root)
     buildIfStale(root)
-    ok = step('vitest (unit, api, e2e)', 'npx', ['vitest', 'run', ...only], { ...store?.env, ...mail?.env, DATABASE_URL: cluster.url })
+    ok = step('vitest (unit, api, e2e)', 'npx', ['vitest', 'run', ...only], { ...services.env, DATABASE_URL: cluster.url })
   }
   finally {
-    mail?.stop()
-    store?.stop()
+    services?.stop()
     cluster.stop()
   }
   return ok ? 0 : 1

@@ -1,3 +1,4 @@
+import { oneAtATime } from '#shared/one-at-a-time'
 import type { LiveEventMessage, LiveEventType } from '#shared/types/live'
 
 type Kind = LiveEventType | 'resync'
@@ -21,26 +22,14 @@ const SETTLE_MS = 150
  * changes a second) still shows its latest state instead of starting over and over.
  */
 function coalesced(handler: Handler): Handler {
-  let running = false
-  let again = false
   let last: LiveEventMessage | null = null
-  return async (m) => {
+  const refresh = oneAtATime(async () => {
+    await new Promise(r => setTimeout(r, SETTLE_MS))
+    if (last) await handler(last)
+  })
+  return (m) => {
     last = m
-    if (running) {
-      again = true
-      return
-    }
-    running = true
-    try {
-      do {
-        again = false
-        await new Promise(r => setTimeout(r, SETTLE_MS))
-        await handler(last ?? m)
-      } while (again)
-    }
-    finally {
-      running = false
-    }
+    return refresh()
   }
 }
 

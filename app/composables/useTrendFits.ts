@@ -1,8 +1,8 @@
 import { toRaw } from 'vue'
-import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
+import { trendFromFit, type SiteModelDefinition, type StratumTrend } from '#shared/site-model/definition'
 import { setTrend } from '~/utils/siteModelEdits'
 import {
-  assignBands, fitInput, reviewerExcluded, sameIds, trendFromFit,
+  assignBands, fitInput, reviewerExcluded, sameIds,
   type PointFlag,
 } from '~/utils/stressHistory'
 import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'

@@ -211,16 +211,21 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     for (const rev of revisions) ls.removeItem(localKey(modelId.value, rev))
   }
 
+  /** The saved base becomes `base` at revision `rev`; the working copy stays and is kept locally under `rev`. */
+  function setBase(base: SiteModelDefinition, rev: number) {
+    const old = revision.value
+    savedJson.value = stableJson(base)
+    revision.value = rev
+    removeLocalCopies([old])
+    persistLocal()
+  }
+
   /**
    * The server accepted `sent` as revision `rev`. Edits made while the request was
    * in flight stay dirty and are kept locally under the new revision.
    */
   function markSaved(sent: SiteModelDefinition, rev: number) {
-    const old = revision.value
-    savedJson.value = stableJson(sent)
-    revision.value = rev
-    removeLocalCopies([old])
-    persistLocal()
+    setBase(sent, rev)
   }
 
   /** The server's draft moved to `rev` without a change of content (a saved version bumps the revision). */
@@ -233,11 +238,7 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
 
   /** Someone else saved first: their draft becomes the base; yours stays as the working copy (and is dirty). */
   function rebaseOnto(theirs: SiteModelDefinition, rev: number) {
-    const old = revision.value
-    savedJson.value = stableJson(theirs)
-    revision.value = rev
-    removeLocalCopies([old])
-    persistLocal()
+    setBase(theirs, rev)
   }
 
   /** Takes their draft as the working copy (undo brings yours back). */

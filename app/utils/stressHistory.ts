@@ -1,8 +1,8 @@
 import type { FlagVerdict } from '#shared/review/flags'
 import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/schemas/lab'
-import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
+import type { ProfilePoint } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
-import type { ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
+import type { ModelStratum, SiteModelDefinition } from '#shared/site-model/definition'
 import { stratumBounds } from '#shared/site-model/definition'
 import { trendPreconsolidation } from '#shared/site-model/convert'
 import { assignBands, sampleTrend, stressAt, type StressAt, type TrendSample } from '#shared/plots/stress-history'
@@ -114,23 +114,6 @@ export function fitInput(bandIndex: number, def: SiteModelDefinition, points: re
     included.push({ ...p, effectiveStress: e })
   })
   return { included, excludedIds, withoutStress }
-}
-
-/** The draft's trend from a fit answer and the ids it was fitted on. */
-export function trendFromFit(fit: TrendFitReply, logSpace: boolean, includedIds: string[], excludedIds: string[]): StratumTrend {
-  return {
-    model: fit.model,
-    ...(fit.crustBelow ? { crustBelow: fit.crustBelow } : {}),
-    logSpace,
-    parameters: fit.parameters,
-    n: fit.n,
-    r2: fit.r2,
-    rmse: fit.rmse,
-    aic: fit.aic,
-    aicc: fit.aicc,
-    includedPointIds: includedIds,
-    excludedPointIds: excludedIds,
-  }
 }
 
 /** Two id lists hold the same ids (order aside). */

@@ -1,4 +1,5 @@
 import pg from 'pg'
+import { oneAtATime } from '#shared/one-at-a-time'
 import { databaseUrl } from '../db/client'
 import { createMailTransport, deliverDueMail } from '../services/mail-delivery'
 import { MAIL_OUTBOX_CHANNEL, mailSettingsFromEnv } from '../services/mail-settings'
@@ -13,38 +14,29 @@ export default defineNitroPlugin((nitro) => {
   if (!settings.worker) return
   const transport = createMailTransport(settings)
   let closed = false
-  let running = false
-  let again = false
   let timer: ReturnType<typeof setInterval> | undefined
   let listener: pg.Client | undefined
   let reconnect: ReturnType<typeof setTimeout> | undefined
 
+  // One delivery round at a time; a full batch (20) goes again at once, as does a trigger during a round.
+  const deliverRounds = oneAtATime(async () => {
+    const r = await deliverDueMail(transport, settings)
+    if (r.sent.length || r.retrying.length || r.failed.length) {
+      const parts = [`${r.sent.length} sent`]
+      if (r.retrying.length) parts.push(`${r.retrying.length} to retry (ids ${r.retrying.join(', ')})`)
+      if (r.failed.length) parts.push(`${r.failed.length} failed for good (ids ${r.failed.join(', ')})`)
+      console.info(`[pastload:mail] outbox: ${parts.join('; ')}`)
+    }
+    // A full batch: more may be due at once.
+    return r.sent.length + r.retrying.length + r.failed.length >= 20
+  }, () => closed)
   const round = async () => {
     if (closed) return
-    if (running) {
-      again = true
-      return
-    }
-    running = true
     try {
-      do {
-        again = false
-        const r = await deliverDueMail(transport, settings)
-        if (r.sent.length || r.retrying.length || r.failed.length) {
-          const parts = [`${r.sent.length} sent`]
-          if (r.retrying.length) parts.push(`${r.retrying.length} to retry (ids ${r.retrying.join(', ')})`)
-          if (r.failed.length) parts.push(`${r.failed.length} failed for good (ids ${r.failed.join(', ')})`)
-          console.info(`[pastload:mail] outbox: ${parts.join('; ')}`)
-        }
-        // A full batch: more may be due at once.
-        if (r.sent.length + r.retrying.length + r.failed.length >= 20) again = true
-      } while (again && !closed)
+      await deliverRounds()
     }
     catch (err) {
       logServerError('mail outbox: delivery round skipped', err, { stack: false, level: 'warn' })
-    }
-    finally {
-      running = false
     }
   }
 

@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { fitTrend, type TrendModel } from '#shared/geotech/trends'
 import { DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
-import type { Compressibility, SiteModelDefinition } from '#shared/site-model/definition'
+import { trendFromFit, type Compressibility, type SiteModelDefinition } from '#shared/site-model/definition'
 import type { Database } from '../db/client'
 import { projects, reviewFlags, siteModels, siteModelVersionEvents, siteModelVersionReviewers, siteModelVersions, users } from '../db/schema'
 import { present, returnedRow } from '../db/rows'
@@ -64,18 +64,7 @@ async function fitted(projectId: string, definition: SiteModelDefinition): Promi
     pointIds.set(s.code, mine.map(p => p.id))
     return {
       ...s,
-      trend: {
-        model: fit.model,
-        logSpace: false,
-        parameters: fit.parameters,
-        n: fit.n,
-        r2: fit.r2,
-        rmse: fit.rmse,
-        aic: fit.aic,
-        aicc: fit.aicc,
-        includedPointIds: mine.map(p => p.id),
-        excludedPointIds: [],
-      },
+      trend: trendFromFit(fit, false, mine.map(p => p.id), []),
     }
   })
   return { definition: { ...definition, strata }, pointIds }

@@ -10,7 +10,7 @@ import { returnedRow } from '../db/rows'
 import { isUniqueViolation } from '../utils/db-errors'
 import { hashPassword } from '../utils/password'
 import { recordAudit } from './audit'
-import { goneLink, hashLinkToken, linkState, newLinkToken, unknownLink } from './link-tokens'
+import { hashLinkToken, linkState, newLinkToken, workingLink } from './link-tokens'
 import { publishLiveEvent } from './live-events'
 import { notify, sendAccountMail } from './notify'
 
@@ -175,10 +175,7 @@ export async function revokeInvitation(args: { actorId: string, projectId: strin
 async function invitationByToken(db: Database | Tx, token: string, lock: boolean) {
   const q = db.select().from(invitations).where(eq(invitations.tokenHash, hashLinkToken(token))).limit(1)
   const [row] = lock ? await q.for('update') : await q
-  if (!row) throw unknownLink(UNKNOWN)
-  const state = linkState(row)
-  if (state) throw goneLink(state, GONE)
-  return row
+  return workingLink(row, UNKNOWN, GONE)
 }
 
 /** What an invitation link is for (public): the address, the project and role, who sent it. */

@@ -31,3 +31,11 @@ export function goneLink(state: Exclude<LinkState, null>, messages: Record<Exclu
 export function unknownLink(message: string) {
   return createError({ statusCode: 404, statusMessage: 'Not Found', message, data: { state: 'not-found' } })
 }
+
+/** The row a link's token found, once it still works; else the 404 (no such link) or the 410 that says why it no longer does. */
+export function workingLink<T extends Parameters<typeof linkState>[0]>(row: T | undefined, unknown: string, gone: Record<Exclude<LinkState, null>, string>): T {
+  if (!row) throw unknownLink(unknown)
+  const state = linkState(row)
+  if (state) throw goneLink(state, gone)
+  return row
+}

@@ -6,7 +6,7 @@ import { passwordResets, sessions, users } from '../db/schema'
 import { hashPassword } from '../utils/password'
 import { revokeAllTokens } from './api-tokens'
 import { recordAudit } from './audit'
-import { goneLink, hashLinkToken, linkState, newLinkToken, unknownLink } from './link-tokens'
+import { hashLinkToken, newLinkToken, unknownLink, workingLink } from './link-tokens'
 import { sendAccountMail } from './notify'
 
 /** How long a reset link works. */
@@ -70,10 +70,7 @@ export async function requestPasswordReset(email: string): Promise<{ message: st
 async function resetByToken(db: Database | Tx, token: string, lock: boolean) {
   const q = db.select().from(passwordResets).where(eq(passwordResets.tokenHash, hashLinkToken(token))).limit(1)
   const [row] = lock ? await q.for('update') : await q
-  if (!row) throw unknownLink(UNKNOWN)
-  const state = linkState(row)
-  if (state) throw goneLink(state, GONE)
-  return row
+  return workingLink(row, UNKNOWN, GONE)
 }
 
 /** Whether a reset link still works (the page asks before showing the form). */

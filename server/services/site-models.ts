@@ -6,7 +6,6 @@ import { anyOf } from '../db/any'
 import { groundwaterObservations, investigationPoints, logIntervals, projects, siteModels, siteModelVersions, strata, users } from '../db/schema'
 import type { StressModelInfo } from '#shared/types/lab'
 import type { ServerModelInForce } from '#shared/types/model-in-force'
-import type { VersionStatus } from '#shared/types/models'
 
 /**
  * A starting model from the project's logs: one band per stratum in display
@@ -55,15 +54,7 @@ export async function definitionFromLogs(projectId: string, db: Database | Tx = 
 }
 
 /** A saved version of the design model as the pages use it: the version in force and its definition. */
-export interface VersionInForce {
-  modelId: string
-  modelName: string
-  version: number
-  status: VersionStatus
-  approvedAt: Date | null
-  approvedBy: string | null
-  definition: SiteModelDefinition
-}
+export type VersionInForce = Extract<ServerModelInForce, { modelName: string }> & { definition: SiteModelDefinition }
 
 /**
  * The version in force of the project's design model (the one place that decides it): the latest

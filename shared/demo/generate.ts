@@ -443,6 +443,11 @@ interface BoreholeBuild {
   ground: GroundAt
 }
 
+/** Where a planned point stands: its identifier and kind, its plan position and the ground level there. */
+function placed(plan: PlannedPoint, kind: PointRecord['kind'], ground: GroundAt): Pick<PointRecord, 'identifier' | 'kind' | 'easting' | 'northing' | 'groundElevation'> {
+  return { identifier: plan.identifier, kind, easting: plan.easting, northing: plan.northing, groundElevation: ground.groundElevation }
+}
+
 function borehole(plan: PlannedPoint & { finalDepth: number }): BoreholeBuild {
   const rng = stream(`borehole:${plan.identifier}`)
   const ground = groundAt(plan.easting, plan.northing)
@@ -523,11 +528,7 @@ function borehole(plan: PlannedPoint & { finalDepth: number }): BoreholeBuild {
   return {
     ground,
     point: {
-      identifier: plan.identifier,
-      kind: 'borehole',
-      easting: plan.easting,
-      northing: plan.northing,
-      groundElevation: ground.groundElevation,
+      ...placed(plan, 'borehole', ground),
       finalDepth,
       startedOn,
       endedOn,
@@ -701,11 +702,7 @@ function cptPoint(plan: PlannedPoint, index: number): PointRecord {
   const ground = groundAt(plan.easting, plan.northing)
   const date = CPT_DATES[index] ?? '2025-04-08'
   return {
-    identifier: plan.identifier,
-    kind: 'cpt',
-    easting: plan.easting,
-    northing: plan.northing,
-    groundElevation: ground.groundElevation,
+    ...placed(plan, 'cpt', ground),
     finalDepth: CPT_FINAL_DEPTH,
     startedOn: date,
     endedOn: date,
@@ -772,11 +769,7 @@ function vanePoint(plan: PlannedPoint, index: number): PointRecord {
   }))
   const date = vaneDate(index)
   return {
-    identifier: plan.identifier,
-    kind: 'borehole',
-    easting: plan.easting,
-    northing: plan.northing,
-    groundElevation: ground.groundElevation,
+    ...placed(plan, 'borehole', ground),
     finalDepth,
     startedOn: date,
     endedOn: date,
@@ -829,11 +822,7 @@ function piezometerPoint(plan: PlannedPoint & { tipDepth: number }): PointRecord
     })
   }
   return {
-    identifier: plan.identifier,
-    kind: 'piezometer',
-    easting: plan.easting,
-    northing: plan.northing,
-    groundElevation: ground.groundElevation,
+    ...placed(plan, 'piezometer', ground),
     finalDepth: plan.tipDepth,
     startedOn: '2025-04-22',
     endedOn: '2025-04-22',

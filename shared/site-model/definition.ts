@@ -142,6 +142,28 @@ export const SiteModelDefinitionSchema = z.object({
 }).meta({ id: 'SiteModelDefinition' })
 export type SiteModelDefinition = z.infer<typeof SiteModelDefinitionSchema>
 
+/** A stratum's trend from a fit (the engine's or the fit route's answer) and the σ'p point ids it was fitted on and left out. */
+export function trendFromFit(
+  fit: Pick<StratumTrend, 'model' | 'crustBelow' | 'parameters' | 'n' | 'r2' | 'rmse' | 'aic' | 'aicc'>,
+  logSpace: boolean,
+  includedIds: string[],
+  excludedIds: string[],
+): StratumTrend {
+  return {
+    model: fit.model,
+    ...(fit.crustBelow ? { crustBelow: fit.crustBelow } : {}),
+    logSpace,
+    parameters: fit.parameters,
+    n: fit.n,
+    r2: fit.r2,
+    rmse: fit.rmse,
+    aic: fit.aic,
+    aicc: fit.aicc,
+    includedPointIds: includedIds,
+    excludedPointIds: excludedIds,
+  }
+}
+
 /** Depth of each stratum's top and bottom, from the thicknesses. */
 export function stratumBounds(def: Pick<SiteModelDefinition, 'strata'>): { top: number, bottom: number }[] {
   let top = 0

@@ -100,3 +100,12 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   await page.screenshot({ path: file, fullPage: true })
   return file
 }
+
+/** A laptop (1280 × 800) and a phone (390 × 844) screenshot of the page as it stands; the page is left at laptop size. */
+export async function screenshotLaptopAndPhone(page: Page, name: string): Promise<void> {
+  await page.setViewportSize({ width: 1280, height: 800 })
+  await screenshot(page, `${name}-laptop`)
+  await page.setViewportSize({ width: 390, height: 844 })
+  await screenshot(page, `${name}-phone`)
+  await page.setViewportSize({ width: 1280, height: 800 })
+}

@@ -7,7 +7,7 @@ import type { Page } from 'playwright-core'
 import { afterAll, describe, expect, it } from 'vitest'
 import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD, uniqueEmail } from '../helpers/http'
 import { createProject } from '../helpers/project'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
 afterAll(() => pool.end())
@@ -19,12 +19,14 @@ async function linkFromOutbox(email: string, kind: 'invitation' | 'password-rese
   return `/${m[1]}/${m[2]}`
 }
 
-/** A laptop and a phone screenshot of the page as it stands. */
-async function shoot(page: Page, name: string) {
-  await screenshot(page, `${name}-laptop`)
-  await page.setViewportSize({ width: 390, height: 844 })
-  await screenshot(page, `${name}-phone`)
-  await page.setViewportSize({ width: 1280, height: 800 })
+/** A one-time link opened a second time says plainly that it was used (screenshots, then closes the page). */
+async function expectUsedLink(page: Page, link: string, problemTestId: string, shot: string) {
+  await page.goto(`${baseUrl()}${link}`)
+  const problem = page.getByTestId(problemTestId)
+  await problem.waitFor()
+  expect(await problem.textContent()).toContain('already been used')
+  await screenshotLaptopAndPhone(page, shot)
+  await page.close()
 }
 
 describe('invitations, password reset and people in the browser', () => {
@@ -58,7 +60,7 @@ describe('invitations, password reset and people in the browser', () => {
     const pending = page.getByTestId('pending-invitations')
     await pending.getByText(invitee).waitFor()
     expect(await pending.locator('tbody tr').filter({ hasText: invitee }).textContent()).toContain('Reviewer')
-    await shoot(page, 'team-panel')
+    await screenshotLaptopAndPhone(page, 'team-panel')
     await page.close()
 
     // The invitee, signed out, opens the link from the e-mail.
@@ -71,7 +73,7 @@ describe('invitations, password reset and people in the browser', () => {
     expect((await summary.textContent())?.replace(/\s+/g, ' ')).toContain('invites you to')
     expect(await summary.textContent()).toContain('Invitation walk-through')
     expect(await summary.textContent()).toContain('reviewer')
-    await shoot(guest, 'invitation')
+    await screenshotLaptopAndPhone(guest, 'invitation')
     await guest.getByLabel('Your name, as colleagues see it').fill('Marguerite Oyelaran')
     await guest.getByLabel('Password (12 characters or more)').fill('tidal-flats-and-sandbars-7')
     await guest.getByLabel('The same password again').fill('tidal-flats-and-sandbars-7')
@@ -82,12 +84,7 @@ describe('invitations, password reset and people in the browser', () => {
     await screenshot(guest, 'invitation-accepted')
 
     // The same link a second time says so plainly.
-    await guest.goto(`${baseUrl()}${link}`)
-    const problem = guest.getByTestId('invitation-problem')
-    await problem.waitFor()
-    expect(await problem.textContent()).toContain('already been used')
-    await shoot(guest, 'invitation-used')
-    await guest.close()
+    await expectUsedLink(guest, link, 'invitation-problem', 'invitation-used')
   })
 
   it('"Forgot password?" leads to a link; the reset page sets a new password and signs in', async () => {
@@ -98,28 +95,23 @@ describe('invitations, password reset and people in the browser', () => {
     await page.goto(`${baseUrl()}/login`)
     await page.getByTestId('forgot-password').click()
     await page.getByRole('heading', { name: 'Forgot password?' }).waitFor()
-    await shoot(page, 'forgot-password')
+    await screenshotLaptopAndPhone(page, 'forgot-password')
     await page.getByLabel('E-mail').fill(user.email)
     await page.getByRole('button', { name: 'Send the link' }).click()
     await page.getByTestId('reset-requested').waitFor()
-    await shoot(page, 'forgot-password-sent')
+    await screenshotLaptopAndPhone(page, 'forgot-password-sent')
 
     const link = await linkFromOutbox(user.email, 'password-reset')
     await page.goto(`${baseUrl()}${link}`)
     await page.getByRole('heading', { name: 'Choose a new password' }).waitFor()
-    await shoot(page, 'reset-password')
+    await screenshotLaptopAndPhone(page, 'reset-password')
     await page.getByLabel('New password').fill('harbour-mud-line-2026')
     await page.getByLabel('The same password again').fill('harbour-mud-line-2026')
     await page.getByRole('button', { name: 'Save the new password' }).click()
     await page.getByTestId('project-list').waitFor({ state: 'attached' })
     expect((await signIn(user.email, 'harbour-mud-line-2026')).cookie).toMatch(/^pastload_session=/)
 
-    await page.goto(`${baseUrl()}${link}`)
-    const problem = page.getByTestId('reset-link-problem')
-    await problem.waitFor()
-    expect(await problem.textContent()).toContain('already been used')
-    await shoot(page, 'reset-password-used')
-    await page.close()
+    await expectUsedLink(page, link, 'reset-link-problem', 'reset-password-used')
   })
 
   it('the people page lists accounts and a site admin disables and enables one', async () => {
@@ -135,7 +127,7 @@ describe('invitations, password reset and people in the browser', () => {
     await row.getByText(/^Disabled/).waitFor()
     expect((await target.client.get('/api/auth/me')).status).toBe(401)
     await page.getByTestId('site-invitations').waitFor()
-    await shoot(page, 'people')
+    await screenshotLaptopAndPhone(page, 'people')
     page.once('dialog', d => void d.accept())
     await row.getByRole('button', { name: 'Enable' }).click()
     await row.getByText('Active').waitFor()

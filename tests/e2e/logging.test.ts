@@ -44,6 +44,14 @@ describe('the field geologist\'s workspace in Chromium', () => {
   const log = async (id: string) => (await geologist.get<{ intervals: Interval[] }>(`/api/projects/${projectId}/points/${id}`)).body.intervals
 
 
+  /** The borehole's page for one account, once its graphic log is drawn. */
+  async function openBorehole(email: string, password?: string) {
+    const page = await signInAs(browser.context, email, password)
+    await page.goto(baseUrl() + pointPath(boreholeId))
+    await page.getByTestId('graphic-log').waitFor()
+    return page
+  }
+
   /** The log PASTED describes, saved on BH-T1 through the API (for the tests that start from a saved log). */
   async function seedLog() {
     const rows = PASTED.trim().split('\r\n').map(r => r.split('\t'))
@@ -96,9 +104,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('the geologist pastes rows from a spreadsheet, the graphic log follows, and the saved log survives a reload', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(baseUrl() + pointPath(boreholeId))
-    await page.getByTestId('graphic-log').waitFor()
+    const page = await openBorehole(demoEmail('geologist'))
     expect(await intervalRects(page).count()).toBe(0)
 
     await pasteInto(page, 'Top (m), row 1', PASTED)
@@ -132,9 +138,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
 
   it('marks an overlap in its cell as it is typed, refuses to save it, and undoes the edit', async () => {
     await seedLog()
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(baseUrl() + pointPath(boreholeId))
-    await page.getByTestId('graphic-log').waitFor()
+    const page = await openBorehole(demoEmail('geologist'))
     const top4 = page.getByLabel('Top (m), row 4', { exact: true })
     await top4.fill('11')
     expect(await page.locator('.cell-error').first().textContent()).toContain('Overlaps the interval 3.4–12 m (row 3)')
@@ -169,9 +173,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
 
   it('a save that meets a newer log shows both logs, and "keep mine" saves over it', async () => {
     await seedLog()
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(baseUrl() + pointPath(boreholeId))
-    await page.getByTestId('graphic-log').waitFor()
+    const page = await openBorehole(demoEmail('geologist'))
     await page.getByLabel('Description, row 2', { exact: true }).fill('Stiff fissured brown silty CLAY with rootlets')
 
     // Someone else saves first.
@@ -197,9 +199,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
 
   it('an engineer can edit and save the log', async () => {
     await seedLog()
-    const page = await signInAs(browser.context, demoEmail('engineer'))
-    await page.goto(baseUrl() + pointPath(boreholeId))
-    await page.getByTestId('graphic-log').waitFor()
+    const page = await openBorehole(demoEmail('engineer'))
     await page.getByLabel('Consistency / density, row 3', { exact: true }).fill('very soft')
     expect(await page.getByTestId('log-unsaved').count()).toBe(1)
     await page.getByTestId('log-save').click()
@@ -213,9 +213,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
     const viewer = await createUser(admin, 'viewer')
     expect((await admin.post(`/api/projects/${projectId}/members`, { email: viewer.email, role: 'viewer' })).status).toBe(201)
     for (const [email, password, name] of [[demoEmail('designer'), undefined, 'designer'], [viewer.email, TEST_PASSWORD, 'viewer']] as const) {
-      const page = await signInAs(browser.context, email, password)
-      await page.goto(baseUrl() + pointPath(boreholeId))
-      await page.getByTestId('graphic-log').waitFor()
+      const page = await openBorehole(email, password)
       expect(await page.getByTestId('log-row').count()).toBe(4)
       expect(await page.getByTestId('log-rows').textContent()).toContain('Soft grey CLAY with shell fragments')
       expect(await page.locator('[data-testid="log-rows"] input, [data-testid="log-rows"] select, [data-testid="log-rows"] textarea').count()).toBe(0)
@@ -332,9 +330,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
 
   it('a problem only the server can see (the hole was shortened meanwhile) comes back on the cell', async () => {
     await seedLog()
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(baseUrl() + pointPath(boreholeId))
-    await page.getByTestId('graphic-log').waitFor()
+    const page = await openBorehole(demoEmail('geologist'))
     const { point } = (await geologist.get<{ point: { version: number } }>(`/api/projects/${projectId}/points/${boreholeId}`)).body
     expect((await geologist.patch(`/api/projects/${projectId}/points/${boreholeId}`, { finalDepth: 19, version: point.version })).status).toBe(200)
 

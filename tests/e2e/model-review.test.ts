@@ -2,19 +2,11 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, version: number }
 
 /** Both screen sizes of the version page as it stands. */
-async function shoot(page: Page, name: string) {
-  await page.setViewportSize({ width: 1280, height: 800 })
-  await screenshot(page, `${name}-laptop`)
-  await page.setViewportSize({ width: 390, height: 844 })
-  await screenshot(page, `${name}-phone`)
-  await page.setViewportSize({ width: 1280, height: 800 })
-}
-
 describe('reviewing a model version in Chromium', () => {
   const browser = useBrowser()
   let engineer: Client
@@ -55,7 +47,7 @@ describe('reviewing a model version in Chromium', () => {
     // Returning needs a comment: the form says so before anything is sent.
     await panel.getByTestId('decision-return').click()
     await panel.getByText('say why it is returned').waitFor()
-    await shoot(page, 'model-review-panel')
+    await screenshotLaptopAndPhone(page, 'model-review-panel')
     await panel.getByTestId('decision-comment').fill('The crust trend leaves out CPT-03; refit before approval.')
     await panel.getByTestId('decision-return').click()
     await page.getByTestId('version-title').getByTestId('status-badge-returned').waitFor()
@@ -64,7 +56,7 @@ describe('reviewing a model version in Chromium', () => {
     await page.goto(versionPage(1))
     await expect(page.getByTestId('timeline-returned').getByTestId('timeline-comment').textContent()).resolves.toBe('The crust trend leaves out CPT-03; refit before approval.')
     await page.getByTestId('returned-note').waitFor()
-    await shoot(page, 'model-review-returned-timeline')
+    await screenshotLaptopAndPhone(page, 'model-review-returned-timeline')
 
     // A new version saved from the returned one, sent again.
     const m = (await engineer.get<{ model: ModelRow }>(`/api/projects/${projectId}/models/${modelId}`)).body.model
@@ -78,7 +70,7 @@ describe('reviewing a model version in Chromium', () => {
     await page.getByTestId('version-title').getByTestId('status-badge-approved').waitFor()
     const hash = await page.getByTestId('approval-hash').textContent()
     expect(hash).toMatch(/^[0-9a-f]{64}$/)
-    await shoot(page, 'model-review-approved')
+    await screenshotLaptopAndPhone(page, 'model-review-approved')
 
     // The badges: the model's list of versions and the models page.
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)

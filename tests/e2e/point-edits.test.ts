@@ -19,9 +19,17 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
 
   const api = () => `/api/projects/${projectId}/points/${pointId}`
   const detail = async () => (await geologist.get<Detail>(api())).body
-  async function openPoint(page: Page) {
+  /** The point's page for one account, once its facts are drawn. */
+  async function openPoint(email: string, password?: string) {
+    const page = await signInAs(browser.context, email, password)
     await page.goto(`${baseUrl()}/projects/${projectId}/points/${pointId}`)
     await page.getByTestId('point-facts').waitFor()
+    return page
+  }
+  /** Sample U-1's edit form, opened from its row. */
+  async function editSampleU1(page: Page) {
+    await page.getByRole('button', { name: 'Edit sample U-1' }).click()
+    return page.getByTestId('sample-edit-form')
   }
   const fact = (page: Page, label: string) => page.getByTestId('point-facts').locator('div').filter({ has: page.locator('dt', { hasText: label }) }).locator('dd')
 
@@ -39,8 +47,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('the geologist edits the ground elevation and method, saves, and sees them after a reload', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
+    const page = await openPoint(demoEmail('geologist'))
     await page.getByTestId('point-edit').click()
     const form = page.getByTestId('point-header-form')
     await form.getByLabel('Ground elevation (m)').fill('3.45')
@@ -60,8 +67,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
 
   it('a final depth above the deepest SPT is refused at the field, and a used identifier too', async () => {
     expect((await geologist.post(`/api/projects/${projectId}/points`, { identifier: 'WS-E2', kind: 'borehole', easting: 40, northing: 31, groundElevation: 3, finalDepth: 6 })).status).toBe(201)
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
+    const page = await openPoint(demoEmail('geologist'))
     await page.getByTestId('point-edit').click()
     const form = page.getByTestId('point-header-form')
     await form.getByLabel('Final depth (m)').fill('8')
@@ -82,8 +88,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('a save that meets a newer header shows both values, and "keep mine" saves over it', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
+    const page = await openPoint(demoEmail('geologist'))
     await page.getByTestId('point-edit').click()
     const form = page.getByTestId('point-header-form')
     await form.getByLabel('Logged by').fill('R. Okafor')
@@ -105,10 +110,8 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('the geologist changes a sample\'s depths and a vane reading, and both read back', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
-    await page.getByRole('button', { name: 'Edit sample U-1' }).click()
-    const form = page.getByTestId('sample-edit-form')
+    const page = await openPoint(demoEmail('geologist'))
+    const form = await editSampleU1(page)
     await form.getByLabel('Bottom (m)').fill('15.5')
     await page.getByTestId('sample-save').click()
     await form.getByText('The sample\'s bottom (15.5 m) is below the hole\'s final depth (15 m).').waitFor()
@@ -136,8 +139,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('a vane reading saved meanwhile shows both sides; "keep mine" saves over it, keeping their other change', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
+    const page = await openPoint(demoEmail('geologist'))
     await page.getByRole('tab', { name: /Vane/ }).click()
     await page.getByRole('button', { name: 'Edit vane reading at 5 m' }).click()
     await page.getByLabel('Peak (kPa)').fill('22')
@@ -157,10 +159,8 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('a sample saved meanwhile shows both sides; "use theirs" loads their values to edit again', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await openPoint(page)
-    await page.getByRole('button', { name: 'Edit sample U-1' }).click()
-    const form = page.getByTestId('sample-edit-form')
+    const page = await openPoint(demoEmail('geologist'))
+    const form = await editSampleU1(page)
     await form.getByLabel('Remarks').fill('Slight smell')
     const sample = (await geologist.get<{ samples: { id: string, version: number }[] }>(api())).body.samples[0]!
     expect((await admin.patch(`${api()}/samples/${sample.id}`, { recovery: 70, remarks: 'Cutting shoe damaged', version: sample.version })).status).toBe(200)
@@ -181,8 +181,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   })
 
   it('a viewer sees the point, its samples and vane readings without any edit controls', async () => {
-    const page = await signInAs(browser.context, viewer.email, TEST_PASSWORD)
-    await openPoint(page)
+    const page = await openPoint(viewer.email, TEST_PASSWORD)
     expect(await fact(page, 'Method').textContent()).toBe('Window sampler')
     expect(await page.getByTestId('point-edit').count()).toBe(0)
     expect(await page.getByTestId('sample-row').count()).toBe(1)

@@ -30,6 +30,12 @@ describe('the reviewer\'s tools in Chromium', () => {
   const allFlags = async () => (await reviewer.get<{ flags: Flag[] }>(`${P()}/flags?limit=500`)).body.flags
   const rowOf = (page: Page, iv: Interval) => page.getByTestId('log-row').nth(intervals.indexOf(iv))
   const item = (page: Page, id: string) => page.locator(`[data-testid="flag-item"][data-flag-id="${id}"]`)
+  /** The review page for one account, and the flag's entry in its list. */
+  async function openReviewEntry(email: string, flagId: string) {
+    const page = await signInAs(browser.context, email)
+    await page.goto(reviewPage())
+    return { page, entry: item(page, flagId) }
+  }
 
   /** A questionable flag with REASON on an interval, raised by the reviewer through the API; its id. */
   async function flagInterval(iv: Interval): Promise<string> {
@@ -105,9 +111,7 @@ describe('the reviewer\'s tools in Chromium', () => {
   it('the review list says what the flag is about and links to the point page', async () => {
     const target = intervals[1]!
     const flagId = await flagInterval(target)
-    const page = await signInAs(browser.context, demoEmail('reviewer'))
-    await page.goto(reviewPage())
-    const entry = item(page, flagId)
+    const { page, entry } = await openReviewEntry(demoEmail('reviewer'), flagId)
     await entry.getByTestId('flag-target').filter({ hasText: intervalText(target) }).waitFor()
     expect(await entry.getByTestId('flag-target').getAttribute('href')).toBe(`/projects/${projectId}/points/${pointId}`)
     expect(await entry.getByTestId('flag-target-detail').textContent()).toContain(target.description.slice(0, 30))
@@ -214,9 +218,7 @@ describe('the reviewer\'s tools in Chromium', () => {
   it('a thread open on the review page shows someone else\'s reply and edit live, without a reload', async () => {
     const target = intervals[5]!
     const flagId = await flagInterval(target)
-    const page = await signInAs(browser.context, demoEmail('reviewer'))
-    await page.goto(reviewPage())
-    const entry = item(page, flagId)
+    const { entry } = await openReviewEntry(demoEmail('reviewer'), flagId)
     await entry.getByTestId('flag-toggle').click()
     const thread = entry.getByTestId('flag-thread')
     await thread.getByTestId('thread-comment').waitFor()
@@ -242,9 +244,7 @@ describe('the reviewer\'s tools in Chromium', () => {
     const made = await reviewer.post<{ flag: Flag }>(`${P()}/flags`, { targetType: 'log-interval', targetId: other.id, verdict: 'exclude', comment: reason })
     expect(made.status).toBe(201)
 
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.goto(reviewPage())
-    const entry = item(page, made.body.flag.id)
+    const { page, entry } = await openReviewEntry(demoEmail('designer'), made.body.flag.id)
     await entry.getByTestId('flag-target').filter({ hasText: intervalText(other) }).waitFor()
     expect(await page.getByTestId('new-flag').count()).toBe(0)
     await entry.getByTestId('flag-toggle').click()

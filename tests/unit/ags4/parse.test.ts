@@ -114,38 +114,15 @@ describe('parseAgs on a hand-written conformant file (AGS4 rules 1–20)', () =>
 })
 
 describe('tokenizeAgsLine (rules 5 and 6)', () => {
-  it('splits quoted fields and undoubles quotes', () => {
-    expect(tokenizeAgsLine('"DATA","a ""b"" c","",","')).toEqual({ fields: ['DATA', 'a "b" c', '', ','], problems: [] })
-  })
-
-  it('reads an unquoted field but reports rule 5', () => {
-    const { fields, problems } = tokenizeAgsLine('"DATA",12.5,"x"')
-    expect(fields).toEqual(['DATA', '12.5', 'x'])
-    expect(problems).toEqual([expect.objectContaining({ rule: '5', message: expect.stringContaining('field 2') })])
-  })
-
-  it('keeps a lone quote inside a field as a character and reports rule 5', () => {
-    const { fields, problems } = tokenizeAgsLine('"DATA","ACME "Gas" Works","x"')
-    expect(fields).toEqual(['DATA', 'ACME "Gas" Works', 'x'])
-    expect(problems.map(p => p.rule)).toEqual(['5'])
-  })
-
-  it('reports a field left open at the end of the line', () => {
-    const { fields, problems } = tokenizeAgsLine('"DATA","open')
-    expect(fields).toEqual(['DATA', 'open'])
-    expect(problems).toEqual([expect.objectContaining({ rule: '5', message: expect.stringContaining('no closing double quote') })])
-  })
-
-  it('reads a trailing comma as one more empty field, unquoted', () => {
-    const { fields, problems } = tokenizeAgsLine('"DATA","a",')
-    expect(fields).toEqual(['DATA', 'a', ''])
-    expect(problems.map(p => p.rule)).toEqual(['5'])
-  })
-
-  it('ignores spaces around separators with a rule 6 warning', () => {
-    const { fields, problems } = tokenizeAgsLine('"DATA", "a" ,"b"')
-    expect(fields).toEqual(['DATA', 'a', 'b'])
-    expect(problems).toEqual([expect.objectContaining({ rule: '6', severity: 'warning' })])
+  it.each<[string, string, string[], Record<string, unknown>[]]>([
+    ['splits quoted fields and undoubles quotes', '"DATA","a ""b"" c","",","', ['DATA', 'a "b" c', '', ','], []],
+    ['reads an unquoted field but reports rule 5', '"DATA",12.5,"x"', ['DATA', '12.5', 'x'], [{ rule: '5', message: expect.stringContaining('field 2') }]],
+    ['keeps a lone quote inside a field as a character and reports rule 5', '"DATA","ACME "Gas" Works","x"', ['DATA', 'ACME "Gas" Works', 'x'], [{ rule: '5' }]],
+    ['reports a field left open at the end of the line', '"DATA","open', ['DATA', 'open'], [{ rule: '5', message: expect.stringContaining('no closing double quote') }]],
+    ['reads a trailing comma as one more empty field, unquoted', '"DATA","a",', ['DATA', 'a', ''], [{ rule: '5' }]],
+    ['ignores spaces around separators with a rule 6 warning', '"DATA", "a" ,"b"', ['DATA', 'a', 'b'], [{ rule: '6', severity: 'warning' }]],
+  ])('%s', (_what, line, fields, problems) => {
+    expect(tokenizeAgsLine(line)).toEqual({ fields, problems: problems.map(p => expect.objectContaining(p)) })
   })
 })
 

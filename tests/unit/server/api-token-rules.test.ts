@@ -7,24 +7,23 @@ import { readOnlyTokenMayCall } from '../../../server/services/token-scope'
 const DAY_MS = 24 * 60 * 60 * 1000
 
 describe('readOnlyTokenMayCall', () => {
-  it('lets reads through anywhere', () => {
-    expect(readOnlyTokenMayCall('GET', '/api/projects')).toBe(true)
-    expect(readOnlyTokenMayCall('head', '/api/projects/1')).toBe(true)
-  })
-
-  it('lets a POST through only on a plain compute path', () => {
-    expect(readOnlyTokenMayCall('POST', '/api/calc/settlement')).toBe(true)
-    expect(readOnlyTokenMayCall('POST', '/api/calc/stress-profile?x=1')).toBe(true)
-    expect(readOnlyTokenMayCall('POST', '/api/projects/1/points')).toBe(false)
-    expect(readOnlyTokenMayCall('PATCH', '/api/calc/settlement')).toBe(true)
-    expect(readOnlyTokenMayCall('DELETE', '/api/account/tokens/1')).toBe(false)
-  })
-
-  it('refuses paths that only look like compute routes', () => {
-    expect(readOnlyTokenMayCall('POST', '/api/calc/../projects/1/points')).toBe(false)
-    expect(readOnlyTokenMayCall('POST', '/api/calc/%2e%2e/projects/1/points')).toBe(false)
-    expect(readOnlyTokenMayCall('POST', '/api/calc//settlement')).toBe(false)
-    expect(readOnlyTokenMayCall('POST', '/api/calculator')).toBe(false)
+  it.each([
+    // Reads go through anywhere.
+    ['GET', '/api/projects', true],
+    ['head', '/api/projects/1', true],
+    // A write goes through only on a plain compute path.
+    ['POST', '/api/calc/settlement', true],
+    ['POST', '/api/calc/stress-profile?x=1', true],
+    ['POST', '/api/projects/1/points', false],
+    ['PATCH', '/api/calc/settlement', true],
+    ['DELETE', '/api/account/tokens/1', false],
+    // Paths that only look like compute routes are refused.
+    ['POST', '/api/calc/../projects/1/points', false],
+    ['POST', '/api/calc/%2e%2e/projects/1/points', false],
+    ['POST', '/api/calc//settlement', false],
+    ['POST', '/api/calculator', false],
+  ] as const)('%s %s → %s', (method, path, allowed) => {
+    expect(readOnlyTokenMayCall(method, path)).toBe(allowed)
   })
 })
 
