@@ -8,17 +8,11 @@ import {
 import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { EditorSnapshot } from '~/stores/modelEditor'
+import { TREND_MODEL_LABELS } from '#shared/site-model/trend-words'
 
 export type FitChoice = StratumTrend['model'] | 'auto'
 
-export const FIT_LABELS: Record<FitChoice, string> = {
-  auto: 'Best by AICc (auto)',
-  constant: 'Constant σ\'p',
-  linear: 'σ\'p linear in depth',
-  pop: 'Constant POP',
-  ocr: 'Constant OCR',
-  crust: 'Crust over constant POP',
-}
+export const FIT_LABELS: Record<FitChoice, string> = { auto: 'Best by AICc (auto)', ...TREND_MODEL_LABELS }
 
 /** How the workspace writes into the session (null when read-only). */
 export interface WorkspaceEditor {

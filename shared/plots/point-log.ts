@@ -1,4 +1,4 @@
-import type { GroundwaterKind, PointKind, SampleType } from '../investigation/types'
+import type { GroundwaterKind, PointRecord, ProjectRecord, SampleType } from '../investigation/types'
 import { placeLabels, wrapText, type LogScale, ptPerMetre } from '../reports/point-log-layout'
 import type { PreconsolidationSource } from '../schemas/lab'
 import { stratumColour, stratumPattern, FALLBACK_APPEARANCE, defaultAppearanceFor } from '../strata/appearance'
@@ -43,21 +43,10 @@ export interface LogStress {
 }
 
 export interface PointLogData {
-  project: { name: string, jobNumber: string, client: string }
+  project: ProjectRecord
   units: UnitSystem
-  point: {
-    identifier: string
-    kind: PointKind
-    easting: number
-    northing: number
-    groundElevation: number
-    finalDepth: number
-    startedOn: string | null
-    endedOn: string | null
-    method: string
-    loggedBy: string
-    remarks: string
-  }
+  /** The point's own fields, as the investigation model has them (its log and readings are below). */
+  point: Omit<PointRecord, 'intervals' | 'samples' | 'spt' | 'groundwater' | 'cpt' | 'vane'>
   intervals: LogInterval[]
   gaps: { top: number, bottom: number }[]
   samples: LogSample[]

@@ -7,6 +7,7 @@ import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS, type SiteModelDefinition,
 import type { ProfilePoint } from '../types/calc'
 import { convert, unitLabel, type Quantity, type UnitSystem } from '../units'
 import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
+import { TREND_MODEL_LABELS, TREND_PARAMETERS } from '../site-model/trend-words'
 
 /**
  * The site-model version report: cover with the approval record and content hash, strata and unit
@@ -42,24 +43,6 @@ export interface ModelVersionReportData {
   issue: { revision: string, issuedBy: ReportSignOff } | null
 }
 
-const TREND_LABELS: Record<string, string> = {
-  constant: 'Constant σ\'p',
-  linear: 'σ\'p linear in depth',
-  pop: 'Constant POP',
-  ocr: 'Constant OCR',
-  crust: 'Crust over constant POP',
-}
-const PARAMETERS: Record<string, { label: string, quantity: Quantity | null, perDepth?: boolean }> = {
-  preconsolidation: { label: 'σ\'p', quantity: 'stress' },
-  intercept: { label: 'σ\'p at 0 m', quantity: 'stress' },
-  gradient: { label: 'gradient', quantity: 'stress', perDepth: true },
-  pop: { label: 'POP', quantity: 'stress' },
-  ocr: { label: 'OCR', quantity: null },
-  breakpointDepth: { label: 'crust base', quantity: 'length' },
-  crustGradient: { label: 'crust gradient', quantity: 'stress', perDepth: true },
-  valueAtBreakpoint: { label: 'σ\'p at crust base', quantity: 'stress' },
-  effectiveStressAtBreakpoint: { label: 'σ\'v0 at crust base', quantity: 'stress' },
-}
 const DIGITS: Record<Quantity, number> = { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 }
 
 /** A value in the project's units with its unit. */
@@ -70,7 +53,7 @@ export function shown(v: number | null | undefined, q: Quantity, units: UnitSyst
 const fixed = (v: number | null | undefined, d: number) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(d))
 
 export function trendParameterText(key: string, v: number, units: UnitSystem): string {
-  const m = PARAMETERS[key]
+  const m = TREND_PARAMETERS[key]
   if (!m || !m.quantity) return v.toFixed(3)
   if (m.perDepth) return `${(convert(v, 'stress', 'SI', units) / convert(1, 'length', 'SI', units)).toFixed(2)} ${unitLabel('stress', units)}/${unitLabel('length', units)}`
   return shown(v, m.quantity, units)
@@ -191,8 +174,8 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
       if (!t) return [cell(s.code, { bold: true }), cell('none'), cell(''), cell(''), cell(''), cell(''), cell('')]
       if (t.manual) return [cell(s.code, { bold: true }), cell('Hand-drawn'), cell(`${t.manual.knots.length} knots: “${t.manual.reason}”`), cell(''), cell(''), cell(''), cell('')]
       return [
-        cell(s.code, { bold: true }), cell(`${TREND_LABELS[t.model] ?? t.model}${t.logSpace ? ' (ln σ\'p)' : ''}`),
-        cell(Object.entries(t.parameters).map(([k, v]) => `${PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join('; ')),
+        cell(s.code, { bold: true }), cell(`${TREND_MODEL_LABELS[t.model] ?? t.model}${t.logSpace ? ' (ln σ\'p)' : ''}`),
+        cell(Object.entries(t.parameters).map(([k, v]) => `${TREND_PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join('; ')),
         cell(String(t.n)), cell(fixed(t.r2, 3)), cell(t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u)), cell(fixed(t.aicc, 1)),
       ]
     }),
@@ -253,6 +236,6 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
 function trendWords(t: SiteModelDefinition['strata'][number]['trend'], u: UnitSystem): string {
   if (!t) return 'No σ\'p trend in this stratum.'
   if (t.manual) return `Hand-drawn trend (${t.manual.knots.length} knots): “${t.manual.reason}”`
-  const params = Object.entries(t.parameters).map(([k, v]) => `${PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join(', ')
-  return `${TREND_LABELS[t.model] ?? t.model}${t.logSpace ? ' on ln σ\'p' : ''}: ${params} · n ${t.n} · R² ${fixed(t.r2, 3)} · RMSE ${t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u)} · AICc ${fixed(t.aicc, 1)}`
+  const params = Object.entries(t.parameters).map(([k, v]) => `${TREND_PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join(', ')
+  return `${TREND_MODEL_LABELS[t.model] ?? t.model}${t.logSpace ? ' on ln σ\'p' : ''}: ${params} · n ${t.n} · R² ${fixed(t.r2, 3)} · RMSE ${t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u)} · AICc ${fixed(t.aicc, 1)}`
 }
