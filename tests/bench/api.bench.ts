@@ -1,11 +1,11 @@
 // Median latency of the compute API on loopback against the built server.
-import { performance } from 'node:perf_hooks'
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { startServer } from '../helpers/server'
 import { runBrowserBench } from './browser.bench'
 import { runImportBench } from './import.bench'
 import { runLighthouseBench } from './lighthouse.bench'
 import { type ReportBenchRow, runModelReportBench } from './reports.bench'
+import { timeCalls } from './timing'
 
 /** A 10-layer profile whose compressible layers make 400 sublayers in all. */
 export function tenLayerSettlementBody() {
@@ -36,15 +36,8 @@ export async function measureCalcSettlement(url: string, cookie: string, calls: 
     const json = await r.json() as { sublayers?: unknown[] }
     if (!r.ok || (sublayers ? json.sublayers?.length !== 400 : json.sublayers !== undefined)) throw new Error(`bench call failed: ${r.status}`)
   }
-  for (let i = 0; i < 30; i++) await call()
-  const times: number[] = []
-  for (let i = 0; i < calls; i++) {
-    const t0 = performance.now()
-    await call()
-    times.push(performance.now() - t0)
-  }
-  times.sort((a, b) => a - b)
-  return { median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]! }
+  const { median, p95 } = await timeCalls(call, { warmup: 30, calls })
+  return { median, p95 }
 }
 
 export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, lean: { median: number, p95: number }, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>>, reports: ReportBenchRow[] }> {

@@ -1,24 +1,16 @@
 // Report speed: the server's work for a 3-page stress-history log (document built from the point's data,
 // drawn and rendered to PDF bytes), median of repeated renders in this process after warm-up.
-import { performance } from 'node:perf_hooks'
 import { renderReport } from '../../server/services/reports/render'
 import { pointLogDocument } from '../../shared/reports/point-log'
 import { reportDocument } from '../../shared/reports/sheet'
 import { demoLogData } from '../helpers/point-log-data'
+import { timeCalls } from './timing'
 
 export interface ReportBenchRow { name: string, median: number, p95: number, runs: number, pages: number, goal: number }
 
 async function timed(runs: number, fn: () => Promise<number>): Promise<{ median: number, p95: number, pages: number }> {
-  let pages = 0
-  for (let i = 0; i < 3; i++) pages = await fn()
-  const times: number[] = []
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now()
-    pages = await fn()
-    times.push(performance.now() - t0)
-  }
-  times.sort((a, b) => a - b)
-  return { median: times[Math.floor(times.length / 2)] ?? NaN, p95: times[Math.floor(times.length * 0.95)] ?? NaN, pages }
+  const { median, p95, last } = await timeCalls(fn, { warmup: 3, calls: runs })
+  return { median, p95, pages: last }
 }
 
 /** A 24 m borehole at 1:50: three pages of drawing, the key on the last. */

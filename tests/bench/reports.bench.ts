@@ -1,5 +1,5 @@
 // Server time of the report PDFs on loopback against the built server with the demo seeded.
-import { performance } from 'node:perf_hooks'
+import { timeCalls } from './timing'
 
 export interface ReportBenchRow { name: string, pages: number, median: number, p95: number, calls: number, goalMs: number }
 
@@ -16,16 +16,8 @@ async function measure(url: string, cookie: string, path: string, calls: number)
     if (r.status !== 200) throw new Error(`report bench call failed: ${r.status}`)
     return pdf
   }
-  const pages = pageCount(await call())
-  for (let i = 0; i < 4; i++) await call()
-  const times: number[] = []
-  for (let i = 0; i < calls; i++) {
-    const t0 = performance.now()
-    await call()
-    times.push(performance.now() - t0)
-  }
-  times.sort((a, b) => a - b)
-  return { pages, median: times[Math.floor(times.length / 2)]!, p95: times[Math.floor(times.length * 0.95)]! }
+  const { median, p95, last } = await timeCalls(call, { warmup: 5, calls })
+  return { pages: pageCount(last), median, p95 }
 }
 
 /** The demo's Yard model, version 1 (approved): the site-model version report (goal ≤ 500 ms for 10 pages). */
