@@ -8,9 +8,6 @@ const UPLOAD_LIMIT = Number(process.env.PASTLOAD_UPLOAD_LIMIT ?? 25 * 1_048_576)
 /** Where h3's body readers (readBody, readRawBody) take a body already read. */
 const H3_RAW_BODY = Symbol.for('h3RawBody')
 
-/** How long a refused sender may go on sending (dropped) after the 413, before its connection is closed. */
-const LINGER_MS = 2000
-
 const tooLarge = (message: string) => createError({ statusCode: 413, statusMessage: 'Payload Too Large', message })
 
 export default defineEventHandler(async (event) => {
@@ -62,10 +59,7 @@ function readWithin(event: H3Event, limit: number): Promise<Buffer> {
       }
       done()
       chunks.length = 0
-      // The rest is dropped as it arrives, so the answer reaches the sender (closing at once would reset the
-      // connection under the answer); the connection is closed shortly after the answer has gone.
-      req.resume()
-      event.node.res.once('finish', () => setTimeout(() => req.socket.destroy(), LINGER_MS).unref())
+      dropRestOfBody(event)
       reject(tooLarge(`The request body is larger than ${limit} bytes, the limit for this request.`))
     }
     const onEnd = () => {

@@ -53,19 +53,13 @@ export function readMultipart(event: H3Event, opts: MultipartOptions): Promise<{
     let file: MultipartFile | null = null
     let reading = false
     let failed = false
-    const fail = (err: Error, { drain = false } = {}) => {
+    const fail = (err: Error) => {
       if (failed) return
       failed = true
       req.unpipe(bb)
-      if (drain) {
-        // A small refused body (a second file, too many parts): read the rest and drop it, so the client can finish
-        // sending and read the answer (closing at once would cut its write short). The body limit still bounds it.
-        req.resume()
-      }
-      else {
-        // The rest of an oversized body is not worth reading: close the connection after the answer.
-        setResponseHeader(event, 'connection', 'close')
-      }
+      // The rest of the body is dropped as it arrives, so the client can finish sending and read the answer;
+      // the connection is cut soon after the answer if the sender goes on (server/utils/refused-body.ts).
+      dropRestOfBody(event)
       reject(err)
     }
     bb.on('field', (name, value) => { fields[name] = value })
@@ -90,8 +84,8 @@ export function readMultipart(event: H3Event, opts: MultipartOptions): Promise<{
         file = { filename, data: chunks.length === 1 && chunks[0] ? chunks[0] : Buffer.concat(chunks, size), ...(hash ? { sha256: hash.digest('hex') } : {}) }
       })
     })
-    bb.on('filesLimit', () => fail(bad(opts.tooManyParts), { drain: true }))
-    bb.on('partsLimit', () => fail(bad(opts.tooManyParts), { drain: true }))
+    bb.on('filesLimit', () => fail(bad(opts.tooManyParts)))
+    bb.on('partsLimit', () => fail(bad(opts.tooManyParts)))
     bb.on('error', () => fail(bad('The multipart body could not be read.')))
     bb.on('close', () => {
       if (!failed) resolve({ file, fields })
