@@ -2,10 +2,10 @@ import { existsSync } from 'node:fs'
 import { createRequire } from 'node:module'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
-import pdfmake from 'pdfmake'
 import type { TDocumentDefinitions } from 'pdfmake/interfaces'
 import { REPORT_FONT_FILES } from '#shared/reports/fonts'
 import { REPORT_FONT } from '#shared/reports/sheet'
+import { loadPdfmake } from './pdf-library'
 
 /**
  * Turns a report's document definition (`shared/reports/`) into PDF bytes with pdfmake. The fonts are
@@ -29,22 +29,23 @@ export function reportFontDir(): string {
   return join(dirname(require.resolve('source-sans/package.json')), 'TTF')
 }
 
-let ready = false
-function prepare(): void {
-  if (ready) return
+let ready: ReturnType<typeof loadPdfmake> | null = null
+function prepare(): ReturnType<typeof loadPdfmake> {
+  if (ready) return ready
+  const pdfmake = loadPdfmake()
   const dir = reportFontDir()
   const files = Object.fromEntries(Object.entries(REPORT_FONT_FILES).map(([k, f]) => [k, join(dir, f)]))
   const allowed = new Set(Object.values(files))
   pdfmake.setFonts({ [REPORT_FONT]: files })
   pdfmake.setUrlAccessPolicy(() => false)
   pdfmake.setLocalAccessPolicy(path => allowed.has(path))
-  ready = true
+  ready = pdfmake
+  return pdfmake
 }
 
 /** The PDF of a document definition. */
 export async function renderPdf(doc: TDocumentDefinitions): Promise<Buffer> {
-  prepare()
-  return await pdfmake.createPdf(doc).getBuffer()
+  return await prepare().createPdf(doc).getBuffer()
 }
 
 /** The PDF and its page count (read from the footer pdfmake draws on every page). */
