@@ -4,7 +4,7 @@ import { startServer } from '../helpers/server'
 import { runBrowserBench } from './browser.bench'
 import { runImportBench } from './import.bench'
 import { runLighthouseBench } from './lighthouse.bench'
-import { type ReportBenchRow, runModelReportBench } from './reports.bench'
+import { type ReportBenchRow, runModelReportBench, runPointLogHttpBench } from './reports.bench'
 import { timeCalls } from './timing'
 
 /** A 10-layer profile whose compressible layers make 400 sublayers in all. */
@@ -49,7 +49,7 @@ export async function runApiBench(calls = 300): Promise<{ median: number, p95: n
     const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
     const full = await measureCalcSettlement(server.url, cookie, calls, true)
     const lean = await measureCalcSettlement(server.url, cookie, calls, false)
-    const reports = [await runModelReportBench(server.url, cookie)]
+    const reports = [await runModelReportBench(server.url, cookie), await runPointLogHttpBench(server.url, cookie)]
     const imported = await runImportBench(server.url, process.env.DATABASE_URL!)
     const browser = await runBrowserBench(server.url)
     const lighthouse = await runLighthouseBench(server.url)

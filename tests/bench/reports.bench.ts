@@ -32,3 +32,16 @@ export async function runModelReportBench(url: string, cookie: string, calls = 2
   }
   throw new Error('report bench: the demo Yard model was not found')
 }
+
+/** The demo's BH-01 at 1:50: the stress-history log (goal ≤ 200 ms for 3 pages), the point and model read from the database. */
+export async function runPointLogHttpBench(url: string, cookie: string, calls = 20): Promise<ReportBenchRow> {
+  const projects = await (await fetch(`${url}/api/projects`, { headers: { cookie } })).json() as { projects: { id: string }[] }
+  for (const p of projects.projects) {
+    const list = await (await fetch(`${url}/api/projects/${p.id}/points?limit=200`, { headers: { cookie } })).json() as { points?: { id: string, identifier: string }[] }
+    const hole = list.points?.find(pt => pt.identifier === 'BH-01')
+    if (!hole) continue
+    const m = await measure(url, cookie, `/api/projects/${p.id}/points/${hole.id}/report.pdf?scale=50`, calls)
+    return { name: `GET …/points/{BH-01}/report.pdf?scale=50, the demo borehole (${m.pages} pages)`, ...m, calls, goalMs: 200 }
+  }
+  throw new Error('report bench: the demo point BH-01 was not found')
+}
