@@ -1,0 +1,89 @@
+// The site plan in Chromium on the seeded demo (read only): the nest of three piezometers, 2 m apart,
+// is drawn as one mark at the plan's first view; it opens a list of its points, which opens a point;
+// zoomed in, the three are drawn apart. Laptop and phone widths.
+import { describe, expect, it } from 'vitest'
+import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { screenshot, signInAs, useBrowser } from './helpers'
+
+describe('site plan: points drawn at the same place', () => {
+  const browser = useBrowser()
+
+  it('draws the piezometer nest as one mark that opens a list of its points, by keyboard and by click (laptop)', async () => {
+    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const nest = page.locator('[data-testid="plan-point"][data-cluster-size="3"]')
+    await nest.waitFor()
+    expect(await nest.locator('text.label').textContent()).toBe('P-1 +2')
+    expect(await nest.getAttribute('aria-label')).toContain('with 2 more points drawn at the same place')
+    // The other two are not drawn (nor reachable by Tab) while the nest is one mark.
+    for (const hidden of ['P-2', 'P-3']) {
+      const mark = page.locator(`[data-testid="plan-point"][aria-label^="${hidden},"]`)
+      expect(await mark.getAttribute('class')).toContain('clustered')
+      expect(await mark.getAttribute('tabindex')).toBe('-1')
+    }
+
+    await nest.focus()
+    await page.keyboard.press('Enter')
+    const list = page.getByTestId('plan-cluster')
+    await list.waitFor()
+    expect(await list.getByTestId('plan-cluster-point').allTextContents()).toEqual([
+      expect.stringContaining('P-1'), expect.stringContaining('P-2'), expect.stringContaining('P-3'),
+    ])
+    // The list takes the focus, so the keyboard goes on from there; Escape closes it.
+    expect(await page.evaluate(() => document.activeElement?.textContent ?? '')).toContain('P-1')
+    await screenshot(page, 'site-plan-cluster-laptop')
+    await page.keyboard.press('Escape')
+    expect(await list.count()).toBe(0)
+
+    await nest.click()
+    await list.getByTestId('plan-cluster-point').filter({ hasText: 'P-2' }).click()
+    await page.waitForURL(/\/points\/[0-9a-f-]{36}$/)
+    expect(await page.getByTestId('point-identifier').textContent()).toContain('P-2')
+    await page.close()
+  })
+
+  it('on a phone, the nest is in a mark whose list holds all three', async () => {
+    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await page.setViewportSize({ width: 390, height: 844 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    await page.locator('[data-testid="plan-point"][data-cluster-size]').first().waitFor()
+    for (const hidden of ['P-2', 'P-3']) {
+      expect(await page.locator(`[data-testid="plan-point"][aria-label^="${hidden},"]`).getAttribute('class')).toContain('clustered')
+    }
+    // At this width more marks may meet; open each group mark until the one holding the nest.
+    const list = page.getByTestId('plan-cluster')
+    let names: string[] = []
+    for (const mark of await page.locator('[data-testid="plan-point"][data-cluster-size]').all()) {
+      await mark.dispatchEvent('click')
+      await list.waitFor()
+      names = (await list.getByTestId('plan-cluster-point').allTextContents()).map(t => t.trim().split(/\s+/)[0] ?? '')
+      if (names.includes('P-2')) break
+      await list.getByRole('button', { name: 'Close' }).click()
+      await list.waitFor({ state: 'detached' })
+    }
+    expect(names).toEqual(expect.arrayContaining(['P-1', 'P-2', 'P-3']))
+    await screenshot(page, 'site-plan-cluster-phone')
+    await page.close()
+  })
+
+  it('draws the three apart once zoomed in', async () => {
+    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await page.setViewportSize({ width: 1366, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    await page.locator('[data-testid="plan-point"][data-cluster-size="3"]').waitFor()
+    const zoomIn = page.getByRole('button', { name: 'Zoom in' })
+    const nested = page.locator('[data-testid="plan-point"].clustered[aria-label^="P-"]')
+    // Each step zooms 1.6×; the nest is 2 m apart and parts at 32 px across, so a handful of steps is enough.
+    for (let i = 0; i < 12 && (await nested.count()) > 0; i++) {
+      await zoomIn.click()
+      await page.waitForTimeout(300)
+    }
+    expect(await nested.count()).toBe(0)
+    expect(await page.locator('[data-testid="plan-point"][data-cluster-size][aria-label^="P-"]').count()).toBe(0)
+    await page.close()
+  })
+})
