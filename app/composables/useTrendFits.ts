@@ -7,7 +7,7 @@ import {
 } from '~/utils/stressHistory'
 import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
-import type { EditorSnapshot } from '~/stores/modelEditor'
+import type { EditorSnapshot, FitChoiceState } from '~/stores/modelEditor'
 import { TREND_MODEL_LABELS } from '#shared/site-model/trend-words'
 
 export type FitChoice = StratumTrend['model'] | 'auto'
@@ -21,6 +21,9 @@ export interface WorkspaceEditor {
   pendingExcluded: () => Record<string, string[]>
   /** The session's definition right now (props follow it only at the next render). */
   current: () => SiteModelDefinition
+  /** The model chosen for a stratum's next fit (by code), if the engineer chose one. */
+  fitChoice: (code: string) => FitChoiceState | undefined
+  setFitChoice: (code: string, state: FitChoiceState) => void
 }
 
 export interface BandFit {
