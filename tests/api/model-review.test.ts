@@ -174,9 +174,12 @@ describe('version review and approval', () => {
     ])
     expect((await submit(url)).status).toBe(409)
     expect((await rev.post(`${url}/1/decision`, { decision: 'approve', comment: '' })).status).toBe(409)
-    // Save version 2 from it and send that one.
+    // Refit (here: a new POP), save version 2 from it and send that one.
     const m = (await eng.get<{ model: Model }>(`${base}/${model.id}`)).body.model
-    expect((await eng.post(`${url}`, { message: 'Refitted with CPT-03', version: m.version })).status).toBe(201)
+    const refit = { ...m.draft, strata: m.draft.strata.map(s => (s.code === 'EST' && s.trend ? { ...s, trend: { ...s.trend, parameters: { pop: 24 } } } : s)) }
+    const put = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft: refit, version: m.version })
+    expect(put.status).toBe(200)
+    expect((await eng.post(`${url}`, { message: 'Refitted with CPT-03', version: put.body.model.version })).status).toBe(201)
     const v2 = (await eng.get<VersionReply>(`${url}/2`)).body.version
     expect(v2.savedFrom).toBe(1)
     expect(v2.status).toBe('saved')
