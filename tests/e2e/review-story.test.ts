@@ -109,5 +109,6 @@ describe('the review story in two browsers', () => {
     expect(words).toContain(`version 2 of ${name}`)
     expect(words).toContain('approved by Priya Natarajan')
     await screenshot(page, 'review-story-tests-banner')
-  })
+    // Two browsers, a demo copy and a mail round trip: more than the default minute on a busy machine.
+  }, 240_000)
 })
