@@ -34,7 +34,7 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
   }
 
   const editor = computed((): WorkspaceEditor | null => (store.draft && !store.recovery
-    ? { edit: store.edit, startGesture: store.startGesture, pendingExcluded: () => store.pendingExcluded, current: () => store.draft! }
+    ? { edit: store.edit, startGesture: store.startGesture, pendingExcluded: () => store.pendingExcluded, current: () => store.draft!, fitChoice: store.fitChoice, setFitChoice: store.setFitChoice }
     : null))
 
   /** The draft checked against the schema the server validates with, before it is sent. */

@@ -2,12 +2,13 @@ import { toRaw } from 'vue'
 import { trendFromFit, type SiteModelDefinition, type StratumTrend } from '#shared/site-model/definition'
 import { setTrend } from '~/utils/siteModelEdits'
 import {
-  assignBands, fitInput, reviewerExcluded, sameIds,
+  assignBands, fitInput, reviewerExcluded, sameIds, stressAt,
   type PointFlag,
 } from '~/utils/stressHistory'
+import { stratumTrendProblems, unacceptedProblems, type TrendProblem } from '#shared/site-model/trend-checks'
 import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
-import type { EditorSnapshot } from '~/stores/modelEditor'
+import type { EditorSnapshot, FitChoiceState } from '~/stores/modelEditor'
 import { TREND_MODEL_LABELS } from '#shared/site-model/trend-words'
 
 export type FitChoice = StratumTrend['model'] | 'auto'
@@ -21,6 +22,9 @@ export interface WorkspaceEditor {
   pendingExcluded: () => Record<string, string[]>
   /** The session's definition right now (props follow it only at the next render). */
   current: () => SiteModelDefinition
+  /** The model chosen for a stratum's next fit (by code), if the engineer chose one. */
+  fitChoice: (code: string) => FitChoiceState | undefined
+  setFitChoice: (code: string, state: FitChoiceState) => void
 }
 
 export interface BandFit {
@@ -206,7 +210,27 @@ export function useTrendFits(args: {
     return { ids, parameters }
   }
 
-  return { bands, flaggedOut, fits, fitError, inputOf, fitBand, setExcluded, refreshDisplayFits, stale }
+  /**
+   * Each band's trend problems against the profile on screen (R² < 0, σ'p below σ'v0 or at
+   * or below 0), and those its reason does not cover yet: a version is not saved with those.
+   */
+  const problems = computed((): { all: TrendProblem[], open: TrendProblem[] }[] => {
+    const def = args.definition()
+    const prof = args.profile()
+    return def.strata.map((s, i) => {
+      if (!prof.length || !s.trend || s.trend.manual) return { all: [], open: [] }
+      try {
+        const all = stratumTrendProblems(def, i, z => stressAt(prof, z)?.effectiveStress ?? Number.NaN)
+        return { all, open: unacceptedProblems(s, all) }
+      }
+      catch {
+        // A trend missing a parameter cannot be evaluated; the fit panel shows the fit's own error.
+        return { all: [], open: [] }
+      }
+    })
+  })
+
+  return { bands, flaggedOut, fits, fitError, inputOf, fitBand, setExcluded, refreshDisplayFits, stale, problems }
 }
 
 export type TrendFits = ReturnType<typeof useTrendFits>

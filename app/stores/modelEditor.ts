@@ -1,6 +1,6 @@
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, toRaw } from 'vue'
-import type { SiteModelDefinition } from '#shared/site-model/definition'
+import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { useUndoHistory } from '../composables/useUndoHistory'
 import { stableJson } from '../utils/siteModelEdits'
 
@@ -29,6 +29,9 @@ export interface LocalDraft {
 }
 
 export interface EditOptions { gesture?: string }
+
+/** The trend model the engineer chose for a stratum's next fit (`auto`: the best by AICc), and whether on ln σ'p. */
+export interface FitChoiceState { model: StratumTrend['model'] | 'auto', logSpace: boolean }
 
 /** Entries kept for undo; the oldest go first. */
 export const HISTORY_LIMIT = 300
@@ -73,6 +76,18 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
   /** A local copy found at load that differs from the server's draft, offered back until answered. */
   const recovery = shallowRef<LocalDraft | null>(null)
   const lastLocalWrite = ref<string | null>(null)
+  /**
+   * The model chosen for each stratum's next fit, by stratum code: a choice belongs
+   * to its stratum, so another stratum never fits with it. Not part of the draft
+   * (no undo step): it is what the panel offers, not what the model says.
+   */
+  const fitChoices = ref<Record<string, FitChoiceState>>({})
+  function fitChoice(code: string): FitChoiceState | undefined {
+    return fitChoices.value[code]
+  }
+  function setFitChoice(code: string, state: FitChoiceState) {
+    fitChoices.value = { ...fitChoices.value, [code]: { ...state } }
+  }
 
   const currentJson = computed(() => (draft.value ? stableJson(draft.value) : ''))
   const dirty = computed(() => !!draft.value && currentJson.value !== savedJson.value)
@@ -98,6 +113,7 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     pendingExcluded.value = {}
     savedJson.value = stableJson(serverDraft)
     history.clear()
+    fitChoices.value = {}
     lastLocalWrite.value = null
     recovery.value = findLocal(id, savedJson.value)
   }
@@ -253,12 +269,13 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     pendingExcluded.value = {}
     savedJson.value = ''
     history.clear()
+    fitChoices.value = {}
     recovery.value = null
   }
 
   return {
-    modelId, revision, draft, pendingExcluded, past, future, recovery, lastLocalWrite,
+    modelId, revision, draft, pendingExcluded, past, future, recovery, lastLocalWrite, fitChoices,
     dirty, canUndo, canRedo, undoLabel, redoLabel,
-    load, edit, undo, redo, startGesture, acceptRecovery, discardRecovery, markSaved, markRevision, rebaseOnto, takeTheirs, close, persistLocal,
+    fitChoice, setFitChoice, load, edit, undo, redo, startGesture, acceptRecovery, discardRecovery, markSaved, markRevision, rebaseOnto, takeTheirs, close, persistLocal,
   }
 })

@@ -4,7 +4,9 @@ import { computeStressProfile } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
 import { diffDefinitions } from '#shared/site-model/diff'
-import type { ServerSiteModelRecord, ServerSiteModelRow } from '#shared/types/models'
+import { describeChanges } from '#shared/site-model/change-words'
+import type { UnitSystem } from '#shared/units'
+import type { ServerCompareAnswer, ServerSiteModelRecord, ServerSiteModelRow } from '#shared/types/models'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
 import { projects, siteModels, siteModelVersions } from '../db/schema'
@@ -15,7 +17,7 @@ import { exportName } from './exports/logs'
 import { conflictOnDuplicate, notFound, versionedUpdate } from './http-errors'
 import { exportDocument, exportWorkbook } from './model-export'
 import { approvalOf } from './model-review'
-import { assertDefinitionComputable, listVersions, nextVersionNumber, requireModel, requireVersion } from './model-versions'
+import { assertChangedSince, assertDefinitionComputable, assertTrendProblemsAnswered, latestVersion, listVersions, requireModel, requireVersion } from './model-versions'
 import { flagsInForce } from './review'
 import { definitionFromLogs } from './site-models'
 
@@ -121,7 +123,10 @@ export async function saveVersion(projectId: string, actorId: string, modelId: s
     }
     const definition = { ...model.draft, flagsInForce: await flagsInForce(projectId) }
     assertDefinitionComputable(definition)
-    const number = await nextVersionNumber(tx, modelId)
+    assertTrendProblemsAnswered(definition)
+    const previous = await latestVersion(tx, modelId)
+    assertChangedSince(previous, definition)
+    const number = (previous?.version ?? 0) + 1
     // savedFrom: the version the draft started from (a returned version is resubmitted as a new version saved from it).
     const row = returnedRow(await tx.insert(siteModelVersions).values({ modelId, version: number, definition, message, savedFrom: model.basedOn, createdBy: actorId }).returning())
     await tx.update(siteModels).set({ basedOn: number, draftRevision: sql`${siteModels.draftRevision} + 1` }).where(eq(siteModels.id, modelId))
@@ -143,7 +148,7 @@ export async function refuseVersionWrite(projectId: string, modelId: string, ver
 }
 
 /** What changed between two saved versions, and both stress profiles to overlay. */
-export async function compareVersions(projectId: string, modelId: string, a: number, b: number) {
+export async function compareVersions(projectId: string, modelId: string, a: number, b: number, units: UnitSystem = 'SI'): Promise<ServerCompareAnswer> {
   await requireModel(projectId, modelId)
   const [va, vb] = await Promise.all([requireVersion(modelId, a), requireVersion(modelId, b)])
   const profile = (def: SiteModelDefinition) => runEngine(() => computeStressProfile(toStressInput(def))).points
@@ -151,6 +156,7 @@ export async function compareVersions(projectId: string, modelId: string, a: num
     a: { version: a, message: va.message, savedAt: va.createdAt, author: va.author },
     b: { version: b, message: vb.message, savedAt: vb.createdAt, author: vb.author },
     changes: diffDefinitions(va.definition, vb.definition).filter(c => !c.path.startsWith('flagsInForce')),
+    summary: describeChanges(va.definition, vb.definition, { units }),
     flagsChanged: diffDefinitions(va.definition.flagsInForce, vb.definition.flagsInForce).length > 0,
     profiles: { a: profile(va.definition), b: profile(vb.definition) },
   }

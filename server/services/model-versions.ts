@@ -2,10 +2,12 @@ import { and, desc, eq } from 'drizzle-orm'
 import { buildStressModel } from '#shared/geotech/stress'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
+import { diffDefinitions } from '#shared/site-model/diff'
+import { definitionTrendProblems, trendProblemWords, unacceptedProblems } from '#shared/site-model/trend-checks'
 import type { ServerModelVersionRow, ServerModelVersionSummary, ServerSiteModelRecord } from '#shared/types/models'
 import { type Tx, useDb } from '../db/client'
 import { siteModels, siteModelVersions, users } from '../db/schema'
-import { notFound } from './http-errors'
+import { notFound, unprocessableError } from './http-errors'
 
 export async function requireModel(projectId: string, modelId: string, tx?: Tx): Promise<ServerSiteModelRecord> {
   const db = tx ?? useDb()
@@ -30,12 +32,33 @@ export async function listVersions(modelId: string): Promise<ServerModelVersionS
   return rows.map(({ supersededAt, ...r }) => ({ ...r, superseded: supersededAt !== null }))
 }
 
-export async function nextVersionNumber(tx: Tx, modelId: string): Promise<number> {
-  const [last] = await tx.select({ version: siteModelVersions.version }).from(siteModelVersions).where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version)).limit(1)
-  return (last?.version ?? 0) + 1
-}
-
 /** A model whose stresses cannot be computed (σ'v0 ≤ 0 somewhere) is refused with the engine's 422. */
 export function assertDefinitionComputable(def: SiteModelDefinition) {
   runEngine(() => buildStressModel(toStressInput(def)))
+}
+
+/** The model's latest saved version (number and definition), if any. */
+export async function latestVersion(tx: Tx, modelId: string): Promise<{ version: number, definition: SiteModelDefinition } | null> {
+  const [last] = await tx.select({ version: siteModelVersions.version, definition: siteModelVersions.definition }).from(siteModelVersions)
+    .where(eq(siteModelVersions.modelId, modelId)).orderBy(desc(siteModelVersions.version)).limit(1)
+  return last ?? null
+}
+
+/** A version identical to the one before it (reviewer flags in force included) says nothing new: 409. */
+export function assertChangedSince(previous: { version: number, definition: SiteModelDefinition } | null, definition: SiteModelDefinition) {
+  if (!previous || diffDefinitions(previous.definition, definition).length > 0) return
+  throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `Nothing changed since version ${previous.version}: change the draft before saving a new version.` })
+}
+
+/**
+ * A fitted trend with R² < 0, or σ'p below σ'v0 or at or below 0 inside its stratum, is saved
+ * only with the engineer's reason for keeping it (`trend.acceptedDespite`); else 422 naming it.
+ */
+export function assertTrendProblemsAnswered(def: SiteModelDefinition) {
+  for (const s of runEngine(() => definitionTrendProblems(def))) {
+    const stratum = def.strata[s.band]
+    const open = stratum ? unacceptedProblems(stratum, s.problems) : []
+    if (!open.length) continue
+    throw unprocessableError(`The σ'p trend of ${s.code} needs a look before it is saved: ${open.map(p => trendProblemWords(p)).join('; ')}. Fit it again, or give the reason to keep it.`, { code: 'trend-problem', stratum: s.code, problems: open.map(p => p.code) })
+  }
 }

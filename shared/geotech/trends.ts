@@ -6,6 +6,7 @@
 import { inv, lup, lusolve, type LUDecomposition } from 'mathjs'
 import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { GeotechError } from './errors'
+import { startSentence } from '../sentence'
 import { bracketIndex } from './stress'
 import { evaluateTrend, MODEL_NAMES, type CrustBelowModel, type TrendBandPoint, type TrendCandidate, type TrendFit, type TrendModel, type TrendOptions, type TrendPoint } from './trend-model'
 
@@ -93,13 +94,13 @@ function fitAuto(points: readonly TrendPoint[], options: TrendOptions): TrendFit
   const label = useAicc ? 'AICc' : 'AIC'
   const name = (f: TrendFit): string => (f.model === 'crust' ? `crust over ${MODEL_NAMES[f.crustBelow ?? 'constant']}` : MODEL_NAMES[f.model])
   const others = ranked.slice(1).map(f => `${name(f)} ${fmtScore(score(f))}`)
-  let reason = `${capitalise(name(best))} fits best, with the lowest ${label} (${fmtScore(score(best))})`
+  let reason = `${startSentence(name(best))} fits best, with the lowest ${label} (${fmtScore(score(best))})`
   reason += others.length > 0 ? `; the others: ${others.join(', ')}.` : '.'
   const second = ranked[1]
   if (second) {
     const gap = score(second) - score(best)
     reason += gap < 2
-      ? ` ${capitalise(name(second))} is within 2 ${label} units (${fmtScore(gap)}), so the data hardly separate the two; choose on geology.`
+      ? ` ${startSentence(name(second))} is within 2 ${label} units (${fmtScore(gap)}), so the data hardly separate the two; choose on geology.`
       : ` The next best, ${name(second)}, is ${fmtScore(gap)} ${label} units higher.`
   }
   if (!useAicc) reason += ' Too few points for the small-sample correction, so plain AIC was compared.'
@@ -750,6 +751,3 @@ function fmtScore(value: number): string {
   return Number.isFinite(value) ? value.toFixed(1) : '∞'
 }
 
-function capitalise(text: string): string {
-  return text.charAt(0).toUpperCase() + text.slice(1)
-}

@@ -29,6 +29,13 @@ export const SITE_MODEL_SCHEMA_VERSIONS = [1, 2] as const
 
 export const TrendModelSchema = z.enum(['constant', 'linear', 'pop', 'ocr', 'crust'])
 
+/**
+ * What can make a fitted trend mislead (shared/site-model/trend-checks.ts): R² below 0
+ * (worse than the points' mean), σ'p below σ'v0, or σ'p at or below 0 inside its stratum.
+ */
+export const TREND_PROBLEM_CODES = ['negative-r2', 'below-effective-stress', 'not-positive'] as const
+export type TrendProblemCode = (typeof TREND_PROBLEM_CODES)[number]
+
 export const StratumTrendSchema = z.object({
   model: TrendModelSchema,
   crustBelow: z.enum(['constant', 'linear', 'pop', 'ocr']).optional(),
@@ -46,6 +53,14 @@ export const StratumTrendSchema = z.object({
   manual: z.object({
     knots: z.array(z.object({ depth: z.number().min(0).max(500), preconsolidation: z.number().min(0).max(10_000) })).min(2).max(50),
     reason: str().trim().min(3, { message: 'a manual trend needs a reason' }).max(1000),
+  }).optional(),
+  /**
+   * A fit kept although it has problems (R² < 0, σ'p < σ'v0 or σ'p ≤ 0 in its stratum):
+   * the problems the engineer saw and why the trend stays. A refit drops it.
+   */
+  acceptedDespite: z.object({
+    problems: z.array(z.enum(TREND_PROBLEM_CODES)).min(1).max(TREND_PROBLEM_CODES.length),
+    reason: str().trim().min(3, { message: 'a trend kept despite its problems needs a reason' }).max(1000),
   }).optional(),
 })
 export type StratumTrend = z.infer<typeof StratumTrendSchema>

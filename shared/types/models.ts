@@ -59,6 +59,8 @@ export interface ServerCompareAnswer {
   a: ServerCompareSide
   b: ServerCompareSide
   changes: DefinitionChange[]
+  /** The changes in words, in the project's units (shared/site-model/change-words.ts). */
+  summary: string[]
   flagsChanged: boolean
   profiles: { a: StressProfilePoint[], b: StressProfilePoint[] }
 }

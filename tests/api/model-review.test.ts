@@ -174,9 +174,12 @@ describe('version review and approval', () => {
     ])
     expect((await submit(url)).status).toBe(409)
     expect((await rev.post(`${url}/1/decision`, { decision: 'approve', comment: '' })).status).toBe(409)
-    // Save version 2 from it and send that one.
+    // Refit (here: a new POP), save version 2 from it and send that one.
     const m = (await eng.get<{ model: Model }>(`${base}/${model.id}`)).body.model
-    expect((await eng.post(`${url}`, { message: 'Refitted with CPT-03', version: m.version })).status).toBe(201)
+    const refit = { ...m.draft, strata: m.draft.strata.map(s => (s.code === 'EST' && s.trend ? { ...s, trend: { ...s.trend, parameters: { pop: 24 } } } : s)) }
+    const put = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft: refit, version: m.version })
+    expect(put.status).toBe(200)
+    expect((await eng.post(`${url}`, { message: 'Refitted with CPT-03', version: put.body.model.version })).status).toBe(201)
     const v2 = (await eng.get<VersionReply>(`${url}/2`)).body.version
     expect(v2.savedFrom).toBe(1)
     expect(v2.status).toBe('saved')
@@ -229,8 +232,11 @@ describe('version review and approval', () => {
     const exp1 = await eng.get<{ approval: { by: string, at: string, hash: string } | null }>(`${url}/1/export`)
     expect(exp1.body.approval).toEqual({ by: 'Priya Natarajan', at: a1.body.version.decidedAt, hash: v1.version.approvalHash })
 
+    // A second interpretation: the water table 0.1 m lower (a version must change something).
     const m = (await eng.get<{ model: Model }>(`${base}/${model.id}`)).body.model
-    expect((await eng.post(url, { message: 'Second interpretation', version: m.version })).status).toBe(201)
+    const put = await eng.request<{ model: Model }>('PUT', `${base}/${model.id}/draft`, { draft: { ...m.draft, groundwater: { ...m.draft.groundwater, waterTableDepth: m.draft.groundwater.waterTableDepth + 0.1 } }, version: m.version })
+    expect(put.status).toBe(200)
+    expect((await eng.post(url, { message: 'Second interpretation', version: put.body.model.version })).status).toBe(201)
     expect((await eng.get<{ approval: unknown }>(`${url}/2/export`)).body.approval).toBeNull()
     await submit(url, 2)
     expect((await rev.post(`${url}/2/decision`, { decision: 'approve', comment: '' })).status).toBe(200)

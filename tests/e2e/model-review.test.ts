@@ -1,10 +1,11 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
+import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
 
-interface ModelRow { id: string, version: number }
+interface ModelRow { id: string, version: number, draft: SiteModelDefinition }
 
 /** Both screen sizes of the version page as it stands. */
 describe('reviewing a model version in Chromium', () => {
@@ -59,8 +60,11 @@ describe('reviewing a model version in Chromium', () => {
     await screenshotLaptopAndPhone(page, 'model-review-returned-timeline')
 
     // A new version saved from the returned one, sent again.
+    // The engineer changes the draft first: a version with nothing new is refused.
     const m = (await engineer.get<{ model: ModelRow }>(`/api/projects/${projectId}/models/${modelId}`)).body.model
-    expect((await engineer.post(`/api/projects/${projectId}/models/${modelId}/versions`, { message: 'CPT-03 included', version: m.version })).status).toBe(201)
+    const put = await engineer.request<{ model: ModelRow }>('PUT', `/api/projects/${projectId}/models/${modelId}/draft`, { draft: { ...m.draft, groundwater: { ...m.draft.groundwater, waterTableDepth: m.draft.groundwater.waterTableDepth + 0.1 } }, version: m.version })
+    expect(put.status).toBe(200)
+    expect((await engineer.post(`/api/projects/${projectId}/models/${modelId}/versions`, { message: 'CPT-03 included', version: put.body.model.version })).status).toBe(201)
     await sendForReview(page, 2, 'Refitted with CPT-03.')
 
     page = await signInAs(browser.context, demoEmail('reviewer'))

@@ -8,11 +8,12 @@ import { join } from 'node:path'
 import { simpleParser } from 'mailparser'
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
+import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
-interface ModelRow { id: string, version: number }
+interface ModelRow { id: string, version: number, draft: SiteModelDefinition }
 
 /** The newest message in the catcher to `to` whose subject contains `subject` (waits for delivery). */
 async function mailTo(to: string, subject: string): Promise<{ subject: string, text: string }> {
@@ -84,8 +85,11 @@ describe('the review story in two browsers', () => {
     await screenshot(page, 'review-story-returned-live')
 
     // A new version saved from the returned one, sent again, approved.
+    // The engineer changes the draft (a version with nothing new is refused), then saves it as version 2.
     const draft = (await engineer.get<{ model: ModelRow }>(`/api/projects/${projectId}/models/${m.id}`)).body.model
-    expect((await engineer.post(`/api/projects/${projectId}/models/${m.id}/versions`, { message: 'Crust refitted', version: draft.version })).status).toBe(201)
+    const put = await engineer.request<{ model: ModelRow }>('PUT', `/api/projects/${projectId}/models/${m.id}/draft`, { draft: { ...draft.draft, groundwater: { ...draft.draft.groundwater, waterTableDepth: draft.draft.groundwater.waterTableDepth + 0.1 } }, version: draft.version })
+    expect(put.status).toBe(200)
+    expect((await engineer.post(`/api/projects/${projectId}/models/${m.id}/versions`, { message: 'Crust refitted', version: put.body.model.version })).status).toBe(201)
     await page.goto(versionPage(2))
     await page.getByTestId('send-for-review').click()
     await page.getByTestId('submit-dialog').getByTestId('reviewer-Priya Natarajan').check()
@@ -105,5 +109,6 @@ describe('the review story in two browsers', () => {
     expect(words).toContain(`version 2 of ${name}`)
     expect(words).toContain('approved by Priya Natarajan')
     await screenshot(page, 'review-story-tests-banner')
-  })
+    // Two browsers, a demo copy and a mail round trip: more than the default minute on a busy machine.
+  }, 240_000)
 })

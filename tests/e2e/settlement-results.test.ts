@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
+import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { baseUrl, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
@@ -31,8 +32,10 @@ describe('settlement results in Chromium', () => {
     await must('approve v1', reviewer.post(`${versions}/1/decision`, { decision: 'approve', comment: 'Checked' }))
     const a = await must('run on v1', designer.post<Created>(`${project.base}/settlement-runs`, smallRunBody(model, { name: 'Slab on v1', grid: { spacing: 4, margin: 12 } })), 201)
     approvedRun = a.run.id
-    const { model: m } = await must('model', engineer.get<{ model: { version: number, draft: unknown } }>(model.url))
-    const put = await must('draft', engineer.request<{ model: { version: number } }>('PUT', `${model.url}/draft`, { draft: m.draft, version: m.version }))
+    const { model: m } = await must('model', engineer.get<{ model: { version: number, draft: SiteModelDefinition } }>(model.url))
+    // A version must change something: the made ground's cone factor (no part of a settlement run).
+    const draft = { ...m.draft, strata: m.draft.strata.map((s, i) => (i === 0 ? { ...s, cptFactor: 0.32 } : s)) }
+    const put = await must('draft', engineer.request<{ model: { version: number } }>('PUT', `${model.url}/draft`, { draft, version: m.version }))
     await must('save v2', engineer.post(versions, { message: 'Second look', version: put.model.version }), 201)
     await must('submit v2', engineer.post(`${versions}/2/submit`, { message: 'Another check', reviewerIds: [reviewerId] }))
     const b = await must('run on v2', designer.post<Created>(`${project.base}/settlement-runs`, smallRunBody({ modelId: model.modelId, version: 2 }, { name: 'Slab on v2' })), 201)

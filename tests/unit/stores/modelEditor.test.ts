@@ -303,3 +303,28 @@ describe('the model editing session', () => {
     expect(other.strata[2]!.compressibility).toEqual({ cc: 0.84, cr: 0.09, e0: 2.1, cv: 1.2, drainage: 'double', source: 'mean', n: 4 })
   })
 })
+
+describe('the trend model chosen per stratum', () => {
+  beforeEach(() => {
+    setActivePinia(createPinia())
+    localStorage.clear()
+  })
+
+  it('keeps each stratum\'s choice apart, outside the undo history, and forgets them all when another model loads', () => {
+    const store = useModelEditorStore()
+    store.load(MODEL, saltmarsh(), 1)
+    expect(store.fitChoice('EST')).toBeUndefined()
+    store.setFitChoice('EST', { model: 'pop', logSpace: false })
+    expect(store.fitChoice('EST')).toEqual({ model: 'pop', logSpace: false })
+    // Another stratum has no choice of its own: the panel then offers the best by AICc.
+    expect(store.fitChoice('CRUST')).toBeUndefined()
+    store.setFitChoice('CRUST', { model: 'auto', logSpace: true })
+    expect(store.fitChoice('EST')).toEqual({ model: 'pop', logSpace: false })
+    // A choice is not an edit of the model.
+    expect(store.canUndo).toBe(false)
+    expect(store.dirty).toBe(false)
+    store.load(MODEL, saltmarsh(), 2)
+    expect(store.fitChoice('EST')).toBeUndefined()
+    expect(store.fitChoice('CRUST')).toBeUndefined()
+  })
+})
