@@ -59,7 +59,7 @@ describe('site plan: points drawn at the same place', () => {
     for (const mark of await page.locator('[data-testid="plan-point"][data-cluster-size]').all()) {
       await mark.dispatchEvent('click')
       await list.waitFor()
-      names = (await list.getByTestId('plan-cluster-point').allTextContents()).map(t => t.trim().split(/\s+/)[0] ?? '')
+      names = await list.getByTestId('plan-cluster-point').evaluateAll(els => els.map(e => e.getAttribute('data-identifier') ?? ''))
       if (names.includes('P-2')) break
       await list.getByRole('button', { name: 'Close' }).click()
       await list.waitFor({ state: 'detached' })
