@@ -1,5 +1,5 @@
 import { ref, toValue, type MaybeRefOrGetter } from 'vue'
-import { downloadBlob, pngFromSvg } from '~/utils/plotExport'
+import { downloadBlob, pngFromSvg } from '../utils/plotExport'
 
 /**
  * Downloading a drawing as SVG or PNG (twice the size on screen): `svgText` builds the SVG text when

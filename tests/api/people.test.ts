@@ -5,7 +5,7 @@
 import { createHash, randomBytes } from 'node:crypto'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, TEST_PASSWORD, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
+import { Client, TEST_PASSWORD, createUser, demoEmail, signIn, signedInDemo, uniqueEmail, useNewAccount } from '../helpers/http'
 import { createProject } from '../helpers/project'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
@@ -40,19 +40,17 @@ interface InviteReply { outcome: string, member?: { userId: string, role: string
 interface Issue { message: string, data?: { state?: string } }
 
 describe('project invitations', () => {
-  let admin: Client
-  let owner: Client
+  const { owner: admin } = signedInDemo('owner')
+  const ownerAccount = useNewAccount(admin, 'inv-owner')
+  const owner = ownerAccount.client
   let ownerName: string
   let projectId: string
   let base: string
 
   beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-    const o = await createUser(admin, 'inv-owner')
-    owner = o.client
     ownerName = (await owner.get<{ user: { displayName: string } }>('/api/auth/me')).body.user.displayName
     // The admin makes the project and hands it to the test's own owner.
-    const p = await createProject(admin, 'INV', 'Invitation test site', [{ email: o.email, role: 'owner' }])
+    const p = await createProject(admin, 'INV', 'Invitation test site', [{ email: ownerAccount.email, role: 'owner' }])
     projectId = p.id
     base = `/api/projects/${projectId}/invitations`
   })
@@ -220,10 +218,7 @@ describe('site invitations from the people page', () => {
 })
 
 describe('password reset', () => {
-  let admin: Client
-  beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-  })
+  const { owner: admin } = signedInDemo('owner')
 
   it('answers 202 with the same message for an unknown and a known address; only the known one gets a link', async () => {
     const known = await createUser(admin, 'reset-known')
@@ -312,10 +307,9 @@ describe('password reset', () => {
 })
 
 describe('people page (site admins)', () => {
-  let admin: Client
+  const { owner: admin } = signedInDemo('owner')
   let adminId: string
   beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
     adminId = (await admin.get<{ user: { id: string } }>('/api/auth/me')).body.user.id
   })
 
