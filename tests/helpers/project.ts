@@ -1,4 +1,5 @@
 // Projects and points of a test's own, made through the public API.
+import { beforeAll, beforeEach } from 'vitest'
 import type { ProjectRole } from '../../shared/auth/roles'
 import type { PointKind } from '../../shared/investigation/types'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
@@ -36,6 +37,21 @@ export async function createProject(owner: Client, tag: string, name: string, me
   const created = await must(`creating project ${tag}`, owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: uniqueJobNumber(tag), name, ...extra }), 201)
   const project = { id: created.project.id, base: `/api/projects/${created.project.id}` }
   for (const m of members) await addMember(owner, project.id, m)
+  return project
+}
+
+/**
+ * A project of the describe block's own, like `useDemoCopy`: made by `owner` with `members` (a function, so
+ * that accounts the block's own hooks create can be named) in a `beforeAll`, or anew before each test with
+ * `{ each: true }`. `project.id` and `project.base` are set once the tests run.
+ */
+export function useTestProject(owner: Client, tag: string, name: string, members: () => MemberSpec[] = () => [], options: { each?: boolean } = {}): Readonly<TestProject> {
+  const project: TestProject = { id: '', base: '' }
+  const make = async () => {
+    Object.assign(project, await createProject(owner, tag, name, members()))
+  }
+  if (options.each) beforeEach(make)
+  else beforeAll(make)
   return project
 }
 

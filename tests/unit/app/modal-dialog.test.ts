@@ -6,7 +6,7 @@ import { useModalDialog } from '../../../app/composables/useModalDialog'
 
 /** A dialog open while its `subject` prop is set, counting the resets its `onOpen` makes. */
 const Dialog = defineComponent({
-  props: { subject: { type: String, default: null }, immediate: Boolean },
+  props: { subject: { type: String, default: undefined }, immediate: Boolean },
   setup(props, { expose }) {
     const el = ref<HTMLDialogElement | null>(null)
     const resets = ref(0)
@@ -29,7 +29,7 @@ describe('useModalDialog', () => {
     await nextTick()
     expect(vm.el.open).toBe(true)
     expect(vm.resets).toBe(2)
-    await w.setProps({ subject: null })
+    await w.setProps({ subject: undefined })
     expect(vm.el.open).toBe(false)
     w.unmount()
   })
