@@ -15,6 +15,11 @@ export function useApi<T>(key: MaybeRefOrGetter<string>, url: MaybeRefOrGetter<s
   )
 }
 
+/** One record read with `useApi`: `null` until it is read, and when the read fails. */
+export function useApiRecord<T>(key: MaybeRefOrGetter<string>, url: MaybeRefOrGetter<string>) {
+  return useApi<T | null>(key, url, () => null)
+}
+
 /**
  * A whole list route read page by page (see app/utils/listPages.ts), keyed like
  * `useApi`; `data.cut` says when the cap stopped it, for the page to say so.

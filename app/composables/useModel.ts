@@ -18,19 +18,17 @@ export function useSiteModels(projectId: MaybeRefOrGetter<string>) {
 
 /** One model with its draft, saved versions and the caller's role, keyed by project and model. */
 export function useSiteModel(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>) {
-  return useApi<ModelDetail | null>(
+  return useApiRecord<ModelDetail>(
     () => `model-${toValue(projectId)}-${toValue(modelId)}`,
     () => modelUrl(toValue(projectId), toValue(modelId)),
-    () => null,
   )
 }
 
 /** One saved version, read-only, with its review (key `model-version:<modelId>:<version>`, refreshed by live version events). */
 export function useSiteModelVersion(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>, version: MaybeRefOrGetter<number>) {
-  return useApi<ModelVersionReply | null>(
+  return useApiRecord<ModelVersionReply>(
     () => `model-version:${toValue(modelId)}:${toValue(version)}`,
     () => `${modelUrl(toValue(projectId), toValue(modelId))}/versions/${toValue(version)}`,
-    () => null,
   )
 }
 

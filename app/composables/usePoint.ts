@@ -6,10 +6,9 @@ export function pointUrl(projectId: string, pointId: string): string {
 
 /** One point with everything logged at it, keyed by project and point (refresh after a write). */
 export function usePoint(projectId: MaybeRefOrGetter<string>, pointId: MaybeRefOrGetter<string>) {
-  return useApi<PointDetail | null>(
+  return useApiRecord<PointDetail>(
     () => `point-${toValue(projectId)}-${toValue(pointId)}`,
     () => pointUrl(toValue(projectId), toValue(pointId)),
-    () => null,
   )
 }
 

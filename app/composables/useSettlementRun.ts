@@ -23,10 +23,9 @@ export function useSettlementRunList(projectId: MaybeRefOrGetter<string>) {
 
 /** One run with its inputs and, once finished, its results. */
 export function useSettlementRunDetail(projectId: MaybeRefOrGetter<string>, runId: MaybeRefOrGetter<string>) {
-  return useApi<{ run: SettlementRun } | null>(
+  return useApiRecord<{ run: SettlementRun }>(
     () => `settlement-run:${toValue(runId)}`,
     () => settlementRunUrl(toValue(projectId), toValue(runId)),
-    () => null,
   )
 }
 

@@ -89,7 +89,7 @@ function surfaceFraction(offset: number, half: number): number {
  * that very small z does not overflow. atan2 picks the (0, π) branch, which is
  * the "add π when m²n² > m² + n² + 1" rule of the tabulated formula.
  */
-function cornerFactor(a: number, b: number, z: number): number {
+export function cornerFactor(a: number, b: number, z: number): number {
   if (a === 0 || b === 0) return 0
   const a2 = a * a
   const b2 = b * b

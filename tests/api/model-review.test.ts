@@ -8,7 +8,8 @@ import { stringify } from 'safe-stable-stringify'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
-import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { type Client, createUser, signedInDemo } from '../helpers/http'
+import { createTrendVersion } from '../helpers/project'
 
 interface Model { id: string, version: number, draft: SiteModelDefinition, basedOn: number | null }
 interface Version {
@@ -40,9 +41,7 @@ afterAll(() => pool.end())
 const sha256OfCanonical = (v: unknown) => createHash('sha256').update(stringify(v) ?? 'null').digest('hex')
 
 describe('version review and approval', () => {
-  let owner: Client
-  let eng: Client
-  let rev: Client
+  const { owner, engineer: eng, reviewer: rev } = signedInDemo('owner', 'engineer', 'reviewer')
   let projectId: string
   let base: string
   const ids: Record<string, string> = {}
@@ -51,9 +50,6 @@ describe('version review and approval', () => {
   let seq = 0
 
   beforeAll(async () => {
-    owner = await signIn(demoEmail('owner'))
-    eng = await signIn(demoEmail('engineer'))
-    rev = await signIn(demoEmail('reviewer'))
     projectId = await createDemoCopy('APR')
     base = `/api/projects/${projectId}/models`
     const members = await owner.get<{ members: { userId: string, role: string }[] }>(`/api/projects/${projectId}/members`)
@@ -67,18 +63,7 @@ describe('version review and approval', () => {
   /** A model saved as version 1 by `by`, its estuarine trend fitted to `included` (σ'p point ids). */
   async function savedVersion(by: Client = eng, included: string[] = []): Promise<{ model: Model, url: string }> {
     seq += 1
-    const m = (await by.post<{ model: Model }>(base, { name: `Review study ${Date.now().toString(36)}-${seq}` })).body.model
-    const draft: SiteModelDefinition = {
-      ...m.draft,
-      strata: m.draft.strata.map(s => s.code === 'EST'
-        ? { ...s, trend: { model: 'pop', logSpace: false, parameters: { pop: 25 }, n: included.length, r2: null, rmse: null, aic: null, aicc: null, includedPointIds: included, excludedPointIds: [] } }
-        : s),
-    }
-    const put = await by.request<{ model: Model }>('PUT', `${base}/${m.id}/draft`, { draft, version: m.version })
-    expect(put.status).toBe(200)
-    const v = await by.post(`${base}/${m.id}/versions`, { message: 'Estuarine trend fitted', version: put.body.model.version })
-    expect(v.status).toBe(201)
-    return { model: m, url: `${base}/${m.id}/versions` }
+    return createTrendVersion<Model>(by, base, `Review study ${Date.now().toString(36)}-${seq}`, { n: included.length, includedPointIds: included })
   }
 
   async function submit(url: string, version = 1, by: Client = eng, reviewerIds = [ids.reviewer!]) {

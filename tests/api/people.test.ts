@@ -5,8 +5,8 @@
 import { createHash, randomBytes } from 'node:crypto'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, TEST_PASSWORD, createUser, demoEmail, signIn, uniqueEmail } from '../helpers/http'
-import { createProject } from '../helpers/project'
+import { Client, TEST_PASSWORD, createUser, demoEmail, signIn, signedInDemo, uniqueEmail, useNewAccount } from '../helpers/http'
+import { createProject, useTestProject } from '../helpers/project'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
 afterAll(() => pool.end())
@@ -40,46 +40,41 @@ interface InviteReply { outcome: string, member?: { userId: string, role: string
 interface Issue { message: string, data?: { state?: string } }
 
 describe('project invitations', () => {
-  let admin: Client
-  let owner: Client
+  const { owner: admin } = signedInDemo('owner')
+  const ownerAccount = useNewAccount(admin, 'inv-owner')
+  const owner = ownerAccount.client
+  // The admin makes the project and hands it to the test's own owner.
+  const project = useTestProject(admin, 'INV', 'Invitation test site', () => [{ email: ownerAccount.email, role: 'owner' }])
+  const invitations = () => `${project.base}/invitations`
   let ownerName: string
-  let projectId: string
-  let base: string
 
   beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-    const o = await createUser(admin, 'inv-owner')
-    owner = o.client
     ownerName = (await owner.get<{ user: { displayName: string } }>('/api/auth/me')).body.user.displayName
-    // The admin makes the project and hands it to the test's own owner.
-    const p = await createProject(admin, 'INV', 'Invitation test site', [{ email: o.email, role: 'owner' }])
-    projectId = p.id
-    base = `/api/projects/${projectId}/invitations`
   })
 
   it('adds an existing account at once (any case of the address), tells them, and refuses a second time with 409', async () => {
     const invitee = await createUser(admin, 'inv-existing')
-    const r = await owner.post<InviteReply>(base, { email: invitee.email.toUpperCase(), role: 'reviewer' })
+    const r = await owner.post<InviteReply>(invitations(), { email: invitee.email.toUpperCase(), role: 'reviewer' })
     expect(r.status).toBe(201)
     expect(r.body.outcome).toBe('member-added')
     expect(r.body.member).toMatchObject({ userId: invitee.id, role: 'reviewer' })
-    const members = await owner.get<{ members: { userId: string, role: string }[] }>(`/api/projects/${projectId}/members`)
+    const members = await owner.get<{ members: { userId: string, role: string }[] }>(`/api/projects/${project.id}/members`)
     expect(members.body.members.find(m => m.userId === invitee.id)?.role).toBe('reviewer')
     const notices = await pool.query<{ kind: string, link: string, project_id: string }>('select kind, link, project_id from notifications where user_id = $1', [invitee.id])
-    expect(notices.rows).toEqual([{ kind: 'member-added', link: `/projects/${projectId}`, project_id: projectId }])
+    expect(notices.rows).toEqual([{ kind: 'member-added', link: `/projects/${project.id}`, project_id: project.id }])
     // The project is theirs to open now.
-    expect((await invitee.client.get(`/api/projects/${projectId}`)).status).toBe(200)
+    expect((await invitee.client.get(`/api/projects/${project.id}`)).status).toBe(200)
     // No invitation row for someone who already has an account.
     expect((await pool.query('select 1 from invitations where lower(email) = lower($1)', [invitee.email])).rowCount).toBe(0)
 
-    const again = await owner.post<Issue>(base, { email: invitee.email, role: 'viewer' })
+    const again = await owner.post<Issue>(invitations(), { email: invitee.email, role: 'viewer' })
     expect(again.status).toBe(409)
     expect(again.body.message).toMatch(/already a member \(reviewer\)/)
   })
 
   it('invites an unknown address: a hashed one-time link by e-mail, listed as pending; accepting creates the account, signs in and joins with the role', async () => {
     const email = uniqueEmail('inv-new')
-    const r = await owner.post<InviteReply>(base, { email, role: 'geologist' })
+    const r = await owner.post<InviteReply>(invitations(), { email, role: 'geologist' })
     expect(r.status).toBe(201)
     expect(r.body.outcome).toBe('invited')
     expect(r.body.invitation).toMatchObject({ email, role: 'geologist' })
@@ -93,28 +88,28 @@ describe('project invitations', () => {
     expect(days).toBeGreaterThan(6.9)
     expect(days).toBeLessThanOrEqual(7)
 
-    const pending = await owner.get<{ invitations: { id: string, email: string, role: string, invitedByName: string }[] }>(base)
+    const pending = await owner.get<{ invitations: { id: string, email: string, role: string, invitedByName: string }[] }>(invitations())
     expect(pending.body.invitations.find(i => i.id === r.body.invitation!.id)).toMatchObject({ email, role: 'geologist', invitedByName: ownerName })
     expect(JSON.stringify(pending.body)).not.toContain(sha256(token))
 
     const guest = anonymous()
     const preview = await guest.get<{ email: string, role: string, project: { id: string }, invitedByName: string }>(`/api/invitations/${token}`)
     expect(preview.status).toBe(200)
-    expect(preview.body).toMatchObject({ email, role: 'geologist', project: { id: projectId }, invitedByName: ownerName })
+    expect(preview.body).toMatchObject({ email, role: 'geologist', project: { id: project.id }, invitedByName: ownerName })
 
     const accepted = await guest.post<{ user: { email: string, displayName: string }, next: string }>(`/api/invitations/${token}/accept`, { displayName: 'Ines Varga', password: NEW_PASSWORD })
     expect(accepted.status).toBe(201)
-    expect(accepted.body.next).toBe(`/projects/${projectId}`)
+    expect(accepted.body.next).toBe(`/projects/${project.id}`)
     expect(guest.cookie).toMatch(/^pastload_session=/)
     const me = await guest.get<{ user: { email: string, displayName: string } }>('/api/auth/me')
     expect(me.body.user).toMatchObject({ email, displayName: 'Ines Varga' })
-    const project = await guest.get<{ role: string }>(`/api/projects/${projectId}`)
-    expect(project.status).toBe(200)
-    expect(project.body.role).toBe('geologist')
+    const asGuest = await guest.get<{ role: string }>(`/api/projects/${project.id}`)
+    expect(asGuest.status).toBe(200)
+    expect(asGuest.body.role).toBe('geologist')
     // The password is theirs: a fresh sign-in works with it.
     expect((await signIn(email, NEW_PASSWORD)).cookie).toMatch(/^pastload_session=/)
     // No longer pending; the link works once.
-    expect((await owner.get<{ invitations: { id: string }[] }>(base)).body.invitations.some(i => i.id === r.body.invitation!.id)).toBe(false)
+    expect((await owner.get<{ invitations: { id: string }[] }>(invitations())).body.invitations.some(i => i.id === r.body.invitation!.id)).toBe(false)
     const reused = await anonymous().post<Issue>(`/api/invitations/${token}/accept`, { displayName: 'Someone Else', password: NEW_PASSWORD })
     expect(reused.status).toBe(410)
     expect(reused.body.data?.state).toBe('used')
@@ -126,7 +121,7 @@ describe('project invitations', () => {
 
   it('refuses a bad name or short password with 400 and leaves the invitation pending', async () => {
     const email = uniqueEmail('inv-short')
-    await owner.post(base, { email, role: 'viewer' })
+    await owner.post(invitations(), { email, role: 'viewer' })
     const token = await linkFromOutbox(email, 'invitation')
     const r = await anonymous().post<{ data: { issues: { path: string }[] } }>(`/api/invitations/${token}/accept`, { displayName: '', password: 'short' })
     expect(r.status).toBe(400)
@@ -138,7 +133,7 @@ describe('project invitations', () => {
   it('says plainly when a link has expired, was withdrawn, is unknown, or its address has an account by now', async () => {
     // Expired: the row's expiry moved into the past.
     const e1 = uniqueEmail('inv-expired')
-    const r1 = await owner.post<InviteReply>(base, { email: e1, role: 'viewer' })
+    const r1 = await owner.post<InviteReply>(invitations(), { email: e1, role: 'viewer' })
     const t1 = await linkFromOutbox(e1, 'invitation')
     await pool.query(`update invitations set expires_at = now() - interval '1 minute' where id = $1`, [r1.body.invitation!.id])
     const expired = await anonymous().get<Issue>(`/api/invitations/${t1}`)
@@ -150,14 +145,14 @@ describe('project invitations', () => {
 
     // Withdrawn from the team panel: the link stops; withdrawing again is 409.
     const e2 = uniqueEmail('inv-revoked')
-    const r2 = await owner.post<InviteReply>(base, { email: e2, role: 'viewer' })
+    const r2 = await owner.post<InviteReply>(invitations(), { email: e2, role: 'viewer' })
     const t2 = await linkFromOutbox(e2, 'invitation')
-    expect((await owner.delete(`${base}/${r2.body.invitation!.id}`)).status).toBe(200)
+    expect((await owner.delete(`${invitations()}/${r2.body.invitation!.id}`)).status).toBe(200)
     const revoked = await anonymous().post<Issue>(`/api/invitations/${t2}/accept`, { displayName: 'Gone', password: NEW_PASSWORD })
     expect(revoked.status).toBe(410)
     expect(revoked.body.data?.state).toBe('revoked')
     expect(revoked.body.message).toMatch(/withdrawn/)
-    expect((await owner.delete(`${base}/${r2.body.invitation!.id}`)).status).toBe(409)
+    expect((await owner.delete(`${invitations()}/${r2.body.invitation!.id}`)).status).toBe(409)
     // Another project's id does not reach this invitation.
     const other = await createProject(admin, 'INV2', 'Other site')
     expect((await admin.delete(`/api/projects/${other.id}/invitations/${r2.body.invitation!.id}`)).status).toBe(404)
@@ -173,7 +168,7 @@ describe('project invitations', () => {
 
     // The address got an account (from an admin) before the invitee answered: 409, sign in instead.
     const e3 = uniqueEmail('inv-taken')
-    await owner.post(base, { email: e3, role: 'viewer' })
+    await owner.post(invitations(), { email: e3, role: 'viewer' })
     const t3 = await linkFromOutbox(e3, 'invitation')
     expect((await admin.post('/api/users', { email: e3, displayName: 'Already Here', password: TEST_PASSWORD })).status).toBe(201)
     const taken = await anonymous().post<Issue>(`/api/invitations/${t3}/accept`, { displayName: 'Second Try', password: NEW_PASSWORD })
@@ -183,9 +178,9 @@ describe('project invitations', () => {
 
   it('a new invitation to the same address withdraws the earlier link', async () => {
     const email = uniqueEmail('inv-again')
-    await owner.post(base, { email, role: 'viewer' })
+    await owner.post(invitations(), { email, role: 'viewer' })
     const first = await linkFromOutbox(email, 'invitation')
-    await owner.post(base, { email, role: 'designer' })
+    await owner.post(invitations(), { email, role: 'designer' })
     const second = await linkFromOutbox(email, 'invitation')
     expect(second).not.toBe(first)
     expect((await anonymous().get<Issue>(`/api/invitations/${first}`)).body.data?.state).toBe('revoked')
@@ -220,10 +215,7 @@ describe('site invitations from the people page', () => {
 })
 
 describe('password reset', () => {
-  let admin: Client
-  beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
-  })
+  const { owner: admin } = signedInDemo('owner')
 
   it('answers 202 with the same message for an unknown and a known address; only the known one gets a link', async () => {
     const known = await createUser(admin, 'reset-known')
@@ -312,10 +304,9 @@ describe('password reset', () => {
 })
 
 describe('people page (site admins)', () => {
-  let admin: Client
+  const { owner: admin } = signedInDemo('owner')
   let adminId: string
   beforeAll(async () => {
-    admin = await signIn(demoEmail('owner'))
     adminId = (await admin.get<{ user: { id: string } }>('/api/auth/me')).body.user.id
   })
 

@@ -7,7 +7,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
-import { type Client, demoEmail, signIn } from '../helpers/http'
+import { signedInDemo } from '../helpers/http'
 
 interface Dense { strata: string[], cpt: { pointId: string, depth: number[], preconsolidation: (number | null)[], effectiveStress: (number | null)[], stratum: number[] }[] }
 interface Answer {
@@ -18,7 +18,7 @@ interface Answer {
 }
 
 describe('σ\'p points through a given stress model', () => {
-  let c: Client
+  const { designer: c, engineer } = signedInDemo('designer', 'engineer')
   let base: string
   let definition: SiteModelDefinition
   let before: Answer
@@ -29,8 +29,6 @@ describe('σ\'p points through a given stress model', () => {
   let k: number
 
   beforeAll(async () => {
-    c = await signIn(demoEmail('designer'))
-    const engineer = await signIn(demoEmail('engineer'))
     // The model it evaluates is made in this file's own copy of the demo site.
     const projectId = await createDemoCopy('EVA')
     base = `/api/projects/${projectId}/preconsolidation-points`

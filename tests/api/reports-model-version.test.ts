@@ -4,8 +4,9 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { RESULT_CAUTION } from '../../shared/caution'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
-import { type Client, createUser, demoEmail, signIn } from '../helpers/http'
+import { type Client, createUser, signedInDemo } from '../helpers/http'
 import { pdfInfo, pdfPagesText, pdfPageToPng } from '../helpers/pdf'
+import { createTrendVersion } from '../helpers/project'
 
 interface Model { id: string, version: number, draft: SiteModelDefinition }
 const flat = (s: string) => s.replace(/\s+/g, ' ')
@@ -17,8 +18,7 @@ async function getPdf(c: Client, path: string): Promise<{ status: number, type: 
 }
 
 describe('site-model version report', () => {
-  let eng: Client
-  let rev: Client
+  const { engineer: eng, reviewer: rev, owner } = signedInDemo('engineer', 'reviewer', 'owner')
   let viewer: Client
   let projectId: string
   let jobNumber: string
@@ -27,24 +27,9 @@ describe('site-model version report', () => {
   let approved: { id: string, hash: string }
   let unapproved: string
 
-  async function savedVersion(name: string): Promise<{ model: Model, url: string }> {
-    const m = (await eng.post<{ model: Model }>(base, { name })).body.model
-    const draft: SiteModelDefinition = {
-      ...m.draft,
-      strata: m.draft.strata.map(s => s.code === 'EST'
-        ? { ...s, trend: { model: 'pop', logSpace: false, parameters: { pop: 25 }, n: 12, r2: 0.81, rmse: 6.4, aic: 40.2, aicc: 41.6, includedPointIds: [], excludedPointIds: [] } }
-        : s),
-    }
-    const put = await eng.request<{ model: Model }>('PUT', `${base}/${m.id}/draft`, { draft, version: m.version })
-    expect(put.status).toBe(200)
-    expect((await eng.post(`${base}/${m.id}/versions`, { message: 'Estuarine trend for the report', version: put.body.model.version })).status).toBe(201)
-    return { model: m, url: `${base}/${m.id}/versions` }
-  }
+  const savedVersion = (name: string) => createTrendVersion<Model>(eng, base, name, { n: 12, r2: 0.81, rmse: 6.4, aic: 40.2, aicc: 41.6 }, 'Estuarine trend for the report')
 
   beforeAll(async () => {
-    eng = await signIn(demoEmail('engineer'))
-    rev = await signIn(demoEmail('reviewer'))
-    const owner = await signIn(demoEmail('owner'))
     projectId = await createDemoCopy('RMV')
     const viewerAccount = await createUser(owner, 'rmv-viewer')
     expect((await owner.post(`/api/projects/${projectId}/members`, { email: viewerAccount.email, role: 'viewer' })).status).toBe(201)

@@ -3,7 +3,7 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import { signedInDemo, useNewAccount } from '../helpers/http'
 import { testBody } from '../helpers/lab'
-import { createPoint, createProject } from '../helpers/project'
+import { createPoint, useTestProject } from '../helpers/project'
 import { upload } from '../helpers/upload'
 
 interface Stage { stress: number, entered: number, voidRatio: number, readings?: { minutes: number, dial: number }[] }
@@ -28,18 +28,14 @@ describe('test-data imports', () => {
   const { owner, engineer, reviewer } = signedInDemo('owner', 'engineer', 'reviewer')
   const viewerAccount = useNewAccount(owner, 'tdi-viewer')
   const viewer = viewerAccount.client
-  let projectId: string
-  let base: string
+  // A project of each test's own: the engineer, the reviewer and a viewer as members, borehole BH-T1 with tube U1.
+  const project = useTestProject(owner, 'TDI', 'Test data import site', () => ['engineer', 'reviewer', { email: viewerAccount.email, role: 'viewer' }], { each: true })
   let pointId: string
   let sampleId: string
 
-  // A project of each test's own: the engineer, the reviewer and a viewer as members, borehole BH-T1 with tube U1.
   beforeEach(async () => {
-    const project = await createProject(owner, 'TDI', 'Test data import site', ['engineer', 'reviewer', { email: viewerAccount.email, role: 'viewer' }])
-    projectId = project.id
-    base = project.base
-    pointId = await createPoint(engineer, projectId, { identifier: 'BH-T1' })
-    const s = await engineer.post<{ sample: { id: string } }>(`${base}/points/${pointId}/samples`, { identifier: 'U1', top: 4.5, bottom: 5, type: 'thin-walled-tube' })
+    pointId = await createPoint(engineer, project.id, { identifier: 'BH-T1' })
+    const s = await engineer.post<{ sample: { id: string } }>(`${project.base}/points/${pointId}/samples`, { identifier: 'U1', top: 4.5, bottom: 5, type: 'thin-walled-tube' })
     sampleId = s.body.sample.id
   })
 
@@ -47,33 +43,33 @@ describe('test-data imports', () => {
   async function freshTest(): Promise<TestJson> {
     const body = testBody(sampleId, `OED-${Date.now().toString(36)}`)
     body.stages[0]!.readings = [{ minutes: 0, dial: 0 }, { minutes: 1, dial: 0.05 }, { minutes: 4, dial: 0.08 }]
-    const r = await engineer.post<{ test: TestJson }>(`${base}/tests/oedometer`, body)
+    const r = await engineer.post<{ test: TestJson }>(`${project.base}/tests/oedometer`, body)
     expect(r.status).toBe(201)
     return r.body.test
   }
-  const getTest = async (id: string) => (await engineer.get<{ test: TestJson }>(`${base}/tests/oedometer/${id}`)).body.test
-  const audit = async () => (await engineer.get<{ events: AuditEvent[] }>(`${base}/audit?limit=100`)).body.events
+  const getTest = async (id: string) => (await engineer.get<{ test: TestJson }>(`${project.base}/tests/oedometer/${id}`)).body.test
+  const audit = async () => (await engineer.get<{ events: AuditEvent[] }>(`${project.base}/audit?limit=100`)).body.events
 
   async function uploadStages(csv = STAGES_CSV, name = 'stages.csv') {
-    const up = await upload<{ importId: string }>(engineer, `${base}/imports`, name, csv)
+    const up = await upload<{ importId: string }>(engineer, `${project.base}/imports`, name, csv)
     expect(up.status).toBe(201)
-    const pre = await engineer.get<{ preview: { mapping: Record<string, string> } }>(`${base}/imports/${up.body.importId}?target=oedometer-stages`)
+    const pre = await engineer.get<{ preview: { mapping: Record<string, string> } }>(`${project.base}/imports/${up.body.importId}?target=oedometer-stages`)
     return { importId: up.body.importId, mapping: pre.body.preview.mapping }
   }
 
   it('replaces a test\'s stages from a strain file: values converted, readings kept, version bumped, adoption withdrawn, audited', async () => {
     const test = await freshTest()
-    const adopt = await engineer.post<{ adoption: { id: string } }>(`${base}/tests/oedometer/${test.id}/adoptions`, { method: 'typed', value: 80, reason: 'from the first curve' })
+    const adopt = await engineer.post<{ adoption: { id: string } }>(`${project.base}/tests/oedometer/${test.id}/adoptions`, { method: 'typed', value: 80, reason: 'from the first curve' })
     expect(adopt.status).toBe(201)
     const { importId, mapping } = await uploadStages()
     expect(mapping).toEqual({ stage: 'Stage', stress: 'Effective stress (kPa)', strain: 'Strain (%)' })
 
-    const dry = await engineer.post<{ rowCount: number }>(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version, dryRun: true })
+    const dry = await engineer.post<{ rowCount: number }>(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version, dryRun: true })
     expect(dry.status).toBe(200)
     expect(dry.body.rowCount).toBe(7)
     expect((await getTest(test.id)).version).toBe(1)
 
-    const r = await engineer.post<{ written: number }>(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
+    const r = await engineer.post<{ written: number }>(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
     expect(r.status, JSON.stringify(r.body)).toBe(200)
     expect(r.body.written).toBe(7)
     const after = await getTest(test.id)
@@ -86,7 +82,7 @@ describe('test-data imports', () => {
     expect(after.stages[0]!.readings).toEqual([{ minutes: 0, dial: 0 }, { minutes: 1, dial: 0.05 }, { minutes: 4, dial: 0.08 }])
     expect(after.stages.slice(1).every(s => s.readings === undefined)).toBe(true)
 
-    const history = await engineer.get<{ history: { id: string, supersededAt: string | null }[] }>(`${base}/tests/oedometer/${test.id}/adoptions`)
+    const history = await engineer.get<{ history: { id: string, supersededAt: string | null }[] }>(`${project.base}/tests/oedometer/${test.id}/adoptions`)
     expect(history.body.history.find(a => a.id === adopt.body.adoption.id)!.supersededAt).not.toBeNull()
 
     const events = await audit()
@@ -97,17 +93,17 @@ describe('test-data imports', () => {
     expect(events.some(e => e.action === 'withdraw' && e.entityId === adopt.body.adoption.id)).toBe(true)
 
     // The same mapping is remembered for the next stage file.
-    const next = await upload<{ importId: string }>(engineer, `${base}/imports`, 'again.csv', STAGES_CSV)
-    const saved = await engineer.get<{ preview: { mappingSource: string } }>(`${base}/imports/${next.body.importId}?target=oedometer-stages`)
+    const next = await upload<{ importId: string }>(engineer, `${project.base}/imports`, 'again.csv', STAGES_CSV)
+    const saved = await engineer.get<{ preview: { mappingSource: string } }>(`${project.base}/imports/${next.body.importId}?target=oedometer-stages`)
     expect(saved.body.preview.mappingSource).toBe('saved')
   })
 
   it('refuses a stale test version with 409 and the current test, writing nothing', async () => {
     const test = await freshTest()
-    const patched = await engineer.patch<{ test: TestJson }>(`${base}/tests/oedometer/${test.id}`, { remarks: 'edited meanwhile', version: test.version })
+    const patched = await engineer.patch<{ test: TestJson }>(`${project.base}/tests/oedometer/${test.id}`, { remarks: 'edited meanwhile', version: test.version })
     expect(patched.status).toBe(200)
     const { importId, mapping } = await uploadStages()
-    const r = await engineer.post<Report>(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
+    const r = await engineer.post<Report>(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
     expect(r.status).toBe(409)
     expect(r.body.data.current!.version).toBe(2)
     const now = await getTest(test.id)
@@ -131,7 +127,7 @@ describe('test-data imports', () => {
     ].join('\n')
     const { importId, mapping } = await uploadStages(csv, 'broken.csv')
     expect(mapping).toEqual({ stage: 'stage', stress: 'stress', voidRatio: 'e' })
-    const r = await engineer.post<Report>(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
+    const r = await engineer.post<Report>(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
     expect(r.status).toBe(422)
     expect(r.body.data.errors).toEqual([
       { row: 3, column: 'stress', message: 'Stage 2: the effective stress must be a positive number (got -20 kPa).' },
@@ -147,12 +143,12 @@ describe('test-data imports', () => {
   it('asks for exactly one value column, and for the test', async () => {
     const test = await freshTest()
     const { importId } = await uploadStages('stress,e,strain\n10,2,1\n')
-    const two = await engineer.post<Report>(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e', strain: 'strain' }, testId: test.id, testVersion: 1 })
+    const two = await engineer.post<Report>(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e', strain: 'strain' }, testId: test.id, testVersion: 1 })
     expect(two.status).toBe(422)
     expect(two.body.data.mappingProblems).toEqual(['Map only one of Void ratio e, Strain ε (%), Compression Δh (mm): it sets how the stages are read.'])
-    const noTest = await engineer.post(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e' } })
+    const noTest = await engineer.post(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e' } })
     expect(noTest.status).toBe(400)
-    const otherTest = await engineer.post(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e' }, testId: '00000000-0000-4000-8000-000000000000', testVersion: 1 })
+    const otherTest = await engineer.post(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping: { stress: 'stress', voidRatio: 'e' }, testId: '00000000-0000-4000-8000-000000000000', testVersion: 1 })
     expect(otherTest.status).toBe(404)
   })
 
@@ -160,40 +156,40 @@ describe('test-data imports', () => {
     const test = await freshTest()
     const { importId, mapping } = await uploadStages()
     for (const c of [viewer, reviewer]) {
-      const r = await c.post(`${base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
+      const r = await c.post(`${project.base}/imports/${importId}/commit`, { target: 'oedometer-stages', mapping, testId: test.id, testVersion: test.version })
       expect(r.status).toBe(403)
-      expect((await upload(c, `${base}/imports`, 's.csv', STAGES_CSV)).status).toBe(403)
+      expect((await upload(c, `${project.base}/imports`, 's.csv', STAGES_CSV)).status).toBe(403)
     }
     expect((await getTest(test.id)).version).toBe(1)
   })
 
   it('adds vane readings to the points the file names and reads them back', async () => {
     const csv = 'Point,Depth (m),Peak su (kPa),Remoulded su (kPa)\nBH-T1,4,18.5,4.2\nBH-T1,5,21.0,\nBH-T1,6,24.3,5.9\n'
-    const up = await upload<{ importId: string }>(engineer, `${base}/imports`, 'vane.csv', csv)
-    const pre = await engineer.get<{ preview: { mapping: Record<string, string> } }>(`${base}/imports/${up.body.importId}?target=vane`)
+    const up = await upload<{ importId: string }>(engineer, `${project.base}/imports`, 'vane.csv', csv)
+    const pre = await engineer.get<{ preview: { mapping: Record<string, string> } }>(`${project.base}/imports/${up.body.importId}?target=vane`)
     expect(pre.body.preview.mapping).toEqual({ point: 'Point', depth: 'Depth (m)', peak: 'Peak su (kPa)', remoulded: 'Remoulded su (kPa)' })
-    const r = await engineer.post<{ written: number }>(`${base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: pre.body.preview.mapping })
+    const r = await engineer.post<{ written: number }>(`${project.base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: pre.body.preview.mapping })
     expect(r.status, JSON.stringify(r.body)).toBe(200)
     expect(r.body.written).toBe(3)
-    const point = await engineer.get<{ vane: { depth: number, peak: number, remoulded: number | null }[] }>(`${base}/points/${pointId}`)
+    const point = await engineer.get<{ vane: { depth: number, peak: number, remoulded: number | null }[] }>(`${project.base}/points/${pointId}`)
     expect(point.body.vane.map(v => [v.depth, v.peak, v.remoulded])).toEqual([[4, 18.5, 4.2], [5, 21, null], [6, 24.3, 5.9]])
     expect((await audit()).find(e => e.entity === 'vane' && e.action === 'import')!.after).toMatchObject({ filename: 'vane.csv', rows: 3 })
   })
 
   it('refuses a vane file with an unknown point, a reading already there or a bad strength, adding nothing', async () => {
-    for (const [depth, peak] of [[4, 18.5], [5, 21], [6, 24.3]] as const) expect((await engineer.post(`${base}/points/${pointId}/vane`, { depth, peak })).status).toBe(201)
+    for (const [depth, peak] of [[4, 18.5], [5, 21], [6, 24.3]] as const) expect((await engineer.post(`${project.base}/points/${pointId}/vane`, { depth, peak })).status).toBe(201)
     const csv = 'hole,depth,su,sur\nBH-T1,7,20,\nBH-99,4,20,\nBH-T1,4,19,\nBH-T1,8,-3,\n'
-    const up = await upload<{ importId: string }>(engineer, `${base}/imports`, 'vane-bad.csv', csv)
-    const r = await engineer.post<Report>(`${base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'hole', depth: 'depth', peak: 'su', remoulded: 'sur' } })
+    const up = await upload<{ importId: string }>(engineer, `${project.base}/imports`, 'vane-bad.csv', csv)
+    const r = await engineer.post<Report>(`${project.base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'hole', depth: 'depth', peak: 'su', remoulded: 'sur' } })
     expect(r.status).toBe(422)
     expect(r.body.data.errors).toEqual([
       { row: 3, column: 'hole', message: 'Point BH-99 is not in this project.' },
       { row: 4, column: 'depth', message: 'BH-T1 already has a vane reading at 4 m.' },
       { row: 5, column: 'su', message: 'Peak su (kPa) must be above 0 kPa.' },
     ])
-    const point = await engineer.get<{ vane: { depth: number }[] }>(`${base}/points/${pointId}`)
+    const point = await engineer.get<{ vane: { depth: number }[] }>(`${project.base}/points/${pointId}`)
     expect(point.body.vane.map(v => v.depth)).toEqual([4, 5, 6])
-    const denied = await reviewer.post(`${base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'hole', depth: 'depth', peak: 'su' } })
+    const denied = await reviewer.post(`${project.base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'hole', depth: 'depth', peak: 'su' } })
     expect(denied.status).toBe(403)
   })
 })

@@ -2,6 +2,7 @@
 // in one run (best of several interleaved repetitions). Run by `npm run bench`.
 import { performance } from 'node:perf_hooks'
 import { linearRegression } from 'simple-statistics'
+import { cornerFactor } from '../../shared/geotech/loads'
 import { computeSettlement } from '../../shared/geotech/settlement'
 import { planStressIncrease, type PlanLoad } from '../../shared/geotech/plan-loads'
 import { computeStressProfile, createStressEvaluator } from '../../shared/geotech/stress'
@@ -139,8 +140,9 @@ function trendBench(n: number): BenchRow {
 
 /**
  * Δσz under plan loads on a settlement grid: 41 × 41 points × 100 depths per load, set-up per
- * point included. Baseline: a bare loop of Newmark's (1935) corner formula for a rectangle of
- * the same footprint at the same points and depths (the cheapest exact area formula).
+ * point included. Baseline: a bare loop of Newmark's (1935) corner formula (the engine's own
+ * `cornerFactor`) for a rectangle of the same footprint at the same points and depths (the cheapest
+ * exact area formula).
  */
 function planLoadBench(): BenchRow[] {
   const side = 41
@@ -148,17 +150,7 @@ function planLoadBench(): BenchRow[] {
   const points: [number, number][] = []
   for (let i = 0; i < side; i++) for (let j = 0; j < side; j++) points.push([-40 + 2 * i, -40 + 2 * j])
   const evals = points.length * depths.length
-  const corner = (a: number, b: number, z: number) => {
-    const a2 = a * a
-    const b2 = b * b
-    const z2 = z * z
-    const r2 = a2 + b2 + z2
-    const r = Math.sqrt(r2)
-    const ab = a * b
-    const num = 2 * ab * z * r
-    return ((num * (a2 + b2 + 2 * z2)) / ((z2 * r2 + ab * ab) * r2) + Math.atan2(num, z2 * r2 - ab * ab)) / (4 * Math.PI)
-  }
-  const signed = (dx: number, dy: number, z: number) => Math.sign(dx) * Math.sign(dy) * corner(Math.abs(dx), Math.abs(dy), z)
+  const signed = (dx: number, dy: number, z: number) => Math.sign(dx) * Math.sign(dy) * cornerFactor(Math.abs(dx), Math.abs(dy), z)
   const bareRectangle = (hx: number, hy: number, q: number) => () => {
     let s = 0
     for (const [x, y] of points) {

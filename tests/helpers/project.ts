@@ -1,6 +1,8 @@
 // Projects and points of a test's own, made through the public API.
+import { beforeAll, beforeEach } from 'vitest'
 import type { ProjectRole } from '../../shared/auth/roles'
 import type { PointKind } from '../../shared/investigation/types'
+import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { type Client, demoEmail, type Reply } from './http'
 
 let seq = 0
@@ -38,6 +40,21 @@ export async function createProject(owner: Client, tag: string, name: string, me
   return project
 }
 
+/**
+ * A project of the describe block's own, like `useDemoCopy`: made by `owner` with `members` (a function, so
+ * that accounts the block's own hooks create can be named) in a `beforeAll`, or anew before each test with
+ * `{ each: true }`. `project.id` and `project.base` are set once the tests run.
+ */
+export function useTestProject(owner: Client, tag: string, name: string, members: () => MemberSpec[] = () => [], options: { each?: boolean } = {}): Readonly<TestProject> {
+  const project: TestProject = { id: '', base: '' }
+  const make = async () => {
+    Object.assign(project, await createProject(owner, tag, name, members()))
+  }
+  if (options.each) beforeEach(make)
+  else beforeAll(make)
+  return project
+}
+
 export async function addMember(owner: Client, projectId: string, member: MemberSpec): Promise<void> {
   const body = typeof member === 'string' ? { email: demoEmail(member), role: member } : member
   await must(`adding ${body.email} as ${body.role}`, owner.post(`/api/projects/${projectId}/members`, body), 201)
@@ -70,4 +87,20 @@ export async function createSavedModel(c: Client, projectId: string, name = 'Des
   const url = `/api/projects/${projectId}/models/${created.model.id}`
   await must(`saving version 1 of ${name}`, c.post(`${url}/versions`, { message: 'Started from the logs', version: created.model.version }), 201)
   return { id: created.model.id, url }
+}
+
+type StratumTrend = NonNullable<SiteModelDefinition['strata'][number]['trend']>
+
+/**
+ * A new site model in the project whose models live at `modelsUrl`, made by `c` and saved as version 1
+ * with the estuarine stratum's (EST) σ'p trend set: POP 25 kPa unless `trend` says otherwise (its fit
+ * figures null, no points). Returns the model as created and its versions URL.
+ */
+export async function createTrendVersion<M extends { id: string, version: number, draft: SiteModelDefinition }>(c: Client, modelsUrl: string, name: string, trend: Partial<StratumTrend> = {}, message = 'Estuarine trend fitted'): Promise<{ model: M, url: string }> {
+  const { model } = await must(`creating model ${name}`, c.post<{ model: M }>(modelsUrl, { name }), 201)
+  const estuarine: StratumTrend = { model: 'pop', logSpace: false, parameters: { pop: 25 }, n: 0, r2: null, rmse: null, aic: null, aicc: null, includedPointIds: [], excludedPointIds: [], ...trend }
+  const draft: SiteModelDefinition = { ...model.draft, strata: model.draft.strata.map(s => (s.code === 'EST' ? { ...s, trend: estuarine } : s)) }
+  const put = await must(`saving the draft of ${name}`, c.request<{ model: M }>('PUT', `${modelsUrl}/${model.id}/draft`, { draft, version: model.version }))
+  await must(`saving version 1 of ${name}`, c.post(`${modelsUrl}/${model.id}/versions`, { message, version: put.model.version }), 201)
+  return { model, url: `${modelsUrl}/${model.id}/versions` }
 }

@@ -1,9 +1,10 @@
 // @vitest-environment happy-dom
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { sessionKey, useSettlementDraftStore } from '../../app/stores/settlementDraft'
 import { CreateSettlementRunSchema, MAX_GRID_POINTS, RUN_OPTION_DEFAULTS } from '../../shared/schemas/settlement-runs'
 import { draftOutlines, gridPointCount, requestOf, siFromTyped, type RunInputs } from '../../shared/settlement-run/draft'
+import { useFreshStores } from '../helpers/stores'
 
 const PROJECT = '3c1f9a52-7d7e-4b0e-9f57-1a2b3c4d5e6f'
 const MODEL = { modelId: '7a1e2c9b-4d1f-4a55-9a0e-2f6c1b3d8e10', version: 1 }
@@ -15,10 +16,7 @@ function openStore() {
 }
 
 describe('the settlement run draft', () => {
-  beforeEach(() => {
-    sessionStorage.clear()
-    setActivePinia(createPinia())
-  })
+  useFreshStores()
 
   it('draws an embankment from a dragged box: the toe is the box, the crest two slope widths inside it', () => {
     const s = openStore()

@@ -1,12 +1,13 @@
 // @vitest-environment happy-dom
 import { createPinia, setActivePinia } from 'pinia'
-import { beforeEach, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { SITE_MODEL_SCHEMA_VERSION, SiteModelDefinitionSchema, stratumBounds, type SiteModelDefinition } from '../../../shared/site-model/definition'
 import { computeStressProfile } from '../../../shared/geotech/stress'
 import { toStressInput } from '../../../shared/site-model/convert'
 import { depthTrendCandidates, type TestCompressibility } from '../../../shared/site-model/compressibility'
 import { diffDefinitions } from '../../../shared/site-model/diff'
 import { HISTORY_LIMIT, localKey, useModelEditorStore } from '../../../app/stores/modelEditor'
+import { useFreshStores } from '../../helpers/stores'
 import {
   addPiezometer, modelBase, moveBoundary, movePiezometer, removeBoundary, setBandStratum, setCompressibility,
   setCompressibilityTrend, setTrend, setUnitWeight, setWaterTable, splitBand, stableJson,
@@ -80,15 +81,18 @@ describe('site-model edits', () => {
   })
 })
 
+/** The store with the Saltmarsh Lane profile loaded as draft revision `revision` of MODEL. */
+function editing(revision: number) {
+  const s = useModelEditorStore()
+  s.load(MODEL, saltmarsh(), revision)
+  return s
+}
+
 describe('the model editing session', () => {
-  beforeEach(() => {
-    localStorage.clear()
-    setActivePinia(createPinia())
-  })
+  useFreshStores()
 
   it('an edit changes the draft and σ\'v0 follows it; undo and redo walk the history', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 3)
+    const s = editing(3)
     expect(s.dirty).toBe(false)
     // σ'v0 at 10 m, water table at 1.57 m: 1.22·19 + 0.35·18 + 1.87·18.5 + 6.56·16 − 9.81·8.43 = 169.04 − 82.70 = 86.34 kPa.
     expect(effectiveAt(s.draft!, 10)).toBeCloseTo(86.34, 1)
@@ -120,8 +124,7 @@ describe('the model editing session', () => {
   })
 
   it('a new edit after an undo drops the redo branch', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 1)
+    const s = editing(1)
     s.edit('Table', d => setWaterTable(d, 2))
     s.undo()
     expect(s.canRedo).toBe(true)
@@ -131,8 +134,7 @@ describe('the model editing session', () => {
   })
 
   it('the moves of one drag undo as one step, and an edit that changes nothing leaves no entry', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 1)
+    const s = editing(1)
     s.edit('Add a control point', d => addPiezometer(d, { depth: 12, porePressure: 102 }))
     const g = s.startGesture()
     for (const u of [98, 94.5, 90.04]) s.edit('Drag the control point', d => movePiezometer(d, 0, { depth: 12, porePressure: u }), { gesture: g })
@@ -151,8 +153,7 @@ describe('the model editing session', () => {
   })
 
   it('keeps at most the history limit', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 1)
+    const s = editing(1)
     for (let i = 1; i <= HISTORY_LIMIT + 20; i++) s.edit('Table', d => setWaterTable(d, 1 + i / 1000))
     expect(s.past).toHaveLength(HISTORY_LIMIT)
     for (let i = 0; i < HISTORY_LIMIT; i++) s.undo()
@@ -161,8 +162,7 @@ describe('the model editing session', () => {
   })
 
   it('pending exclusions of a stratum without a trend are part of the session and its history', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 1)
+    const s = editing(1)
     s.edit('Leave out a point', (d, p) => ({ draft: d, pendingExcluded: { ...p, EST: ['cpt:x:4500'] } }))
     expect(s.pendingExcluded).toEqual({ EST: ['cpt:x:4500'] })
     expect(s.dirty).toBe(false)
@@ -183,8 +183,7 @@ describe('the model editing session', () => {
 
     // A new page: a fresh store reads the same server draft.
     setActivePinia(createPinia())
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 4)
+    const s = editing(4)
     expect(s.draft!.groundwater.waterTableDepth).toBe(1.57)
     expect(s.recovery?.revision).toBe(4)
     expect(s.recovery?.snapshot.draft.strata[1]!.thickness).toBe(2.68)
@@ -217,16 +216,14 @@ describe('the model editing session', () => {
   it('a local copy equal to the server draft is not offered, and a corrupt one is dropped', () => {
     localStorage.setItem(localKey(MODEL, 5), JSON.stringify({ modelId: MODEL, revision: 5, savedAt: '2026-01-01T00:00:00Z', snapshot: { draft: JSON.parse(stableJson(saltmarsh())), pendingExcluded: {} } }))
     localStorage.setItem(localKey(MODEL, 6), '{not json')
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 5)
+    const s = editing(5)
     expect(s.recovery).toBeNull()
     expect(localStorage.getItem(localKey(MODEL, 5))).toBeNull()
     expect(localStorage.getItem(localKey(MODEL, 6))).toBeNull()
   })
 
   it('saving clears the dirty flag and the local copy; edits made during the save stay dirty under the new revision', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 7)
+    const s = editing(7)
     s.edit('Table', d => setWaterTable(d, 2.5))
     const sent = s.draft!
     s.edit('Unit weight', d => setUnitWeight(d, 0, 'unitWeight', 19.5))
@@ -245,8 +242,7 @@ describe('the model editing session', () => {
   })
 
   it('after a conflict, taking their draft can be undone back to yours', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 2)
+    const s = editing(2)
     s.edit('Table', d => setWaterTable(d, 2.2))
     const theirs = setUnitWeight(saltmarsh(), 2, 'unitWeightSaturated', 15.8)
     s.takeTheirs(theirs, 3)
@@ -261,8 +257,7 @@ describe('the model editing session', () => {
   })
 
   it('keeping yours after a conflict rebases onto their revision and stays dirty', () => {
-    const s = useModelEditorStore()
-    s.load(MODEL, saltmarsh(), 2)
+    const s = editing(2)
     s.edit('Table', d => setWaterTable(d, 2.2))
     s.rebaseOnto(setWaterTable(saltmarsh(), 1.9), 3)
     expect(s.revision).toBe(3)
