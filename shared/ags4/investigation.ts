@@ -685,7 +685,7 @@ function sptOfRow(reader: Reader, group: AgsGroup, row: AgsRow, count: (h: strin
   const unreadable = 'SPT rows without blows Pastload can read (ISPT_INC1–6, ISPT_REP, or ISPT_NVAL) were not imported'
   const slots = [1, 2, 3, 4, 5, 6].map(i => ({ blows: count(`ISPT_INC${i}`), penetration: mm(`ISPT_PEN${i}`) }))
   if (slots.some(s => s.blows !== null)) {
-    const take = (list: typeof slots) => list.filter(s => s.blows !== null).map(s => ({ blows: s.blows!, penetration: s.penetration ?? SPT_INCREMENT_MM }))
+    const take = (list: typeof slots) => list.flatMap(s => (s.blows === null ? [] : [{ blows: s.blows, penetration: s.penetration ?? SPT_INCREMENT_MM }]))
     const test = take(slots.slice(2))
     if (!test.length) return unreadable
     return sptFromIncrements(take(slots.slice(0, 2)), test)

@@ -95,10 +95,8 @@ function drive(tokens: Token[], length: number, name: string): SptIncrement[] | 
     }
   }
   const incs: SptIncrement[] = full.map(t => ({ blows: t.blows, penetration: each }))
-  if (partialAt >= 0) {
-    const last = tokens[partialAt]!
-    incs.push({ blows: last.blows, penetration: last.penetration! })
-  }
+  const last = tokens[partialAt]
+  if (last && last.penetration !== null) incs.push({ blows: last.blows, penetration: last.penetration })
   const reached = incs.reduce((s, i) => s + i.penetration, 0)
   if (reached > length) return `The ${name} adds up to ${reached} mm, more than its ${length} mm.`
   return incs
@@ -158,7 +156,7 @@ function sequence(tokens: Token[]): { seating: SptIncrement[], test: SptIncremen
 
 /** Reads the blows of one SPT as written on the log. */
 export function parseSptBlows(input: string): SptParse {
-  if (input.length > SPT_TEXT_MAX) return fail(`Blows are too long: keep them under ${SPT_TEXT_MAX} characters.`)
+  if (input.length > SPT_TEXT_MAX) return fail(`Too long: keep the blows under ${SPT_TEXT_MAX} characters.`)
   let text = input.trim().toLowerCase().replace(/(\d)\s*mm\b/g, '$1mm').replace(/\s*\/\s*(?=\d)/g, m => (/\s/.test(m) ? ' / ' : '/'))
   let stated: number | null = null
   const nMatch = /\s*,?\s*n\s*=\s*(\d+)\s*$/.exec(text)
@@ -166,7 +164,7 @@ export function parseSptBlows(input: string): SptParse {
     stated = Number(nMatch[1])
     text = text.slice(0, nMatch.index).trim()
   }
-  if (!text) return fail('Blows are empty: write them as counted, for example 2 3 / 4 5 6 7, or 25/75 50/40 when the drive stopped short.')
+  if (!text) return fail('Nothing written: write the blows as counted, for example 2 3 / 4 5 6 7, or 25/75 50/40 when the drive stopped short.')
   // The reported form "6,8/8,9,9,9": one slash between two comma lists of counts.
   const reported = /^(\d+(?:,\d+)*)\/(\d+(?:,\d+)*)$/.exec(text)
   if (reported && text.includes(',')) text = `${reported[1]} / ${reported[2]}`
@@ -176,9 +174,9 @@ export function parseSptBlows(input: string): SptParse {
   const halves = text.split(/\s\/\s|^\/\s*/)
   if (halves.length > 2) return fail('Write one slash between the seating and the test drive, for example 2 3 / 4 5 6 7.')
   if (halves.length === 2) {
-    const seatTokens = readList(halves[0]!)
+    const seatTokens = readList(halves[0] ?? '')
     if (typeof seatTokens === 'string') return fail(seatTokens)
-    const testTokens = readList(halves[1]!)
+    const testTokens = readList(halves[1] ?? '')
     if (typeof testTokens === 'string') return fail(testTokens)
     if (!testTokens.length) return fail('Give the test drive\'s blows after the slash (for example 2 3 / 4 5 6 7).')
     const seating = seatTokens.length ? drive(seatTokens, SPT_SEATING_MM, 'seating drive') : []
@@ -190,14 +188,15 @@ export function parseSptBlows(input: string): SptParse {
   else {
     const tokens = readList(text)
     if (typeof tokens === 'string') return fail(tokens)
-    if (tokens.length === 1) {
+    const [t0] = tokens
+    if (tokens.length === 1 && t0) {
       // One value alone is the test drive's result: N, or blows/mm when it stopped short.
-      const t = tokens[0]!
+      const t = t0
       if (t.penetration !== null && t.penetration > SPT_TEST_MM) return fail(`The test drive adds up to ${t.penetration} mm, more than its ${SPT_TEST_MM} mm.`)
       result = { seating: [], test: [{ blows: t.blows, penetration: t.penetration ?? SPT_TEST_MM }] }
     }
-    else if (tokens.length === 3 && tokens.every(t => t.penetration === null)) {
-      result = { seating: [{ blows: tokens[0]!.blows, penetration: 150 }], test: tokens.slice(1).map(t => ({ blows: t.blows, penetration: 150 })) }
+    else if (t0 && tokens.length === 3 && tokens.every(t => t.penetration === null)) {
+      result = { seating: [{ blows: t0.blows, penetration: 150 }], test: tokens.slice(1).map(t => ({ blows: t.blows, penetration: 150 })) }
     }
     else {
       result = sequence(tokens)
@@ -265,8 +264,9 @@ export function sptStored(value: SptBlows): SptStored {
  * the test drive's penetration when it stopped short.
  */
 export function sptFromStored(row: { blows: readonly number[], n: number, penetration: number | null, penetrations?: readonly number[] | null, seating?: number | null }): SptBlows {
-  if (row.penetrations && row.penetrations.length === row.blows.length && row.seating !== null && row.seating !== undefined) {
-    const all = row.blows.map((b, i) => ({ blows: b, penetration: row.penetrations![i]! }))
+  const pens = row.penetrations
+  if (pens && pens.length === row.blows.length && row.seating !== null && row.seating !== undefined) {
+    const all = row.blows.map((b, i) => ({ blows: b, penetration: pens[i] ?? 0 }))
     return sptFromIncrements(all.slice(0, row.seating), all.slice(row.seating))
   }
   const [seat = 0, first = 0, second = 0] = row.blows

@@ -81,7 +81,7 @@ describe('parseSptBlows', () => {
   })
 
   it('refuses unreadable text in plain words', () => {
-    expect(refused('')).toContain('Blows are empty')
+    expect(refused('')).toContain('Nothing written')
     expect(refused('abc')).toContain('“abc” is not a blow count')
     expect(refused('2 3 / 4 5 6')).toBe('The test drive has 3 counts: give one count (300 mm), two (150 mm each) or four (75 mm each), or write the last as blows/mm if it stopped short.')
     expect(refused('2 3 4 5')).toBe('The test drive has 150 mm of its 300 mm: give the remaining counts, or write the last as blows/mm if it stopped short.')
@@ -93,7 +93,7 @@ describe('parseSptBlows', () => {
     expect(refused('2 3 /')).toContain('after the slash')
     expect(refused('1 / 2 / 3')).toContain('one slash')
     expect(refused('2 3 / 4 5 6 7000')).toContain('more than 500')
-    expect(refused('x'.repeat(200))).toContain('too long')
+    expect(refused('x'.repeat(200))).toContain('Too long')
   })
 })
 

@@ -6,8 +6,11 @@ import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { top: number, bottom: number, uscs: string | null, stratumId: string | null }
 
-/** The USCS and stratum lists of the log table, chosen with real key presses (and with the mouse) in Chromium. */
-describe('the log table\'s lists by keyboard', () => {
+/**
+ * Entering a log at the keyboard in Chromium: the USCS and stratum lists of the log table chosen
+ * with real key presses (and with a pick from the list), and an SPT refusal typed as written.
+ */
+describe('the log and SPT entered at the keyboard', () => {
   const browser = useBrowser()
   const { owner: admin, geologist } = signedInDemo('owner', 'geologist')
   let projectId = ''
@@ -97,6 +100,28 @@ describe('the log table\'s lists by keyboard', () => {
     await page.getByTestId('log-save').click()
     await page.getByTestId('log-notice').filter({ hasText: 'Saved the log of BH-K1: 2 intervals' }).waitFor()
     expect((await log()).map(iv => [iv.uscs, iv.stratumId])).toEqual([['CH', strata.EC], ['GP', strata.MG]])
+    await page.close()
+  })
+
+  it('an SPT refusal is typed as written, previewed, saved per increment and shown as written on the page', async () => {
+    const page = await openLog()
+    await page.getByRole('tab', { name: /SPT/ }).click()
+    await page.locator('#spt-depth').fill('7.5')
+    const blows = page.getByLabel('Blows (seating / test drive)', { exact: true })
+    await blows.fill('2 3 / 4 5 6')
+    await page.getByRole('button', { name: 'Add SPT' }).click()
+    expect(await page.getByText('Blows: The test drive has 3 counts').count()).toBe(1)
+    await blows.fill('25/75 50/40')
+    expect(await page.getByTestId('spt-preview').textContent()).toBe('seating 25 for 75 mm, stopped short: 50/40 mm, no N')
+    await page.keyboard.press('Enter')
+    await page.getByText('SPT at 7.5 m added.').waitFor()
+    const table = page.getByTestId('spt-table')
+    expect(await table.locator('tbody tr').first().locator('td').allTextContents()).toEqual(expect.arrayContaining(['7.50', '25/75mm / 50/40mm', '25 / 75 mm', '50 / 40 mm', '50/40 mm']))
+    // The graphic log writes the refusal as written too.
+    await expect.poll(() => page.getByTestId('log-spt').textContent()).toBe('50/40 mm')
+    const spt = (await geologist.get<{ spt: { blows: number[], penetrations: number[], seating: number, n: number, penetration: number | null }[] }>(`/api/projects/${projectId}/points/${boreholeId}`)).body.spt
+    expect(spt).toEqual([expect.objectContaining({ blows: [25, 50], penetrations: [75, 40], seating: 1, n: 50, penetration: 40 })])
+    await screenshot(page, 'log-entry-spt-refusal')
     await page.close()
   })
 })
