@@ -263,7 +263,7 @@ export function sptStored(value: SptBlows): SptStored {
  * three counts per 150 mm (seating, then the two halves of the test drive) and
  * the test drive's penetration when it stopped short.
  */
-export function sptFromStored(row: { blows: readonly number[], n: number, penetration: number | null, penetrations?: readonly number[] | null, seating?: number | null }): SptBlows {
+export function sptFromStored(row: { blows: readonly number[], n: number, penetration?: number | null, penetrations?: readonly number[] | null, seating?: number | null }): SptBlows {
   const pens = row.penetrations
   if (pens && pens.length === row.blows.length && row.seating !== null && row.seating !== undefined) {
     const all = row.blows.map((b, i) => ({ blows: b, penetration: pens[i] ?? 0 }))

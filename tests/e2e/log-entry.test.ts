@@ -119,6 +119,7 @@ describe('the log and SPT entered at the keyboard', () => {
     expect(await table.locator('tbody tr').first().locator('td').allTextContents()).toEqual(expect.arrayContaining(['7.50', '25/75mm / 50/40mm', '25 / 75 mm', '50 / 40 mm', '50/40 mm']))
     // The graphic log writes the refusal as written too.
     await expect.poll(() => page.getByTestId('log-spt').textContent()).toBe('50/40 mm')
+    expect(await page.getByTestId('log-spt-refusal-key').textContent()).toContain('SPT stopped short')
     const spt = (await geologist.get<{ spt: { blows: number[], penetrations: number[], seating: number, n: number, penetration: number | null }[] }>(`/api/projects/${projectId}/points/${boreholeId}`)).body.spt
     expect(spt).toEqual([expect.objectContaining({ blows: [25, 50], penetrations: [75, 40], seating: 1, n: 50, penetration: 40 })])
     await screenshot(page, 'log-entry-spt-refusal')
