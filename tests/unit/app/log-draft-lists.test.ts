@@ -1,6 +1,6 @@
 // @vitest-environment happy-dom
 import { mount } from '@vue/test-utils'
-import { defineComponent, h, nextTick, vModelSelect, withDirectives } from 'vue'
+import { defineComponent, h, nextTick, type Ref, vModelSelect, withDirectives } from 'vue'
 import { describe, expect, it, vi } from 'vitest'
 
 // What Nuxt auto-imports into the composable; routing and the network are not used here.
@@ -8,7 +8,17 @@ vi.stubGlobal('onBeforeRouteLeave', () => {})
 vi.stubGlobal('onBeforeRouteUpdate', () => {})
 vi.stubGlobal('api', async () => ({}))
 vi.stubGlobal('pointUrl', (p: string, q: string) => `/api/projects/${p}/points/${q}`)
-const { useLogDraft } = await import('../../../app/composables/useLogDraft')
+/** What the test uses of the draft (the composable itself leans on Nuxt's auto-imports, which the tests' type check does not see). */
+interface Draft {
+  rows: Ref<{ key: string, uscs: string }[]>
+  dirty: Ref<boolean>
+  canUndo: Ref<boolean>
+  undo: () => void
+  onCellEdit: (e?: Event) => void
+  onCellFocus: () => void
+}
+const COMPOSABLE = '../../../app/composables/useLogDraft'
+const { useLogDraft } = await import(/* @vite-ignore */ COMPOSABLE) as { useLogDraft: (source: unknown, hooks: unknown) => Draft }
 
 const interval = { id: 'a1', version: 1, top: 0, bottom: 1.2, description: 'Brown sandy GRAVEL (fill)', uscs: null, stratumId: null, moisture: null, consistency: null }
 
@@ -18,11 +28,11 @@ const interval = { id: 'a1', version: 1, top: 0, bottom: 1.2, description: 'Brow
  * keyboard as `input`, runs pending work (Vue's redraw), then `change`.
  */
 function mountTable() {
-  let draft!: ReturnType<typeof useLogDraft>
+  let draft!: Draft
   const Table = defineComponent({
     setup() {
       draft = useLogDraft(
-        { projectId: 'p', pointId: 'q', identifier: 'BH-K1', finalDepth: 10, intervals: [interval] as never, strata: [], canEdit: true },
+        { projectId: 'p', pointId: 'q', identifier: 'BH-K1', finalDepth: 10, intervals: [interval], strata: [], canEdit: true },
         { draft: () => {}, saved: () => {}, stale: () => {}, focusCell: () => {} },
       )
       return () => h('table', [h('tbody', { onInput: draft.onCellEdit, onChange: draft.onCellEdit, onFocusin: draft.onCellFocus }, draft.rows.value.map((r, i) => h('tr', { key: r.key }, [
