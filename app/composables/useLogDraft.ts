@@ -129,7 +129,12 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
   function onCellFocus() {
     restartEditSession()
   }
-  function onCellEdit() {
+  function onCellEdit(e?: Event) {
+    // A list (select) reports a choice as `input`, then `change`, and v-model listens to `change` only:
+    // take the choice from `input`, or the redraw the edit causes in between puts the old choice back.
+    const at = e?.type === 'input' ? cellOf(e.target) : null
+    const row = at ? rows.value[at.row] : undefined
+    if (at && row && e?.target instanceof HTMLSelectElement && row[at.col] !== e.target.value) row[at.col] = e.target.value
     if (!focusPushed) {
       pushUndo(focusSnapshot)
       focusPushed = true

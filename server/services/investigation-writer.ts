@@ -4,6 +4,7 @@ import { float8ArrayParam } from '../db/binary'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '../db/schema'
 import type { Tx } from '../db/client'
 import { knownEntry, present } from '../db/rows'
+import { sptFromStored, sptStored } from '#shared/investigation/spt-blows'
 
 const CHUNK = 1000
 
@@ -66,7 +67,7 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
       await inChunks(tests, c => tx.insert(oedometerTests).values(c))
     }
   }
-  await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: knownEntry(pointIds, p.identifier), depth: s.depth, blows: [...s.blows], n: s.n }))), c => tx.insert(sptResults).values(c))
+  await inChunks(data.points.flatMap(p => p.spt.map(s => ({ pointId: knownEntry(pointIds, p.identifier), depth: s.depth, ...sptStored(sptFromStored(s)) }))), c => tx.insert(sptResults).values(c))
   await inChunks(data.points.flatMap(p => p.groundwater.map(g => ({ ...g, pointId: knownEntry(pointIds, p.identifier) }))), c => tx.insert(groundwaterObservations).values(c))
   await inChunks(data.points.flatMap(p => p.vane.map(v => ({ ...v, pointId: knownEntry(pointIds, p.identifier) }))), c => tx.insert(vaneReadings).values(c))
   for (const p of data.points) {

@@ -9,14 +9,20 @@
  * - What the standard has no heading for goes into user-defined headings and
  *   one user-defined group, declared in DICT as rule 18 asks: PSTR (strata:
  *   unit weights and display), LOCA_METH and LOCA_LOGB (method, logged by),
- *   GEOL_MOIS and GEOL_CNSY (moisture, consistency), ISPT_TST1 and ISPT_TST2
- *   (blows of each 150 mm of the SPT test drive).
+ *   GEOL_MOIS and GEOL_CNSY (moisture, consistency).
+ * - SPT ↔ ISPT's standard fields: ISPT_SEAT and ISPT_MAIN (blows of the seating and
+ *   test drives), ISPT_NPEN (their penetration together), ISPT_NVAL (N, empty when the
+ *   test drive stopped short), ISPT_REP (the blows as written), and each increment in
+ *   ISPT_INC1–2 / ISPT_PEN1–2 (seating) and ISPT_INC3–6 / ISPT_PEN3–6 (test drive).
+ *   Files from older Pastload versions with ISPT_TST1 and ISPT_TST2 (blows of each
+ *   150 mm of the test drive) are still read.
  * - Groundwater: strikes ↔ WSTG; standing levels ↔ MOND readings WDEP under a
  *   MONG point of type SWL; piezometer readings ↔ MOND PRES (and WDEP) under a
  *   MONG point of type PIEZ. On import WSTD's later levels become standing levels.
  * - Date-times are written in UTC ('yyyy-mm-ddThh:mm:ssZ', to the second).
  */
 import { isUscsGroupSymbol } from '../geotech/plasticity'
+import { parseSptBlows, SPT_INCREMENT_MM, SPT_SEATING_MM, SPT_TEST_MM, sptBlowsText, sptFromIncrements, sptFromStored, sptStored, type SptBlows } from '../investigation/spt-blows'
 import type {
   CptRecord,
   GroundwaterRecord,
@@ -84,7 +90,10 @@ const COLUMNS = {
   LDEN: [...SPECIMEN_KEYS, col('LDEN_BDEN', '3DP', 'Mg/m3')],
   CONG: [...SPECIMEN_KEYS, col('CONG_TYPE', 'PA'), col('CONG_HIGT', '2DP', 'mm'), col('CONG_MCI', '1DP', '%'), col('CONG_PDEN', '2DP', 'Mg/m3'), col('CONG_IVR', '3DP'), col('CONG_REM', 'X')],
   CONS: [...SPECIMEN_KEYS, col('CONS_INCN', 'X'), col('CONS_IVR', '3DP'), col('CONS_INCF', '1DP', 'kPa'), col('CONS_INCE', '3DP')],
-  ISPT: [col('LOCA_ID', 'ID'), col('ISPT_TOP', '2DP', 'm'), col('ISPT_SEAT', '0DP'), col('ISPT_MAIN', '0DP'), col('ISPT_NVAL', '0DP'), col('ISPT_TST1', '0DP'), col('ISPT_TST2', '0DP')],
+  ISPT: [
+    col('LOCA_ID', 'ID'), col('ISPT_TOP', '2DP', 'm'), col('ISPT_SEAT', '0DP'), col('ISPT_MAIN', '0DP'), col('ISPT_NPEN', '0DP', 'mm'), col('ISPT_NVAL', '0DP'), col('ISPT_REP', 'X'),
+    ...[1, 2, 3, 4, 5, 6].map(i => col(`ISPT_INC${i}`, '0DP')), ...[1, 2, 3, 4, 5, 6].map(i => col(`ISPT_PEN${i}`, '0DP', 'mm')),
+  ],
   WSTG: [col('LOCA_ID', 'ID'), col('WSTG_DPTH', '2DP', 'm'), col('WSTG_DTIM', 'DT', DATE_TIME_UNIT), col('WSTG_REM', 'X')],
   MONG: [col('LOCA_ID', 'ID'), col('MONG_ID', 'X'), col('MONG_DIS', '2DP', 'm'), col('MONG_TYPE', 'PA')],
   MOND: [col('LOCA_ID', 'ID'), col('MONG_ID', 'X'), col('MONG_DIS', '2DP', 'm'), col('MOND_DTIM', 'DT', DATE_TIME_UNIT), col('MOND_TYPE', 'PA'), col('MOND_REF', 'X'), col('MOND_RDNG', 'XN'), col('MOND_UNIT', 'PU'), col('MOND_REM', 'X')],
@@ -98,7 +107,7 @@ type GroupName = keyof typeof COLUMNS
 /** Headings the reader also understands besides the written ones. */
 const READ_ALSO: Partial<Record<GroupName, readonly string[]>> = {
   LOCA: ['LOCA_LOCX', 'LOCA_LOCY', 'LOCA_LOCZ'],
-  ISPT: ['ISPT_INC1', 'ISPT_INC2', 'ISPT_INC3', 'ISPT_INC4', 'ISPT_INC5', 'ISPT_INC6'],
+  ISPT: ['ISPT_TST1', 'ISPT_TST2'],
   CONG: ['CONG_METH'],
 }
 
@@ -123,8 +132,6 @@ const USER_HEADINGS: Readonly<Record<string, { status: string, description: stri
   'LOCA.LOCA_LOGB': { status: 'OTHER', description: 'Logged by' },
   'GEOL.GEOL_MOIS': { status: 'OTHER', description: 'Moisture condition' },
   'GEOL.GEOL_CNSY': { status: 'OTHER', description: 'Consistency or relative density' },
-  'ISPT.ISPT_TST1': { status: 'OTHER', description: 'Number of blows for the first 150 mm of the test drive' },
-  'ISPT.ISPT_TST2': { status: 'OTHER', description: 'Number of blows for the second 150 mm of the test drive' },
 }
 
 // ─── Import ──────────────────────────────────────────────────────────────────
@@ -648,22 +655,60 @@ function readSpt(reader: Reader, points: Map<string, PointRecord>): void {
     if (!point) continue
     const depth = reader.number(group, row, 'ISPT_TOP', 'length')
     const count = (heading: string): number | null => reader.number(group, row, heading, 'count')
-    const increments = [1, 2, 3, 4, 5, 6].map(i => count(`ISPT_INC${i}`))
-    const [i1, i2, i3, i4, i5, i6] = increments
-    const pairs = (a: number | null | undefined, b: number | null | undefined): number | null => (a === null || a === undefined || b === null || b === undefined ? null : a + b)
-    // Blows per 75 mm increment (INC3–INC6) give the two 150 mm halves of the test drive; Pastload's own columns give them directly.
-    const first = pairs(i3, i4) ?? count('ISPT_TST1')
-    const second = pairs(i5, i6) ?? count('ISPT_TST2')
-    const seating = count('ISPT_SEAT') ?? pairs(i1, i2)
-    if (depth === null || first === null || second === null || seating === null) {
-      reader.note('spt-blows', group, row.line, 'warning', 'SPT rows without the seating blows and the blows of each 150 mm of the test drive were not imported: Pastload\'s SPT record needs all three')
+    const mm = (heading: string): number | null => {
+      const m = reader.number(group, row, heading, 'length', reader.unitOf(group, heading) || 'mm')
+      return m === null ? null : Math.round(m * 1000)
+    }
+    const test = sptOfRow(reader, group, row, count, mm)
+    if (depth === null || typeof test === 'string') {
+      reader.note('spt-blows', group, row.line, 'warning', typeof test === 'string' ? test : 'SPT rows without a depth were not imported')
       continue
     }
-    const n = count('ISPT_NVAL') ?? count('ISPT_MAIN') ?? first + second
-    if (n !== first + second) reader.note('spt-n', group, row.line, 'warning', `SPT N values that differ from the sum of the two test-drive halves were kept as given (N = ${n} at ${depth} m)`)
-    const record: SptRecord = { depth, blows: [seating, first, second], n }
+    const nval = count('ISPT_NVAL')
+    if (nval !== null && nval !== test.n) {
+      reader.note('spt-n', group, row.line, 'warning', test.n === null
+        ? `SPT rows with an N value whose test drive stopped short of 300 mm were imported as a refusal without N (N = ${nval} at ${depth} m)`
+        : `SPT N values that differ from the sum of the test drive's blows were imported from the blows (N = ${nval} written, ${test.n} counted at ${depth} m)`)
+    }
+    const record: SptRecord = { depth, ...sptStored(test) }
     point.spt.push(record)
   }
+}
+
+/**
+ * One ISPT row's test: the increments (ISPT_INC1–6 with ISPT_PEN1–6, 75 mm where a
+ * penetration is missing), else the blows as written (ISPT_REP), else an older
+ * Pastload file's ISPT_SEAT + ISPT_TST1/2 (per 150 mm), else N alone (ISPT_NVAL, or
+ * ISPT_MAIN with ISPT_NPEN for a drive stopped short).
+ */
+function sptOfRow(reader: Reader, group: AgsGroup, row: AgsRow, count: (h: string) => number | null, mm: (h: string) => number | null): SptBlows | string {
+  const unreadable = 'SPT rows without blows Pastload can read (ISPT_INC1–6, ISPT_REP, or ISPT_NVAL) were not imported'
+  const slots = [1, 2, 3, 4, 5, 6].map(i => ({ blows: count(`ISPT_INC${i}`), penetration: mm(`ISPT_PEN${i}`) }))
+  if (slots.some(s => s.blows !== null)) {
+    const take = (list: typeof slots) => list.flatMap(s => (s.blows === null ? [] : [{ blows: s.blows, penetration: s.penetration ?? SPT_INCREMENT_MM }]))
+    const test = take(slots.slice(2))
+    if (!test.length) return unreadable
+    return sptFromIncrements(take(slots.slice(0, 2)), test)
+  }
+  const written = reader.text(row, 'ISPT_REP').trim()
+  if (written) {
+    const read = parseSptBlows(written)
+    if (read.ok) return read.value
+  }
+  const seat = count('ISPT_SEAT')
+  const first = count('ISPT_TST1')
+  const second = count('ISPT_TST2')
+  if (seat !== null && first !== null && second !== null) return sptFromStored({ blows: [seat, first, second], n: first + second, penetration: null })
+  const nval = count('ISPT_NVAL')
+  const main = count('ISPT_MAIN')
+  const total = mm('ISPT_NPEN')
+  const seating = seat === null ? [] : [{ blows: seat, penetration: SPT_SEATING_MM }]
+  if (nval !== null) return sptFromIncrements(seating, [{ blows: nval, penetration: SPT_TEST_MM }])
+  if (main !== null && total !== null) {
+    const testPenetration = total - (seat === null ? 0 : SPT_SEATING_MM)
+    if (testPenetration > 0 && testPenetration <= SPT_TEST_MM) return sptFromIncrements(seating, [{ blows: main, penetration: testPenetration }])
+  }
+  return unreadable
 }
 
 function readGroundwater(reader: Reader, points: Map<string, PointRecord>): void {
@@ -976,7 +1021,20 @@ function writePoint(p: PointRecord, rows: Record<GroupName, Row[]>): void {
     }
   }
   for (const s of p.spt) {
-    rows.ISPT.push({ LOCA_ID: id, ISPT_TOP: s.depth, ISPT_SEAT: s.blows[0], ISPT_MAIN: s.blows[1] + s.blows[2], ISPT_NVAL: s.n, ISPT_TST1: s.blows[1], ISPT_TST2: s.blows[2] })
+    const test = sptFromStored(s)
+    const row: Row = {
+      LOCA_ID: id,
+      ISPT_TOP: s.depth,
+      ISPT_SEAT: test.seating.length ? test.seatingBlows : null,
+      ISPT_MAIN: test.testBlows,
+      ISPT_NPEN: test.totalPenetration,
+      ISPT_NVAL: test.n,
+      ISPT_REP: `${sptBlowsText(test)}${test.n === null ? '' : ` N=${test.n}`}`,
+    }
+    // Slots 1–2 hold the seating drive's increments, 3–6 the test drive's, each with its penetration.
+    test.seating.forEach((inc, i) => Object.assign(row, { [`ISPT_INC${i + 1}`]: inc.blows, [`ISPT_PEN${i + 1}`]: inc.penetration }))
+    test.test.forEach((inc, i) => Object.assign(row, { [`ISPT_INC${i + 3}`]: inc.blows, [`ISPT_PEN${i + 3}`]: inc.penetration }))
+    rows.ISPT.push(row)
   }
   let reference = 0
   const monitoring = new Set<string>()

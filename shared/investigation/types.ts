@@ -78,12 +78,23 @@ export interface SampleRecord {
   oedometer: OedometerTestRecord | null
 }
 
+/**
+ * One SPT (shared/investigation/spt-blows.ts reads and writes its increments). Without
+ * `penetrations` the blows are three counts per 150 mm: seating drive, then the two
+ * halves of the test drive.
+ */
 export interface SptRecord {
   depth: number
-  /** Blows per 150 mm: seating drive then the two test drives. */
-  blows: [number, number, number]
-  /** N = blows of the two test drives. */
+  /** Blows of each increment, seating drive first. */
+  blows: number[]
+  /** Blows of the test drive: N when `penetration` is null. */
   n: number
+  /** Penetration of each increment, mm, in the order of `blows`. */
+  penetrations?: number[]
+  /** How many increments belong to the seating drive (0: not recorded). */
+  seating?: number
+  /** Penetration of the test drive when it stopped short of 300 mm (a refusal); null or absent for a full drive. */
+  penetration?: number | null
 }
 
 export interface GroundwaterRecord {

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '../investigation/types'
 import { USCS_GROUP_SYMBOLS } from '../geotech/plasticity'
+import { SPT_TEXT_MAX, sptFromInput } from '../investigation/spt-blows'
 import { int, INT32_MAX, IsoDateSchema, IsoDateTimeSchema, str, UuidSchema } from './common'
 
 /**
@@ -108,12 +109,23 @@ export const SampleUpdateSchema = z.object({
   version: int(1),
 })
 
-export const SptInputSchema = z.object({
+const SptShape = z.object({
   depth: depth('Depth'),
-  blows: z.tuple([int(0, 500), int(0, 500), int(0, 500)]),
-  /** mm of the 300 mm test drive achieved when the test stopped short (a refusal); null for a full drive. */
+  /**
+   * The blows as written on the log ("2 3 / 4 5 6 7", "25/75 50/40", "50/100mm"; see
+   * shared/investigation/spt-blows.ts), or three counts per 150 mm (seating, then the
+   * two halves of the test drive) with `penetration`.
+   */
+  blows: z.union([str(SPT_TEXT_MAX), z.tuple([int(0, 500), int(0, 500), int(0, 500)])], { error: 'Blows must be written as counted, for example 2 3 / 4 5 6 7' }),
+  /** With three counts only: mm of the 300 mm test drive achieved when the test stopped short (a refusal); null for a full drive. */
   penetration: int(1, 299).nullable().default(null),
 })
+/** The blows read as a test: a text that cannot be read is an issue on `blows` in plain words. */
+function readableBlows(s: { blows: string | readonly number[], penetration: number | null }, ctx: z.RefinementCtx) {
+  const read = sptFromInput(s.blows, s.penetration)
+  if (!read.ok) ctx.addIssue({ code: 'custom', path: ['blows'], message: read.error })
+}
+export const SptInputSchema = SptShape.superRefine(readableBlows)
 
 export const GroundwaterInputSchema = z.object({
   kind: z.enum(GROUNDWATER_KINDS),
@@ -144,7 +156,7 @@ export type GroundwaterInput = z.infer<typeof GroundwaterInputSchema>
 export type StratumInput = z.infer<typeof StratumInputSchema>
 
 /** Route bodies of the updates: the row's fields and the `version` the client read (stale: 409). */
-export const SptUpdateSchema = SptInputSchema.extend(VersionSchema.shape)
+export const SptUpdateSchema = SptShape.extend(VersionSchema.shape).superRefine(readableBlows)
 export const GroundwaterUpdateSchema = z.intersection(GroundwaterInputSchema, VersionSchema)
 export const VaneUpdateSchema = VaneInputSchema.extend(VersionSchema.shape)
 /** An index test is created on the first save (no version yet) and updated with it afterwards. */

@@ -100,10 +100,15 @@ export const sptResults = pgTable('spt_results', {
   id: uuid().primaryKey().defaultRandom(),
   pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
   depth: doublePrecision().notNull(),
+  /** Blows of each increment, seating drive first (rows without `penetrations`: seating, then the two halves of the test drive, per 150 mm). */
   blows: integer().array().notNull(),
   n: integer().notNull(),
-  /** Penetration of the test drive in mm when it stopped short of 300 mm (a refusal, written "N/penetration mm"); null: full drive. */
+  /** Penetration of the test drive in mm when it stopped short of 300 mm (a refusal, written "blows/penetration mm"); null: full drive. `n` then holds the test drive's blows. */
   penetration: integer(),
+  /** Penetration of each increment in mm, in the order of `blows` (seating drive first); null on rows stored as three counts per 150 mm. */
+  penetrations: integer().array(),
+  /** How many of the increments belong to the seating drive (0: not recorded); null on rows stored as three counts per 150 mm. */
+  seating: integer(),
   ...version,
   ...timestamps,
 }, t => [index('spt_results_point_idx').on(t.pointId, t.depth)])

@@ -7,6 +7,7 @@ import type { InvestigationRecord } from '#shared/investigation/types'
 import { pointHeader } from '#shared/investigation/point-header'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '~~/server/db/schema'
 import type { ProjectRow } from '~~/server/utils/guards'
+import { sptBlowsText, sptFromStored, sptResultText, sptStored } from '#shared/investigation/spt-blows'
 
 /** Everything logged in a project, one row per record, for the exports. */
 export async function loadProjectLogs(projectId: string) {
@@ -50,7 +51,11 @@ export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
     ...d.samples.map(({ sample: s }) => [pt(s.pointId), s.identifier, s.top, s.bottom, s.type, s.recovery, s.remarks])])
   add('Index tests', [['Point', 'Sample', 'Water content (%)', 'Liquid limit (%)', 'Plastic limit (%)', 'Plasticity index (%)', 'Bulk unit weight (kN/m³)'],
     ...d.samples.flatMap(({ sample: s, index: i }) => i ? [[pt(s.pointId), s.identifier, i.waterContent, i.liquidLimit, i.plasticLimit, i.liquidLimit !== null && i.plasticLimit !== null ? i.liquidLimit - i.plasticLimit : null, i.bulkUnitWeight]] : [])])
-  add('SPT', [['Point', 'Depth (m)', 'Seating blows', 'Blows 2', 'Blows 3', 'N'], ...d.spt.map(s => [pt(s.pointId), s.depth, s.blows[0] ?? null, s.blows[1] ?? null, s.blows[2] ?? null, s.n])])
+  // Blows as written and the result as reported: N, or blows over the penetration when the test drive stopped short ("50/100 mm").
+  add('SPT', [['Point', 'Depth (m)', 'Blows', 'Seating blows', 'Seating (mm)', 'Test drive blows', 'Test drive (mm)', 'N', 'Result'], ...d.spt.map((s) => {
+    const t = sptFromStored(s)
+    return [pt(s.pointId), s.depth, sptBlowsText(t), t.seating.length ? t.seatingBlows : null, t.seating.length ? t.seatingPenetration : null, t.testBlows, t.testPenetration, t.n, sptResultText(t)]
+  })])
   add('Groundwater', [['Point', 'Kind', 'Observed at', 'Depth (m)', 'Pressure (kPa)', 'Remarks'], ...d.groundwater.map(g => [pt(g.pointId), g.kind, g.observedAt, g.depth, g.pressure, g.remarks])])
   add('Vane', [['Point', 'Depth (m)', 'Peak su,FV (kPa)', 'Remoulded (kPa)'], ...d.vane.map(v => [pt(v.pointId), v.depth, v.peak, v.remoulded])])
   const cptRows: (string | number | null)[][] = [['Point', 'Cone area ratio', 'Depth (m)', 'qc (kPa)', 'fs (kPa)', 'u2 (kPa)']]
@@ -105,7 +110,7 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
           oedometer: t ? { testType: t.testType, specimenHeight: t.specimenHeight / 1000, initialWaterContent: t.initialWaterContent, specificGravity: t.specificGravity, e0: t.e0, stages: t.stages.map(st => ({ stress: st.stress, voidRatio: st.voidRatio })), remarks: t.remarks } : null,
         }
       }),
-      spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, blows: [s.blows[0] ?? 0, s.blows[1] ?? 0, s.blows[2] ?? 0] as [number, number, number], n: s.n })),
+      spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, ...sptStored(sptFromStored(s)) })),
       groundwater: (gw.get(p.id) ?? []).map(g => ({ kind: g.kind, observedAt: new Date(g.observedAt).toISOString(), depth: g.depth, pressure: g.pressure, remarks: g.remarks })),
       cpt: cpt.get(p.id) ?? null,
       vane: (vane.get(p.id) ?? []).map(v => ({ depth: v.depth, peak: v.peak, remoulded: v.remoulded })),

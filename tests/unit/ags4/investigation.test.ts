@@ -63,7 +63,14 @@ function demoRecord(): InvestigationRecord {
           { identifier: 'C5', top: 12, bottom: 13, type: 'core', recovery: 80, remarks: '', index: null, oedometer: null },
           { identifier: 'B6', top: 0.5, bottom: 1, type: 'block', recovery: null, remarks: '', index: null, oedometer: null },
         ].sort((a, b) => a.top - b.top) as PointRecord['samples'],
-        spt: [{ depth: 9, blows: [3, 5, 7], n: 12 }, { depth: 12, blows: [6, 10, 12], n: 22 }],
+        spt: [
+          // 75 mm increments: N = 2 + 3 + 3 + 4 = 12.
+          { depth: 9, blows: [1, 2, 2, 3, 3, 4], penetrations: [75, 75, 75, 75, 75, 75], seating: 2, n: 12, penetration: null },
+          // A refusal: 25 + 25 = 50 test blows for 75 + 60 = 135 mm.
+          { depth: 12, blows: [12, 13, 25, 25], penetrations: [75, 75, 75, 60], seating: 2, n: 50, penetration: 135 },
+          // Counts per 150 mm: N = 10 + 12 = 22.
+          { depth: 13.5, blows: [6, 10, 12], penetrations: [150, 150, 150], seating: 1, n: 22, penetration: null },
+        ],
         groundwater: [
           { kind: 'strike', observedAt: '2024-03-04T10:15:00Z', depth: 2.8, pressure: null, remarks: 'seepage' },
           { kind: 'standing', observedAt: '2024-03-05T08:00:00Z', depth: 1.95, pressure: null, remarks: 'next morning' },
@@ -130,12 +137,37 @@ describe('round trip: investigationToAgs → parseAgs → checkAgs → agsToInve
     expect(file.groups.find(g => g.name === 'LOCA')?.rows[0]?.values).toMatchObject({ LOCA_NATE: '412345.60', LOCA_TYPE: 'CP' })
   })
 
+  it.runIf(hasReference)('writes SPT to ISPT\'s standard headings only, with the units and types of the v4.1 dictionary (reference file)', () => {
+    const ispt = file.groups.find(g => g.name === 'ISPT')!
+    const standard = dictionaryFromAgs(parseAgs(readReference('Standard_dictionary_v4_1.ags')), { edition: '4.1' }).groups.get('ISPT')!
+    expect(ispt.headings).toEqual([
+      'LOCA_ID', 'ISPT_TOP', 'ISPT_SEAT', 'ISPT_MAIN', 'ISPT_NPEN', 'ISPT_NVAL', 'ISPT_REP',
+      'ISPT_INC1', 'ISPT_INC2', 'ISPT_INC3', 'ISPT_INC4', 'ISPT_INC5', 'ISPT_INC6',
+      'ISPT_PEN1', 'ISPT_PEN2', 'ISPT_PEN3', 'ISPT_PEN4', 'ISPT_PEN5', 'ISPT_PEN6',
+    ])
+    ispt.headings.forEach((h, i) => {
+      const def = standard.headings.get(h)
+      expect(def?.source, h).toBe('standard')
+      expect([ispt.units[i], ispt.types[i]], h).toEqual([def?.unit, def?.type])
+    })
+    // Nothing of the SPT is declared as a project-made heading.
+    const dict = file.groups.find(g => g.name === 'DICT')?.rows.map(r => r.values.DICT_HDNG) ?? []
+    expect(dict.filter(h => String(h).startsWith('ISPT'))).toEqual([])
+    const [full, refusal, coarse] = ispt.rows.map(r => r.values)
+    // 2 3 / 3 3 … : seating 1 + 2 = 3, test 2 + 3 + 3 + 4 = 12 for 300 mm; 450 mm in all.
+    expect(full).toMatchObject({ ISPT_TOP: '9.00', ISPT_SEAT: '3', ISPT_MAIN: '12', ISPT_NPEN: '450', ISPT_NVAL: '12', ISPT_REP: '1 2 / 2 3 3 4 N=12', ISPT_INC1: '1', ISPT_INC6: '4', ISPT_PEN1: '75', ISPT_PEN6: '75' })
+    // Seating 12 + 13 = 25; test 25 + 25 = 50 blows for 75 + 60 = 135 mm; 150 + 135 = 285 mm in all; no N.
+    expect(refusal).toMatchObject({ ISPT_TOP: '12.00', ISPT_SEAT: '25', ISPT_MAIN: '50', ISPT_NPEN: '285', ISPT_NVAL: '', ISPT_REP: '12 13 / 25 25/60mm', ISPT_INC3: '25', ISPT_INC4: '25', ISPT_INC5: '', ISPT_PEN3: '75', ISPT_PEN4: '60', ISPT_PEN5: '' })
+    // Counts per 150 mm keep their penetrations: one seating slot, two test slots.
+    expect(coarse).toMatchObject({ ISPT_SEAT: '6', ISPT_MAIN: '22', ISPT_NPEN: '450', ISPT_NVAL: '22', ISPT_INC1: '6', ISPT_PEN1: '150', ISPT_INC2: '', ISPT_INC3: '10', ISPT_PEN3: '150', ISPT_INC4: '12', ISPT_PEN4: '150' })
+  })
+
   it('rounds to the declared precision: a value finer than its TYPE comes back rounded', () => {
     const finer = demoRecord()
     const hole = finer.points[0]
     if (!hole) throw new Error('no point')
     hole.easting = 412345.678
-    hole.spt = [{ depth: 9.123, blows: [3, 5, 7], n: 12 }]
+    hole.spt = [{ depth: 9.123, blows: [3, 5, 7], penetrations: [150, 150, 150], seating: 1, n: 12, penetration: null }]
     const back = agsToInvestigation(parseAgs(investigationToAgs(finer, EXPORT))).data.points[0]
     expect(back?.easting).toBe(412345.68)
     expect(back?.spt[0]?.depth).toBe(9.12)
@@ -252,9 +284,13 @@ describe('agsToInvestigation on a file from elsewhere', () => {
     expect(findings('"furlongs"')).toEqual([expect.objectContaining({ rule: 'import', severity: 'error', group: 'IVAN' })])
   })
 
-  it('reads the two 150 mm halves of the SPT test drive from the 75 mm increments; an N alone is reported, not guessed', () => {
-    expect(hole?.spt).toEqual([{ depth: 7.5, blows: [3, 6, 8], n: 14 }])
-    expect(findings('blows of each 150 mm')).toHaveLength(1)
+  it('reads the SPT increments (ISPT_INC1–6, 75 mm each without ISPT_PEN), and an N alone as a 300 mm test drive without the seating', () => {
+    expect(hole?.spt).toEqual([
+      // N = 3 + 3 + 4 + 4 = 14, as ISPT_NVAL says.
+      { depth: 7.5, blows: [1, 2, 3, 3, 4, 4], penetrations: [75, 75, 75, 75, 75, 75], seating: 2, n: 14, penetration: null },
+      { depth: 9, blows: [31], penetrations: [300], seating: 0, n: 31, penetration: null },
+    ])
+    expect(findings('SPT')).toEqual([])
   })
 
   it('reads a strike, its later level from WSTD, and a head reading as pore pressure (γw = 9.81 kN/m³)', () => {

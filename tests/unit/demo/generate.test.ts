@@ -241,7 +241,7 @@ describe('demo investigation — samples, index tests and SPT', () => {
       for (const t of p.spt) {
         expect(stratumAtDepth(p, t.depth)).toBe('SAND')
         expect(t.depth + 0.45).toBeLessThanOrEqual(p.finalDepth)
-        expect(t.n).toBe(t.blows[1] + t.blows[2])
+        expect(t.n).toBe((t.blows[1] ?? 0) + (t.blows[2] ?? 0))
         expect(t.n).toBeGreaterThanOrEqual(20)
         expect(t.n).toBeLessThanOrEqual(70)
       }

@@ -1,3 +1,4 @@
 import { SptUpdateSchema } from '#shared/schemas/investigation'
+import { sptValues } from '~~/server/services/spt'
 
-export default pointRowUpdateHandler('spt', 'logs.write', SptUpdateSchema, values => ({ ...values, n: values.blows[1] + values.blows[2] }))
+export default pointRowUpdateHandler('spt', 'logs.write', SptUpdateSchema, sptValues)

@@ -1,3 +1,4 @@
 import { SptInputSchema } from '#shared/schemas/investigation'
+import { sptValues } from '~~/server/services/spt'
 
-export default pointRowCreateHandler('spt', 'logs.write', SptInputSchema, body => ({ ...body, n: body.blows[1] + body.blows[2] }))
+export default pointRowCreateHandler('spt', 'logs.write', SptInputSchema, sptValues)
