@@ -1,5 +1,6 @@
 // Reports in Chromium: the run page's "PDF report" and "Issue" buttons (the confirmation names the revision
-// letter), then the project's Reports page with the issued revision and its download.
+// letter), then the project's Reports page with the issued revision and its download. A settlement-run report
+// is made on the job queue: the notice says so, and the Reports page shows it once stored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import pg from 'pg'
 import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
@@ -43,16 +44,19 @@ describe('reports in Chromium', () => {
     await issue.click()
     await page.getByTestId('report-issue-notice').waitFor()
     expect(asked).toContain('as revision A?')
-    expect(await page.getByTestId('report-issue-notice').textContent()).toMatch(/Issued as revision A \(\d+ pages\)/)
+    expect(await page.getByTestId('report-issue-notice').textContent()).toMatch(/Revision A is being made/)
     await expect.poll(() => issue.textContent()).toContain('Issue rev B')
 
     await page.getByTestId('project-nav').getByRole('link', { name: 'Reports' }).click()
     const table = page.getByTestId('issued-reports')
     await table.waitFor()
     expect(await page.getByTestId('project-nav').getByRole('link', { name: 'Reports' }).getAttribute('aria-current')).toBe('page')
+    await expect.poll(async () => (await pool.query('select status from issued_reports where project_id = $1', [projectId])).rows.map(r => r.status as string), { timeout: 240_000, interval: 250 }).toEqual(['issued'])
     const { rows } = await pool.query<{ id: string, sha256: string }>('select id, sha256 from issued_reports where project_id = $1', [projectId])
     expect(rows).toHaveLength(1)
     const row = page.getByTestId(`issued-${rows[0]!.id}`)
+    // The page hears it stored (live event, or its 3 s reading again).
+    await row.getByTestId('issued-download').waitFor({ timeout: 30_000 })
     expect(await row.getByTestId('issued-revision').textContent()).toBe('A')
     expect(await row.textContent()).toContain(rows[0]!.sha256.slice(0, 12))
     expect(await row.textContent()).toContain('Not approved — for discussion')
