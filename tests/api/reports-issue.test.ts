@@ -75,7 +75,7 @@ describe('issued reports', () => {
     expect(audit.rows).toHaveLength(1)
     expect(audit.rows[0]!.action).toBe('create')
     expect(audit.rows[0]!.actor_id).toBe(ra.issuedBy!.id)
-  })
+  }, 300_000)
 
   it('a viewer lists and downloads but cannot issue (403); the list keeps a report after its run is deleted, and its file cannot be deleted', async () => {
     expect((await viewer.post(`${base}/reports`, { kind: 'settlement-run', runId })).status).toBe(403)
@@ -91,7 +91,7 @@ describe('issued reports', () => {
     const del = await owner.delete<{ message: string }>(`${base}/attachments/${issued.report.attachmentId}`)
     expect(del.status).toBe(409)
     expect(del.body.message).toMatch(/issued report/)
-  })
+  }, 300_000)
 
   it('400 on a bad body, 404 for another project\'s run or report or an unknown point', async () => {
     for (const body of [{}, { kind: 'settlement-run' }, { kind: 'settlement-run', runId: 'x' }, { kind: 'nope', runId }, { kind: 'point-log', pointId: runId, scale: 75 }, { kind: 'settlement-run', runId, extra: 1 }]) {

@@ -74,7 +74,7 @@ describe('long reports on the job queue', () => {
     expect(text).toContain(`${(run.results!.maximum.settlement * 1000).toFixed(1)} mm`)
     const audit = await pool.query(`select 1 from audit_events where entity = 'issued-report' and entity_id = $1`, [queued.id])
     expect(audit.rowCount).toBe(1)
-  })
+  }, 300_000)
 
   it('fails a report whose run is gone when its job runs, with the plain reason; issuing again makes the same letter', async () => {
     // A queued report of a run deleted after it was asked for: listed as the issue route lists it, then
@@ -84,7 +84,7 @@ describe('long reports on the job queue', () => {
     const members = await must('members', owner.get<{ members: { role: string, userId: string, displayName?: string }[] }>(`${base}/members`))
     const designerId = members.members.find(m => m.role === 'designer')!.userId
     const inserted = await pool.query<{ id: string }>(`insert into issued_reports (project_id, kind, source_id, source_key, revision, status, progress, filename, title, subject, approved_record, issued_by, issued_by_name)
-      values ($1, 'settlement-run', $2, $2, 'A', 'queued', 0, 'deleted.pdf', 'Settlement run', 'Deleted slab', false, $3, 'Designer') returning id`, [projectId, gone.run.id, designerId])
+      values ($1, 'settlement-run', $2::uuid, $2::text, 'A', 'queued', 0, 'deleted.pdf', 'Settlement run', 'Deleted slab', false, $3, 'Designer') returning id`, [projectId, gone.run.id, designerId])
     const reportId = inserted.rows[0]!.id
     expect((await designer.delete(`${base}/settlement-runs/${gone.run.id}`)).status).toBe(204)
     const boss = new PgBoss({ connectionString: process.env.DATABASE_URL, schema: process.env.PASTLOAD_JOBS_SCHEMA?.trim() || 'pgboss', supervise: false, schedule: false, migrate: false, max: 1 })
@@ -99,7 +99,7 @@ describe('long reports on the job queue', () => {
     expect(failed).toMatchObject({ status: 'failed', revision: 'A', downloadUrl: null, sha256: null, pages: null, progress: null })
     expect(failed.failure).toEqual({ code: 'record-gone', message: 'The run this report is of no longer exists: it was deleted before the report was made.' })
     expect((await designer.get(`${base}/reports/${reportId}/pdf`)).status).toBe(404)
-  })
+  }, 300_000)
 
   it('issuing a record whose latest letter failed makes that letter again, then the next one', async () => {
     // Revision A of a finished run failed (its worker gave up): issuing again retries A, not B.
@@ -108,7 +108,7 @@ describe('long reports on the job queue', () => {
     const members = await must('members', owner.get<{ members: { role: string, userId: string }[] }>(`${base}/members`))
     const designerId = members.members.find(m => m.role === 'designer')!.userId
     const failed = await pool.query<{ id: string }>(`insert into issued_reports (project_id, kind, source_id, source_key, revision, status, progress, error_message, error_code, filename, title, subject, approved_record, issued_by, issued_by_name)
-      values ($1, 'settlement-run', $2, $2, 'A', 'failed', 0.3, 'The report stopped 3 times before it was stored.', 'attempts-exhausted', 'a.pdf', 'Settlement run', 'Retried slab', false, $3, 'Designer') returning id`, [projectId, made.run.id, designerId])
+      values ($1, 'settlement-run', $2::uuid, $2::text, 'A', 'failed', 0.3, 'The report stopped 3 times before it was stored.', 'attempts-exhausted', 'a.pdf', 'Settlement run', 'Retried slab', false, $3, 'Designer') returning id`, [projectId, made.run.id, designerId])
     const retried = await must('retry', engineer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'settlement-run', runId: made.run.id }), 202)
     expect(retried.report).toMatchObject({ id: failed.rows[0]!.id, revision: 'A', status: 'queued', failure: null })
     const done = await waitForReport(engineer, projectId, retried.report.id)
@@ -123,5 +123,5 @@ describe('long reports on the job queue', () => {
     const list = await must('list', designer.get<IssuedReportList>(`${base}/reports`))
     const letters = list.reports.filter(r => r.source.id === made.run.id).map(r => r.revision).sort()
     expect(letters).toEqual(['A', 'B'])
-  })
+  }, 300_000)
 })
