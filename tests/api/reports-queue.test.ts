@@ -76,7 +76,7 @@ describe('long reports on the job queue', () => {
     expect(audit.rowCount).toBe(1)
   }, 300_000)
 
-  it('fails a report whose run is gone when its job runs, with the plain reason; issuing again makes the same letter', async () => {
+  it('fails a report whose run is gone when its job runs, with the plain reason and no file', async () => {
     // A queued report of a run deleted after it was asked for: listed as the issue route lists it, then
     // handed to the queue as the route does (the route itself refuses a run that is already gone).
     const model = await createRunModel(engineer, projectId, undefined, 'Short-lived model')

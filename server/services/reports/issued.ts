@@ -128,7 +128,16 @@ async function queueReport(projectId: string, issuer: { id: string, name: string
     return r
   })
   if (enqueue) {
-    await enqueue(row.id)
+    try {
+      await enqueue(row.id)
+    }
+    catch (err) {
+      // Listed but not queued: say so on the row (the letter stays; issuing again retries it) and answer busy.
+      logServerError('report could not be queued', err)
+      const message = 'The report could not be handed to the job queue. Issue it again in a minute; if it fails again, tell the site administrator.'
+      await useDb().update(issuedReports).set({ status: 'failed', errorMessage: message, errorCode: 'queue-unavailable' }).where(and(eq(issuedReports.id, row.id), eq(issuedReports.status, 'queued')))
+      throw createError({ statusCode: 503, statusMessage: 'Service Unavailable', message, data: { code: 'queue-unavailable' } })
+    }
   }
   else if (runHere) {
     // No job queue in this process: made here, after the answer.
