@@ -2,7 +2,8 @@
 // listed at once as queued (202) with its letter, made by the app's worker with its steps announced as
 // `report.changed`, and ends issued with a PDF that reads back with the run's figures; a report whose run is gone
 // by the time its job runs ends failed with a plain reason, and issuing the record again makes that same letter
-// (never a second one).
+// (never a second one). A site-model report of a version with more than 8 strata goes the same way; one with 5 is
+// made in the request (201).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import pg from 'pg'
 import PgBoss from 'pg-boss'
@@ -12,6 +13,7 @@ import { type Client, signedInDemo } from '../helpers/http'
 import { pdfPagesText, pdfText } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
 import { waitForReport } from '../helpers/reports'
+import { scenarioDefinition } from '../helpers/scenario-definition'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
@@ -123,5 +125,30 @@ describe('long reports on the job queue', () => {
     const list = await must('list', designer.get<IssuedReportList>(`${base}/reports`))
     const letters = list.reports.filter(r => r.source.id === made.run.id).map(r => r.revision).sort()
     expect(letters).toEqual(['A', 'B'])
+  }, 300_000)
+
+  it('makes a site-model report of a version with more than 8 strata on the queue, and one with 5 in the request', async () => {
+    // The demo ground model with its dense sand split into five 1.7 m strata: 9 strata in all.
+    const def = scenarioDefinition()
+    const sand = def.strata.pop()!
+    for (let k = 1; k <= 5; k++) def.strata.push({ ...sand, code: `SAND${k}`, name: `Dense sand ${k}`, thickness: 1.7 })
+    const many = await createRunModel(engineer, projectId, def, 'Nine-strata model')
+    const r = await designer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'model-version', modelId: many.modelId, version: 1 })
+    expect(r.status, JSON.stringify(r.body)).toBe(202)
+    expect(r.body.report).toMatchObject({ kind: 'model-version', revision: 'A', status: 'queued', subject: 'Nine-strata model, version 1', approvedRecord: false })
+    const done = await waitForReport(designer, projectId, r.body.report.id)
+    expect(done.status, JSON.stringify(done.failure)).toBe('issued')
+    const file = await fetchBytes(designer, done.downloadUrl!)
+    const text = pdfText(file.bytes).replace(/\s+/g, ' ')
+    expect(text).toContain('Issued, revision A')
+    expect(text).toContain('Strata, unit weights and pore pressure')
+    expect(text).toContain('SAND5 — Dense sand 5')
+    // Cover, ground, whole depth, nine strata, tables.
+    expect(done.pages).toBeGreaterThanOrEqual(13)
+
+    const five = await createRunModel(engineer, projectId, undefined, 'Five-strata model')
+    const short = await must('short', designer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'model-version', modelId: five.modelId, version: 1 }), 201)
+    expect(short.report).toMatchObject({ status: 'issued', revision: 'A', progress: null })
+    expect(short.report.sha256).toMatch(/^[0-9a-f]{64}$/)
   }, 300_000)
 })
