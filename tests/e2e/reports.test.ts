@@ -62,5 +62,17 @@ describe('reports in Chromium', () => {
     expect(await row.textContent()).toContain('Not approved — for discussion')
     expect(await row.getByTestId('issued-download').getAttribute('href')).toBe(`/api/projects/${projectId}/reports/${rows[0]!.id}/pdf`)
     await screenshot(page, 'reports-list-laptop')
+
+    // A later revision whose job failed: its reason and "Retry rev B" beside it, no file.
+    const issuer = await pool.query<{ issued_by: string }>('select issued_by from issued_reports where id = $1', [rows[0]!.id])
+    const failed = await pool.query<{ id: string }>(`insert into issued_reports (project_id, kind, source_id, source_key, revision, status, progress, error_message, error_code, filename, title, subject, approved_record, issued_by, issued_by_name)
+      values ($1, 'settlement-run', $2::uuid, $2::text, 'B', 'failed', 0.3, 'The report stopped 3 times before it was stored (a worker was stopped or ran out of time).', 'attempts-exhausted', 'b.pdf', 'Settlement run', 'Reported slab', false, $3, 'Designer') returning id`, [projectId, runId, issuer.rows[0]!.issued_by])
+    await page.reload()
+    const failedRow = page.getByTestId(`issued-${failed.rows[0]!.id}`)
+    await failedRow.getByTestId('issued-failed').waitFor()
+    expect(await failedRow.textContent()).toContain('Not made: The report stopped 3 times')
+    await expect.poll(() => failedRow.getByTestId('report-issue').textContent()).toContain('Retry rev B')
+    expect(await failedRow.getByTestId('issued-download').count()).toBe(0)
+    await screenshot(page, 'reports-list-failed-laptop')
   })
 })
