@@ -1,11 +1,9 @@
-import { existsSync } from 'node:fs'
-import { dirname, join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
 import PgBoss from 'pg-boss'
 import { computeRun, type RunComputeInput, type RunComputeOutput } from '#shared/settlement-run/compute'
 import { databaseUrl } from '~~/server/db/client'
 import { logServerError } from '~~/server/utils/error-log'
+import { findWorkerScript } from '~~/server/utils/worker-script'
 import { executeRun, MAX_RUN_ATTEMPTS, RunComputeFailure } from './settlement-run-execution'
 import { setRunEnqueuer } from './settlement-runs'
 
@@ -86,15 +84,7 @@ export function registerRunQueue(settings = runJobSettingsFromEnv()): void {
 
 /** The bundled worker-thread script next to the built server, or null (development: compute in this thread). */
 function workerScript(): string | null {
-  let dir = dirname(fileURLToPath(import.meta.url))
-  for (let i = 0; i < 6; i++) {
-    const candidate = join(dir, 'workers', 'settlement-run.bundle.mjs')
-    if (existsSync(candidate)) return candidate
-    const up = dirname(dir)
-    if (up === dir) break
-    dir = up
-  }
-  return null
+  return findWorkerScript('settlement-run.bundle.mjs')
 }
 
 const active = new Set<Worker>()

@@ -1,6 +1,7 @@
 import type { Content, TableCell, TDocumentDefinitions } from 'pdfmake/interfaces'
 import type { TrendBandPoint } from '../geotech/trend-model'
 import { modelDrawing, type DrawingPoint } from '../plots/model-drawing'
+import { groundDrawing } from '../plots/model-ground'
 import { VERDICT_LABELS, type FlagVerdict } from '../review/flags'
 import type { DefinitionChange } from '../site-model/diff'
 import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS, type SiteModelDefinition, stratumBounds } from '../site-model/definition'
@@ -11,7 +12,8 @@ import { TREND_MODEL_LABELS, TREND_PARAMETERS } from '../site-model/trend-words'
 
 /**
  * The site-model version report: cover with the approval record and content hash, strata and unit
- * weights, groundwater and the pore-pressure profile, the whole-depth drawing and one per stratum (the
+ * weights, groundwater and the pore-pressure profile (tables, then drawn: strata, γ / γsat and u against
+ * depth beside the hydrostatic line, `model-ground.ts`), the whole-depth drawing and one per stratum (the
  * model canvas's tracks: σv, u, σ'v0, σ'p points included and left out, the trend and its band, OCR,
  * POP), the trend parameters, compressibility, the reviewer flags in force and what changed since the
  * previous approved version. Pure: plain data in, a pdfmake document definition out.
@@ -146,8 +148,12 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
     ...d.profile.map(p => [cell(fixed(convert(p.depth, 'length', 'SI', u), 2)), cell(p.layer), cell(fixed(convert(p.totalStress, 'stress', 'SI', u), 1)), cell(fixed(convert(p.porePressure, 'stress', 'SI', u), 1)), cell(fixed(convert(p.effectiveStress, 'stress', 'SI', u), 1))]),
   ]))
 
-  // --- drawings: the whole depth, then each stratum --------------------------------------------
+  // --- drawings: the ground (strata, unit weights, pore pressure), the whole depth, then each stratum ---
   const inner = 595.28 - 72
+  const ground = groundDrawing({ definition: def, profile: d.profile, units: u, width: 720, height: 800 })
+  content.push({ text: 'Strata, unit weights and pore pressure', style: 'section', pageBreak: 'before' })
+  content.push({ text: 'γ applies above the water table and γsat below it (drawn strong where each applies). u is the model\'s water profile — hydrostatic from the water table, linear between the piezometric control points — beside the hydrostatic line.', fontSize: 8.5, color: REPORT_INK.silt, margin: [0, 0, 0, 4] })
+  content.push({ svg: ground.svg, width: inner })
   const whole = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, width: 720, height: 880 })
   content.push({ text: 'Stress history, whole depth', style: 'section', pageBreak: 'before' })
   content.push({ svg: whole.svg, width: inner })
@@ -162,7 +168,7 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
     const drawing = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, range: { top: Math.max(0, b.top - pad), bottom: b.bottom + pad }, width: 720, height: 700, legend: false })
     content.push({ svg: drawing.svg, width: inner })
     content.push({ text: trendWords(t, u), fontSize: 8.5, margin: [0, 4, 0, 0] })
-    content.push({ text: 'Symbols and lines as in the key under the whole-depth drawing (page 2).', style: 'note', margin: [0, 2, 0, 0] })
+    content.push({ text: 'Symbols and lines as in the key under the whole-depth drawing.', style: 'note', margin: [0, 2, 0, 0] })
   })
 
   // --- tables: trends, compressibility, flags, changes ---------------------------------------------

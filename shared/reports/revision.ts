@@ -24,3 +24,18 @@ export function revisionIndex(letter: string): number {
 export function reportSourceKey(source: { id: string, version?: number | null }): string {
   return source.version === undefined || source.version === null ? source.id : `${source.id}@v${source.version}`
 }
+
+/**
+ * The letter the next issue of a record gets, from the letters it already holds: one past the highest, except
+ * that a failed report made on the job queue (its PDF never stored) is retried under its own letter, so no
+ * letter is handed out twice and none is skipped.
+ */
+export function nextRevisionOf(held: readonly { revision: string, status: string }[]): { revision: string, retry: boolean } {
+  let top: { index: number, status: string } | null = null
+  for (const h of held) {
+    const index = revisionIndex(h.revision)
+    if (!top || index > top.index) top = { index, status: h.status }
+  }
+  if (top && top.index >= 0 && top.status === 'failed') return { revision: revisionLetter(top.index), retry: true }
+  return { revision: revisionLetter((top?.index ?? -1) + 1), retry: false }
+}

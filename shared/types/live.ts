@@ -7,6 +7,7 @@ export const LIVE_EVENT_TYPES = [
   'inbox.changed',
   'member.changed',
   'run.changed',
+  'report.changed',
 ] as const
 export type LiveEventType = (typeof LIVE_EVENT_TYPES)[number]
 

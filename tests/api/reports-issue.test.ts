@@ -1,6 +1,8 @@
 // Issuing reports over real HTTP: the PDF stored as a project attachment with revision A then B, its SHA-256
 // matching the stored bytes, the issuer printed on it, the audit record, the permanent list (the run deleted,
 // the report stays; its file cannot be deleted), a viewer downloads but cannot issue, 400/404/422.
+// A settlement-run report is long: the issue answers 202 with the report queued, and the job queue stores it
+// (tests/api/reports-queue.test.ts follows its progress); these tests wait for it to be issued.
 import { createHash } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import pg from 'pg'
@@ -8,6 +10,7 @@ import type { IssuedReport, IssuedReportList } from '../../shared/types/reports'
 import { type Client, signedInDemo, useNewAccount } from '../helpers/http'
 import { pdfPagesText } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
+import { waitForReport } from '../helpers/reports'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
@@ -37,26 +40,29 @@ describe('issued reports', () => {
 
   it('issues revision A then B of the same run; each PDF stored byte for byte with its SHA-256 and the letter printed', async () => {
     const a = await designer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'settlement-run', runId })
-    expect(a.status, JSON.stringify(a.body)).toBe(201)
+    expect(a.status, JSON.stringify(a.body)).toBe(202)
     expect(Object.keys(a.body)).toEqual(['report'])
-    const ra = a.body.report
-    expect(ra).toMatchObject({ kind: 'settlement-run', revision: 'A', title: 'Settlement run', subject: 'Issued slab', approvedRecord: false, source: { id: runId, version: null, options: {} } })
+    expect(a.body.report).toMatchObject({ kind: 'settlement-run', revision: 'A', status: 'queued', title: 'Settlement run', subject: 'Issued slab', approvedRecord: false, source: { id: runId, version: null, options: {} } })
+    const ra = await waitForReport(designer, projectId, a.body.report.id)
+    expect(ra).toMatchObject({ status: 'issued', revision: 'A', progress: null, failure: null })
     expect(ra.issuedBy?.name).toBe(ra.issuedByName)
     expect(ra.pages).toBeGreaterThanOrEqual(3)
     expect(ra.sha256).toMatch(/^[0-9a-f]{64}$/)
 
     const b = await engineer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'settlement-run', runId })
-    expect(b.status).toBe(201)
+    expect(b.status).toBe(202)
     expect(b.body.report.revision).toBe('B')
+    const rb = await waitForReport(engineer, projectId, b.body.report.id)
+    expect(rb.status).toBe('issued')
 
-    for (const r of [ra, b.body.report]) {
-      const file = await fetchBytes(viewer, r.downloadUrl)
+    for (const r of [ra, rb]) {
+      const file = await fetchBytes(viewer, r.downloadUrl!)
       expect(file.status).toBe(200)
       expect(file.headers.get('content-type')).toBe('application/pdf')
       expect(file.bytes.length).toBe(r.size)
       expect(sha(file.bytes)).toBe(r.sha256)
       const pages = pdfPagesText(file.bytes)
-      expect(pages).toHaveLength(r.pages)
+      expect(pages).toHaveLength(r.pages!)
       for (const page of pages) expect(page).toContain(`Issued, revision ${r.revision}`)
       // The same bytes through the attachment route, a project attachment of type application/pdf.
       const att = await fetchBytes(viewer, `${base}/attachments/${r.attachmentId}/download`)
@@ -69,21 +75,23 @@ describe('issued reports', () => {
     expect(audit.rows).toHaveLength(1)
     expect(audit.rows[0]!.action).toBe('create')
     expect(audit.rows[0]!.actor_id).toBe(ra.issuedBy!.id)
-  })
+  }, 300_000)
 
   it('a viewer lists and downloads but cannot issue (403); the list keeps a report after its run is deleted, and its file cannot be deleted', async () => {
     expect((await viewer.post(`${base}/reports`, { kind: 'settlement-run', runId })).status).toBe(403)
-    const issued = await must('issue', designer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'settlement-run', runId }), 201)
+    const queued = await must('issue', designer.post<{ report: IssuedReport }>(`${base}/reports`, { kind: 'settlement-run', runId }), 202)
+    const issued = { report: await waitForReport(designer, projectId, queued.report.id) }
+    expect(issued.report.status).toBe('issued')
     expect((await designer.delete(`${base}/settlement-runs/${runId}`)).status).toBe(204)
     const list = await must('list', viewer.get<IssuedReportList>(`${base}/reports`))
     const mine = list.reports.find(r => r.id === issued.report.id)
     expect(mine).toMatchObject({ revision: issued.report.revision, subject: 'Issued slab', sha256: issued.report.sha256 })
     expect(list.reports.map(r => r.revision).filter(Boolean).length).toBe(list.total)
-    expect((await fetchBytes(viewer, issued.report.downloadUrl)).status).toBe(200)
+    expect((await fetchBytes(viewer, issued.report.downloadUrl!)).status).toBe(200)
     const del = await owner.delete<{ message: string }>(`${base}/attachments/${issued.report.attachmentId}`)
     expect(del.status).toBe(409)
     expect(del.body.message).toMatch(/issued report/)
-  })
+  }, 300_000)
 
   it('400 on a bad body, 404 for another project\'s run or report or an unknown point', async () => {
     for (const body of [{}, { kind: 'settlement-run' }, { kind: 'settlement-run', runId: 'x' }, { kind: 'nope', runId }, { kind: 'point-log', pointId: runId, scale: 75 }, { kind: 'settlement-run', runId, extra: 1 }]) {
@@ -94,7 +102,7 @@ describe('issued reports', () => {
     const otherModel = await createRunModel(owner, other.id, undefined, 'Other model')
     const otherRun = (await must('run', owner.post<{ run: { id: string } }>(`${other.base}/settlement-runs`, smallRunBody(otherModel)), 201)).run.id
     expect((await designer.post(`${base}/reports`, { kind: 'settlement-run', runId: otherRun })).status).toBe(404)
-    const otherReport = await must('issue', owner.post<{ report: IssuedReport }>(`${other.base}/reports`, { kind: 'settlement-run', runId: otherRun }), 201)
+    const otherReport = await must('issue', owner.post<{ report: IssuedReport }>(`${other.base}/reports`, { kind: 'settlement-run', runId: otherRun }), 202)
     expect((await viewer.get(`${base}/reports/${otherReport.report.id}/pdf`)).status).toBe(404)
     // A point log of an id that is no point of the project: 404, never stored.
     const r = await designer.post<{ message: string }>(`${base}/reports`, { kind: 'point-log', pointId: runId, scale: 100 })

@@ -1,9 +1,7 @@
-import { existsSync } from 'node:fs'
-import { dirname, join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import { unzipSync } from 'fflate'
 import { Piscina } from 'piscina'
 import { WORKBOOK_UNPACKED_LIMIT, workbookTooLarge } from '#shared/imports/limits'
+import { findWorkerScript } from '~~/server/utils/worker-script'
 import type { Cell } from './files'
 
 /**
@@ -53,15 +51,9 @@ export function checkUnpackedSize(buf: Uint8Array, filename: string): void {
 
 /** The worker script: next to the built server (`.output/server/workers/`) or in the sources (`server/workers/`). */
 function workerPath(): string {
-  let dir = dirname(fileURLToPath(import.meta.url))
-  for (;;) {
-    for (const candidate of [join(dir, 'workers', WORKER_FILE), join(dir, 'server', 'workers', WORKER_FILE)]) {
-      if (existsSync(candidate)) return candidate
-    }
-    const up = dirname(dir)
-    if (up === dir) throw new Error(`The workbook reader (${WORKER_FILE}) is missing from the server build.`)
-    dir = up
-  }
+  const found = findWorkerScript(WORKER_FILE, { sources: true })
+  if (!found) throw new Error(`The workbook reader (${WORKER_FILE}) is missing from the server build.`)
+  return found
 }
 
 let pool: Piscina | null = null

@@ -1,4 +1,5 @@
 import type { ReportSignOff } from '#shared/reports/sheet'
+import type { ReportStage } from '#shared/types/reports'
 
 /**
  * What every report kind's builder takes and gives, so the PDF routes (a preview) and issuing (stored with
@@ -12,6 +13,19 @@ export interface ReportContext {
   projectId: string
   /** Set when the report is being issued: printed in the header and footer. Null for a preview. */
   issue: { revision: string, issuedBy: ReportSignOff } | null
+  /**
+   * Set when the report is made on the job queue: hears each step ('drawing', 'writing') as the builder reaches
+   * it, and the builder renders in the worker pool rather than in this thread.
+   */
+  onStage?: (stage: ReportStage) => void
+}
+
+/** What a long report is listed with while it is being made (from cheap reads, before the work). */
+export interface ReportHeading {
+  title: string
+  subject: string
+  filename: string
+  approvedRecord: boolean
 }
 
 export interface ReportBuild {

@@ -20,8 +20,9 @@ import { stressContextOf } from '../lab'
 import { versionReview } from '../model-review'
 import { requireModel, requireVersion } from '../model-versions'
 import { allPreconsolidationPoints, type PreconsolidationPoint } from '../preconsolidation-points'
-import type { ReportBuild, ReportContext } from './kinds'
+import type { ReportBuild, ReportContext, ReportHeading } from './kinds'
 import { renderReport } from './render'
+import { renderPooledReport } from './render-worker'
 
 /**
  * The site-model version report: the version's definition and review record, its stresses, the project's
@@ -80,17 +81,46 @@ export async function buildModelVersionReport(ctx: ReportContext, modelId: strin
       : null,
     issue: ctx.issue,
   }
-  const { pdf, pages } = await renderReport(modelVersionDocument(data))
-  const subject = `${model.name}, version ${version}`
+  // On the job queue (a long report) the drawing and writing are done in the worker pool; otherwise here.
+  ctx.onStage?.('drawing')
+  const { pdf, pages } = ctx.onStage
+    ? await renderPooledReport({ kind: 'model-version', input: data }, ctx.onStage)
+    : await renderReport(modelVersionDocument(data))
   return {
     pdf,
-    filename: cleanFilename(`${project.jobNumber}_${model.name}_v${version}_model-report.pdf`.replace(/\s+/g, '_')),
-    title: MODEL_VERSION_REPORT_TITLE,
-    subject,
+    ...modelReportHeading(project.jobNumber, model.name, version),
     approvedRecord: approved,
     source: { kind: 'model-version', id: modelId, version },
     pages,
   }
+}
+
+function modelReportHeading(jobNumber: string, modelName: string, version: number): Omit<ReportHeading, 'approvedRecord'> {
+  return {
+    filename: cleanFilename(`${jobNumber}_${modelName}_v${version}_model-report.pdf`.replace(/\s+/g, '_')),
+    title: MODEL_VERSION_REPORT_TITLE,
+    subject: `${modelName}, version ${version}`,
+  }
+}
+
+/**
+ * A site-model report with more strata than this is made on the job queue: each stratum adds a page of drawings
+ * (its σ'v0 / σ'p / OCR / POP tracks with every point), so such a report runs past a dozen pages.
+ */
+export const LONG_MODEL_REPORT_STRATA = 8
+
+/**
+ * For a version with more than LONG_MODEL_REPORT_STRATA strata: the checks of `buildModelVersionReport` without
+ * the work (404 for a model or version not in the project) and what the issued list shows meanwhile. Null for a
+ * short report (made in the request).
+ */
+export async function longModelVersionReportHeading(projectId: string, modelId: string, version: number): Promise<ReportHeading | null> {
+  const [project] = await useDb().select({ jobNumber: projects.jobNumber }).from(projects).where(eq(projects.id, projectId))
+  if (!project) notFound('Project')
+  const model = await requireModel(projectId, modelId)
+  const v = await requireVersion(modelId, version)
+  if (v.definition.strata.length <= LONG_MODEL_REPORT_STRATA) return null
+  return { ...modelReportHeading(project.jobNumber, model.name, version), approvedRecord: v.status === 'approved' && !!v.approvalHash && !!v.decidedAt }
 }
 
 /** σv, u and σ'v0 at the definition's breakpoints (the canvas asks the same of the engine). */

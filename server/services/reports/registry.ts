@@ -1,8 +1,8 @@
 import type { IssueReport } from '#shared/schemas/reports'
-import type { ReportBuild, ReportContext, ReportKind } from './kinds'
-import { buildModelVersionReport } from './model-version'
+import type { ReportBuild, ReportContext, ReportHeading, ReportKind } from './kinds'
+import { buildModelVersionReport, longModelVersionReportHeading } from './model-version'
 import { buildPointLogReport } from './point-log'
-import { buildSettlementRunReport } from './settlement-run'
+import { buildSettlementRunReport, settlementRunReportHeading } from './settlement-run'
 
 /**
  * Which builder makes each kind of report, from an issue request's body. Issuing goes through `buildReport`;
@@ -31,5 +31,19 @@ export function buildReport(ctx: ReportContext, req: IssueReport): Promise<Repor
     case 'settlement-run': return REPORT_BUILDERS['settlement-run'](ctx, req)
     case 'model-version': return REPORT_BUILDERS['model-version'](ctx, req)
     case 'point-log': return REPORT_BUILDERS['point-log'](ctx, req)
+  }
+}
+
+/**
+ * Which reports are long, and so made on the job queue rather than in the request: every settlement-run report
+ * (one page or more per named point, its contour map and time curves) and a site-model report of a version with
+ * more than LONG_MODEL_REPORT_STRATA strata. For a long one, the record's checks (404, 422) and the heading the
+ * issued list shows meanwhile; null for a short one. `revision` is the letter the report will carry.
+ */
+export function longReportHeading(projectId: string, req: IssueReport, revision: string): Promise<ReportHeading | null> {
+  switch (req.kind) {
+    case 'settlement-run': return settlementRunReportHeading(projectId, req.runId, revision)
+    case 'model-version': return longModelVersionReportHeading(projectId, req.modelId, req.version)
+    case 'point-log': return Promise.resolve(null)
   }
 }

@@ -1,3 +1,4 @@
+import { waitForReport } from '../../helpers/reports'
 import { createRunModel, smallRunBody } from '../../helpers/settlement-run'
 import { ALL, freshPoint, next, ok, SETTLEMENT_RUNNERS, type Ctx, type RouteCase } from './types'
 
@@ -20,7 +21,9 @@ function fixture(ctx: Ctx) {
     f = (async () => {
       const model = await createRunModel(ctx.owner, ctx.projectId, undefined, 'Matrix report model')
       const r = await ok(ctx.owner.post<{ run: { id: string } }>(`/api/projects/${ctx.projectId}/settlement-runs`, smallRunBody(model, { name: 'Matrix report run' })))
-      const issued = await ok(ctx.owner.post<{ report: { id: string } }>(`/api/projects/${ctx.projectId}/reports`, { kind: 'settlement-run', runId: r.run.id }))
+      // A settlement-run report is made on the job queue (202): its PDF route answers once it is stored.
+      const issued = await ok(ctx.owner.post<{ report: { id: string } }>(`/api/projects/${ctx.projectId}/reports`, { kind: 'settlement-run', runId: r.run.id }), 202)
+      await waitForReport(ctx.owner, ctx.projectId, issued.report.id)
       return { runId: r.run.id, reportId: issued.report.id }
     })()
     fixtures.set(ctx, f)
@@ -33,7 +36,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId/models/:modelId/versions/:version/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${await savedModelVersion(ctx)}/report.pdf` }) },
   { method: 'GET', path: '/api/projects/:projectId/settlement-runs/:runId/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/settlement-runs/${(await fixture(ctx)).runId}/report.pdf` }) },
   { method: 'GET', path: '/api/projects/:projectId/reports', allowed: ALL, ok: 200 },
-  { method: 'POST', path: '/api/projects/:projectId/reports', allowed: SETTLEMENT_RUNNERS, ok: 201, prepare: async ctx => ({ body: { kind: 'settlement-run', runId: (await fixture(ctx)).runId } }) },
+  { method: 'POST', path: '/api/projects/:projectId/reports', allowed: SETTLEMENT_RUNNERS, ok: 202, prepare: async ctx => ({ body: { kind: 'settlement-run', runId: (await fixture(ctx)).runId } }) },
   { method: 'GET', path: '/api/projects/:projectId/reports/:reportId/pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `/api/projects/${ctx.projectId}/reports/${(await fixture(ctx)).reportId}/pdf` }) },
   // Point log (the stress-history log and the data its sheet page draws)
   { method: 'GET', path: '/api/projects/:projectId/points/:pointId/report.pdf', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshPoint(ctx)).url}/report.pdf?scale=200` }) },

@@ -13,9 +13,9 @@ describe('site-model version report', () => {
     const data = reportData()
     const { pdf, pages } = await renderReport(modelVersionDocument(data))
     const info = pdfInfo(pdf)
-    // Cover, the whole depth, one page per stratum (5 in the demo ground model), then the tables.
-    expect(pages).toBe(8)
-    expect(info.pages).toBe(8)
+    // Cover, the ground (strata, γ, u), the whole depth, one page per stratum (5 in the demo ground model), then the tables.
+    expect(pages).toBe(9)
+    expect(info.pages).toBe(9)
     const text = pdfPagesText(pdf)
     const cover = flat(text[0]!)
     expect(cover).toContain('TRN-0417')
@@ -26,10 +26,13 @@ describe('site-model version report', () => {
     // The demo water table and the piezometer at 12 m (u = 9.81 × 10.4 = 102.0 kPa).
     expect(cover).toContain('Water table at 1.60 m')
     expect(cover).toMatch(/12\.00 102\.0/)
-    expect(flat(text[1]!)).toContain('Stress history, whole depth')
-    expect(flat(text[3]!)).toContain('CRUST — Desiccated crust')
-    expect(flat(text[3]!)).toContain('10 fitted, 1 left out by the engineer, 1 excluded by reviewer flags')
-    const tables = flat(text[7]!)
+    const ground = flat(text[1]!)
+    expect(ground).toContain('Strata, unit weights and pore pressure')
+    for (const label of ['γ and γsat', 'Pore pressure u', 'water table 1.60 m', 'hydrostatic', 'piezometric control point', 'Desiccated crust']) expect(ground).toContain(label)
+    expect(flat(text[2]!)).toContain('Stress history, whole depth')
+    expect(flat(text[4]!)).toContain('CRUST — Desiccated crust')
+    expect(flat(text[4]!)).toContain('10 fitted, 1 left out by the engineer, 1 excluded by reviewer flags')
+    const tables = flat(text[8]!)
     const est = data.definition.strata[2]!.trend!
     expect(tables).toContain(`POP ${est.parameters.pop!.toFixed(1)} kPa`)
     expect(tables).toContain(`${est.r2!.toFixed(3)}`)
@@ -43,8 +46,9 @@ describe('site-model version report', () => {
     }
     pdfPageToPng(pdf, 'report-model-version-p1', 1)
     pdfPageToPng(pdf, 'report-model-version-p2', 2)
-    pdfPageToPng(pdf, 'report-model-version-p4', 4)
-    pdfPageToPng(pdf, 'report-model-version-p8', 8)
+    pdfPageToPng(pdf, 'report-model-version-p3', 3)
+    pdfPageToPng(pdf, 'report-model-version-p5', 5)
+    pdfPageToPng(pdf, 'report-model-version-p9', 9)
   }, 60_000)
 
   it('bands every page of a version not approved and says where it stands', async () => {
