@@ -300,10 +300,7 @@ describe('the model editing session', () => {
 })
 
 describe('the trend model chosen per stratum', () => {
-  beforeEach(() => {
-    setActivePinia(createPinia())
-    localStorage.clear()
-  })
+  useFreshStores()
 
   it('keeps each stratum\'s choice apart, outside the undo history, and forgets them all when another model loads', () => {
     const store = useModelEditorStore()
