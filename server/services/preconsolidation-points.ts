@@ -8,6 +8,7 @@ import type { DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
 import { useDb } from '../db/client'
 import { cptSoundings, indexTests, investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users, vaneReadings } from '../db/schema'
 import { loggedIntervals, sampleDepth, type LoggedInterval, type StressContext, stratumAtLogged } from './lab'
+import { cptDerivationOff } from './strata'
 
 /** One σ'p point of the canvas, whatever its source (adoption time as a Date until serialised). */
 export type PreconsolidationPoint = SharedPreconsolidationPoint<Date>
@@ -134,16 +135,18 @@ export async function cptSoundingRows(projectId: string, pointId?: string): Prom
     .orderBy(asc(investigationPoints.identifier))
 }
 
-function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number): DenseCpt {
+function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number, off: ReadonlySet<string>): DenseCpt {
   const out: DenseCpt = { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: [], preconsolidation: [], effectiveStress: [], stratum: [] }
   for (const [i, z] of profile.depth.entries()) {
     const p = profile.preconsolidation[i] ?? Number.NaN
     if (!Number.isFinite(p)) continue
+    const code = stratumAt(ctx, intervals, z)
+    if (code !== null && off.has(code)) continue
     const e = profile.effectiveStress[i] ?? Number.NaN
     out.depth.push(round(z, 3))
     out.preconsolidation.push(round(p, 1))
     out.effectiveStress.push(Number.isFinite(e) ? round(e, 1) : null)
-    out.stratum.push(strataIndex(stratumAt(ctx, intervals, z)))
+    out.stratum.push(strataIndex(code))
   }
   return out
 }
@@ -229,13 +232,25 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
 // All sources
 // ---------------------------------------------------------------------------
 
+/** True for a CPT or vane point in a stratum whose "derive σ'p from CPT and vane" switch is on (or in none). */
+export function derivedHere(off: ReadonlySet<string>) {
+  return (p: Pick<PreconsolidationPoint, 'stratumCode'>): boolean => p.stratumCode === null || !off.has(p.stratumCode)
+}
+
+/**
+ * Every σ'p point of the project through the given stresses. CPT and vane points are kept only in
+ * strata whose switch is on (`strataCptDerivation`): k·qnet and su/0.22 hold for fine-grained soils only.
+ */
 export async function allPreconsolidationPoints(projectId: string, ctx: StressContext, opts: { spacing: number, dense: boolean }): Promise<ServerPreconsolidationPoints> {
   const warnings: string[] = []
-  const [oedometer, soundings, vane] = await Promise.all([
+  const [oedometer, soundings, vaneAll, off] = await Promise.all([
     oedometerPoints(projectId, ctx),
     cptSoundingRows(projectId),
     vanePoints(projectId, ctx),
+    cptDerivationOff(projectId),
   ])
+  const derived = derivedHere(off)
+  const vane = { ...vaneAll, points: vaneAll.points.filter(derived) }
   warnings.push(...vane.warnings)
   const cptIntervals = await loggedIntervals(soundings.map(s => s.pointId))
   const strataCodes: string[] = []
@@ -252,8 +267,8 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
   for (const c of ctx.definition ? soundings : []) {
     try {
       const profile = cptThroughModel(ctx, c)
-      cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)))
-      if (opts.dense) dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex))
+      cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)).filter(derived))
+      if (opts.dense) dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex, off))
       if (profile.flaggedRows) warnings.push(`${c.pointIdentifier}: ${profile.flaggedRows} of ${profile.depth.length} CPT rows give no σ'p (qt not above σv0, a missing reading, or below the stress model's base).`)
     }
     catch (err) {
@@ -269,6 +284,7 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
     counts: { oedometer: oedometer.length, cpt: cpt.length, vane: vane.points.length },
     vaneStratumPi: vane.stratumDefaults,
     warnings,
+    notDerivedIn: [...off],
     ...(opts.dense ? { dense: { strata: strataCodes, cpt: dense } } : {}),
   }
 }

@@ -157,6 +157,8 @@ export interface ServerPreconsolidationPoints {
   counts: Record<PreconsolidationSource, number>
   vaneStratumPi: Record<string, number>
   warnings: string[]
+  /** Strata codes whose "derive σ'p from CPT and vane" switch is off: no CPT or vane points there. */
+  notDerivedIn: string[]
   dense?: { strata: string[], cpt: DenseCpt[] }
 }
 
