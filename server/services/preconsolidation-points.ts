@@ -1,10 +1,11 @@
 import { and, asc, eq, isNotNull, isNull } from 'drizzle-orm'
+import { behaviourIndexProfile } from '#shared/geotech/behaviour-index'
 import { isGeotechError } from '#shared/geotech/errors'
 import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconsolidation, vanePreconsolidation, type CptProfile } from '#shared/geotech/insitu'
 import { median } from '#shared/lab/statistics'
 import { cptPointId } from '#shared/review/flags'
 import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint as SharedPreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
-import type { DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
+import type { CptBehaviourTrace, DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
 import { useDb } from '../db/client'
 import { cptSoundings, indexTests, investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users, vaneReadings } from '../db/schema'
 import { loggedIntervals, sampleDepth, type LoggedInterval, type StressContext, stratumAtLogged } from './lab'
@@ -115,6 +116,19 @@ export function cptResampled(ctx: StressContext, c: CptSoundingRow, profile: Cpt
       adoptedAt: null,
     }
   })
+}
+
+/** Ic per row (Robertson 2009) through the stresses of the profile; NaN where it is undefined. */
+export function cptBehaviour(c: CptSoundingRow, profile: CptProfile): Float64Array {
+  return behaviourIndexProfile({ qt: profile.qt, fs: c.fs, totalStress: profile.totalStress, effectiveStress: profile.effectiveStress })
+}
+
+/** Window of the canvas's Ic guide, m: a sounding's 1 000 rows become ~200 medians. */
+const BEHAVIOUR_SPACING = 0.1
+
+function behaviourTrace(c: CptSoundingRow, profile: CptProfile): CptBehaviourTrace {
+  const resampled = resamplePreconsolidation(profile.depth, cptBehaviour(c, profile), { spacing: BEHAVIOUR_SPACING, statistic: 'median' })
+  return { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: resampled.map(p => round(p.depth, 3)), ic: resampled.map(p => round(p.preconsolidation, 3)) }
 }
 
 export async function cptSoundingRows(projectId: string, pointId?: string): Promise<CptSoundingRow[]> {
@@ -262,13 +276,17 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
   }
   const cpt: PreconsolidationPoint[] = []
   const dense: DenseCpt[] = []
+  const behaviour: CptBehaviourTrace[] = []
   // CPT σ'p = k·(qt − σv0) needs the stresses: none without a saved version of the design model.
   if (!ctx.definition && soundings.length) warnings.push(`${ctx.info.description} CPT σ'p (k·qnet needs σv0) are not computed until a version of the design model is saved.`)
   for (const c of ctx.definition ? soundings : []) {
     try {
       const profile = cptThroughModel(ctx, c)
       cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)).filter(derived))
-      if (opts.dense) dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex, off))
+      if (opts.dense) {
+        dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex, off))
+        behaviour.push(behaviourTrace(c, profile))
+      }
       if (profile.flaggedRows) warnings.push(`${c.pointIdentifier}: ${profile.flaggedRows} of ${profile.depth.length} CPT rows give no σ'p (qt not above σv0, a missing reading, or below the stress model's base).`)
     }
     catch (err) {
@@ -285,6 +303,6 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
     vaneStratumPi: vane.stratumDefaults,
     warnings,
     notDerivedIn: [...off],
-    ...(opts.dense ? { dense: { strata: strataCodes, cpt: dense } } : {}),
+    ...(opts.dense ? { dense: { strata: strataCodes, cpt: dense }, behaviour } : {}),
   }
 }

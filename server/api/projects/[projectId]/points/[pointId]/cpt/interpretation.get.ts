@@ -4,7 +4,7 @@ import { CptInterpretationQuerySchema } from '#shared/schemas/lab'
 import { stratumBounds } from '#shared/site-model/definition'
 import { loggedIntervals, stressContext } from '~~/server/services/lab'
 import { requirePoint } from '~~/server/services/points'
-import { cptResampled, cptSoundingRows, cptThroughModel } from '~~/server/services/preconsolidation-points'
+import { cptBehaviour, cptResampled, cptSoundingRows, cptThroughModel } from '~~/server/services/preconsolidation-points'
 import { notFound } from '~~/server/services/http-errors'
 import { PointParamsSchema } from '#shared/schemas/investigation'
 
@@ -16,7 +16,8 @@ function wire(values: Float64Array, digits: number): (number | null)[] {
 
 /**
  * The sounding through the stress model in force: qt, qnet, Rf, Bq, σv0, u0, σ'v0, σ'p = k·qnet and
- * OCR per row (null where a row is flagged, with its status code), and σ'p resampled at `spacing`.
+ * OCR per row (null where a row is flagged, with its status code), the behaviour index Ic (Robertson 2009;
+ * null where undefined), and σ'p resampled at `spacing`.
  */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
@@ -27,6 +28,7 @@ export default defineEventHandler(async (event) => {
   if (!sounding) notFound('CPT sounding')
   const stress = await stressContext(project.id)
   const profile = runEngine(() => cptThroughModel(stress, sounding))
+  const ic = runEngine(() => cptBehaviour(sounding, profile))
   const intervals = await loggedIntervals([point.id])
   const bounds = stress.definition ? stratumBounds(stress.definition) : []
   return {
@@ -47,6 +49,7 @@ export default defineEventHandler(async (event) => {
       effectiveStress: wire(profile.effectiveStress, 2),
       preconsolidation: wire(profile.preconsolidation, 2),
       ocr: wire(profile.ocr, 3),
+      ic: wire(ic, 3),
       status: Array.from(profile.status),
     },
     flaggedRows: profile.flaggedRows,
