@@ -4,7 +4,8 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { join } from 'node:path'
+import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 interface Points { points: { source: string, stratumCode: string | null, pointIdentifier: string, depth: number }[] }
 
@@ -38,6 +39,7 @@ describe('Ic on the CPT plot and the stress canvas (the seeded demo, read only)'
     for (const range of ['< 1.31', '1.31–2.05', '2.05–2.60', '2.60–2.95', '2.95–3.60', '> 3.60']) expect(await key.textContent()).toContain(range)
     await page.getByTestId('cpt-plot').scrollIntoViewIfNeeded()
     await screenshot(page, 'cpt-ic-track')
+    await track.screenshot({ path: join(SCREENSHOTS, 'cpt-ic-track-detail.png') })
     await page.close()
   })
 
@@ -51,6 +53,8 @@ describe('Ic on the CPT plot and the stress canvas (the seeded demo, read only)'
     expect(await page.getByTestId('behaviour-guide-key').textContent()).toContain('2.95–3.60')
     await page.getByTestId('model-canvas').scrollIntoViewIfNeeded()
     await screenshot(page, 'stress-canvas-ic-guide')
+    // The strata, the guide and the first tracks at full size, to look at the guide itself.
+    await page.getByTestId('model-canvas').screenshot({ path: join(SCREENSHOTS, 'stress-canvas-ic-guide-detail.png') })
     await page.close()
   })
 })
