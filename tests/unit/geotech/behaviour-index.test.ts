@@ -104,6 +104,8 @@ describe('Ic along a sounding and its bands', () => {
     expectGeotechError(() => behaviourIndexProfile({ qt: [1], fs: [], totalStress: [1], effectiveStress: [1] }), 'array-length-mismatch')
   })
 
+  // The Ic boundaries of the soil behaviour type chart (Robertson 1990, restated in Robertson 2009) are recalled
+  // (memory); open implementations checked against band on the same five values.
   it('bands by the published boundaries 1.31, 2.05, 2.60, 2.95, 3.60 (a boundary belongs to the band above)', () => {
     expect(IC_BOUNDARIES).toEqual([1.31, 2.05, 2.6, 2.95, 3.6])
     expect([1.0, 1.31, 2.0, 2.05, 2.59, 2.6, 2.95, 3.59, 3.6, 4.2].map(behaviourBand)).toEqual([0, 1, 1, 2, 2, 3, 4, 4, 5, 5])
