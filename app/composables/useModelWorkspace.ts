@@ -9,7 +9,7 @@ import type { TrendFits, WorkspaceEditor } from '~/composables/useTrendFits'
 import type { ModelUnits } from '~/composables/useModelUnits'
 import type { FlaggedTest, PointFlag } from '~/utils/stressHistory'
 import type { ProfilePoint } from '#shared/types/calc'
-import type { PreconsolidationPointRow } from '#shared/types/lab'
+import type { CptBehaviourTrace, PreconsolidationPointRow } from '#shared/types/lab'
 
 /** The plotting band of the drawing (px from its top) that every track and the depth scale share. */
 export const MODEL_PLOT = { top: 44, bottom: 604 } as const
@@ -37,6 +37,8 @@ export interface ModelWorkspace {
   /** Flagged oedometer tests with no adopted σ'p: marked at their depth, never fitted. */
   flaggedTests: ShallowRef<FlaggedTest[]>
   dense: ShallowRef<DenseLayer>
+  /** Each CPT's behaviour index Ic through the same stresses, for the guide beside the strata. */
+  behaviour?: ShallowRef<CptBehaviourTrace[]>
   fits: TrendFits
   holes: ComputedRef<ReferenceHole[]>
   unitWeights: ComputedRef<UnitWeightReading[]>

@@ -1,5 +1,5 @@
 import seedrandom from 'seedrandom'
-import type { DenseCpt, PreconsolidationPointRow, PreconsolidationPointsReply } from '#shared/types/lab'
+import type { CptBehaviourTrace, DenseCpt, PreconsolidationPointRow, PreconsolidationPointsReply } from '#shared/types/lab'
 import type { ReviewFlag } from '#shared/types/review'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
@@ -146,6 +146,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
   const flags = shallowRef<Map<string, PointFlag[]>>(new Map())
   const flaggedTests = shallowRef<FlaggedTest[]>([])
   const dense = shallowRef<DenseLayer>(EMPTY_DENSE)
+  const behaviour = shallowRef<CptBehaviourTrace[]>([])
   const warnings = ref<string[]>([])
   const stressModel = ref<PreconsolidationPointsReply['stressModel'] | null>(null)
   /** Whether points are on screen: an edit whose points cannot be computed keeps the last ones beside the error. */
@@ -167,6 +168,7 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     if (!pts) return
     points.value = pts.points
     dense.value = mergeDense(pts.dense?.cpt ?? [], syntheticSorted())
+    behaviour.value = pts.behaviour ?? []
     warnings.value = pts.warnings
     stressModel.value = pts.stressModel
     shown.value = true
@@ -202,5 +204,5 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     latest.cancel()
     await Promise.all([context.refresh(), answer.refresh()])
   }
-  return { points, flags, flaggedTests, dense, warnings, stressModel, loading, error, listNote, refresh }
+  return { points, flags, flaggedTests, dense, behaviour, warnings, stressModel, loading, error, listNote, refresh }
 }

@@ -4,7 +4,7 @@ import type { StratumRow, StrataReply } from '#shared/types/investigation'
 /** The project's strata in display order, with the writes the strata editor needs. */
 export function useStrata(projectId: MaybeRefOrGetter<string>) {
   const base = () => `/api/projects/${toValue(projectId)}/strata`
-  const res = useApi<StrataReply>(() => `strata-${toValue(projectId)}`, base, () => ({ strata: [] }))
+  const res = useApi<StrataReply>(() => `strata-${toValue(projectId)}`, base, () => ({ strata: [], cptDerivation: [] }))
 
   async function create(input: StratumInput): Promise<StratumRow> {
     const { stratum } = await api<{ stratum: StratumRow }>(base(), { method: 'POST', body: input })
@@ -21,6 +21,13 @@ export function useStrata(projectId: MaybeRefOrGetter<string>) {
   /** `send`, then the list read again, so every user of the list sees the edit. */
   async function update(row: StratumRow, patch: Partial<StratumInput>): Promise<StratumRow> {
     const stratum = await send(row, patch)
+    await res.refresh()
+    return stratum
+  }
+
+  /** "Derive σ'p from CPT and vane" in a stratum: true or false, or null to follow its logged symbols. */
+  async function setCptDerivation(row: StratumRow, cptDerivation: boolean | null): Promise<StratumRow> {
+    const { stratum } = await api<{ stratum: StratumRow }>(`${base()}/${row.id}/cpt-derivation`, { method: 'PUT', body: { cptDerivation, version: row.version } })
     await res.refresh()
     return stratum
   }
@@ -52,5 +59,5 @@ export function useStrata(projectId: MaybeRefOrGetter<string>) {
     }
   }
 
-  return { ...res, create, update, remove, move }
+  return { ...res, create, update, remove, move, setCptDerivation }
 }

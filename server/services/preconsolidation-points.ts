@@ -1,13 +1,15 @@
 import { and, asc, eq, isNotNull, isNull } from 'drizzle-orm'
+import { behaviourIndexProfile } from '#shared/geotech/behaviour-index'
 import { isGeotechError } from '#shared/geotech/errors'
 import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconsolidation, vanePreconsolidation, type CptProfile } from '#shared/geotech/insitu'
 import { median } from '#shared/lab/statistics'
 import { cptPointId } from '#shared/review/flags'
 import { PRECONSOLIDATION_SOURCES, type PreconsolidationPoint as SharedPreconsolidationPoint, type PreconsolidationSource } from '#shared/schemas/lab'
-import type { DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
+import type { CptBehaviourTrace, DenseCpt, ServerPreconsolidationPoints } from '#shared/types/lab'
 import { useDb } from '../db/client'
 import { cptSoundings, indexTests, investigationPoints, oedometerTests, preconsolidationAdoptions, samples, users, vaneReadings } from '../db/schema'
 import { loggedIntervals, sampleDepth, type LoggedInterval, type StressContext, stratumAtLogged } from './lab'
+import { cptDerivationOff } from './strata'
 
 /** One σ'p point of the canvas, whatever its source (adoption time as a Date until serialised). */
 export type PreconsolidationPoint = SharedPreconsolidationPoint<Date>
@@ -116,6 +118,19 @@ export function cptResampled(ctx: StressContext, c: CptSoundingRow, profile: Cpt
   })
 }
 
+/** Ic per row (Robertson 2009) through the stresses of the profile; NaN where it is undefined. */
+export function cptBehaviour(c: CptSoundingRow, profile: CptProfile): Float64Array {
+  return behaviourIndexProfile({ qt: profile.qt, fs: c.fs, totalStress: profile.totalStress, effectiveStress: profile.effectiveStress })
+}
+
+/** Window of the canvas's Ic guide, m: a sounding's 1 000 rows become ~200 medians. */
+const BEHAVIOUR_SPACING = 0.1
+
+function behaviourTrace(c: CptSoundingRow, profile: CptProfile): CptBehaviourTrace {
+  const resampled = resamplePreconsolidation(profile.depth, cptBehaviour(c, profile), { spacing: BEHAVIOUR_SPACING, statistic: 'median' })
+  return { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: resampled.map(p => round(p.depth, 3)), ic: resampled.map(p => round(p.preconsolidation, 3)) }
+}
+
 export async function cptSoundingRows(projectId: string, pointId?: string): Promise<CptSoundingRow[]> {
   const where = [eq(investigationPoints.projectId, projectId)]
   if (pointId) where.push(eq(investigationPoints.id, pointId))
@@ -134,16 +149,18 @@ export async function cptSoundingRows(projectId: string, pointId?: string): Prom
     .orderBy(asc(investigationPoints.identifier))
 }
 
-function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number): DenseCpt {
+function denseRows(ctx: StressContext, c: CptSoundingRow, profile: CptProfile, intervals: LoggedInterval[] | undefined, strataIndex: (code: string | null) => number, off: ReadonlySet<string>): DenseCpt {
   const out: DenseCpt = { pointId: c.pointId, pointIdentifier: c.pointIdentifier, depth: [], preconsolidation: [], effectiveStress: [], stratum: [] }
   for (const [i, z] of profile.depth.entries()) {
     const p = profile.preconsolidation[i] ?? Number.NaN
     if (!Number.isFinite(p)) continue
+    const code = stratumAt(ctx, intervals, z)
+    if (code !== null && off.has(code)) continue
     const e = profile.effectiveStress[i] ?? Number.NaN
     out.depth.push(round(z, 3))
     out.preconsolidation.push(round(p, 1))
     out.effectiveStress.push(Number.isFinite(e) ? round(e, 1) : null)
-    out.stratum.push(strataIndex(stratumAt(ctx, intervals, z)))
+    out.stratum.push(strataIndex(code))
   }
   return out
 }
@@ -229,13 +246,25 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
 // All sources
 // ---------------------------------------------------------------------------
 
+/** True for a CPT or vane point in a stratum whose "derive σ'p from CPT and vane" switch is on (or in none). */
+export function derivedHere(off: ReadonlySet<string>) {
+  return (p: Pick<PreconsolidationPoint, 'stratumCode'>): boolean => p.stratumCode === null || !off.has(p.stratumCode)
+}
+
+/**
+ * Every σ'p point of the project through the given stresses. CPT and vane points are kept only in
+ * strata whose switch is on (`strataCptDerivation`): k·qnet and su/0.22 hold for fine-grained soils only.
+ */
 export async function allPreconsolidationPoints(projectId: string, ctx: StressContext, opts: { spacing: number, dense: boolean }): Promise<ServerPreconsolidationPoints> {
   const warnings: string[] = []
-  const [oedometer, soundings, vane] = await Promise.all([
+  const [oedometer, soundings, vaneAll, off] = await Promise.all([
     oedometerPoints(projectId, ctx),
     cptSoundingRows(projectId),
     vanePoints(projectId, ctx),
+    cptDerivationOff(projectId),
   ])
+  const derived = derivedHere(off)
+  const vane = { ...vaneAll, points: vaneAll.points.filter(derived) }
   warnings.push(...vane.warnings)
   const cptIntervals = await loggedIntervals(soundings.map(s => s.pointId))
   const strataCodes: string[] = []
@@ -247,13 +276,17 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
   }
   const cpt: PreconsolidationPoint[] = []
   const dense: DenseCpt[] = []
+  const behaviour: CptBehaviourTrace[] = []
   // CPT σ'p = k·(qt − σv0) needs the stresses: none without a saved version of the design model.
   if (!ctx.definition && soundings.length) warnings.push(`${ctx.info.description} CPT σ'p (k·qnet needs σv0) are not computed until a version of the design model is saved.`)
   for (const c of ctx.definition ? soundings : []) {
     try {
       const profile = cptThroughModel(ctx, c)
-      cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)))
-      if (opts.dense) dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex))
+      cpt.push(...cptResampled(ctx, c, profile, opts.spacing, cptIntervals.get(c.pointId)).filter(derived))
+      if (opts.dense) {
+        dense.push(denseRows(ctx, c, profile, cptIntervals.get(c.pointId), strataIndex, off))
+        behaviour.push(behaviourTrace(c, profile))
+      }
       if (profile.flaggedRows) warnings.push(`${c.pointIdentifier}: ${profile.flaggedRows} of ${profile.depth.length} CPT rows give no σ'p (qt not above σv0, a missing reading, or below the stress model's base).`)
     }
     catch (err) {
@@ -269,6 +302,7 @@ export async function allPreconsolidationPoints(projectId: string, ctx: StressCo
     counts: { oedometer: oedometer.length, cpt: cpt.length, vane: vane.points.length },
     vaneStratumPi: vane.stratumDefaults,
     warnings,
-    ...(opts.dense ? { dense: { strata: strataCodes, cpt: dense } } : {}),
+    notDerivedIn: [...off],
+    ...(opts.dense ? { dense: { strata: strataCodes, cpt: dense }, behaviour } : {}),
   }
 }

@@ -33,6 +33,8 @@ export const StratumInputSchema = z.object({
   displayOrder: int(0, 10_000).default(0),
 })
 export const StratumUpdateSchema = StratumInputSchema.partial().extend(VersionSchema.shape)
+/** "Derive σ'p from CPT and vane" in a stratum (an interpretation choice): true or false overrides the default from the logged symbols, null follows it. */
+export const StratumCptDerivationSchema = z.object({ cptDerivation: z.boolean().nullable() }).extend(VersionSchema.shape)
 
 export const PointInputSchema = z.object({
   identifier: str().trim().min(1, { message: 'is required' }).max(40).regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { message: 'may use letters, digits and . _ / -' }),

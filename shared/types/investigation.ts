@@ -5,6 +5,7 @@
  */
 import type { ProjectRole } from '#shared/auth/roles'
 import type { Gap } from '#shared/investigation/intervals'
+import type { CptDerivationDefault } from '#shared/strata/cpt-derivation'
 import type {
   cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, strata, vaneReadings,
 } from '~~/server/db/schema'
@@ -65,8 +66,18 @@ export type PointListItem = Serialize<ServerPointListItem>
 export interface ServerPointPage { points: ServerPointListItem[], total: number, limit: number, offset: number }
 export type PointPage = Serialize<ServerPointPage>
 
+/** Whether σ'p is derived from CPT and vane in a stratum: the default from its logged symbols and the switch in force. */
+export interface StratumCptDerivation {
+  stratumId: string
+  code: string
+  default: CptDerivationDefault
+  /** The stored override (null follows the default). */
+  override: boolean | null
+  on: boolean
+}
+
 /** GET …/strata */
-export interface ServerStrataReply { strata: ServerStratumRow[] }
+export interface ServerStrataReply { strata: ServerStratumRow[], cptDerivation: StratumCptDerivation[] }
 export type StrataReply = Serialize<ServerStrataReply>
 
 /** PUT …/points/:pointId/intervals: the log as saved, with its gaps. */

@@ -151,13 +151,25 @@ export interface DenseCpt {
   stratum: number[]
 }
 
-/** `allPreconsolidationPoints`: the points of every source, with the dense CPT rows when asked. */
+/** A sounding's behaviour index Ic (Robertson 2009) through the same stresses, median per 0.1 m, for the canvas's guide. */
+export interface CptBehaviourTrace {
+  pointId: string
+  pointIdentifier: string
+  depth: number[]
+  ic: number[]
+}
+
+/** `allPreconsolidationPoints`: the points of every source, with the dense CPT rows (and Ic) when asked. */
 export interface ServerPreconsolidationPoints {
   points: PreconsolidationPoint<Date>[]
   counts: Record<PreconsolidationSource, number>
   vaneStratumPi: Record<string, number>
   warnings: string[]
+  /** Strata codes whose "derive σ'p from CPT and vane" switch is off: no CPT or vane points there. */
+  notDerivedIn: string[]
   dense?: { strata: string[], cpt: DenseCpt[] }
+  /** With the dense rows: each sounding's Ic, in every stratum (switch or not). */
+  behaviour?: CptBehaviourTrace[]
 }
 
 /** GET …/preconsolidation-points and POST …/preconsolidation-points/evaluate */

@@ -12,10 +12,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ChangePasswordSchema, CreateTokenSchema, CreateUserSchema, LoginSchema } from '../../shared/schemas/auth'
 import { PreconsolidationRequestSchema, SettlementRequestSchema, StressProfileRequestSchema, TrendFitRequestSchema } from '../../shared/schemas/calc'
 import { AgsCommitSchema, ImportCommitSchema } from '../../shared/schemas/imports'
-import {
-  CptSaveSchema, GroundwaterInputSchema, GroundwaterUpdateSchema, IndexTestSaveSchema, LogReplaceSchema, PointInputSchema, PointUpdateSchema,
-  SampleInputSchema, SampleUpdateSchema, SptInputSchema, SptUpdateSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema, VaneUpdateSchema,
-} from '../../shared/schemas/investigation'
+import { CptSaveSchema, GroundwaterInputSchema, GroundwaterUpdateSchema, IndexTestSaveSchema, LogReplaceSchema, PointInputSchema, PointUpdateSchema, SampleInputSchema, SampleUpdateSchema, SptInputSchema, SptUpdateSchema, StratumCptDerivationSchema, StratumInputSchema, StratumUpdateSchema, VaneInputSchema, VaneUpdateSchema } from '../../shared/schemas/investigation'
 import { AdoptionInputSchema, OedometerTestInputSchema, OedometerTestUpdateSchema, PreconsolidationPointsEvaluateSchema } from '../../shared/schemas/lab'
 import { CreateModelSchema, SaveDraftSchema, SaveVersionSchema, SubmitVersionSchema, VersionDecisionSchema } from '../../shared/schemas/models'
 import { AddMemberSchema, CreateProjectSchema, UpdateMemberSchema, UpdateProjectSchema } from '../../shared/schemas/projects'
@@ -61,6 +58,7 @@ const SCHEMAS: Record<string, z.ZodType> = {
   'POST /api/projects/:projectId/imports/:importId/commit-ags': AgsCommitSchema,
   'POST /api/projects/:projectId/strata': StratumInputSchema,
   'PATCH /api/projects/:projectId/strata/:stratumId': StratumUpdateSchema,
+  'PUT /api/projects/:projectId/strata/:stratumId/cpt-derivation': StratumCptDerivationSchema,
   'POST /api/projects/:projectId/models': CreateModelSchema,
   'PUT /api/projects/:projectId/models/:modelId/draft': SaveDraftSchema,
   'POST /api/projects/:projectId/models/:modelId/versions': SaveVersionSchema,

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { check, date, doublePrecision, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, date, doublePrecision, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '#shared/investigation/types'
 import { timestamps } from './columns'
 import { projects } from './projects'
@@ -23,6 +23,8 @@ export const strata = pgTable('strata', {
   unitWeight: doublePrecision().notNull(),
   unitWeightSaturated: doublePrecision().notNull(),
   displayOrder: integer().notNull().default(0),
+  /** σ'p derived from CPT and vane in this stratum: null follows the logged USCS symbols (`cptDerivationDefault`). */
+  cptDerivation: boolean(),
   ...version,
   ...timestamps,
 }, t => [

@@ -9,8 +9,8 @@ import { projects } from '~~/server/db/schema'
 import { stressContextOf, type StressContext } from '~~/server/services/lab'
 import { stressModelInForce } from '~~/server/services/site-models'
 import { pointDetail, requirePoint } from '~~/server/services/points'
-import { cptResampled, cptSoundingRows, cptThroughModel, oedometerPoints, vanePoints } from '~~/server/services/preconsolidation-points'
-import { listStrata } from '~~/server/services/strata'
+import { cptResampled, cptSoundingRows, cptThroughModel, derivedHere, oedometerPoints, vanePoints } from '~~/server/services/preconsolidation-points'
+import { cptDerivationOff, listStrata } from '~~/server/services/strata'
 import { notFound } from '~~/server/services/http-errors'
 import { isGeotechError } from '#shared/geotech/errors'
 import type { ReportBuild, ReportContext } from './kinds'
@@ -57,7 +57,7 @@ async function stressStrip(projectId: string, pointId: string, finalDepth: numbe
     }
     if (run.length >= 2) trend.push(run)
   })
-  const [oedometer, vane, soundings] = await Promise.all([oedometerPoints(projectId, ctx), vanePoints(projectId, ctx), cptSoundingRows(projectId, pointId)])
+  const [oedometer, vane, soundings, off] = await Promise.all([oedometerPoints(projectId, ctx), vanePoints(projectId, ctx), cptSoundingRows(projectId, pointId), cptDerivationOff(projectId)])
   const cpt = soundings.flatMap((c) => {
     try {
       return cptResampled(ctx, c, cptThroughModel(ctx, c), CPT_SPACING, undefined)
@@ -67,7 +67,9 @@ async function stressStrip(projectId: string, pointId: string, finalDepth: numbe
       throw err
     }
   })
-  const points = [...oedometer, ...vane.points, ...cpt]
+  // CPT and vane σ'p only in strata whose "derive σ'p from CPT and vane" switch is on, as on the canvas.
+  const derived = derivedHere(off)
+  const points = [...oedometer, ...vane.points.filter(derived), ...cpt.filter(derived)]
     .filter(p => p.pointId === pointId)
     .map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress, source: p.source, qualityClass: p.qualityClass }))
   return { available: true, model: ctx.info.description, profile, trend, points }

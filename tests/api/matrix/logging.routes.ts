@@ -1,4 +1,4 @@
-import { ALL, freshAgsUpload, freshPoint, freshRow, freshSample, freshStratum, freshUpload, LOG_WRITERS, next, ok, type RouteCase } from './types'
+import { ALL, freshAgsUpload, freshPoint, freshRow, freshSample, freshStratum, freshUpload, LOG_WRITERS, MODEL_WRITERS, next, ok, type RouteCase } from './types'
 
 const CPT_BODY = { areaRatio: 0.8, depth: [0.02, 0.04], qc: [300, 310], fs: [5, 5], u2: [1, 2] }
 
@@ -41,5 +41,7 @@ export const ROUTES: RouteCase[] = [  // Investigation points and their logs
   { method: 'GET', path: '/api/projects/:projectId/strata', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/strata', allowed: LOG_WRITERS, ok: 201, prepare: async () => ({ body: { code: `N${next()}`.slice(0, 16), name: 'New', colour: 'c', pattern: 'p', unitWeight: 17, unitWeightSaturated: 18 } }) },
   { method: 'PATCH', path: '/api/projects/:projectId/strata/:stratumId', allowed: LOG_WRITERS, ok: 200, prepare: async (ctx) => { const s = await freshStratum(ctx); return { path: s.url, body: { name: 'Renamed', version: s.version } } } },
+  // The σ'p switch is an interpretation choice (interpretation.write: owner and engineer).
+  { method: 'PUT', path: '/api/projects/:projectId/strata/:stratumId/cpt-derivation', allowed: MODEL_WRITERS, ok: 200, prepare: async (ctx) => { const s = await freshStratum(ctx); return { path: `${s.url}/cpt-derivation`, body: { cptDerivation: false, version: s.version } } } },
   { method: 'DELETE', path: '/api/projects/:projectId/strata/:stratumId', allowed: LOG_WRITERS, ok: 200, prepare: async ctx => ({ path: (await freshStratum(ctx)).url }) },
 ]

@@ -4,7 +4,8 @@ import { CptInterpretationQuerySchema } from '#shared/schemas/lab'
 import { stratumBounds } from '#shared/site-model/definition'
 import { loggedIntervals, stressContext } from '~~/server/services/lab'
 import { requirePoint } from '~~/server/services/points'
-import { cptResampled, cptSoundingRows, cptThroughModel } from '~~/server/services/preconsolidation-points'
+import { cptBehaviour, cptResampled, cptSoundingRows, cptThroughModel, derivedHere } from '~~/server/services/preconsolidation-points'
+import { cptDerivationOff } from '~~/server/services/strata'
 import { notFound } from '~~/server/services/http-errors'
 import { PointParamsSchema } from '#shared/schemas/investigation'
 
@@ -16,7 +17,8 @@ function wire(values: Float64Array, digits: number): (number | null)[] {
 
 /**
  * The sounding through the stress model in force: qt, qnet, Rf, Bq, σv0, u0, σ'v0, σ'p = k·qnet and
- * OCR per row (null where a row is flagged, with its status code), and σ'p resampled at `spacing`.
+ * OCR per row (null where a row is flagged, with its status code), the behaviour index Ic (Robertson 2009;
+ * null where undefined), and σ'p resampled at `spacing` in the strata where it is derived.
  */
 export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'project.read')
@@ -27,7 +29,8 @@ export default defineEventHandler(async (event) => {
   if (!sounding) notFound('CPT sounding')
   const stress = await stressContext(project.id)
   const profile = runEngine(() => cptThroughModel(stress, sounding))
-  const intervals = await loggedIntervals([point.id])
+  const ic = runEngine(() => cptBehaviour(sounding, profile))
+  const [intervals, off] = await Promise.all([loggedIntervals([point.id]), cptDerivationOff(project.id)])
   const bounds = stress.definition ? stratumBounds(stress.definition) : []
   return {
     pointId: point.id,
@@ -47,11 +50,14 @@ export default defineEventHandler(async (event) => {
       effectiveStress: wire(profile.effectiveStress, 2),
       preconsolidation: wire(profile.preconsolidation, 2),
       ocr: wire(profile.ocr, 3),
+      ic: wire(ic, 3),
       status: Array.from(profile.status),
     },
     flaggedRows: profile.flaggedRows,
     spacing,
-    resampled: cptResampled(stress, sounding, profile, spacing, intervals.get(point.id)),
+    // The resampled σ'p as listed elsewhere: only in strata whose "derive σ'p from CPT and vane" switch is on.
+    resampled: cptResampled(stress, sounding, profile, spacing, intervals.get(point.id)).filter(derivedHere(off)),
+    notDerivedIn: [...off],
     caution: RESULT_CAUTION,
   }
 })

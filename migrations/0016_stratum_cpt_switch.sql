@@ -1,0 +1,1 @@
+ALTER TABLE "strata" ADD COLUMN "cpt_derivation" boolean;
