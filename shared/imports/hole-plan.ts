@@ -297,6 +297,8 @@ export interface HolePreview {
   action: HoleAction
   /** The whole preview in one sentence. */
   summary: string
+  /** A matching hole the import leaves as it is (the file matches it). */
+  unchanged: boolean
   header: string[]
   intervals: RowCounts
   samples: RowCounts
@@ -353,7 +355,7 @@ export function previewHole(plan: HolePlan): HolePreview {
     for (const r of plan.samples.removed) lines.push({ change: 'removed', kind: 'sample', top: r.row.top, bottom: r.row.bottom, label: r.row.identifier })
   }
   return {
-    identifier: plan.identifier, action: plan.action, summary, header: plan.header, ...c, cpt: plan.cpt, keptTests: plan.keptTests, blockers: plan.blockers,
+    identifier: plan.identifier, action: plan.action, summary, unchanged: (plan.action === 'update' || plan.action === 'replace') && !parts.length, header: plan.header, ...c, cpt: plan.cpt, keptTests: plan.keptTests, blockers: plan.blockers,
     lines: lines.slice(0, MAX_PREVIEW_LINES), moreLines: Math.max(0, lines.length - MAX_PREVIEW_LINES),
   }
 }
