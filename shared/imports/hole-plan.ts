@@ -316,6 +316,12 @@ export interface HolePreview {
 
 export const MAX_PREVIEW_LINES = 60
 
+/** The header fields of a hole in the preview's words. */
+const HEADER_WORDS: Readonly<Record<string, string>> = {
+  identifier: 'identifier', kind: 'kind', easting: 'easting', northing: 'northing', groundElevation: 'ground elevation', finalDepth: 'final depth',
+  startedOn: 'start date', endedOn: 'end date', method: 'method', loggedBy: 'logged by', remarks: 'remarks',
+}
+
 function describeCounts(c: RowCounts, one: string, many = `${one}s`): string[] {
   return [
     c.added ? `${plural(c.added, one, many)} added` : '',
@@ -328,7 +334,7 @@ function describeCounts(c: RowCounts, one: string, many = `${one}s`): string[] {
 export function previewHole(plan: HolePlan): HolePreview {
   const c = { intervals: counts(plan.intervals), samples: counts(plan.samples), spt: counts(plan.spt), groundwater: counts(plan.groundwater), vane: counts(plan.vane) }
   const parts = [
-    ...(plan.header.length ? [`header changed (${plan.header.join(', ')})`] : []),
+    ...(plan.header.length ? [`${plan.header.map(k => HEADER_WORDS[k] ?? k).join(', ')} changed`] : []),
     ...describeCounts(c.intervals, 'interval'),
     ...describeCounts(c.samples, 'sample'),
     ...describeCounts(c.spt, 'SPT'),

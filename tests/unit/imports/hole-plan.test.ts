@@ -79,7 +79,7 @@ describe('planHoleImport', () => {
     expect(plan!.samples.kept).toBe(1)
     expect(plan!.spt.same + plan!.groundwater.same + plan!.vane.same).toBe(3)
     const preview = previewHole(plan!)
-    expect(preview.summary).toBe('BH-01: header changed (finalDepth), 1 interval added, 1 interval changed, 1 sample added. Kept as they are: 1 sample not in the file.')
+    expect(preview.summary).toBe('BH-01: final depth changed, 1 interval added, 1 interval changed, 1 sample added. Kept as they are: 1 sample not in the file.')
     expect(preview.lines.map(l => [l.change, l.kind, l.top, l.label])).toEqual([
       ['added', 'interval', 10, 'Dense sand'],
       ['changed', 'interval', 1.2, 'Soft grey silty clay with shells'],
@@ -93,7 +93,7 @@ describe('planHoleImport', () => {
     expect(plan!.samples.removed.map(r => [r.id, r.row.identifier])).toEqual([['s-U2', 'U2']])
     expect(plan!.samples.same).toBe(1)
     expect(plan!.blockers).toEqual([])
-    expect(previewHole(plan!).summary).toBe('BH-01: header changed (finalDepth), 1 interval added, 1 interval changed, 1 sample added, 1 sample removed.')
+    expect(previewHole(plan!).summary).toBe('BH-01: final depth changed, 1 interval added, 1 interval changed, 1 sample added, 1 sample removed.')
   })
 
   it('refuses to replace away a sample with an oedometer test or attachments', () => {
