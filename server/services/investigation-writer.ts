@@ -19,8 +19,10 @@ async function inChunks<T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>) 
  * Oedometer tests on samples are written too (stages as void ratios), unless
  * `oedometer: false` (the demo seed writes its own, with time readings).
  * Returns the ids it created, by identifier, for callers that add more.
+ * Points named in `options.existingPoints` (identifier → id) are not created: their rows are added
+ * to the stored point (an import that merges into holes already in the project).
  */
-export async function writeInvestigation(tx: Tx, projectId: string, data: InvestigationRecord, existingStrata: Map<string, string> = new Map(), options: { oedometer?: boolean } = {}) {
+export async function writeInvestigation(tx: Tx, projectId: string, data: InvestigationRecord, existingStrata: Map<string, string> = new Map(), options: { oedometer?: boolean, existingPoints?: ReadonlyMap<string, string> } = {}) {
   const strataIds = new Map(existingStrata)
   const newStrata = data.strata.filter(s => !strataIds.has(s.code))
   if (newStrata.length) {
@@ -30,10 +32,17 @@ export async function writeInvestigation(tx: Tx, projectId: string, data: Invest
   const pointIds = new Map<string, string>()
   const sampleIds = new Map<string, string>()
   if (data.points.length === 0) return { strataIds, pointIds, sampleIds }
-  const pointRows = await tx.insert(investigationPoints).values(data.points.map(p => ({
-    projectId,
-    ...pointHeader(p),
-  }))).returning({ id: investigationPoints.id, identifier: investigationPoints.identifier })
+  const newPoints = data.points.filter(p => !options.existingPoints?.has(p.identifier))
+  for (const p of data.points) {
+    const id = options.existingPoints?.get(p.identifier)
+    if (id) pointIds.set(p.identifier, id)
+  }
+  const pointRows = newPoints.length
+    ? await tx.insert(investigationPoints).values(newPoints.map(p => ({
+      projectId,
+      ...pointHeader(p),
+    }))).returning({ id: investigationPoints.id, identifier: investigationPoints.identifier })
+    : []
   for (const r of pointRows) pointIds.set(r.identifier, r.id)
 
   const intervals = data.points.flatMap(p => p.intervals.map(i => ({ ...i, stratumCode: undefined, pointId: knownEntry(pointIds, p.identifier), stratumId: i.stratumCode ? strataIds.get(i.stratumCode) ?? null : null })))

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { HOLE_IMPORT_MODES } from '../imports/hole-plan'
 import { IMPORT_TARGETS } from '../imports/targets'
 import { int, str, UuidSchema } from './common'
 
@@ -9,8 +10,12 @@ export const ImportPreviewQuerySchema = z.object({
   sheet: str().max(120).optional(),
 })
 
-/** Importing an uploaded AGS4 file whole; a dry run checks and reports without writing. */
-export const AgsCommitSchema = z.object({ dryRun: z.boolean().default(false) })
+/**
+ * Importing an uploaded AGS4 file; a dry run checks and answers the plan per hole without writing.
+ * `mode` says what happens to holes already in the project (shared/imports/hole-plan.ts): skipped
+ * (the default), merged, or made exactly as in the file.
+ */
+export const AgsCommitSchema = z.object({ dryRun: z.boolean().default(false), mode: z.enum(HOLE_IMPORT_MODES).default('add-new') })
 
 /** What every tabular import's commit carries, whatever its target. */
 const commitFields = {

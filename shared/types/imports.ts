@@ -2,6 +2,7 @@
  * Replies of the import routes. `Server…` is what a route returns, the plain
  * name what the page reads (a spreadsheet's date cells as ISO strings).
  */
+import type { HoleImportMode, HolePreview } from '#shared/imports/hole-plan'
 import type { RowError } from '#shared/imports/targets'
 import type { Serialize } from './serialize'
 
@@ -34,8 +35,30 @@ export interface AgsPreview {
   undefinedStrata: { code: string, name: string }[]
   summary: Record<string, number>
   errors: AgsRowError[]
+  /** All errors found, also when `errors` lists only the first 500. */
+  errorCount: number
   warnings: AgsRowError[]
 }
+
+/** POST …/imports/:importId/commit-ags: the plan per hole (a dry run) or what was written. */
+export interface ServerAgsCommitReply {
+  dryRun: boolean
+  mode: HoleImportMode
+  summary: Record<string, number>
+  unknownGroups: string[]
+  warnings: AgsRowError[]
+  holes: HolePreview[]
+  holeCounts: { add: number, skip: number, update: number, replace: number }
+  /** Why a commit in this mode would be refused (409), in plain words; null when it can go ahead. */
+  refusal: string | null
+}
+export type AgsCommitReply = Serialize<ServerAgsCommitReply>
+
+/** A log interval import's effect on one point: its stored intervals are replaced by the file's. */
+export interface LogReplacement { point: string, before: number, after: number }
+
+/** POST …/imports/:importId/commit with `dryRun`: the rows checked and, for intervals, the logs each point loses. */
+export interface ImportDryRunReply { dryRun: true, rowCount: number, errors: [], replaces?: LogReplacement[] }
 
 /** POST …/imports (201): the stored upload with its preview. */
 export interface ServerImportUpload {

@@ -57,10 +57,13 @@ describe('AGS4 export and import', () => {
     const owner = await signIn(demoEmail('owner'))
     const p = await owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `AGE-${Date.now().toString(36)}`, name: 'AGS errors' })
     const base = `/api/projects/${p.body.project.id}`
-    const up = await upload<{ importId: string }>(owner, `${base}/imports`, 'errors.ags', text, 'text/plain')
-    const r = await owner.post<{ data: { errors: { row: number, column: string, message: string }[] } }>(`${base}/imports/${up.body.importId}/commit-ags`, {})
+    const up = await upload<{ importId: string, ags: { errorCount: number } }>(owner, `${base}/imports`, 'errors.ags', text, 'text/plain')
+    const r = await owner.post<{ data: { errors: { row: number, column: string, message: string }[], errorCount: number } }>(`${base}/imports/${up.body.importId}/commit-ags`, {})
     expect(r.status).toBe(422)
     const errs = r.body.data.errors
+    // The upload's summary and the check count the same problems, each named in plain words at its line.
+    expect(r.body.data.errorCount).toBe(up.body.ags.errorCount)
+    expect(errs.every(e => e.row > 0 && !e.message.startsWith('Rule'))).toBe(true)
     expect(errs.map(e => e.column)).toEqual(['GEOL', 'GEOL'])
     expect(errs[0]!.message).toMatch(/BH-01 2\.25–3\.35 m: Overlaps/)
     expect(errs[1]!.message).toMatch(/BH-02 .*below the hole's final depth/)

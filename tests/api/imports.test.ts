@@ -93,7 +93,8 @@ describe('imports', () => {
     const up = await upload<Preview>(geo, `${base}/imports`, 'ok.csv', csv)
     const mapping = { point: 'point', top: 'top', bottom: 'bottom', description: 'description', uscs: 'uscs', stratum: 'stratum' }
     const dry = await geo.post<{ dryRun: boolean, rowCount: number }>(`${base}/imports/${up.body.importId}/commit`, { target: 'intervals', mapping, dryRun: true })
-    expect(dry.body).toEqual({ dryRun: true, rowCount: 2, errors: [] })
+    // The preview says whose log the file replaces, and with how many intervals.
+    expect(dry.body).toEqual({ dryRun: true, rowCount: 2, errors: [], replaces: [{ point: 'BH-01', before: 0, after: 2 }] })
     const done = await commit(up.body.importId, { target: 'intervals', mapping })
     expect(done.body.written).toBe(2)
     const pts = await geo.get<{ points: { id: string, identifier: string }[] }>(`${base}/points?q=BH-01`)

@@ -3,7 +3,7 @@ import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
 import { useDb } from '~~/server/db/client'
 import { anyOf } from '~~/server/db/any'
-import type { InvestigationRecord } from '#shared/investigation/types'
+import type { InvestigationRecord, PointRecord } from '#shared/investigation/types'
 import { pointHeader } from '#shared/investigation/point-header'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '~~/server/db/schema'
 import type { ProjectRow } from '~~/server/utils/guards'
@@ -73,7 +73,17 @@ export function exportName(project: ProjectRow, what: string, ext: string): stri
 
 /** The project's investigation as the shared interchange model (for the AGS4 export). */
 export async function loadInvestigationRecord(project: ProjectRow): Promise<InvestigationRecord> {
-  const d = await loadProjectLogs(project.id)
+  const d = await loadInvestigationRows(project.id)
+  return { project: { jobNumber: project.jobNumber, name: project.name, client: project.client }, strata: d.strata, points: d.points.map(p => p.record) }
+}
+
+/**
+ * The project's strata and points as interchange records, each point with the stored ids of its
+ * rows in the record's order (intervals, samples, SPT, groundwater, vane) and its samples' oedometer
+ * test counts: what an import that updates holes compares the file with.
+ */
+export async function loadInvestigationRows(projectId: string) {
+  const d = await loadProjectLogs(projectId)
   const db = useDb()
   const sampleIds = d.samples.map(s => s.sample.id)
   const tests = sampleIds.length ? await db.select().from(oedometerTests).where(anyOf(oedometerTests.sampleId, sampleIds)) : []
@@ -90,30 +100,40 @@ export async function loadInvestigationRecord(project: ProjectRow): Promise<Inve
   const vane = by(d.vane)
   const cpt = new Map(d.cpt.map(c => [c.pointId, { areaRatio: c.areaRatio, depth: c.depth, qc: c.qc, fs: c.fs, u2: c.u2 }]))
   const test = new Map(tests.map(t => [t.sampleId, t]))
+  const testCount = new Map<string, number>()
+  for (const t of tests) testCount.set(t.sampleId, (testCount.get(t.sampleId) ?? 0) + 1)
   return {
-    project: { jobNumber: project.jobNumber, name: project.name, client: project.client },
     strata: d.strata.map(s => ({ code: s.code, name: s.name, description: s.description, colour: s.colour, pattern: s.pattern, unitWeight: s.unitWeight, unitWeightSaturated: s.unitWeightSaturated, displayOrder: s.displayOrder })),
     points: d.points.map(p => ({
-      ...pointHeader(p),
-      intervals: (intervals.get(p.id) ?? []).map(i => ({ top: i.top, bottom: i.bottom, description: i.description, uscs: i.uscs, stratumCode: i.stratumId ? code.get(i.stratumId) ?? null : null, moisture: i.moisture, consistency: i.consistency })),
-      samples: (samplesBy.get(p.id) ?? []).map(({ sample: s, index: i }) => {
-        const t = test.get(s.id)
-        return {
-          identifier: s.identifier,
-          top: s.top,
-          bottom: s.bottom,
-          type: s.type,
-          recovery: s.recovery,
-          remarks: s.remarks,
-          index: i ? { waterContent: i.waterContent, liquidLimit: i.liquidLimit, plasticLimit: i.plasticLimit, bulkUnitWeight: i.bulkUnitWeight } : null,
-          // Stored in mm; the interchange model uses m.
-          oedometer: t ? { testType: t.testType, specimenHeight: t.specimenHeight / 1000, initialWaterContent: t.initialWaterContent, specificGravity: t.specificGravity, e0: t.e0, stages: t.stages.map(st => ({ stress: st.stress, voidRatio: st.voidRatio })), remarks: t.remarks } : null,
-        }
-      }),
-      spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, ...sptStored(sptFromStored(s)) })),
-      groundwater: (gw.get(p.id) ?? []).map(g => ({ kind: g.kind, observedAt: new Date(g.observedAt).toISOString(), depth: g.depth, pressure: g.pressure, remarks: g.remarks })),
-      cpt: cpt.get(p.id) ?? null,
-      vane: (vane.get(p.id) ?? []).map(v => ({ depth: v.depth, peak: v.peak, remoulded: v.remoulded })),
+      id: p.id,
+      intervalIds: (intervals.get(p.id) ?? []).map(i => i.id),
+      sampleIds: (samplesBy.get(p.id) ?? []).map(s => s.sample.id),
+      sampleTestCounts: (samplesBy.get(p.id) ?? []).map(s => testCount.get(s.sample.id) ?? 0),
+      sptIds: (spt.get(p.id) ?? []).map(s => s.id),
+      groundwaterIds: (gw.get(p.id) ?? []).map(g => g.id),
+      vaneIds: (vane.get(p.id) ?? []).map(v => v.id),
+      record: {
+        ...pointHeader(p),
+        intervals: (intervals.get(p.id) ?? []).map(i => ({ top: i.top, bottom: i.bottom, description: i.description, uscs: i.uscs, stratumCode: i.stratumId ? code.get(i.stratumId) ?? null : null, moisture: i.moisture, consistency: i.consistency })),
+        samples: (samplesBy.get(p.id) ?? []).map(({ sample: s, index: i }) => {
+          const t = test.get(s.id)
+          return {
+            identifier: s.identifier,
+            top: s.top,
+            bottom: s.bottom,
+            type: s.type,
+            recovery: s.recovery,
+            remarks: s.remarks,
+            index: i ? { waterContent: i.waterContent, liquidLimit: i.liquidLimit, plasticLimit: i.plasticLimit, bulkUnitWeight: i.bulkUnitWeight } : null,
+            // Stored in mm; the interchange model uses m.
+            oedometer: t ? { testType: t.testType, specimenHeight: t.specimenHeight / 1000, initialWaterContent: t.initialWaterContent, specificGravity: t.specificGravity, e0: t.e0, stages: t.stages.map(st => ({ stress: st.stress, voidRatio: st.voidRatio })), remarks: t.remarks } : null,
+          }
+        }),
+        spt: (spt.get(p.id) ?? []).map(s => ({ depth: s.depth, ...sptStored(sptFromStored(s)) })),
+        groundwater: (gw.get(p.id) ?? []).map(g => ({ kind: g.kind, observedAt: new Date(g.observedAt).toISOString(), depth: g.depth, pressure: g.pressure, remarks: g.remarks })),
+        cpt: cpt.get(p.id) ?? null,
+        vane: (vane.get(p.id) ?? []).map(v => ({ depth: v.depth, peak: v.peak, remoulded: v.remoulded })),
+      } satisfies PointRecord,
     })),
   }
 }

@@ -39,6 +39,7 @@ export function analyseAgs(content: Buffer) {
   const errors = issues.filter(i => i.severity === 'error')
   const warnings = issues.filter(i => i.severity !== 'error')
   return {
+    file,
     groups: file.groups.map(g => ({ name: g.name, rows: g.rows.length, line: g.line })),
     unknownGroups: mapped.unknownGroups,
     undefinedStrata: mapped.undefinedStrata,
@@ -55,8 +56,22 @@ export function analyseAgs(content: Buffer) {
   }
 }
 
+/**
+ * Issues as rows of the import report: the file line (0 only for what concerns the whole file, such
+ * as a missing group), the group, and the message in plain words with its first letter capitalised;
+ * the rule stays in its own field for those who look it up.
+ */
 export function asRowErrors(issues: AgsIssue[]) {
-  return issues.map(i => ({ row: i.line, column: i.group, message: `Rule ${i.rule}: ${i.message}`, rule: i.rule }))
+  return issues.map(i => ({ row: i.line, column: i.group, message: i.message.charAt(0).toUpperCase() + i.message.slice(1), rule: i.rule }))
+}
+
+/** The file line of a group's row for a hole whose heading is near `value` (the group's first line, else the hole's LOCA line). */
+export function agsLineOf(file: AgsFile, group: string, loca: string, heading?: string, value?: number): number {
+  const g = file.groups.find(x => x.name === group)
+  const row = g?.rows.find(r => r.values.LOCA_ID === loca && (heading === undefined || value === undefined || Math.abs(Number(r.values[heading]) - value) < 1e-6))
+  if (row) return row.line
+  const loc = file.groups.find(x => x.name === 'LOCA')?.rows.find(r => r.values.LOCA_ID === loca)
+  return loc?.line ?? g?.line ?? 0
 }
 
 /**
@@ -65,11 +80,7 @@ export function asRowErrors(issues: AgsIssue[]) {
  */
 export function logRuleIssues(file: AgsFile, data: InvestigationRecord): AgsIssue[] {
   const out: AgsIssue[] = []
-  const lineOf = (group: string, loca: string, topHeading: string, top: number) => {
-    const g = file.groups.find(x => x.name === group)
-    const row = g?.rows.find(r => r.values.LOCA_ID === loca && Math.abs(Number(r.values[topHeading]) - top) < 1e-6)
-    return row?.line ?? g?.line ?? 0
-  }
+  const lineOf = (group: string, loca: string, topHeading: string, top: number) => agsLineOf(file, group, loca, topHeading, top)
   for (const p of data.points) {
     for (const issue of checkIntervals(p.intervals, p.finalDepth).issues) {
       const iv = p.intervals[issue.index]!

@@ -4,6 +4,7 @@ import { checkCptCsv, type CptColumns, type PlainCsvText } from '#shared/imports
 import { checkMapping, type ImportContext, type ImportTarget, type ParsedValue, type RowError, stageConventionOf, STAGE_VALUE_FIELDS, validateRows, vaneKey } from '#shared/imports/targets'
 import { checkPointLimit, IMPORT_ROW_LIMITS, tooManyRows } from '#shared/imports/limits'
 import type { ImportCommit } from '#shared/schemas/imports'
+import type { LogReplacement } from '#shared/types/imports'
 import { type Tx, useDb } from '~~/server/db/client'
 import { anyOf } from '~~/server/db/any'
 import { groundwaterObservations, importFiles, importMappings, indexTests, investigationPoints, logIntervals, projects, samples, strata, vaneReadings } from '~~/server/db/schema'
@@ -12,8 +13,6 @@ import { replaceCptSounding } from '../cpt'
 import { notFound, unprocessableError } from '../http-errors'
 import { replaceTestStages, requireTest, staleTest } from '../lab'
 import type { UploadFormat } from './files'
-import { writeInvestigation } from '../investigation-writer'
-import { analyseAgsOrThrow, asRowErrors } from './ags'
 import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from './preview'
 
 type Rec = Record<string, ParsedValue | undefined>
@@ -208,7 +207,11 @@ export async function commitImport(args: { projectId: string, actorId: string, r
   catch (err) {
     throw asUploadRefusal(err)
   }
-  if (body.dryRun) return { dryRun: true as const, rowCount, errors: [] }
+  if (body.dryRun) {
+    // An interval import replaces whole logs: the preview says whose, and how many intervals each had.
+    const replaces = body.target === 'intervals' ? await logReplacements(ctx, records) : undefined
+    return { dryRun: true as const, rowCount, errors: [] as [], ...(replaces ? { replaces } : {}) }
+  }
 
   const written = await useDb().transaction(async (tx) => {
     // Checked again under the project's lock: another import may have added points meanwhile.
@@ -227,6 +230,18 @@ export async function commitImport(args: { projectId: string, actorId: string, r
     throw asUploadRefusal(err)
   })
   return { dryRun: false as const, written, target: body.target }
+}
+
+/** For an interval import: each point the file names, with the intervals it has now and those it will have. */
+async function logReplacements(ctx: ProjectImportContext, records: Rec[]): Promise<LogReplacement[]> {
+  const after = new Map<string, number>()
+  for (const r of records) after.set(str(r.point), (after.get(str(r.point)) ?? 0) + 1)
+  const ids = [...after.keys()].map(p => ctx.pointIds.get(p)!).filter(Boolean)
+  const rows = ids.length
+    ? await useDb().select({ pointId: logIntervals.pointId, n: count() }).from(logIntervals).where(anyOf(logIntervals.pointId, ids)).groupBy(logIntervals.pointId)
+    : []
+  const before = new Map(rows.map(r => [r.pointId, r.n]))
+  return [...after].map(([point, n]) => ({ point, before: before.get(ctx.pointIds.get(point)!) ?? 0, after: n }))
 }
 
 /** The CPT columns of records checked by the general row check (XLSX, or a CSV with quoted fields). */
@@ -265,50 +280,4 @@ export async function holdPointLimit(tx: Tx, projectId: string, adding: number):
   await tx.select({ id: projects.id }).from(projects).where(eq(projects.id, projectId)).for('no key update')
   const [row] = await tx.select({ n: count() }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
   checkPointLimit(row?.n ?? 0, adding)
-}
-
-/**
- * Imports an uploaded AGS4 file whole, in one transaction: any rule error or a point that already
- * exists means nothing is written (422 with line, group, rule and message). Groups Pastload does not
- * map are reported, never dropped silently. `dryRun` only reports.
- */
-export async function commitAgsImport(args: { projectId: string, actorId: string, importId: string, dryRun: boolean }) {
-  const { projectId, actorId } = args
-  const file = await loadImportFile(projectId, args.importId)
-  if (file.format !== 'ags4') throw unprocessableError(`${file.filename} is not an AGS4 file; map its columns instead.`)
-  const a = analyseAgsOrThrow(file.content, file.filename)
-  const errors = asRowErrors(a.errors)
-  const ids = a.data.points.map(p => p.identifier)
-  const db = useDb()
-  if (ids.length) {
-    const mine = await db.select({ identifier: investigationPoints.identifier }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId))
-    const taken = new Set(mine.map(r => r.identifier))
-    for (const id of ids) if (taken.has(id)) errors.push({ row: 0, column: 'LOCA', message: `Point ${id} already exists in this project.`, rule: 'pastload' })
-    if (!errors.length) {
-      try {
-        checkPointLimit(mine.length, ids.length)
-      }
-      catch (err) {
-        throw asUploadRefusal(err)
-      }
-    }
-  }
-  if (errors.length) {
-    throw unprocessableError(
-      `${errors.length} problem(s) in ${file.filename}; nothing was imported. First: line ${errors[0]!.row}, ${errors[0]!.column}: ${errors[0]!.message}`,
-      { errors: errors.slice(0, MAX_REPORTED), errorCount: errors.length, unknownGroups: a.unknownGroups },
-    )
-  }
-  const report = { summary: a.summary, unknownGroups: a.unknownGroups, warnings: asRowErrors(a.warnings) }
-  if (args.dryRun) return { dryRun: true, ...report }
-  await db.transaction(async (tx) => {
-    await holdPointLimit(tx, projectId, ids.length)
-    const existingStrata = new Map((await tx.select({ id: strata.id, code: strata.code }).from(strata).where(eq(strata.projectId, projectId))).map(s => [s.code, s.id]))
-    await writeInvestigation(tx, projectId, a.data, existingStrata)
-    await recordAudit({ actorId, projectId, action: 'import', entity: 'ags4', after: { filename: file.filename, ...a.summary, unknownGroups: a.unknownGroups } }, tx)
-    await tx.delete(importFiles).where(eq(importFiles.id, file.id))
-  }).catch((err: unknown) => {
-    throw asUploadRefusal(err)
-  })
-  return { dryRun: false, ...report }
 }

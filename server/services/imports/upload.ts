@@ -61,5 +61,5 @@ export async function storeUpload(projectId: string, actorId: string, upload: { 
 
 function agsPreview(content: Buffer, filename: string) {
   const a = analyseAgsOrThrow(content, filename)
-  return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), warnings: asRowErrors(a.warnings).slice(0, 500) }
+  return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), errorCount: a.errors.length, warnings: asRowErrors(a.warnings).slice(0, 500) }
 }
