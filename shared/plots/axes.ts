@@ -39,8 +39,9 @@ export function ticksOverlap(ticks: readonly AxisTick[], options: Pick<FittedTic
   const gap = options.gapPx ?? 6
   const sorted = [...ticks].sort((a, b) => a.at - b.at)
   for (let i = 1; i < sorted.length; i++) {
-    const a = sorted[i - 1]!
-    const b = sorted[i]!
+    const a = sorted[i - 1]
+    const b = sorted[i]
+    if (!a || !b) continue
     const need = options.orientation === 'vertical' ? font + gap : (labelWidthPx(a.label, font) + labelWidthPx(b.label, font)) / 2 + gap
     if (b.at - a.at < need) return true
   }
