@@ -9,12 +9,12 @@ interface ProjectBody { project: { id: string, unitSystem: string, usStressUnit:
 interface AuditBody { events: { action: string, entity: string, entityId: string, before: Record<string, unknown> | null, after: Record<string, unknown> | null }[] }
 
 describe('project settings: units', () => {
-  const { owner, engineer, viewer } = signedInDemo('owner', 'engineer', 'viewer')
+  const { owner, engineer, reviewer } = signedInDemo('owner', 'engineer', 'reviewer')
   let base: string
   let projectId: string
 
   beforeAll(async () => {
-    const p = await createProject(owner, 'UNITS', 'Units site', ['engineer', 'viewer'])
+    const p = await createProject(owner, 'UNITS', 'Units site', ['engineer', 'reviewer'])
     base = p.base
     projectId = p.id
   })
@@ -43,9 +43,9 @@ describe('project settings: units', () => {
     expect(point.point.finalDepth).toBe(30)
   })
 
-  it('refuses the units to an engineer and a viewer (403) and leaves them as they were', async () => {
+  it('refuses the units to an engineer and a reviewer (403) and leaves them as they were', async () => {
     const now = (await must('project', owner.get<ProjectBody>(base))).project
-    for (const c of [engineer, viewer]) {
+    for (const c of [engineer, reviewer]) {
       const r = await c.patch<{ message: string }>(base, { unitSystem: now.unitSystem === 'US' ? 'SI' : 'US' })
       expect(r.status).toBe(403)
       expect((await c.patch(base, { usStressUnit: 'tsf' })).status).toBe(403)
