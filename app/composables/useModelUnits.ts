@@ -1,3 +1,4 @@
+import { computed, toValue, type MaybeRefOrGetter } from 'vue'
 import { convert, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '#shared/units'
 
 /** Decimals shown per quantity when a page does not ask for others (US stress: psf whole, tsf to 0.01). */
