@@ -18,8 +18,15 @@ const SI_LABELS: { what: string, re: RegExp }[] = [
   { what: '(m) in a heading', re: /\(m[),]/ },
 ]
 
-/** The page's main content as read: the visible text and every SVG text (axis labels, read-outs). */
+/**
+ * The page's main content as read: the visible text and every SVG text (axis labels, read-outs).
+ * Text people wrote themselves (remarks, the site description, marked `data-user-text`) is left out:
+ * its units are theirs.
+ */
 async function mainText(page: Page): Promise<string> {
+  await page.locator('main [data-user-text]').evaluateAll((els) => {
+    for (const e of els) (e as HTMLElement).style.display = 'none'
+  })
   const visible = await page.locator('main').innerText()
   const svg = await page.locator('main svg text').evaluateAll(els => els.map(e => e.textContent ?? '').join('\n'))
   const aria = await page.locator('main [aria-label], main [aria-valuetext]').evaluateAll(els => els.map(e => `${e.getAttribute('aria-label') ?? ''}\n${e.getAttribute('aria-valuetext') ?? ''}`).join('\n'))
@@ -82,7 +89,6 @@ describe('US units on every converted page', () => {
     for (const p of pages) {
       await page.goto(`${base}${p.path}`)
       await p.ready(page)
-      await page.waitForLoadState('networkidle')
       for (const found of siLeft(await mainText(page))) left.push(`${p.name}: ${found}`)
       await shoot(page, `units-us-${p.name}`)
     }
@@ -97,5 +103,5 @@ describe('US units on every converted page', () => {
     const head = await page.locator('[data-testid="tests-table"] thead').innerText()
     expect(head).toContain('Depth (ft)')
     expect(head).toContain('(psf)')
-  })
+  }, 300_000)
 })
