@@ -60,6 +60,10 @@ describe('US units on every converted page', () => {
     const api = await signIn(demoEmail('owner'))
     const tests = (await api.get<{ tests: { id: string, label: string }[] }>(`/api/projects/${projectId}/tests/oedometer`)).body.tests
     expect(tests.length).toBeGreaterThan(0)
+    // A reviewer's flag on a test, so the review list describes a record with its depth and σ'p.
+    const reviewer = await signIn(demoEmail('reviewer'))
+    const flagged = await reviewer.post(`/api/projects/${projectId}/flags`, { targetType: 'oedometer-test', targetId: tests[0]!.id, verdict: 'questionable', comment: 'Check the unload–reload loop.' })
+    expect(flagged.status).toBe(201)
 
     const page = await signInAs(browser.context, demoEmail('owner'))
     const base = `${baseUrl()}/projects/${projectId}`
@@ -81,7 +85,7 @@ describe('US units on every converted page', () => {
       { name: 'plan', path: '/plan', ready: p => p.locator('[data-testid="plan-point"]').first().waitFor() },
       { name: 'tests', path: '/tests', ready: p => p.getByTestId('tests-table').waitFor() },
       { name: 'oedometer', path: `/tests/oedometer/${tests[0]!.id}`, ready: p => p.locator('[data-construction]').first().waitFor() },
-      { name: 'review', path: '/review', ready: p => p.getByTestId('review-counts').waitFor() },
+      { name: 'review', path: '/review', ready: p => p.locator('main').getByText(/Oedometer test .* ft/).first().waitFor() },
       { name: 'reports', path: '/reports', ready: p => p.getByRole('heading', { name: 'Reports' }).waitFor() },
       { name: 'settlement', path: '/settlement', ready: p => p.getByRole('heading', { name: 'Settlement', exact: false }).first().waitFor() },
     ]
