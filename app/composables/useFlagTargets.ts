@@ -16,12 +16,6 @@ export function flagTargetKey(type: FlagTarget, id: string): string {
   return `${type}|${id}`
 }
 
-function kPa(v: number): string {
-  return `${Math.abs(v) >= 10 ? Math.round(v) : v.toFixed(1)} kPa`
-}
-function metres(v: number): string {
-  return `${v.toFixed(2)} m`
-}
 function clip(text: string, n = 110): string {
   const t = text.trim()
   return t.length > n ? `${t.slice(0, n - 1)}…` : t
@@ -34,6 +28,10 @@ function clip(text: string, n = 110): string {
  * comes with its hole from the flag list itself; the lab lists are also what the reviewer picks new targets from.
  */
 export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Readonly<Ref<readonly ReviewFlag[]>>) {
+  // Depths and stresses in the project's units ("BH-02 10.66–22.64 ft", "σ'p 1,250 psf").
+  const units = useProjectUnits()
+  const stress = (v: number) => units.format(v, 'stress', Math.abs(units.show(v, 'stress')) >= 10 ? 0 : undefined)
+  const depth = (v: number) => units.format(v, 'length')
   const info = shallowRef(new Map<string, FlagTargetInfo>())
   const describing = ref(false)
   const tests = shallowRef<OedometerListItem[] | null>(null)
@@ -67,7 +65,7 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Reado
       const iv = f.interval
       if (!iv) return { text: 'Log interval · no longer in the log', detail: 'The interval was changed or removed after it was flagged.', to: null }
       return {
-        text: `Log interval · ${iv.pointIdentifier} ${iv.top.toFixed(2)}–${metres(iv.bottom)}`,
+        text: `Log interval · ${iv.pointIdentifier} ${units.number(iv.top, 'length')}–${depth(iv.bottom)}`,
         detail: clip([iv.uscs, iv.description].filter(Boolean).join(' · ')),
         to: `/projects/${pid}/points/${iv.pointId}`,
       }
@@ -77,8 +75,8 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Reado
       if (!t) return { text: 'Oedometer test · no longer in the project', detail: '', to: null }
       const quality = t.reading.qualityClass ? `${qualityLabel(t.reading.qualityClass)} sample quality` : 'Sample quality not assessed'
       return {
-        text: `Oedometer test ${t.label} · ${t.point.identifier} ${metres(t.depth)}`,
-        detail: `Sample ${t.sample.identifier} · ${quality} · ${t.adoption ? `σ'p ${kPa(t.adoption.value)} adopted` : 'no σ\'p adopted'}`,
+        text: `Oedometer test ${t.label} · ${t.point.identifier} ${depth(t.depth)}`,
+        detail: `Sample ${t.sample.identifier} · ${quality} · ${t.adoption ? `σ'p ${stress(t.adoption.value)} adopted` : 'no σ\'p adopted'}`,
         to: `/projects/${pid}/tests/oedometer/${t.id}`,
       }
     }
@@ -86,18 +84,18 @@ export function useFlagTargets(projectId: MaybeRefOrGetter<string>, flags: Reado
     if (f.targetType === 'preconsolidation-point') {
       if (!p) return { text: 'σ\'p point · an adoption since replaced', detail: 'The engineer adopted another value for this test after the flag was raised.', to: dataPage }
       return {
-        text: `σ'p point · ${p.pointIdentifier} ${metres(p.depth)} · ${pointMethodLabel(p.method)} ${kPa(p.preconsolidation)}`,
+        text: `σ'p point · ${p.pointIdentifier} ${depth(p.depth)} · ${pointMethodLabel(p.method)} ${stress(p.preconsolidation)}`,
         detail: [p.stratumCode ? `Stratum ${p.stratumCode}` : '', p.qualityClass ? `${qualityLabel(p.qualityClass)} sample quality` : ''].filter(Boolean).join(' · '),
         to: dataPage,
       }
     }
     if (f.targetType === 'cpt-point') {
-      if (p) return { text: `CPT σ'p · ${p.pointIdentifier} ${metres(p.depth)} · ${kPa(p.preconsolidation)}`, detail: p.stratumCode ? `Stratum ${p.stratumCode} · k·qnet` : 'k·qnet', to: dataPage }
+      if (p) return { text: `CPT σ'p · ${p.pointIdentifier} ${depth(p.depth)} · ${stress(p.preconsolidation)}`, detail: p.stratumCode ? `Stratum ${p.stratumCode} · k·qnet` : 'k·qnet', to: dataPage }
       const m = /^cpt:([0-9a-f-]{36}):(\d+)$/i.exec(f.targetId)
       const point = m ? points?.find(x => x.id === m[1]) : undefined
-      return { text: `CPT σ'p · ${point?.identifier ?? 'a sounding'} ${m ? metres(Number(m[2]) / 1000) : ''}`.trim(), detail: 'Not among the current resampled points (the spacing or the sounding changed).', to: point ? `/projects/${pid}/points/${point.id}` : dataPage }
+      return { text: `CPT σ'p · ${point?.identifier ?? 'a sounding'} ${m ? depth(Number(m[2]) / 1000) : ''}`.trim(), detail: 'Not among the current resampled points (the spacing or the sounding changed).', to: point ? `/projects/${pid}/points/${point.id}` : dataPage }
     }
-    if (p) return { text: `Field vane σ'p · ${p.pointIdentifier} ${metres(p.depth)} · ${kPa(p.preconsolidation)}`, detail: pointMethodLabel(p.method), to: dataPage }
+    if (p) return { text: `Field vane σ'p · ${p.pointIdentifier} ${depth(p.depth)} · ${stress(p.preconsolidation)}`, detail: pointMethodLabel(p.method), to: dataPage }
     return { text: 'Field vane σ\'p · reading no longer recorded', detail: '', to: null }
   }
 

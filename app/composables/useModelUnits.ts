@@ -1,31 +1,52 @@
-import { convert, unitLabel, type Quantity, type UnitSystem } from '#shared/units'
+import { computed, toValue, type MaybeRefOrGetter } from 'vue'
+import { convert, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '#shared/units'
+
+/** Decimals shown per quantity when a page does not ask for others (US stress: psf whole, tsf to 0.01). */
+const DIGITS: Record<UnitSystem, Record<Quantity, number>> = {
+  SI: { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 },
+  US: { length: 2, stress: 0, unitWeight: 1, coefficientOfConsolidation: 2 },
+}
 
 /**
- * The project's unit system at the edges of the stress workspace: values stay SI
- * in the draft and the engine; labels, axes, read-outs and typed inputs convert
- * here and nowhere else.
+ * Numbers with units at the edges of every page: values stay SI in state, the store and the engine;
+ * labels, axes, read-outs and typed inputs convert here and nowhere else. `usStress` is the
+ * project's choice of psf or tsf for US stresses (psf when not given).
+ * Pages of a project use `useProjectUnits()`, which reads both from the project.
  */
-export function useModelUnits(system: MaybeRefOrGetter<UnitSystem | undefined>) {
+export function useModelUnits(system: MaybeRefOrGetter<UnitSystem | undefined>, usStress?: MaybeRefOrGetter<UsStressUnit | null | undefined>) {
   const sys = computed((): UnitSystem => toValue(system) ?? 'SI')
-  const label = (q: Quantity) => unitLabel(q, sys.value)
+  const stressUnit = computed((): UsStressUnit => toValue(usStress) ?? 'psf')
+  const opts = computed(() => ({ usStress: stressUnit.value }))
+  const label = (q: Quantity) => unitLabel(q, sys.value, opts.value)
   /** SI → display. */
-  const show = (v: number, q: Quantity) => convert(v, q, 'SI', sys.value)
+  const show = (v: number, q: Quantity) => convert(v, q, 'SI', sys.value, opts.value)
   /** Display → SI. */
-  const read = (v: number, q: Quantity) => convert(v, q, sys.value, 'SI')
+  const read = (v: number, q: Quantity) => convert(v, q, sys.value, 'SI', opts.value)
   /** How many display units one SI unit is (for axes drawn on SI scales). */
-  const factor = (q: Quantity) => convert(1, q, 'SI', sys.value)
-  const DIGITS: Record<Quantity, number> = { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 }
+  const factor = (q: Quantity) => convert(1, q, 'SI', sys.value, opts.value)
+  /** Decimals for a quantity in the current system (tsf needs two where psf needs none). */
+  function digitsFor(q: Quantity): number {
+    if (sys.value === 'US' && q === 'stress' && stressUnit.value === 'tsf') return 2
+    return DIGITS[sys.value][q]
+  }
+  /** The bare number in display units, rounded ('—' when missing). */
+  function number(v: number | null | undefined, q: Quantity, digits?: number): string {
+    if (v === null || v === undefined || !Number.isFinite(v)) return '—'
+    return show(v, q).toFixed(digits ?? digitsFor(q))
+  }
+  /** The number with its unit label ("98.43 ft", "1250 psf"; '—' when missing). */
   function format(v: number | null | undefined, q: Quantity, digits?: number): string {
     if (v === null || v === undefined || !Number.isFinite(v)) return '—'
-    const d = digits ?? (sys.value === 'US' && q === 'stress' ? 0 : DIGITS[q])
-    return `${show(v, q).toFixed(d)} ${label(q)}`
+    return `${number(v, q, digits)} ${label(q)}`
   }
+  /** A column heading or field label with its unit: "Depth (ft)". */
+  const heading = (text: string, q: Quantity) => `${text} (${label(q)})`
   /** A display value for an input field, rounded so the field is readable. */
   function input(v: number | null | undefined, q: Quantity, digits = 3): string {
     if (v === null || v === undefined || !Number.isFinite(v)) return ''
     return String(Math.round(show(v, q) * 10 ** digits) / 10 ** digits)
   }
-  return { system: sys, label, show, read, factor, format, input }
+  return { system: sys, stressUnit, label, show, read, factor, digitsFor, number, format, heading, input }
 }
 
 export type ModelUnits = ReturnType<typeof useModelUnits>

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { PROJECT_ROLES, UNIT_SYSTEMS } from '../auth/roles'
+import { US_STRESS_UNITS } from '../units'
 import { EmailSchema, str, UuidSchema } from './common'
 
 export const JobNumberSchema = str().trim()
@@ -12,6 +13,8 @@ export const CreateProjectSchema = z.object({
   name: str().trim().min(1, { message: 'is required' }).max(160),
   client: str().trim().max(160).default(''),
   unitSystem: z.enum(UNIT_SYSTEMS).default('SI'),
+  /** How a US project shows stresses: psf or tsf (SI projects keep it for a later switch). */
+  usStressUnit: z.enum(US_STRESS_UNITS).default('psf'),
   description: str().trim().max(4000).default(''),
 })
 export type CreateProjectInput = z.infer<typeof CreateProjectSchema>
@@ -22,6 +25,7 @@ export const UpdateProjectSchema = z.object({
   name: str().trim().min(1, { message: 'is required' }).max(160).optional(),
   client: str().trim().max(160).optional(),
   unitSystem: z.enum(UNIT_SYSTEMS).optional(),
+  usStressUnit: z.enum(US_STRESS_UNITS).optional(),
   description: str().trim().max(4000).optional(),
   /** The project's design model (owner or engineer): its version in force feeds every page's σ'v0. */
   designModelId: UuidSchema.optional(),

@@ -16,7 +16,8 @@ export type UnitSystem = 'SI' | 'US'
 export type Quantity = 'length' | 'unitWeight' | 'stress' | 'coefficientOfConsolidation'
 
 /** US customary stress can be shown in psf or in tsf (US short tons-force per ft², 2000 lbf/ft²). */
-export type UsStressUnit = 'psf' | 'tsf'
+export const US_STRESS_UNITS = ['psf', 'tsf'] as const
+export type UsStressUnit = (typeof US_STRESS_UNITS)[number]
 
 export interface ConvertOptions {
   /** US stress unit (default psf). */

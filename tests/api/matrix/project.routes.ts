@@ -5,6 +5,8 @@ import { uniqueEmail } from '../../helpers/http'
 export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId', allowed: ALL, ok: 200 },
   { method: 'PATCH', path: '/api/projects/:projectId', allowed: ['owner'], ok: 200, prepare: async () => ({ body: { description: 'Matrix test description' } }) },
+  // The units (settings page) are the owner's like the other details.
+  { method: 'PATCH', path: '/api/projects/:projectId', allowed: ['owner'], ok: 200, prepare: async () => ({ body: { unitSystem: 'SI', usStressUnit: 'tsf' } }) },
   { method: 'GET', path: '/api/projects/:projectId/members', allowed: ALL, ok: 200 },
   { method: 'GET', path: '/api/projects/:projectId/audit', allowed: ALL, ok: 200 },
   { method: 'GET', path: '/api/projects/:projectId/site-reference', allowed: ALL, ok: 200 },

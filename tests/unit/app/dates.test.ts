@@ -19,3 +19,29 @@ describe('formatDate: one way of showing dates and times', () => {
     expect(formatDate('not a date')).toBe('not a date')
   })
 })
+
+describe('one date helper across the pages', () => {
+  it('no page, component or helper formats a date itself (only app/utils/dates.ts uses Intl.DateTimeFormat)', async () => {
+    const { readdirSync, readFileSync } = await import('node:fs')
+    const { join, relative, resolve } = await import('node:path')
+    const root = resolve(import.meta.dirname, '../../../app')
+    const files: string[] = []
+    const walk = (dir: string) => {
+      for (const e of readdirSync(dir, { withFileTypes: true })) {
+        const p = join(dir, e.name)
+        if (e.isDirectory()) walk(p)
+        else if (/\.(vue|ts)$/.test(e.name)) files.push(p)
+      }
+    }
+    walk(root)
+    const own: string[] = []
+    for (const f of files) {
+      const rel = relative(root, f)
+      if (rel === join('utils', 'dates.ts')) continue
+      const text = readFileSync(f, 'utf8')
+      // Locale-dependent dates ("02/12/2026, 07:49:05") come from these; a number's toLocaleString('en-GB') is fine.
+      if (/toLocale(Date|Time)String\(|Intl\.DateTimeFormat|\bDate\([^)]*\)\.toLocaleString\(/.test(text)) own.push(rel)
+    }
+    expect(own).toEqual([])
+  })
+})
