@@ -129,6 +129,18 @@ async function fingerprintQuery(db: pg.Client): Promise<string> {
   return `SELECT ${parts.join(` || ' ' || `)} AS fp`
 }
 
+/** Waits (up to 3 minutes) until no settlement run and no issued report is queued or being made. */
+async function waitForQuietQueues(db: pg.Client): Promise<void> {
+  const busy = async () => (await db.query<{ n: number }>(
+    `SELECT (SELECT count(*) FROM settlement_runs WHERE status IN ('queued', 'running'))::int
+          + (SELECT count(*) FROM issued_reports WHERE status IN ('queued', 'running'))::int AS n`)).rows[0]?.n ?? 0
+  const until = Date.now() + 180_000
+  while (await busy() > 0) {
+    if (Date.now() > until) throw new Error('settlement runs or reports of other test files are still in flight after 3 minutes')
+    await new Promise(resolve => setTimeout(resolve, 500))
+  }
+}
+
 async function send(route: FuzzRoute, t: Target, body: Json): Promise<{ status: number, text: string }> {
   if (route.multipart) {
     const form = new FormData()
@@ -166,6 +178,9 @@ describe('every write route under hostile input', () => {
 
   beforeAll(async () => {
     await db.connect()
+    // Settlement runs and reports queued by other test files finish in the background and write their
+    // progress; the database is only quiet enough to compare before and after once none is left in flight.
+    await waitForQuietQueues(db)
     fpSql = await fingerprintQuery(db)
     ctx.owner = await signIn(demoEmail('owner'))
     const p = await ctx.owner.post<{ project: { id: string } }>('/api/projects', { jobNumber: `FZ-${Date.now().toString(36)}`, name: 'Hostile input' })
@@ -184,7 +199,7 @@ describe('every write route under hostile input', () => {
     const pw = await createUser(ctx.owner, 'fuzz-password')
     passwordUser = { client: pw.client, email: pw.email }
     tally = { requests: 0, byStatus: {}, started: Date.now(), fingerprintMs: 0 }
-  })
+  }, 300_000)
 
   afterAll(async () => {
     await db.end()
@@ -300,6 +315,7 @@ describe('every write route under hostile input', () => {
         ? fc.oneof(fc.constant({ fromSchema: null }), bodiesOf(schema).map(b => ({ fromSchema: b })))
         : fc.constant({ fromSchema: null })
       let target = await route.prepare()
+      await waitForQuietQueues(db)
       await fc.assert(
         fc.asyncProperty(base, fc.array(mutation, { minLength: 1, maxLength: 3 }), async ({ fromSchema }, mutations) => {
           const body = mutate(fromSchema ?? target.body, mutations)
@@ -309,7 +325,12 @@ describe('every write route under hostile input', () => {
           tally.byStatus[r.status] = (tally.byStatus[r.status] ?? 0) + 1
           expect(r.status, `${key} with ${serialise(body).slice(0, 300)} → ${r.text.slice(0, 300)}`).toBeLessThan(500)
           if (r.status >= 400) expect(await fingerprint(), `${key} answered ${r.status} but wrote: ${serialise(body).slice(0, 300)}`).toBe(before)
-          else target = await route.prepare()
+          else {
+            // A request taken (e.g. a report issued on the queue) may go on writing in the background.
+            await waitForQuietQueues(db)
+            target = await route.prepare()
+            await waitForQuietQueues(db)
+          }
         }),
         { numRuns: RUNS, seed: SEED + i, endOnFailure: true },
       )
