@@ -9,9 +9,7 @@ export default defineNitroPlugin((nitro) => {
   runQueueWithServer(nitro, {
     name: 'report queue',
     register: registerReportQueue,
-    start: async (settings, work) => {
-      if (work) await startReportWorker(settings)
-    },
+    startWorker: startReportWorker,
     stop: async () => {
       stopReportQueue()
       await closeReportPool()

@@ -9,10 +9,8 @@ export default defineNitroPlugin((nitro) => {
   runQueueWithServer(nitro, {
     name: 'settlement-run queue',
     register: registerRunQueue,
-    start: async (settings, work) => {
-      if (work) await startRunWorker(settings)
-      else await startRunQueue(settings)
-    },
+    startWorker: startRunWorker,
+    startSender: startRunQueue,
     stop: stopRunQueue,
   })
 })

@@ -9,8 +9,10 @@ export interface PluginQueue {
   name: string
   /** Called at once: the process may send jobs from now on. */
   register: (settings: RunJobSettings) => void
-  /** Called once the database is ready, unless the server closed first; `work` is false under PASTLOAD_SETTLEMENT_WORKER=off. */
-  start: (settings: RunJobSettings, work: boolean) => Promise<void>
+  /** Called once the database is ready, unless the server closed first or PASTLOAD_SETTLEMENT_WORKER=off: the process takes jobs. */
+  startWorker: (settings: RunJobSettings) => Promise<unknown>
+  /** Called instead of `startWorker` under PASTLOAD_SETTLEMENT_WORKER=off, where the queue needs starting to send jobs. */
+  startSender?: (settings: RunJobSettings) => Promise<unknown>
   /** Called when the server closes. */
   stop: () => Promise<void> | void
 }
@@ -25,7 +27,9 @@ export function runQueueWithServer(nitro: NitroApp, queue: PluginQueue): void {
   let closed = false
   queue.register(settings)
   databaseReady.then(async () => {
-    if (!closed) await queue.start(settings, work)
+    if (closed) return
+    if (work) await queue.startWorker(settings)
+    else await queue.startSender?.(settings)
   }).catch((err: unknown) => logServerError(`${queue.name} start failed`, err))
   nitro.hooks.hook('close', async () => {
     closed = true
