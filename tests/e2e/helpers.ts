@@ -94,7 +94,8 @@ export async function signInAs(context: BrowserContext, email: string, password 
  * One Chromium and one project for the enclosing describe, as the demo person of `role` works in it:
  * the seeded demo project (read only), or, given `copyTag`, a copy of the demo of the describe's own.
  * `client` (the API as that person) and `projectId` are ready inside tests; `open(path)` signs the
- * person in through the form and opens the project's page at `path` (`/models/<id>`, `/strata`, …).
+ * person in through the form and opens the project's page at `path` (`/models/<id>`, `/strata`, …),
+ * at the `viewport` size if given.
  */
 export function useProjectAs(role: ProjectRole, copyTag?: string) {
   const browser = useBrowser()
@@ -113,8 +114,9 @@ export function useProjectAs(role: ProjectRole, copyTag?: string) {
     },
     get projectId() { return projectId },
     url,
-    async open(path = ''): Promise<Page> {
+    async open(path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
       const page = await signInAs(browser.context, demoEmail(role))
+      if (options.viewport) await page.setViewportSize(options.viewport)
       await page.goto(url(path))
       return page
     },

@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
 import { pdfInfo } from '../helpers/pdf'
-import { createProject } from '../helpers/project'
+import { createProject, createStrata } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string, uscs: string | null, stratumId: string | null, moisture: string | null, consistency: string | null, version: number }
@@ -69,15 +69,11 @@ describe('the field geologist\'s workspace in Chromium', () => {
   beforeEach(async () => {
     projectId = (await createProject(admin, 'TRN-LOG', 'Saltmarsh Lane logging trial', ['geologist', 'engineer', 'designer'], { client: 'Harrow Estuary Logistics' })).id
     const P = `/api/projects/${projectId}`
-    for (const [i, s] of [
+    Object.assign(strata, await createStrata(geologist, projectId, [
       { code: 'MG', name: 'Made ground', colour: 'fill-ochre', pattern: 'made-ground', unitWeight: 19, unitWeightSaturated: 20 },
       { code: 'CR', name: 'Desiccated crust', colour: 'crust-tan', pattern: 'clay', unitWeight: 18, unitWeightSaturated: 18.5 },
       { code: 'EC', name: 'Estuarine clay', colour: 'estuary-slate', pattern: 'organic-clay', unitWeight: 16, unitWeightSaturated: 16 },
-    ].entries()) {
-      const r = await geologist.post<{ stratum: { id: string } }>(`${P}/strata`, { ...s, displayOrder: (i + 1) * 10 })
-      expect(r.status).toBe(201)
-      strata[s.code] = r.body.stratum.id
-    }
+    ]))
     const point = async (body: Record<string, unknown>) => {
       const r = await geologist.post<{ point: { id: string } }>(`${P}/points`, { groundElevation: 3.1, startedOn: '2026-03-05', endedOn: '2026-03-06', method: 'Cable percussion', loggedBy: 'A. Ferreira', ...body })
       expect(r.status).toBe(201)
