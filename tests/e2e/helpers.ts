@@ -90,6 +90,14 @@ export async function signInAs(context: BrowserContext, email: string, password 
   return page
 }
 
+/** Signs the demo person of `role` in through the form and opens the page at `path` of project `projectId` (`''` its overview), at the `viewport` size if given. */
+export async function openProjectAs(context: BrowserContext, role: ProjectRole, projectId: string, path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
+  const page = await signInAs(context, demoEmail(role))
+  if (options.viewport) await page.setViewportSize(options.viewport)
+  await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
+  return page
+}
+
 /**
  * One Chromium and one project for the enclosing describe, as the demo person of `role` works in it:
  * the seeded demo project (read only), or, given `copyTag`, a copy of the demo of the describe's own.
@@ -114,12 +122,7 @@ export function useProjectAs(role: ProjectRole, copyTag?: string) {
     },
     get projectId() { return projectId },
     url,
-    async open(path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
-      const page = await signInAs(browser.context, demoEmail(role))
-      if (options.viewport) await page.setViewportSize(options.viewport)
-      await page.goto(url(path))
-      return page
-    },
+    open: (path = '', options: { viewport?: { width: number, height: number } } = {}) => openProjectAs(browser.context, role, projectId, path, options),
   }
 }
 

@@ -4,7 +4,7 @@ import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
 import { pdfInfo } from '../helpers/pdf'
 import { createProject, createStrata } from '../helpers/project'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openProjectAs, screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string, uscs: string | null, stratumId: string | null, moisture: string | null, consistency: string | null, version: number }
 
@@ -231,8 +231,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('the site plan shows every point by kind, follows the list, and opens a point', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId, '/plan')
     await page.getByTestId('plan-point').first().waitFor()
     const kinds = await page.getByTestId('plan-point').evaluateAll(els => els.map(e => e.getAttribute('data-kind')).sort())
     expect(kinds).toEqual(['borehole', 'cpt', 'test-pit'])
@@ -346,8 +345,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   it('the strata editor adds a stratum with its look, reorders, and shows a newer save before overwriting it', async () => {
     const P = `/api/projects/${projectId}/strata`
     const list = async () => (await geologist.get<{ strata: { id: string, code: string, name: string, colour: string, pattern: string, unitWeight: number, displayOrder: number, version: number }[] }>(P)).body.strata
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/strata`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId, '/strata')
     await page.getByTestId('stratum-add').click()
     await page.getByLabel('Code').fill('GC')
     await page.getByLabel('Name').fill('Glacial clay')
