@@ -2,12 +2,12 @@ import * as d3 from 'd3'
 import type { TrendBandPoint } from '../geotech/trend-model'
 import type { PreconsolidationSource } from '../schemas/lab'
 import type { FlagVerdict } from '../review/flags'
-import { type SiteModelDefinition, stratumBounds } from '../site-model/definition'
+import type { SiteModelDefinition } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
 import { conversionFactor, unitLabel, type UnitSystem } from '../units'
 import { px, svgEscape } from './axes'
 import {
-  depthAxisSvg, frameScene, frameSvg, ocrAxis, pointMarksSvg, popAxis, ratioDotsSvg, ratioTrackScene, ratioTrackSvg,
+  depthAxisSvg, drawingSheet, frameScene, frameSvg, ocrAxis, pointMarksSvg, popAxis, ratioDotsSvg, ratioTrackScene, ratioTrackSvg,
   stressAxis, stressTrackScene, stressTrackSvg, type PlotBand, type PointState, type Scale,
 } from './model-tracks'
 import { INK, markStyle, QUALITY_SHADES, RING_PATH, SLASH_PATH, SOURCE_INK, SOURCE_LABELS, symbolPath, VERDICT_INK } from './palette'
@@ -60,14 +60,10 @@ const LEGEND_HEIGHT = 84
 
 /** The drawing of a depth range of a model. */
 export function modelDrawing(input: ModelDrawingInput): ModelDrawing {
-  const width = input.width ?? 720
-  const height = input.height ?? 900
   const def = input.definition
-  const bounds = stratumBounds(def)
-  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
-  const range = input.range ?? { top: 0, bottom: base }
   const legend = input.legend ?? true
-  const band: PlotBand = { top: 44, bottom: height - (legend ? LEGEND_HEIGHT : 0) - 14 }
+  const { width, height, bounds, base, band } = drawingSheet(input, { height: 900, keyHeight: legend ? LEGEND_HEIGHT : 0 })
+  const range = input.range ?? { top: 0, bottom: base }
   const y = d3.scaleLinear().domain([range.top, range.bottom]).range([band.top, band.bottom])
 
   const fixed = { strata: 54, ocr: 92, pop: 100 }

@@ -3,7 +3,7 @@ import { type SiteModelDefinition, stratumBounds } from '../site-model/definitio
 import type { ProfilePoint } from '../types/calc'
 import { conversionFactor, unitLabel, type UnitSystem } from '../units'
 import { px, svgEscape } from './axes'
-import { depthAxisSvg, frameScene, frameSvg, type PlotBand, type Scale } from './model-tracks'
+import { depthAxisSvg, drawingSheet, frameScene, frameSvg, type PlotBand, type Scale } from './model-tracks'
 import { INK } from './palette'
 
 /**
@@ -169,12 +169,8 @@ const KEY_HEIGHT = 30
 
 /** Depth axis, strata with their codes and names, the γ track and the u track over the whole model, with a key. */
 export function groundDrawing(input: GroundDrawingInput): GroundDrawing {
-  const width = input.width ?? 720
-  const height = input.height ?? 800
   const def = input.definition
-  const bounds = stratumBounds(def)
-  const base = bounds.length ? bounds[bounds.length - 1]!.bottom : 0
-  const band: PlotBand = { top: 44, bottom: height - KEY_HEIGHT - 14 }
+  const { width, height, bounds, base, band } = drawingSheet(input, { height: 800, keyHeight: KEY_HEIGHT })
   const y = d3.scaleLinear().domain([0, Math.max(base, def.groundwater.waterTableDepth, 0.1)]).range([band.top, band.bottom])
   const strataWidth = 150
   const uwWidth = Math.round((width - LEFT - 8 - strataWidth - 2 * GAP) * 0.42)

@@ -2,6 +2,7 @@ import * as d3 from 'd3'
 import type { TrendBandPoint } from '../geotech/trend-model'
 import type { PreconsolidationSource } from '../schemas/lab'
 import type { FlagVerdict } from '../review/flags'
+import { type SiteModelDefinition, stratumBounds } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
 import { displayTicks, px, svgEscape, type AxisTick } from './axes'
 import { INK, MARK_SIZES, markStyle, ringPathAt, slashPathAt, symbolPath } from './palette'
@@ -20,6 +21,16 @@ export type Scale = d3.ScaleLinear<number, number>
 
 /** The vertical band every track of one drawing shares, px. */
 export interface PlotBand { top: number, bottom: number }
+
+/** The size of a drawing of a model and its strata: 720 px wide unless given, the depth band 44 px below the top and `keyHeight` + 14 px above the bottom. */
+export function drawingSheet(input: { width?: number, height?: number, definition: Pick<SiteModelDefinition, 'strata'> }, defaults: { height: number, keyHeight: number }) {
+  const width = input.width ?? 720
+  const height = input.height ?? defaults.height
+  const bounds = stratumBounds(input.definition)
+  const base = bounds.at(-1)?.bottom ?? 0
+  const band: PlotBand = { top: 44, bottom: height - defaults.keyHeight - 14 }
+  return { width, height, bounds, base, band }
+}
 
 // --- value axes ------------------------------------------------------------------
 

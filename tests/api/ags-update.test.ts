@@ -18,19 +18,15 @@ interface RowError { row: number, column: string, message: string }
 describe('AGS4 import into holes already in the project', () => {
   const { owner } = signedInDemo('owner')
   let original: string
-  let edited: string
+  /** The demo's file with BH-01 edited: its text, the edited description and the new final depth. */
+  let edit: ReturnType<typeof editBh01>
   let base: string
-  let editedDescription: string
-  let newFinalDepth: number
 
   beforeAll(async () => {
     const demo = await demoProjectId(owner)
     const res = await fetch(`${owner.base}/exports/${demo}/logs.ags`, { headers: { cookie: owner.cookie! } })
     original = await res.text()
-    const made = editBh01(original)
-    edited = made.text
-    editedDescription = made.editedDescription
-    newFinalDepth = made.newFinalDepth
+    edit = editBh01(original)
   })
 
   // Every test starts from a project of its own holding the demo's holes as they are.
@@ -61,7 +57,7 @@ describe('AGS4 import into holes already in the project', () => {
   it('"add new only" skips every hole already here, says so, and changes nothing', async () => {
     const before = await bh01()
     const auditsBefore = (await audits()).length
-    const { importId, dry } = await importAs(edited, 'add-new')
+    const { importId, dry } = await importAs(edit.text, 'add-new')
     expect(dry.holeCounts.add).toBe(0)
     expect(dry.holeCounts.skip).toBe(dry.holes.length)
     expect(dry.holes.find(h => h.identifier === 'BH-01')!.summary).toBe('BH-01 is already in the project: skipped, left as it is.')
@@ -76,13 +72,13 @@ describe('AGS4 import into holes already in the project', () => {
   it('"update" previews one interval changed and one added for BH-01 only, then writes exactly that', async () => {
     const before = await bh01()
     const tests = await testCount()
-    const { importId, dry } = await importAs(edited, 'update')
+    const { importId, dry } = await importAs(edit.text, 'update')
     const hole = dry.holes.find(h => h.identifier === 'BH-01')!
     expect(hole.action).toBe('update')
     expect(hole.header).toEqual(['finalDepth'])
     expect([hole.intervals.added, hole.intervals.changed, hole.intervals.removed]).toEqual([1, 1, 0])
     expect(hole.intervals.same).toBe(before.intervals.length - 1)
-    expect(hole.lines.map(l => [l.change, l.kind, l.label])).toEqual([['added', 'interval', 'Very dense grey sandy gravel.'], ['changed', 'interval', editedDescription]])
+    expect(hole.lines.map(l => [l.change, l.kind, l.label])).toEqual([['added', 'interval', 'Very dense grey sandy gravel.'], ['changed', 'interval', edit.editedDescription]])
     // Every other hole matches the file.
     expect(dry.holes.filter(h => h.identifier !== 'BH-01' && !h.summary.includes('matches the file: nothing changes.')).map(h => h.summary)).toEqual([])
     // The dry run wrote nothing.
@@ -93,9 +89,9 @@ describe('AGS4 import into holes already in the project', () => {
     expect(done.status).toBe(200)
     expect(done.body.holes).toEqual(dry.holes)
     const after = await bh01()
-    expect(after.point.finalDepth).toBe(newFinalDepth)
-    const expected = before.intervals.map((iv, i) => [iv.top, iv.bottom, i === 1 ? editedDescription : iv.description])
-    expected.push([before.intervals.at(-1)!.bottom, newFinalDepth, 'Very dense grey sandy gravel.'])
+    expect(after.point.finalDepth).toBe(edit.newFinalDepth)
+    const expected = before.intervals.map((iv, i) => [iv.top, iv.bottom, i === 1 ? edit.editedDescription : iv.description])
+    expected.push([before.intervals.at(-1)!.bottom, edit.newFinalDepth, 'Very dense grey sandy gravel.'])
     expect(after.intervals.map(iv => [iv.top, iv.bottom, iv.description])).toEqual(expected)
     // Unchanged intervals keep their rows; samples keep their ids, their tests stay.
     expect(after.intervals[0]!.id).toBe(before.intervals[0]!.id)
@@ -108,20 +104,20 @@ describe('AGS4 import into holes already in the project', () => {
   })
 
   it('"replace" with the original file makes BH-01 exactly as exported again', async () => {
-    const merged = await importAs(edited, 'update')
+    const merged = await importAs(edit.text, 'update')
     expect((await owner.post<Reply>(`${base}/imports/${merged.importId}/commit-ags`, { mode: 'update' })).status).toBe(200)
     const before = await bh01()
     const { importId, dry } = await importAs(original, 'replace')
     const hole = dry.holes.find(h => h.identifier === 'BH-01')!
     expect(hole.action).toBe('replace')
     expect([hole.intervals.added, hole.intervals.changed, hole.intervals.removed]).toEqual([0, 1, 1])
-    expect(hole.lines.map(l => [l.change, l.label])).toEqual([['changed', editedDescription.replace(' Edited after review.', '')], ['removed', 'Very dense grey sandy gravel.']])
+    expect(hole.lines.map(l => [l.change, l.label])).toEqual([['changed', edit.editedDescription.replace(' Edited after review.', '')], ['removed', 'Very dense grey sandy gravel.']])
     expect(dry.refusal).toBeNull()
     const done = await owner.post<Reply>(`${base}/imports/${importId}/commit-ags`, { mode: 'replace' })
     expect(done.status).toBe(200)
     const after = await bh01()
-    expect(after.point.finalDepth).toBe(newFinalDepth - 2)
-    expect(after.intervals.map(iv => [iv.top, iv.bottom, iv.description])).toEqual(before.intervals.slice(0, -1).map((iv, i) => [iv.top, iv.bottom, i === 1 ? editedDescription.replace(' Edited after review.', '') : iv.description]))
+    expect(after.point.finalDepth).toBe(edit.newFinalDepth - 2)
+    expect(after.intervals.map(iv => [iv.top, iv.bottom, iv.description])).toEqual(before.intervals.slice(0, -1).map((iv, i) => [iv.top, iv.bottom, i === 1 ? edit.editedDescription.replace(' Edited after review.', '') : iv.description]))
     expect(after.samples).toEqual(before.samples)
   })
 

@@ -3,7 +3,7 @@
 // groundwater, CPT, strata, and the audit trail.
 import { beforeEach, describe, expect, it } from 'vitest'
 import { createUser, demoEmail, signIn, signedInDemo, useNewAccount } from '../helpers/http'
-import { createPoint, createProject } from '../helpers/project'
+import { createPoint, useTestProject } from '../helpers/project'
 
 interface Interval { id: string, version: number, top: number, bottom: number, description: string, uscs: string | null }
 
@@ -11,13 +11,14 @@ describe('logging API', () => {
   const { owner, geologist } = signedInDemo('owner', 'geologist')
   const viewerAccount = useNewAccount(owner, 'logviewer')
   const viewer = viewerAccount.client
+  // Every test works in a project of its own, with the geologist and a viewer as members and borehole BH-01 (10 m, no log yet).
+  const project = useTestProject(owner, 'LOG', 'Logging test site', () => ['geologist', { email: viewerAccount.email, role: 'viewer' }], { each: true })
   let projectId: string
   let pointId: string
   let base: string
 
-  // Every test works in a project of its own, with the geologist and a viewer as members and borehole BH-01 (10 m, no log yet).
   beforeEach(async () => {
-    projectId = (await createProject(owner, 'LOG', 'Logging test site', ['geologist', { email: viewerAccount.email, role: 'viewer' }])).id
+    projectId = project.id
     pointId = await createPoint(geologist, projectId, {
       identifier: 'BH-01', easting: 40, northing: 25, groundElevation: 2.6, finalDepth: 10, startedOn: '2025-03-03', endedOn: '2025-03-04', method: 'Cable percussion', loggedBy: 'A. Ferreira',
     })

@@ -3,23 +3,19 @@
 // confirms, and the log of BH-01 has the edited and the added interval.
 import { describe, expect, it } from 'vitest'
 import { editBh01 } from '../helpers/ags-edit'
-import { useDemoCopy } from '../helpers/demo-project'
-import { baseUrl, demoEmail, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, useProjectAs } from './helpers'
 
 describe('AGS4 update of existing holes in Chromium', () => {
-  const browser = useBrowser()
-  const copy = useDemoCopy('E2E-AGU')
+  const site = useProjectAs('geologist', 'E2E-AGU')
 
   it('the geologist merges an edited file into BH-01 after reading what changes', async () => {
-    const projectId = copy.id
-    const geo = await signIn(demoEmail('geologist'))
+    const projectId = site.projectId
+    const geo = site.client
     const res = await fetch(`${geo.base}/exports/${projectId}/logs.ags`, { headers: { cookie: geo.cookie! } })
     expect(res.status).toBe(200)
     const { text, editedDescription, newFinalDepth } = editBh01(await res.text())
 
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/import`)
+    const page = await site.open('/import')
     await page.getByTestId('import-file').setInputFiles({ name: 'saltmarsh-lane-edited.ags', mimeType: 'text/plain', buffer: Buffer.from(text) })
     await page.getByTestId('import-mode').waitFor()
     // Holes already here are skipped unless the user chooses otherwise.

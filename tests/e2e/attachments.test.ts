@@ -4,7 +4,7 @@ import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } 
 import { createProject } from '../helpers/project'
 import { startServer } from '../helpers/server'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openProjectAs, screenshot, signInAs, useBrowser } from './helpers'
 
 describe('attachments in Chromium', () => {
   const browser = useBrowser()
@@ -12,8 +12,7 @@ describe('attachments in Chromium', () => {
   it('shows the demo project\'s lab report, core-box photo (with its thumbnail) and field sheet on the overview', async () => {
     const admin = await signIn(demoEmail('owner'))
     const projectId = await demoProjectId(admin)
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId)
     const list = page.getByTestId('attachment-list')
     await list.waitFor()
     expect(await list.locator('li').count()).toBe(3)
@@ -35,8 +34,7 @@ describe('attachments in Chromium', () => {
   it('uploads with progress, shows the server\'s refusal, and deletes after a confirmation', async () => {
     const admin = await signIn(demoEmail('owner'))
     const { id: projectId } = await createProject(admin, 'ATE', 'Attachment browser test', ['geologist'])
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId)
     const form = page.getByTestId('attachment-upload')
     await form.waitFor()
     expect(await page.getByTestId('attachment-panel').textContent()).toContain('Nothing attached yet.')

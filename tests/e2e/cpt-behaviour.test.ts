@@ -1,29 +1,19 @@
 // The CPT behaviour index Ic (Robertson 2009) as a track beside the CPT profile and as a faint guide
 // beside the strata on the stress-model canvas, in Pastload's Ic colours; and the per-stratum switch
 // "derive σ'p from CPT and vane" on the Strata page, whose default follows the logged USCS symbols.
-import { beforeAll, describe, expect, it } from 'vitest'
-import { createDemoCopy } from '../helpers/demo-project'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { describe, expect, it } from 'vitest'
 import { join } from 'node:path'
-import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
+import { SCREENSHOTS, screenshot, useProjectAs } from './helpers'
 
 interface Points { points: { source: string, stratumCode: string | null, pointIdentifier: string, depth: number }[] }
 
 describe('Ic on the CPT plot and the stress canvas (the seeded demo, read only)', () => {
-  const browser = useBrowser()
-  let c: Client
-  let projectId = ''
-
-  beforeAll(async () => {
-    c = await signIn(demoEmail('reviewer'))
-    projectId = await demoProjectId(c)
-  })
+  const demo = useProjectAs('reviewer')
 
   it('CPT-01\'s page draws an Ic track with clay-like and sand-like runs and the key of ranges', async () => {
-    const list = await c.get<{ points: { id: string, identifier: string }[] }>(`/api/projects/${projectId}/points?limit=500`)
+    const list = await demo.client.get<{ points: { id: string, identifier: string }[] }>(`/api/projects/${demo.projectId}/points?limit=500`)
     const cpt = list.body.points.find(p => p.identifier === 'CPT-01')!
-    const page = await signInAs(browser.context, demoEmail('reviewer'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/points/${cpt.id}`)
+    const page = await demo.open(`/points/${cpt.id}`)
     const track = page.getByTestId('cpt-ic-track')
     await track.waitFor({ timeout: 20_000 })
     expect(Number(await track.getAttribute('data-runs'))).toBeGreaterThan(2)
@@ -44,9 +34,8 @@ describe('Ic on the CPT plot and the stress canvas (the seeded demo, read only)'
   })
 
   it('the design model\'s canvas shows one faint Ic column per CPT beside the strata', async () => {
-    const project = await c.get<{ project: { designModelId: string } }>(`/api/projects/${projectId}`)
-    const page = await signInAs(browser.context, demoEmail('reviewer'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/models/${project.body.project.designModelId}`)
+    const project = await demo.client.get<{ project: { designModelId: string } }>(`/api/projects/${demo.projectId}`)
+    const page = await demo.open(`/models/${project.body.project.designModelId}`)
     const guide = page.getByTestId('behaviour-guide')
     await expect.poll(async () => Number(await guide.getAttribute('data-soundings')), { timeout: 20_000 }).toBe(4)
     expect(await guide.locator('rect').count()).toBeGreaterThan(8)
@@ -60,18 +49,10 @@ describe('Ic on the CPT plot and the stress canvas (the seeded demo, read only)'
 })
 
 describe('the switch "derive σ\'p from CPT and vane" on the Strata page', () => {
-  const browser = useBrowser()
-  let engineer: Client
-  let projectId = ''
-
-  beforeAll(async () => {
-    engineer = await signIn(demoEmail('engineer'))
-    projectId = await createDemoCopy('E2E-ICS')
-  })
+  const copy = useProjectAs('engineer', 'E2E-ICS')
 
   it('shows each stratum\'s default from its logged symbols, and switching made ground on brings its CPT σ\'p back', async () => {
-    const page = await signInAs(browser.context, demoEmail('engineer'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/strata`)
+    const page = await copy.open('/strata')
     const mg = page.getByLabel('Derive σ\'p from CPT and vane in MG')
     await mg.waitFor({ timeout: 20_000 })
     expect(await mg.inputValue()).toBe('default')
@@ -80,15 +61,15 @@ describe('the switch "derive σ\'p from CPT and vane" on the Strata page', () =>
     const cells = await page.getByTestId('stratum-cpt-derivation').allTextContents()
     expect(cells.some(t => /logged (GW|SW)/.test(t))).toBe(true)
 
-    const before = (await engineer.get<Points>(`/api/projects/${projectId}/preconsolidation-points`)).body
+    const before = (await copy.client.get<Points>(`/api/projects/${copy.projectId}/preconsolidation-points`)).body
     expect(before.points.filter(p => p.source === 'cpt' && p.stratumCode === 'MG')).toEqual([])
     await mg.selectOption('on')
     await expect.poll(async () => (await page.getByRole('status').allTextContents()).join(' '), { timeout: 10_000 }).toContain('MG: σ\'p derived from CPT and vane.')
-    const after = (await engineer.get<Points>(`/api/projects/${projectId}/preconsolidation-points`)).body
+    const after = (await copy.client.get<Points>(`/api/projects/${copy.projectId}/preconsolidation-points`)).body
     expect(after.points.filter(p => p.source === 'cpt' && p.stratumCode === 'MG').length).toBeGreaterThan(0)
     await screenshot(page, 'strata-cpt-switch')
 
-    await page.goto(`${baseUrl()}/projects/${projectId}/preconsolidation`)
+    await page.goto(copy.url('/preconsolidation'))
     await expect.poll(async () => (await page.getByTestId('not-derived-note').textContent()) ?? '', { timeout: 15_000 }).toContain('Not derived from CPT and vane in SAND')
     await page.close()
   })

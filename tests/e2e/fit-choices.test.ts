@@ -2,13 +2,11 @@
 // stratum starts at the best by AICc), points leave a fit and come back with the keyboard, a fit
 // with problems is marked on its band and saved only with a reason, two versions compare in
 // words, a note from one stratum never shows under another, and the caution appears once.
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { createDemoCopy } from '../helpers/demo-project'
-import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, useProjectAs } from './helpers'
 
 interface ModelRow { id: string, version: number, draft: SiteModelDefinition }
 
@@ -28,24 +26,16 @@ async function chosen(page: Page): Promise<{ value: string, label: string }> {
 }
 
 describe('fits that cannot mislead, in Chromium', () => {
-  const browser = useBrowser()
-  let engineer: Client
-  let projectId = ''
-
-  beforeAll(async () => {
-    engineer = await signIn(demoEmail('engineer'))
-    projectId = await createDemoCopy('E2E-FIT')
-  })
+  const project = useProjectAs('engineer', 'E2E-FIT')
 
   async function newModel(suffix: string): Promise<ModelRow> {
-    const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `Fit checks ${suffix} ${Date.now().toString(36)}` })
+    const created = await project.client.post<{ model: ModelRow }>(`/api/projects/${project.projectId}/models`, { name: `Fit checks ${suffix} ${Date.now().toString(36)}` })
     expect(created.status).toBe(201)
     return created.body.model
   }
 
   async function openModel(modelId: string): Promise<Page> {
-    const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
-    await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    const page = await project.open(`/models/${modelId}`)
     await page.getByTestId('model-workspace').waitFor()
     await expect.poll(async () => Number(await page.getByTestId('point-layer').getAttribute('data-drawn')), { timeout: 20_000 }).toBeGreaterThan(100)
     return page
@@ -73,7 +63,7 @@ describe('fits that cannot mislead, in Chromium', () => {
     await expect.poll(async () => (await page.getByTestId('fit-panel').textContent()) ?? '', { timeout: 15_000 }).toContain('fits best, with the lowest AICc')
     expect((await page.getByTestId('fit-panel').textContent()) ?? '').not.toContain('Σ\'p')
     const crustModel = await result.getAttribute('data-model')
-    const saved = (await engineer.get<{ model: ModelRow }>(`/api/projects/${projectId}/models/${model.id}`)).body.model
+    const saved = (await project.client.get<{ model: ModelRow }>(`/api/projects/${project.projectId}/models/${model.id}`)).body.model
     expect(saved.version).toBe(model.version) // nothing saved yet: the trends live in the session
     // CRUST stays "best by AICc" for its next fit, whatever model won.
     expect((await chosen(page)).value).toBe('auto')
@@ -150,7 +140,7 @@ describe('fits that cannot mislead, in Chromium', () => {
     // EST with constant POP −5 kPa and R² −0.30: σ'p below σ'v0 throughout its stratum.
     const draft = structuredClone(model.draft)
     draft.strata[EST]!.trend = { model: 'pop', logSpace: false, parameters: { pop: -5 }, n: 20, r2: -0.3, rmse: 9, aic: 40, aicc: 42, includedPointIds: [], excludedPointIds: [] }
-    const put = await engineer.request<{ model: ModelRow }>('PUT', `/api/projects/${projectId}/models/${model.id}/draft`, { draft, version: model.version })
+    const put = await project.client.request<{ model: ModelRow }>('PUT', `/api/projects/${project.projectId}/models/${model.id}/draft`, { draft, version: model.version })
     expect(put.status).toBe(200)
     const page = await openModel(model.id)
     await pickBand(page, EST, 'EST')
@@ -177,7 +167,7 @@ describe('fits that cannot mislead, in Chromium', () => {
     await expect.poll(() => mark.getAttribute('data-open')).toBe('false')
     await page.getByTestId('save-version').click()
     await page.getByTestId('version-row-1').waitFor()
-    const v1 = (await engineer.get<{ version: { definition: SiteModelDefinition } }>(`/api/projects/${projectId}/models/${model.id}/versions/1`)).body.version
+    const v1 = (await project.client.get<{ version: { definition: SiteModelDefinition } }>(`/api/projects/${project.projectId}/models/${model.id}/versions/1`)).body.version
     expect(v1.definition.strata[EST]!.trend!.acceptedDespite).toEqual({ problems: ['negative-r2', 'below-effective-stress'], reason })
     await screenshot(page, 'fit-problem-kept-with-reason')
 
@@ -192,7 +182,7 @@ describe('fits that cannot mislead, in Chromium', () => {
     await page.getByTestId('version-message').fill('Water table at 1.75 m')
     await page.getByTestId('save-version').click()
     await page.getByTestId('version-row-2').waitFor()
-    await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}/compare?a=1&b=2`)
+    await page.goto(project.url(`/models/${model.id}/compare?a=1&b=2`))
     const summary = page.getByTestId('compare-summary')
     await summary.waitFor()
     const lines = await summary.locator('li').allTextContents()

@@ -6,7 +6,9 @@ import { join, resolve } from 'node:path'
 import { chromium, type BrowserContext, type Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, expect } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
-import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD } from '../helpers/http'
+import type { ProjectRole } from '../../shared/auth/roles'
+import { createDemoCopy } from '../helpers/demo-project'
+import { baseUrl, type Client, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
 
 export const SCREENSHOTS = resolve(import.meta.dirname, '../../test-results/screenshots')
 
@@ -86,6 +88,42 @@ export async function signInAs(context: BrowserContext, email: string, password 
   // The projects page is up (its list is empty, so hidden, for someone in no project yet).
   await page.getByTestId('project-list').waitFor({ state: 'attached' })
   return page
+}
+
+/** Signs the demo person of `role` in through the form and opens the page at `path` of project `projectId` (`''` its overview), at the `viewport` size if given. */
+export async function openProjectAs(context: BrowserContext, role: ProjectRole, projectId: string, path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
+  const page = await signInAs(context, demoEmail(role))
+  if (options.viewport) await page.setViewportSize(options.viewport)
+  await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
+  return page
+}
+
+/**
+ * One Chromium and one project for the enclosing describe, as the demo person of `role` works in it:
+ * the seeded demo project (read only), or, given `copyTag`, a copy of the demo of the describe's own.
+ * `client` (the API as that person) and `projectId` are ready inside tests; `open(path)` signs the
+ * person in through the form and opens the project's page at `path` (`/models/<id>`, `/strata`, …),
+ * at the `viewport` size if given.
+ */
+export function useProjectAs(role: ProjectRole, copyTag?: string) {
+  const browser = useBrowser()
+  let client: Client | undefined
+  let projectId = ''
+  beforeAll(async () => {
+    client = await signIn(demoEmail(role))
+    projectId = copyTag ? await createDemoCopy(copyTag) : await demoProjectId(client)
+  })
+  const url = (path = '') => `${baseUrl()}/projects/${projectId}${path}`
+  return {
+    browser,
+    get client(): Client {
+      if (!client) throw new Error('the project is not ready yet')
+      return client
+    },
+    get projectId() { return projectId },
+    url,
+    open: (path = '', options: { viewport?: { width: number, height: number } } = {}) => openProjectAs(browser.context, role, projectId, path, options),
+  }
 }
 
 /** A new account of no project, made by the demo owner, signed in through the form: its page and e-mail. */

@@ -1,12 +1,22 @@
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
+import type { ProjectRole } from '../../shared/auth/roles'
 import { useDemoCopy } from '../helpers/demo-project'
-import { baseUrl, demoEmail, signIn } from '../helpers/http'
-import { createPoint, createProject } from '../helpers/project'
+import { demoEmail, signIn } from '../helpers/http'
+import { createPoint, createProject, must } from '../helpers/project'
 import { asDial, bilinearCurve, ESTUARINE, testBody } from '../helpers/lab'
-import { screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
+import { openProjectAs, screenshot, SCREENSHOTS, useBrowser } from './helpers'
 
 const STAGE_LABEL = 'Compression Δh (mm)'
+
+/** A project of the test's own with `member`, made by the owner: one borehole (10 m) holding one tube sample. */
+async function projectWithSample(tag: string, name: string, member: ProjectRole, point: string, sample: { identifier: string, top: number, bottom: number }) {
+  const owner = await signIn(demoEmail('owner'))
+  const { id: projectId } = await createProject(owner, tag, name, [member])
+  const pointId = await createPoint(owner, projectId, { identifier: point, groundElevation: 1, finalDepth: 10 })
+  const created = await must('sample', owner.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { ...sample, type: 'thin-walled-tube' }), 201)
+  return { owner, projectId, sampleId: created.sample.id }
+}
 /** Sample-quality classes as the pages name them (Lunne, Berre & Strandvik 1997). */
 const QUALITY: Record<string, string> = { 'very-good-to-excellent': 'Very good to excellent', 'good-to-fair': 'Good to fair', 'poor': 'Poor', 'very-poor': 'Very poor' }
 
@@ -26,8 +36,7 @@ describe('oedometer interpretation in Chromium', () => {
     const target = list.body.tests.find(t => t.adoption && t.point.identifier === 'BH-02' && t.reading.casagrande !== null)!
     expect(target).toBeDefined()
 
-    const page = await signInAs(browser.context, demoEmail('engineer'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/tests`)
+    const page = await openProjectAs(browser.context, 'engineer', projectId, '/tests')
     await page.getByTestId('tests-table').waitFor()
     expect(await page.locator('[data-testid="tests-table"] tbody tr').count()).toBe(14)
     // Every row carries its sample-quality badge; the two disturbed specimens class as very poor.
@@ -115,17 +124,13 @@ describe('oedometer interpretation in Chromium', () => {
   })
 
   it('a curve with no yield shows the engine\'s reason instead of constructions', async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const { id: projectId } = await createProject(owner, 'E2E-LAB', 'No-yield check', ['engineer'])
-    const pointId = await createPoint(owner, projectId, { identifier: 'BH-X', groundElevation: 1, finalDepth: 10 })
-    const s = await owner.post<{ sample: { id: string } }>(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U1', top: 3, bottom: 3.5, type: 'thin-walled-tube' })
-    const body = testBody(s.body.sample.id, 'OED-NY')
+    const { owner, projectId, sampleId } = await projectWithSample('E2E-LAB', 'No-yield check', 'engineer', 'BH-X', { identifier: 'U1', top: 3, bottom: 3.5 })
+    const body = testBody(sampleId, 'OED-NY')
     body.stages = body.stages.map(st => ({ stress: st.stress, value: 2.1 - 0.3 * Math.log10(st.stress / 10) }))
     const t = await owner.post<{ test: { id: string } }>(`/api/projects/${projectId}/tests/oedometer`, body)
     expect(t.status).toBe(201)
 
-    const page = await signInAs(browser.context, demoEmail('engineer'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/tests/oedometer/${t.body.test.id}`)
+    const page = await openProjectAs(browser.context, 'engineer', projectId, `/tests/oedometer/${t.body.test.id}`)
     const error = page.getByTestId('interpretation-error')
     await error.waitFor()
     expect(await error.textContent()).toContain('no yield')
@@ -137,13 +142,9 @@ describe('oedometer interpretation in Chromium', () => {
   })
 
   it('a geologist adds a test by pasting compression readings from a spreadsheet, previewed before it is saved', async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const { id: projectId } = await createProject(owner, 'E2E-PASTE', 'Paste check', ['geologist'])
-    const pointId = await createPoint(owner, projectId, { identifier: 'BH-P', groundElevation: 1, finalDepth: 10 })
-    expect((await owner.post(`/api/projects/${projectId}/points/${pointId}/samples`, { identifier: 'U3', top: 4.5, bottom: 5, type: 'thin-walled-tube' })).status).toBe(201)
+    const { projectId } = await projectWithSample('E2E-PASTE', 'Paste check', 'geologist', 'BH-P', { identifier: 'U3', top: 4.5, bottom: 5 })
 
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/tests`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId, '/tests')
     await page.getByTestId('new-test').click()
     await page.getByLabel('Point', { exact: true }).selectOption({ label: 'BH-P' })
     await page.getByLabel('Sample', { exact: true }).selectOption({ label: 'U3 · 4.50–5.00 m' })

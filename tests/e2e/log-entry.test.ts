@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
-import { createProject } from '../helpers/project'
+import { createProject, createStrata } from '../helpers/project'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { top: number, bottom: number, uscs: string | null, stratumId: string | null }
@@ -22,14 +22,10 @@ describe('the log and SPT entered at the keyboard', () => {
   beforeEach(async () => {
     projectId = (await createProject(admin, 'TRN-KEY', 'Saltmarsh Lane keyboard trial', ['geologist'], { client: 'Harrow Estuary Logistics' })).id
     const P = `/api/projects/${projectId}`
-    for (const [i, s] of [
+    Object.assign(strata, await createStrata(geologist, projectId, [
       { code: 'MG', name: 'Made ground', colour: 'fill-ochre', pattern: 'made-ground', unitWeight: 19, unitWeightSaturated: 20 },
       { code: 'EC', name: 'Estuarine clay', colour: 'estuary-slate', pattern: 'organic-clay', unitWeight: 16, unitWeightSaturated: 16 },
-    ].entries()) {
-      const r = await geologist.post<{ stratum: { id: string } }>(`${P}/strata`, { ...s, displayOrder: (i + 1) * 10 })
-      expect(r.status).toBe(201)
-      strata[s.code] = r.body.stratum.id
-    }
+    ]))
     const r = await geologist.post<{ point: { id: string } }>(`${P}/points`, { identifier: 'BH-K1', kind: 'borehole', easting: 12, northing: 18, finalDepth: 10, groundElevation: 3.1, startedOn: '2026-03-05', endedOn: '2026-03-06', method: 'Cable percussion', loggedBy: 'A. Ferreira' })
     expect(r.status).toBe(201)
     boreholeId = r.body.point.id

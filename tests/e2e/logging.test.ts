@@ -3,8 +3,8 @@ import type { Page } from 'playwright-core'
 import { RESULT_CAUTION } from '../../shared/caution'
 import { baseUrl, createUser, demoEmail, signIn, signedInDemo, TEST_PASSWORD } from '../helpers/http'
 import { pdfInfo } from '../helpers/pdf'
-import { createProject } from '../helpers/project'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { createProject, createStrata } from '../helpers/project'
+import { openProjectAs, screenshot, signInAs, useBrowser } from './helpers'
 
 interface Interval { id: string, top: number, bottom: number, description: string, uscs: string | null, stratumId: string | null, moisture: string | null, consistency: string | null, version: number }
 
@@ -69,15 +69,11 @@ describe('the field geologist\'s workspace in Chromium', () => {
   beforeEach(async () => {
     projectId = (await createProject(admin, 'TRN-LOG', 'Saltmarsh Lane logging trial', ['geologist', 'engineer', 'designer'], { client: 'Harrow Estuary Logistics' })).id
     const P = `/api/projects/${projectId}`
-    for (const [i, s] of [
+    Object.assign(strata, await createStrata(geologist, projectId, [
       { code: 'MG', name: 'Made ground', colour: 'fill-ochre', pattern: 'made-ground', unitWeight: 19, unitWeightSaturated: 20 },
       { code: 'CR', name: 'Desiccated crust', colour: 'crust-tan', pattern: 'clay', unitWeight: 18, unitWeightSaturated: 18.5 },
       { code: 'EC', name: 'Estuarine clay', colour: 'estuary-slate', pattern: 'organic-clay', unitWeight: 16, unitWeightSaturated: 16 },
-    ].entries()) {
-      const r = await geologist.post<{ stratum: { id: string } }>(`${P}/strata`, { ...s, displayOrder: (i + 1) * 10 })
-      expect(r.status).toBe(201)
-      strata[s.code] = r.body.stratum.id
-    }
+    ]))
     const point = async (body: Record<string, unknown>) => {
       const r = await geologist.post<{ point: { id: string } }>(`${P}/points`, { groundElevation: 3.1, startedOn: '2026-03-05', endedOn: '2026-03-06', method: 'Cable percussion', loggedBy: 'A. Ferreira', ...body })
       expect(r.status).toBe(201)
@@ -235,8 +231,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   })
 
   it('the site plan shows every point by kind, follows the list, and opens a point', async () => {
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId, '/plan')
     await page.getByTestId('plan-point').first().waitFor()
     const kinds = await page.getByTestId('plan-point').evaluateAll(els => els.map(e => e.getAttribute('data-kind')).sort())
     expect(kinds).toEqual(['borehole', 'cpt', 'test-pit'])
@@ -350,8 +345,7 @@ describe('the field geologist\'s workspace in Chromium', () => {
   it('the strata editor adds a stratum with its look, reorders, and shows a newer save before overwriting it', async () => {
     const P = `/api/projects/${projectId}/strata`
     const list = async () => (await geologist.get<{ strata: { id: string, code: string, name: string, colour: string, pattern: string, unitWeight: number, displayOrder: number, version: number }[] }>(P)).body.strata
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.goto(`${baseUrl()}/projects/${projectId}/strata`)
+    const page = await openProjectAs(browser.context, 'geologist', projectId, '/strata')
     await page.getByTestId('stratum-add').click()
     await page.getByLabel('Code').fill('GC')
     await page.getByLabel('Name').fill('Glacial clay')

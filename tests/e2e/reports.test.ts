@@ -3,10 +3,10 @@
 // is made on the job queue: the notice says so, and the Reports page shows it once stored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import pg from 'pg'
-import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
+import { signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openProjectAs, screenshot, useBrowser } from './helpers'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
 afterAll(() => pool.end())
@@ -25,9 +25,7 @@ describe('reports in Chromium', () => {
   })
 
   it('issues revision A from the run page after a confirmation naming it, then lists it on the Reports page', async () => {
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${runId}`)
+    const page = await openProjectAs(browser.context, 'designer', projectId, `/settlement/${runId}`, { viewport: { width: 1366, height: 800 } })
     const pdf = page.getByTestId('report-pdf')
     await pdf.waitFor()
     expect(await pdf.getAttribute('href')).toBe(`/api/projects/${projectId}/settlement-runs/${runId}/report.pdf`)

@@ -3,10 +3,10 @@ import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { baseUrl, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
+import { baseUrl, demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openProjectAs, screenshot, useBrowser } from './helpers'
 
 interface Created { run: { id: string, status: string } }
 
@@ -45,9 +45,7 @@ describe('settlement results in Chromium', () => {
   })
 
   it('lists the runs with their headline, and opens a run: version line, contour map, section, sublayers and exports', async () => {
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/settlement`)
+    const page = await openProjectAs(browser.context, 'designer', projectId, '/settlement', { viewport: { width: 1366, height: 800 } })
     const row = page.getByTestId(`run-row-${approvedRun}`)
     await row.waitFor()
     await page.getByTestId(`run-row-${provisionalRun}`).waitFor()
@@ -119,9 +117,7 @@ describe('settlement results in Chromium', () => {
   })
 
   it('warns that a run on a version in review is not based on an approved version, and compares two runs', async () => {
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${provisionalRun}`)
+    const page = await openProjectAs(browser.context, 'designer', projectId, `/settlement/${provisionalRun}`, { viewport: { width: 1366, height: 800 } })
     const band = page.locator('[data-testid="run-version-line"][data-state="not-approved"]')
     await band.waitFor()
     expect(await band.textContent()).toContain('Based on a version that is not approved.')
@@ -157,9 +153,7 @@ describe('settlement results in Chromium', () => {
        select project_id, 'Slab computing', model, definition, loads, points, grid, options, 'running', 0.3, created_by, now() from settlement_runs where id = $1 returning id`,
       [approvedRun],
     )
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/settlement/${copy!.id}`)
+    const page = await openProjectAs(browser.context, 'designer', projectId, `/settlement/${copy!.id}`, { viewport: { width: 1366, height: 800 } })
     const bar = page.getByRole('progressbar', { name: 'Run progress' })
     await bar.waitFor()
     expect(await bar.getAttribute('aria-valuenow')).toBe('30')
@@ -186,9 +180,7 @@ describe('settlement results in Chromium', () => {
 
   it('shows the demo\'s seeded embankment run on its approved version (read only)', async () => {
     const demoId = await demoProjectId(designer)
-    const page = await signInAs(browser.context, demoEmail('designer'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${demoId}/settlement`)
+    const page = await openProjectAs(browser.context, 'designer', demoId, '/settlement', { viewport: { width: 1366, height: 800 } })
     const link = page.getByTestId('run-list').getByRole('link', { name: 'Yard embankment, 6 m on version 1' })
     await link.waitFor()
     await link.click()

@@ -2,17 +2,13 @@
 // is drawn as one mark at the plan's first view; it opens a list of its points, which opens a point;
 // zoomed in, the three are drawn apart. Laptop and phone widths.
 import { describe, expect, it } from 'vitest'
-import { baseUrl, demoEmail, demoProjectId, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { screenshot, useProjectAs } from './helpers'
 
 describe('site plan: points drawn at the same place', () => {
-  const browser = useBrowser()
+  const demo = useProjectAs('geologist')
 
   it('draws the piezometer nest as one mark that opens a list of its points, by keyboard and by click (laptop)', async () => {
-    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const page = await demo.open('/plan', { viewport: { width: 1366, height: 800 } })
     const nest = page.locator('[data-testid="plan-point"][data-cluster-size="3"]')
     await nest.waitFor()
     expect(await nest.locator('text.label').textContent()).toBe('P-1 +2')
@@ -45,10 +41,7 @@ describe('site plan: points drawn at the same place', () => {
   })
 
   it('on a phone, the nest is in a mark whose list holds all three', async () => {
-    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.setViewportSize({ width: 390, height: 844 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const page = await demo.open('/plan', { viewport: { width: 390, height: 844 } })
     await page.locator('[data-testid="plan-point"][data-cluster-size]').first().waitFor()
     for (const hidden of ['P-2', 'P-3']) {
       expect(await page.locator(`[data-testid="plan-point"][aria-label^="${hidden},"]`).getAttribute('class')).toContain('clustered')
@@ -70,10 +63,7 @@ describe('site plan: points drawn at the same place', () => {
   })
 
   it('draws the three apart once zoomed in', async () => {
-    const projectId = await demoProjectId(await signIn(demoEmail('geologist')))
-    const page = await signInAs(browser.context, demoEmail('geologist'))
-    await page.setViewportSize({ width: 1366, height: 800 })
-    await page.goto(`${baseUrl()}/projects/${projectId}/plan`)
+    const page = await demo.open('/plan', { viewport: { width: 1366, height: 800 } })
     await page.locator('[data-testid="plan-point"][data-cluster-size="3"]').waitFor()
     const zoomIn = page.getByRole('button', { name: 'Zoom in' })
     const nested = page.locator('[data-testid="plan-point"].clustered[aria-label^="P-"]')

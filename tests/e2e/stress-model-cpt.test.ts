@@ -3,36 +3,28 @@
 // cone factor k from k0 to k1 scales each CPT σ'p in that band by k1/k0, and a
 // median of scaled values is the scaled median (the resampling is a median per
 // window), up to the answer's rounding.
-import { beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { createDemoCopy } from '../helpers/demo-project'
-import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { demoEmail } from '../helpers/http'
+import { screenshot, signInAs, useProjectAs } from './helpers'
 
 interface Answer { points: { id: string, source: string, stratumCode: string | null, depth: number, preconsolidation: number }[], stressModel: { source: string, description: string } }
 
 describe('CPT σ\'p through the model on screen', () => {
-  const browser = useBrowser()
-  let engineer: Client
-  let projectId = ''
-
-  beforeAll(async () => {
-    engineer = await signIn(demoEmail('engineer'))
-    // The model it makes belongs to a copy of the demo site of this file's own.
-    projectId = await createDemoCopy('E2E-CPT')
-  })
+  // The model it makes belongs to a copy of the demo site of this file's own.
+  const project = useProjectAs('engineer', 'E2E-CPT')
 
   it('the engineer changes the estuarine clay\'s cone factor and the CPT σ\'p there scale with it, unsaved', async () => {
-    const created = await engineer.post<{ model: { id: string, draft: SiteModelDefinition, version: number } }>(`/api/projects/${projectId}/models`, { name: `CPT factor check ${Date.now().toString(36)}` })
+    const created = await project.client.post<{ model: { id: string, draft: SiteModelDefinition, version: number } }>(`/api/projects/${project.projectId}/models`, { name: `CPT factor check ${Date.now().toString(36)}` })
     expect(created.status).toBe(201)
     const model = created.body.model
     const est = model.draft.strata.findIndex(s => s.code === 'EST')
     const k0 = model.draft.strata[est]!.cptFactor
     const k1 = 0.5
 
-    const page = await signInAs(browser.context, demoEmail('engineer'))
+    const page = await signInAs(project.browser.context, demoEmail('engineer'))
     const first = page.waitForResponse(r => r.url().endsWith('/preconsolidation-points/evaluate') && r.request().method() === 'POST')
-    await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+    await page.goto(project.url(`/models/${model.id}`))
     const before = await (await first).json() as Answer
     expect(before.stressModel.source).toBe('given')
     await expect.poll(async () => (await page.getByTestId('workspace-summary').textContent()) ?? '', { timeout: 15_000 })
@@ -63,7 +55,7 @@ describe('CPT σ\'p through the model on screen', () => {
     for (const p of above) expect(after.points.find(x => x.id === p.id)?.preconsolidation).toBe(p.preconsolidation)
     // Nothing was saved: the server's draft keeps k0.
     expect(await page.getByTestId('session-bar').getAttribute('data-dirty')).toBe('true')
-    const stored = (await engineer.get<{ model: { draft: SiteModelDefinition } }>(`/api/projects/${projectId}/models/${model.id}`)).body.model
+    const stored = (await project.client.get<{ model: { draft: SiteModelDefinition } }>(`/api/projects/${project.projectId}/models/${model.id}`)).body.model
     expect(stored.draft.strata[est]!.cptFactor).toBe(k0)
     await screenshot(page, 'stress-model-cpt-factor')
     await page.close()

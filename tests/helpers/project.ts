@@ -55,6 +55,16 @@ export function useTestProject(owner: Client, tag: string, name: string, members
   return project
 }
 
+/** Creates the strata in the order given (display order 10, 20, …); their ids by code. */
+export async function createStrata(c: Client, projectId: string, strata: readonly ({ code: string } & Record<string, unknown>)[]): Promise<Record<string, string>> {
+  const ids: Record<string, string> = {}
+  for (const [i, s] of strata.entries()) {
+    const r = await must(`creating stratum ${s.code}`, c.post<{ stratum: { id: string } }>(`/api/projects/${projectId}/strata`, { ...s, displayOrder: (i + 1) * 10 }), 201)
+    ids[s.code] = r.stratum.id
+  }
+  return ids
+}
+
 export async function addMember(owner: Client, projectId: string, member: MemberSpec): Promise<void> {
   const body = typeof member === 'string' ? { email: demoEmail(member), role: member } : member
   await must(`adding ${body.email} as ${body.role}`, owner.post(`/api/projects/${projectId}/members`, body), 201)

@@ -9,13 +9,15 @@ describe('startSentence', () => {
     expect(startSentence('a trend')).toBe('A trend')
   })
 
-  it('leaves a symbol of the trade as written (its case is its meaning)', () => {
-    expect(startSentence('σ\'p linear in depth fits best')).toBe('σ\'p linear in depth fits best')
-    expect(startSentence('e0 from the tests')).toBe('e0 from the tests')
-    expect(startSentence('cv from t90')).toBe('cv from t90')
-    expect(startSentence('su/0.22')).toBe('su/0.22')
-    expect(startSentence('γ of the fill')).toBe('γ of the fill')
-    expect(startSentence('')).toBe('')
+  it.each([
+    ['σ\'p linear in depth fits best'],
+    ['e0 from the tests'],
+    ['cv from t90'],
+    ['su/0.22'],
+    ['γ of the fill'],
+    [''],
+  ])('leaves “%s” as written (a symbol of the trade: its case is its meaning)', (text) => {
+    expect(startSentence(text)).toBe(text)
   })
 })
 

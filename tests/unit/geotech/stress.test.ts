@@ -24,21 +24,23 @@ function pointAt(profile: ReturnType<typeof computeStressProfile>, depth: number
   return p
 }
 
+/** The stresses at `depth` equal the hand values given, to 10 decimals. */
+function expectAt(profile: ReturnType<typeof computeStressProfile>, depth: number, expected: Partial<Record<'totalStress' | 'porePressure' | 'effectiveStress', number>>) {
+  const p = pointAt(profile, depth)
+  for (const [key, value] of Object.entries(expected)) expect(p[key as keyof typeof expected], `${key} at ${depth} m`).toBeCloseTo(value, 10)
+}
+
 describe('computeStressProfile: hand calculations', () => {
   it('two layers with the water table inside the first', () => {
     const profile = computeStressProfile(twoLayers)
     expect(profile.points.map(p => p.depth)).toEqual([0, 2, 4, 10])
     // z = 2: σv = 2·18 = 36, u = 0.
-    expect(pointAt(profile, 2).totalStress).toBeCloseTo(36, 10)
+    expectAt(profile, 2, { totalStress: 36 })
     expect(pointAt(profile, 2).porePressure).toBe(0)
     // z = 4: σv = 36 + 2·20 = 76, u = 2·9.81 = 19.62, σ' = 56.38.
-    expect(pointAt(profile, 4).totalStress).toBeCloseTo(76, 10)
-    expect(pointAt(profile, 4).porePressure).toBeCloseTo(19.62, 10)
-    expect(pointAt(profile, 4).effectiveStress).toBeCloseTo(56.38, 10)
+    expectAt(profile, 4, { totalStress: 76, porePressure: 19.62, effectiveStress: 56.38 })
     // z = 10: σv = 76 + 6·19 = 190, u = 8·9.81 = 78.48, σ' = 111.52.
-    expect(pointAt(profile, 10).totalStress).toBeCloseTo(190, 10)
-    expect(pointAt(profile, 10).porePressure).toBeCloseTo(78.48, 10)
-    expect(pointAt(profile, 10).effectiveStress).toBeCloseTo(111.52, 10)
+    expectAt(profile, 10, { totalStress: 190, porePressure: 78.48, effectiveStress: 111.52 })
     expect(profile.warnings).toEqual([])
   })
 
@@ -49,27 +51,25 @@ describe('computeStressProfile: hand calculations', () => {
     })
     expect(profile.points.map(p => p.depth)).toEqual([0, 2.6, 3])
     // σv(3) = 2.6·16 + 0.4·21 = 50; u(3) = 0.4·9.81 = 3.924.
-    expect(pointAt(profile, 2.6).totalStress).toBeCloseTo(41.6, 10)
-    expect(pointAt(profile, 3).totalStress).toBeCloseTo(50, 10)
-    expect(pointAt(profile, 3).effectiveStress).toBeCloseTo(46.076, 10)
+    expectAt(profile, 2.6, { totalStress: 41.6 })
+    expectAt(profile, 3, { totalStress: 50, effectiveStress: 46.076 })
   })
 
   it('requested depths are interpolated and merged with breakpoints', () => {
     const profile = computeStressProfile({ ...twoLayers, depths: [7.5, 3, 4, 1] })
     expect(profile.points.map(p => p.depth)).toEqual([0, 1, 2, 3, 4, 7.5, 10])
     // z = 3: σv = 36 + 20 = 56, u = 9.81. z = 7.5: σv = 76 + 3.5·19 = 142.5, u = 5.5·9.81 = 53.955.
-    expect(pointAt(profile, 3).totalStress).toBeCloseTo(56, 10)
-    expect(pointAt(profile, 3).porePressure).toBeCloseTo(9.81, 10)
-    expect(pointAt(profile, 7.5).totalStress).toBeCloseTo(142.5, 10)
+    expectAt(profile, 3, { totalStress: 56, porePressure: 9.81 })
+    expectAt(profile, 7.5, { totalStress: 142.5 })
     expect(pointAt(profile, 7.5).effectiveStress).toBeCloseTo(142.5 - 53.955, 10)
-    expect(pointAt(profile, 1).effectiveStress).toBeCloseTo(18, 10)
+    expectAt(profile, 1, { effectiveStress: 18 })
   })
 
   it('a surcharge adds to σv and σ\'v0 everywhere', () => {
     const profile = computeStressProfile({ ...twoLayers, surcharge: 15 })
     expect(pointAt(profile, 0).totalStress).toBe(15)
     expect(pointAt(profile, 0).effectiveStress).toBe(15)
-    expect(pointAt(profile, 10).effectiveStress).toBeCloseTo(126.52, 10)
+    expectAt(profile, 10, { effectiveStress: 126.52 })
   })
 
   it('boundary rule: a boundary point is in the layer below, the base in the last layer', () => {
@@ -100,14 +100,11 @@ describe('computeStressProfile: hand calculations', () => {
     const profile = computeStressProfile(input)
     expect(profile.points.map(p => p.depth)).toEqual([0, 2, 7, 12, 16, 20, 24])
     // z = 7: hydrostatic part, u = 5·9.81 = 49.05.
-    expect(pointAt(profile, 7).porePressure).toBeCloseTo(49.05, 10)
+    expectAt(profile, 7, { porePressure: 49.05 })
     // z = 16: u = (98.1 + 117.72)/2 = 107.91 < hydrostatic 137.34; σv = 2·17 + 10·17 + 4·18 = 276.
-    expect(pointAt(profile, 16).porePressure).toBeCloseTo(107.91, 10)
-    expect(pointAt(profile, 16).totalStress).toBeCloseTo(276, 10)
-    expect(pointAt(profile, 16).effectiveStress).toBeCloseTo(168.09, 10)
+    expectAt(profile, 16, { porePressure: 107.91, totalStress: 276, effectiveStress: 168.09 })
     // z = 24: u = 117.72 + 4·9.81 = 156.96; σv = 204 + 12·18 = 420.
-    expect(pointAt(profile, 24).porePressure).toBeCloseTo(156.96, 10)
-    expect(pointAt(profile, 24).effectiveStress).toBeCloseTo(263.04, 10)
+    expectAt(profile, 24, { porePressure: 156.96, effectiveStress: 263.04 })
   })
 
   it('perched water table: u returns to 0 below the aquitard', () => {
@@ -128,17 +125,16 @@ describe('computeStressProfile: hand calculations', () => {
       depths: [4, 6, 10],
     }
     const profile = computeStressProfile(input)
-    expect(pointAt(profile, 3).porePressure).toBeCloseTo(19.62, 10)
-    expect(pointAt(profile, 4).porePressure).toBeCloseTo(9.81, 10)
+    expectAt(profile, 3, { porePressure: 19.62 })
+    expectAt(profile, 4, { porePressure: 9.81 })
     expect(pointAt(profile, 5).porePressure).toBe(0)
     expect(pointAt(profile, 6).porePressure).toBe(0)
     expect(pointAt(profile, 8).porePressure).toBe(0)
     // Below the last control point: hydrostatic gradient from 0 at 8 m, u(10) = 19.62, u(12) = 39.24.
-    expect(pointAt(profile, 10).porePressure).toBeCloseTo(19.62, 10)
-    expect(pointAt(profile, 12).porePressure).toBeCloseTo(39.24, 10)
+    expectAt(profile, 10, { porePressure: 19.62 })
+    expectAt(profile, 12, { porePressure: 39.24 })
     // σv: 18 + 2·20 + 2·19 + 7·20 = 236 (γsat below the table depth).
-    expect(pointAt(profile, 12).totalStress).toBeCloseTo(236, 10)
-    expect(pointAt(profile, 12).effectiveStress).toBeCloseTo(196.76, 10)
+    expectAt(profile, 12, { totalStress: 236, effectiveStress: 196.76 })
   })
 
   it('artesian uplift: σ\'v0 reaching zero is an error at that depth', () => {
@@ -166,7 +162,7 @@ describe('computeStressProfile: hand calculations', () => {
     })
     expect(profile.points.map(p => p.depth)).toEqual([0, 2, 4, 10])
     // u(10) = 88.29·8/12 = 58.86 kPa.
-    expect(pointAt(profile, 10).porePressure).toBeCloseTo(58.86, 10)
+    expectAt(profile, 10, { porePressure: 58.86 })
   })
 
   it('a water table below the base gives a dry profile and a warning', () => {
@@ -175,7 +171,7 @@ describe('computeStressProfile: hand calculations', () => {
     expect(profile.warnings[0]).toContain('15 m')
     for (const p of profile.points) expect(p.porePressure).toBe(0)
     // Dry: 4·18 + 6·19 = 186.
-    expect(pointAt(profile, 10).totalStress).toBeCloseTo(186, 10)
+    expectAt(profile, 10, { totalStress: 186 })
   })
 })
 

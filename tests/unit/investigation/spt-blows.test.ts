@@ -80,20 +80,27 @@ describe('parseSptBlows', () => {
     expect(read('/ 4 5 6 7')).toMatchObject({ seating: [], n: 22 })
   })
 
-  it('refuses unreadable text in plain words', () => {
-    expect(refused('')).toContain('Nothing written')
-    expect(refused('abc')).toContain('“abc” is not a blow count')
-    expect(refused('2 3 / 4 5 6')).toBe('The test drive has 3 counts: give one count (300 mm), two (150 mm each) or four (75 mm each), or write the last as blows/mm if it stopped short.')
-    expect(refused('2 3 4 5')).toBe('The test drive has 150 mm of its 300 mm: give the remaining counts, or write the last as blows/mm if it stopped short.')
-    expect(refused('2 3 4 5 6 7 8')).toBe('There are more counts than the seating and test drives hold.')
-    expect(refused('2 3 / 10/40 5 6')).toBe('In the test drive, only the last increment can be written as blows/mm (it stopped short).')
-    expect(refused('2 3 / 4 5 50/400mm')).toBe('The test drive adds up to 550 mm, more than its 300 mm.')
-    expect(refused('2 3 / 4 5 6 7 N=23')).toBe('N=23 is written, but the test drive\'s blows add up to 22.')
-    expect(refused('25/75 50/40 N=50')).toContain('N is not defined')
-    expect(refused('2 3 /')).toContain('after the slash')
-    expect(refused('1 / 2 / 3')).toContain('one slash')
-    expect(refused('2 3 / 4 5 6 7000')).toContain('more than 500')
-    expect(refused('x'.repeat(200))).toContain('Too long')
+  it.each([
+    ['2 3 / 4 5 6', 'The test drive has 3 counts: give one count (300 mm), two (150 mm each) or four (75 mm each), or write the last as blows/mm if it stopped short.'],
+    ['2 3 4 5', 'The test drive has 150 mm of its 300 mm: give the remaining counts, or write the last as blows/mm if it stopped short.'],
+    ['2 3 4 5 6 7 8', 'There are more counts than the seating and test drives hold.'],
+    ['2 3 / 10/40 5 6', 'In the test drive, only the last increment can be written as blows/mm (it stopped short).'],
+    ['2 3 / 4 5 50/400mm', 'The test drive adds up to 550 mm, more than its 300 mm.'],
+    ['2 3 / 4 5 6 7 N=23', 'N=23 is written, but the test drive\'s blows add up to 22.'],
+  ])('refuses “%s” in plain words', (text, reason) => {
+    expect(refused(text)).toBe(reason)
+  })
+
+  it.each([
+    ['', 'Nothing written'],
+    ['abc', '“abc” is not a blow count'],
+    ['25/75 50/40 N=50', 'N is not defined'],
+    ['2 3 /', 'after the slash'],
+    ['1 / 2 / 3', 'one slash'],
+    ['2 3 / 4 5 6 7000', 'more than 500'],
+    ['x'.repeat(200), 'Too long'],
+  ])('refuses “%s” with a reason that says so', (text, fragment) => {
+    expect(refused(text)).toContain(fragment)
   })
 })
 

@@ -15,18 +15,27 @@ function site(): SiteModelDefinition {
   })
 }
 
+/** The demo site, and a copy changed by `edit`. */
+function edited(edit: (b: SiteModelDefinition) => void): [SiteModelDefinition, SiteModelDefinition] {
+  const b = site()
+  edit(b)
+  return [site(), b]
+}
+
 describe('describeChanges: two definitions in words', () => {
   it('says nothing when nothing changed', () => {
     expect(describeChanges(site(), site())).toEqual([])
   })
 
-  it('reads as a reviewer would say it, in SI', () => {
-    const a = site()
-    const b = site()
+  /** The water table, a unit weight and the trend's POP each moved a little. */
+  const smallEdits = () => edited((b) => {
     b.groundwater.waterTableDepth = 1.6
     b.strata[1]!.unitWeight = 16.2
     b.strata[1]!.trend = trend({ parameters: { pop: 25.9 } })
-    expect(describeChanges(a, b)).toEqual([
+  })
+
+  it('reads as a reviewer would say it, in SI', () => {
+    expect(describeChanges(...smallEdits())).toEqual([
       'water table 1.57 → 1.60 m',
       'EST unit weight 16.0 → 16.2 kN/m³',
       'EST trend: constant POP 26.7 → 25.9 kPa',
@@ -34,13 +43,8 @@ describe('describeChanges: two definitions in words', () => {
   })
 
   it('converts to the project\'s US units (1 m = 3.2808 ft; 1 kPa = 20.885 psf; 1 kN/m³ = 6.366 pcf, NIST SP 811)', () => {
-    const a = site()
-    const b = site()
-    b.groundwater.waterTableDepth = 1.6
-    b.strata[1]!.unitWeight = 16.2
-    b.strata[1]!.trend = trend({ parameters: { pop: 25.9 } })
     // 1.57 m = 5.15 ft, 1.60 m = 5.25 ft; 16.0 kN/m³ = 101.9 pcf, 16.2 = 103.1 pcf; 26.7 kPa = 558 psf, 25.9 kPa = 541 psf.
-    expect(describeChanges(a, b, { units: 'US' })).toEqual([
+    expect(describeChanges(...smallEdits(), { units: 'US' })).toEqual([
       'water table 5.15 → 5.25 ft',
       'EST unit weight 101.9 → 103.1 pcf',
       'EST trend: constant POP 558 → 541 psf',
@@ -48,11 +52,11 @@ describe('describeChanges: two definitions in words', () => {
   })
 
   it('names a new model form, points taken out, compressibility and a kept problem trend', () => {
-    const a = site()
-    const b = site()
-    b.strata[1]!.trend = trend({ model: 'linear', parameters: { intercept: 12, gradient: 3.1 }, includedPointIds: ['a', 'b'], r2: 0.41, acceptedDespite: { problems: ['below-effective-stress'], reason: 'Underconsolidated under recent fill.' } })
-    b.strata[1]!.compressibility!.cc = 0.9
-    b.strata[1]!.compressibility!.drainage = 'top'
+    const [a, b] = edited((b) => {
+      b.strata[1]!.trend = trend({ model: 'linear', parameters: { intercept: 12, gradient: 3.1 }, includedPointIds: ['a', 'b'], r2: 0.41, acceptedDespite: { problems: ['below-effective-stress'], reason: 'Underconsolidated under recent fill.' } })
+      b.strata[1]!.compressibility!.cc = 0.9
+      b.strata[1]!.compressibility!.drainage = 'top'
+    })
     expect(describeChanges(a, b)).toEqual([
       'EST Cc 0.850 → 0.900',
       'EST drains through top and base → top only',
@@ -63,17 +67,15 @@ describe('describeChanges: two definitions in words', () => {
   })
 
   it('pairs strata by code: a band added on top is one change, not every band below', () => {
-    const a = site()
-    const b = site()
-    b.strata.unshift({ ...b.strata[0]!, code: 'FILL', name: 'New fill', thickness: 2 })
+    const [a, b] = edited(b => b.strata.unshift({ ...b.strata[0]!, code: 'FILL', name: 'New fill', thickness: 2 }))
     expect(describeChanges(a, b)).toEqual(['strata MG, EST → FILL, MG, EST', 'FILL added: 2.00 m thick'])
     expect(describeChanges(b, a)).toEqual(['strata FILL, MG, EST → MG, EST', 'FILL removed (was 2.00 m thick)'])
   })
 
   it('says when a trend is fitted, removed or drawn by hand', () => {
-    const a = site()
-    const b = site()
-    delete b.strata[1]!.trend
+    const [a, b] = edited((b) => {
+      delete b.strata[1]!.trend
+    })
     expect(describeChanges(a, b)).toEqual(['EST trend removed (was constant POP 26.7 kPa)'])
     expect(describeChanges(b, a)).toEqual(['EST trend: constant POP 26.7 kPa, new'])
     const c = site()
