@@ -1,6 +1,7 @@
 import { toAscii } from '../ags4/write'
 import { checkIntervals } from '../investigation/intervals'
 import { pointHeader } from '../investigation/point-header'
+import { sptFromStored, sptStored } from '../investigation/spt-blows'
 import type { GroundwaterRecord, LogIntervalRecord, PointRecord, SampleRecord, SptRecord, VaneRecord } from '../investigation/types'
 
 /**
@@ -143,6 +144,8 @@ export const NATURAL_KEYS = {
 }
 
 const sameSample = (a: SampleRecord, b: SampleRecord) => sameValue({ ...a, oedometer: null }, { ...b, oedometer: null })
+/** SPTs compared by their increments as stored, so a row kept as three counts per 150 mm equals the same test written as increments. */
+const sameSpt = (a: SptRecord, b: SptRecord) => sameValue(a.depth, b.depth, 'depth') && sameValue(sptStored(sptFromStored(a)), sptStored(sptFromStored(b)))
 const sameGroundwater = (a: GroundwaterRecord, b: GroundwaterRecord) => sameValue({ ...a, observedAt: minuteKey(a.observedAt) }, { ...b, observedAt: minuteKey(b.observedAt) })
 
 /** Matches rows by natural key (the first unmatched stored row with the file row's key). */
@@ -218,7 +221,7 @@ export function planHoleImport(incoming: readonly PointRecord[], existing: Reado
       header,
       intervals: diffRows(o.intervals, old.intervalIds, p.intervals, NATURAL_KEYS.interval, sameValue, remove),
       samples: samplesDiff,
-      spt: diffRows(o.spt, old.sptIds, p.spt, NATURAL_KEYS.spt, sameValue, remove),
+      spt: diffRows(o.spt, old.sptIds, p.spt, NATURAL_KEYS.spt, sameSpt, remove),
       groundwater: diffRows(o.groundwater, old.groundwaterIds, p.groundwater, NATURAL_KEYS.groundwater, sameGroundwater, remove),
       vane: diffRows(o.vane, old.vaneIds, p.vane, NATURAL_KEYS.vane, sameValue, remove),
       cpt,
