@@ -16,15 +16,9 @@ export const REPORT_KIND_LABELS: Record<IssuedReportKind, string> = {
 /** Where an issue stands: `issued` (stored), or for a long report made on the job queue `queued`, `running`, `failed`. */
 export const REPORT_STATUSES = ['queued', 'running', 'issued', 'failed'] as const
 export type ReportStatus = (typeof REPORT_STATUSES)[number]
-/** The steps of a report made on the job queue, in order. */
-export const REPORT_STAGES = ['gathering', 'drawing', 'writing', 'storing'] as const
-export type ReportStage = (typeof REPORT_STAGES)[number]
-export const REPORT_STAGE_LABELS: Record<ReportStage, string> = {
-  gathering: 'Gathering the data',
-  drawing: 'Drawing the plots',
-  writing: 'Writing the PDF',
-  storing: 'Storing the PDF',
-}
+/** The steps of a report made on the job queue, in order, with the words the Reports page shows for each. */
+export const REPORT_STAGE_LABELS = { gathering: 'Gathering the data', drawing: 'Drawing the plots', writing: 'Writing the PDF', storing: 'Storing the PDF' } as const
+export type ReportStage = keyof typeof REPORT_STAGE_LABELS
 
 export interface ServerIssuedReport {
   id: string
