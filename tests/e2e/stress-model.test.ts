@@ -219,7 +219,8 @@ describe('the stress workspace in Chromium', () => {
     expect(await page.getByTestId('start-draft').count()).toBe(1)
     expect(await page.getByTestId('export-json').getAttribute('href')).toBe(`/api/projects/${projectId}/models/${modelId}/versions/1/export`)
     await expect.poll(() => probeEffective(page), { timeout: 10_000 }).toBeCloseTo(before, 4)
-    await expect.poll(async () => Number(await page.getByTestId('point-layer').getAttribute('data-drawn')), { timeout: 15_000 }).toBeGreaterThan(400)
+    // The dense CPT rows of the clay strata and the tests (378 on the demo copy: no σ'p from CPT or vane in made ground and sand).
+    await expect.poll(async () => Number(await page.getByTestId('point-layer').getAttribute('data-drawn')), { timeout: 15_000 }).toBeGreaterThan(350)
     // Same points, same σ'v0: the saved fit is not stale.
     expect(await page.getByTestId('fit-stale').count()).toBe(0)
     await screenshot(page, 'stress-model-version-read-only')
