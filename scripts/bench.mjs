@@ -1,6 +1,7 @@
 // `npm run bench`: engine and API speed against bare baselines, measured in one
 // run on this machine, on a private benchmark database, then Lighthouse on three pages.
-// Writes docs/performance.md. `npm run bench -- --lighthouse` runs only the Lighthouse step.
+// Writes docs/performance.md. `npm run bench -- --lighthouse` runs only the Lighthouse step; `-- --reports` only
+// the report benchmarks (printed, not written).
 import { spawnSync } from 'node:child_process'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale } from './lib/build.mjs'
@@ -14,7 +15,7 @@ let store = null
 try {
   store = externalObjectStore() ? null : await startObjectStore({ projectRoot: root, name: `s3-bench-${process.pid}`, port: 0, fresh: true })
   buildIfStale(root)
-  status = spawnSync('npx', ['tsx', process.argv.includes('--lighthouse') ? 'tests/bench/lighthouse.ts' : 'tests/bench/run.ts'], { cwd: root, stdio: 'inherit', env: { ...process.env, ...store?.env, DATABASE_URL: cluster.url, NODE_ENV: 'production' } }).status ?? 1
+  status = spawnSync('npx', ['tsx', process.argv.includes('--lighthouse') ? 'tests/bench/lighthouse.ts' : process.argv.includes('--reports') ? 'tests/bench/reports-only.ts' : 'tests/bench/run.ts'], { cwd: root, stdio: 'inherit', env: { ...process.env, ...store?.env, DATABASE_URL: cluster.url, NODE_ENV: 'production' } }).status ?? 1
 }
 finally {
   store?.stop()
