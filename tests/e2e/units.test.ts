@@ -85,7 +85,7 @@ describe('US units on every converted page', () => {
       { name: 'plan', path: '/plan', ready: p => p.locator('[data-testid="plan-point"]').first().waitFor() },
       { name: 'tests', path: '/tests', ready: p => p.getByTestId('tests-table').waitFor() },
       { name: 'oedometer', path: `/tests/oedometer/${tests[0]!.id}`, ready: p => p.locator('[data-construction]').first().waitFor() },
-      { name: 'review', path: '/review', ready: p => p.locator('main').getByText(/Oedometer test .* ft/).first().waitFor() },
+      { name: 'review', path: '/review', ready: p => p.locator('main').getByText(/Oedometer test .* ft/).filter({ visible: true }).first().waitFor() },
       { name: 'reports', path: '/reports', ready: p => p.getByRole('heading', { name: 'Reports' }).waitFor() },
       { name: 'settlement', path: '/settlement', ready: p => p.getByRole('heading', { name: 'Settlement', exact: false }).first().waitFor() },
     ]
