@@ -1,10 +1,9 @@
 // Median latency of the compute API on loopback against the built server.
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { startServer } from '../helpers/server'
 import { runBrowserBench } from './browser.bench'
 import { runImportBench } from './import.bench'
 import { runLighthouseBench } from './lighthouse.bench'
-import { type ReportBenchRow, runModelReportBench, runPointLogHttpBench } from './reports.bench'
+import { type ReportBenchRow, runModelReportBench, runPointLogHttpBench, signInDemoDesigner } from './reports.bench'
 import { timeCalls } from './timing'
 
 /** A 10-layer profile whose compressible layers make 400 sublayers in all. */
@@ -43,10 +42,7 @@ export async function measureCalcSettlement(url: string, cookie: string, calls: 
 export async function runApiBench(calls = 300): Promise<{ median: number, p95: number, lean: { median: number, p95: number }, calls: number, import: Awaited<ReturnType<typeof runImportBench>>, browser: Awaited<ReturnType<typeof runBrowserBench>>, lighthouse: Awaited<ReturnType<typeof runLighthouseBench>>, reports: ReportBenchRow[] }> {
   const server = await startServer({ PASTLOAD_SEED: 'demo' })
   try {
-    const designer = DEMO_PEOPLE.find(p => p.role === 'designer')!
-    const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url }, body: JSON.stringify({ email: designer.email, password: DEMO_PASSWORD }) })
-    if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`)
-    const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    const cookie = await signInDemoDesigner(server.url)
     const full = await measureCalcSettlement(server.url, cookie, calls, true)
     const lean = await measureCalcSettlement(server.url, cookie, calls, false)
     const reports = [await runModelReportBench(server.url, cookie), await runPointLogHttpBench(server.url, cookie)]

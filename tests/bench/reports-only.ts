@@ -1,20 +1,15 @@
 // `npm run bench -- --reports`: the report benchmarks alone (the demo's model report and borehole log over
 // HTTP against the built server with the demo seeded, then the in-process log and sheet), printed as a table.
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { startServer } from '../helpers/server'
 import { runPointLogReportBench } from './point-log-report.bench'
-import { runModelReportBench, runPointLogHttpBench } from './reports.bench'
+import { runModelReportBench, runPointLogHttpBench, signInDemoDesigner } from './reports.bench'
 
 const fmt = (ms: number) => (ms < 10 ? ms.toFixed(2) : ms.toFixed(1))
 
 async function main() {
   const server = await startServer({ PASTLOAD_SEED: 'demo' })
   try {
-    const designer = DEMO_PEOPLE.find(p => p.role === 'designer')
-    if (!designer) throw new Error('the demo has no designer')
-    const login = await fetch(`${server.url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': server.url }, body: JSON.stringify({ email: designer.email, password: DEMO_PASSWORD }) })
-    if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`)
-    const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    const cookie = await signInDemoDesigner(server.url)
     const http = [await runModelReportBench(server.url, cookie), await runPointLogHttpBench(server.url, cookie)]
     const inProcess = await runPointLogReportBench()
     console.log([

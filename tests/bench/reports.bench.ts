@@ -1,4 +1,5 @@
 // Server time of the report PDFs on loopback against the built server with the demo seeded.
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { timeCalls } from './timing'
 
 export interface ReportBenchRow { name: string, pages: number, median: number, p95: number, calls: number, goalMs: number }
@@ -44,4 +45,13 @@ export async function runPointLogHttpBench(url: string, cookie: string, calls = 
     return { name: `GET …/points/{BH-01}/report.pdf?scale=50, the demo borehole (${m.pages} pages)`, ...m, calls, goalMs: 200 }
   }
   throw new Error('report bench: the demo point BH-01 was not found')
+}
+
+/** Signs the demo designer in on a bench server; the session cookie for the benchmark calls. */
+export async function signInDemoDesigner(url: string): Promise<string> {
+  const designer = DEMO_PEOPLE.find(p => p.role === 'designer')
+  if (!designer) throw new Error('the demo has no designer')
+  const login = await fetch(`${url}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': url }, body: JSON.stringify({ email: designer.email, password: DEMO_PASSWORD }) })
+  if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`)
+  return login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
 }
