@@ -1,4 +1,4 @@
-import { SiteModelDefinitionSchema, type SiteModelDefinition } from '#shared/site-model/definition'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { useModelEditorStore } from '~/stores/modelEditor'
 import type { WorkspaceEditor } from '~/composables/useTrendFits'
 import { diffDefinitions } from '#shared/site-model/diff'
@@ -37,8 +37,12 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
     ? { edit: store.edit, startGesture: store.startGesture, pendingExcluded: () => store.pendingExcluded, current: () => store.draft!, fitChoice: store.fitChoice, setFitChoice: store.setFitChoice }
     : null))
 
-  /** The draft checked against the schema the server validates with, before it is sent. */
-  function check(d: SiteModelDefinition): boolean {
+  /**
+   * The draft checked against the schema the server validates with, before it is sent. The schema (and zod)
+   * is loaded on the first save, not with the page.
+   */
+  async function check(d: SiteModelDefinition): Promise<boolean> {
+    const { SiteModelDefinitionSchema } = await import('#shared/site-model/definition')
     const parsed = SiteModelDefinitionSchema.safeParse(d)
     if (parsed.success) { issues.value = []; return true }
     issues.value = parsed.error.issues.map(i => ({ path: i.path.join('.'), message: i.message }))
@@ -58,7 +62,7 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
     const d = store.draft
     if (!d) return false
     write.clear()
-    if (!check(d)) return false
+    if (!(await check(d))) return false
     doing.value = 'draft'
     return write.run(async () => {
       const { model } = await api<{ model: SiteModelRow }>(`${base()}/draft`, { method: 'PUT', body: { draft: d, version: store.revision } })

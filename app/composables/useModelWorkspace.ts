@@ -1,6 +1,7 @@
 import type { ComputedRef, InjectionKey, Ref, ShallowRef } from 'vue'
 import type * as d3 from 'd3'
-import { type SiteModelDefinition, stratumBounds } from '#shared/site-model/definition'
+import { stratumBounds } from '#shared/site-model/definition-plain'
+import type { SiteModelDefinition } from '#shared/site-model/definition'
 import type { StratumRow } from '#shared/types/investigation'
 import type { DenseLayer } from '~/composables/usePreconsolidationPoints'
 import type { ReferenceHole, UnitWeightReading, WaterReading } from '#shared/investigation/reference'

@@ -1,5 +1,6 @@
 import { toRaw } from 'vue'
-import { trendFromFit, type SiteModelDefinition, type StratumTrend } from '#shared/site-model/definition'
+import { trendFromFit } from '#shared/site-model/definition-plain'
+import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { setTrend } from '~/utils/siteModelEdits'
 import {
   assignBands, fitInput, reviewerExcluded, sameIds, stressAt,

@@ -1,5 +1,5 @@
 import type { Compressibility, CompressibilityKey, DepthTrend, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
-import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition'
+import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition-plain'
 import { configure } from 'safe-stable-stringify'
 import { toRaw } from 'vue'
 

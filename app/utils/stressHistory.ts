@@ -3,7 +3,7 @@ import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/s
 import type { ProfilePoint } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { ModelStratum, SiteModelDefinition } from '#shared/site-model/definition'
-import { stratumBounds } from '#shared/site-model/definition'
+import { stratumBounds } from '#shared/site-model/definition-plain'
 import { trendPreconsolidation } from '#shared/site-model/convert'
 import { assignBands, sampleTrend, stressAt, type StressAt, type TrendSample } from '#shared/plots/stress-history'
 

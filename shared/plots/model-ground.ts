@@ -1,5 +1,6 @@
 import * as d3 from 'd3'
-import { type SiteModelDefinition, stratumBounds } from '../site-model/definition'
+import { stratumBounds } from '../site-model/definition-plain'
+import type { SiteModelDefinition } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
 import { conversionFactor, unitLabel, type UnitSystem } from '../units'
 import { px, svgEscape } from './axes'

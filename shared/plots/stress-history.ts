@@ -1,5 +1,6 @@
 import type { ProfilePoint } from '../types/calc'
-import { type SiteModelDefinition, stratumBounds } from '../site-model/definition'
+import { stratumBounds } from '../site-model/definition-plain'
+import type { SiteModelDefinition } from '../site-model/definition'
 import { trendPreconsolidation } from '../site-model/convert'
 
 /**

@@ -1,6 +1,7 @@
 import { convert, unitLabel, type ConvertOptions, type Quantity, type UnitSystem } from '../units/index'
 import { MODEL_NAMES } from '../geotech/trend-model'
-import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS, type Compressibility, type ModelStratum, type SiteModelDefinition, type StratumTrend, type TrendProblemCode } from './definition'
+import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS } from './definition-plain'
+import type { Compressibility, ModelStratum, SiteModelDefinition, StratumTrend, TrendProblemCode } from './definition'
 import { TREND_PARAMETERS } from './trend-words'
 
 /**

@@ -1,4 +1,5 @@
-import { COMPRESSIBILITY_KEYS, type Compressibility, type CompressibilityKey, type DepthTrend, depthTrendAt } from './definition'
+import { COMPRESSIBILITY_KEYS, depthTrendAt } from './definition-plain'
+import type { Compressibility, CompressibilityKey, DepthTrend } from './definition'
 
 /** What a stratum's adopted compressibility is made from: one interpreted oedometer test. */
 export interface TestCompressibility {

@@ -2,7 +2,8 @@ import { DEFAULT_MAX_SUBLAYER_THICKNESS, type PreconsolidationModel, type Settle
 import type { StressProfileInput } from '../geotech/stress'
 import { evaluateTrend, type TrendFit } from '../geotech/trend-model'
 import { compressibilityAt, hasDepthTrend } from './compressibility'
-import { depthTrendProblems, type ModelStratum, type SiteModelDefinition, stratumBounds } from './definition'
+import { depthTrendProblems, stratumBounds } from './definition-plain'
+import type { ModelStratum, SiteModelDefinition } from './definition'
 
 /**
  * From a site model to the engine's inputs. The stress-profile input is the

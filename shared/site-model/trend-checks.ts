@@ -1,7 +1,8 @@
 import { createStressEvaluator } from '../geotech/stress'
 import { asTrendFit, toStressInput } from './convert'
 import { evaluateTrend } from '../geotech/trend-model'
-import { stratumBounds, type ModelStratum, type SiteModelDefinition, type TrendProblemCode } from './definition'
+import { stratumBounds } from './definition-plain'
+import type { ModelStratum, SiteModelDefinition, TrendProblemCode } from './definition'
 
 /**
  * The checks that keep a fitted σ'p trend from misleading: R² below 0 (the trend

@@ -1,7 +1,7 @@
 // Pages and the built scripts go out compressed when the browser accepts it, and as they are when it
-// does not; the page's security headers and nonces are the same either way.
+// does not (JSON replies too); the page's security headers and nonces are the same either way.
 import { request } from 'node:http'
-import { brotliDecompressSync } from 'node:zlib'
+import { brotliDecompressSync, gunzipSync } from 'node:zlib'
 import { describe, expect, it } from 'vitest'
 import { baseUrl } from '../helpers/http'
 
@@ -49,5 +49,30 @@ describe('compressed pages and scripts', () => {
     expect(br.headers['content-encoding']).toBe('br')
     expect(br.body.length).toBeLessThan(plain.body.length / 2)
     expect(brotliDecompressSync(br.body).equals(plain.body)).toBe(true)
+  })
+})
+
+describe('compressed JSON replies', () => {
+  it('a large JSON reply is brotli-compressed for a browser that accepts it and reads back the same', async () => {
+    const plain = await rawGet('/api/openapi.json')
+    expect(plain.status).toBe(200)
+    expect(plain.headers['content-encoding']).toBeUndefined()
+    expect(String(plain.headers['content-type'])).toMatch(/^application\/json/)
+    const br = await rawGet('/api/openapi.json', 'gzip, deflate, br')
+    expect(br.headers['content-encoding']).toBe('br')
+    expect(String(br.headers['content-type'])).toMatch(/^application\/json/)
+    expect(String(br.headers.vary)).toMatch(/accept-encoding/i)
+    expect(br.body.length).toBeLessThan(plain.body.length / 3)
+    expect(JSON.parse(brotliDecompressSync(br.body).toString('utf8'))).toEqual(JSON.parse(plain.body.toString('utf8')))
+    const gz = await rawGet('/api/openapi.json', 'gzip')
+    expect(gz.headers['content-encoding']).toBe('gzip')
+    expect(JSON.parse(gunzipSync(gz.body).toString('utf8')).openapi).toMatch(/^3\.1/)
+  })
+
+  it('a small JSON reply goes out as it is', async () => {
+    const r = await rawGet('/api/health', 'gzip, br')
+    expect(r.status).toBe(200)
+    expect(r.headers['content-encoding']).toBeUndefined()
+    expect(JSON.parse(r.body.toString('utf8'))).toBeTypeOf('object')
   })
 })

@@ -3,7 +3,7 @@
 // stress-model page. The machine's 1-minute load average is read beside each run: the CPU-bound
 // figures (TBT above all) move with whatever else runs on the machine.
 import { spawn, type ChildProcess } from 'node:child_process'
-import { mkdtempSync, rmSync } from 'node:fs'
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { cpus, loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import lighthouse from 'lighthouse'
@@ -32,19 +32,22 @@ export const LIGHTHOUSE_GOALS: Record<string, { performance: number }> = {
 }
 
 /** Debian's Chromium with a DevTools port for Lighthouse; resolves once the port is known. */
-function startChromium(): Promise<{ port: number, stop: () => void }> {
+function startChromium(): Promise<{ port: number, stop: () => Promise<void> }> {
   const dir = mkdtempSync(join(tmpdir(), 'pastload-lighthouse-'))
   const child: ChildProcess = spawn(process.env.CHROME_PATH ?? '/usr/bin/chromium', [
     '--headless=new', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--no-first-run',
     '--disable-component-update', '--disable-sync', `--user-data-dir=${dir}`, '--remote-debugging-port=0', 'about:blank',
   ], { stdio: ['ignore', 'ignore', 'pipe'] })
-  const stop = () => {
+  const stop = async () => {
+    // Chromium writes its profile as it exits: the folder is removed once the process is gone.
+    const exited = new Promise<void>(resolve => child.exitCode !== null ? resolve() : child.once('exit', () => resolve()))
     child.kill('SIGTERM')
-    rmSync(dir, { recursive: true, force: true, maxRetries: 10 }) // Chromium may still be writing its profile as it exits
+    await Promise.race([exited, new Promise(resolve => setTimeout(resolve, 10_000))])
+    rmSync(dir, { recursive: true, force: true, maxRetries: 10 })
   }
   return new Promise((resolve, reject) => {
     let seen = ''
-    const timer = setTimeout(() => { stop(); reject(new Error('Chromium did not open a DevTools port')) }, 60_000)
+    const timer = setTimeout(() => { void stop(); reject(new Error('Chromium did not open a DevTools port')) }, 60_000)
     child.stderr!.on('data', (chunk: Buffer) => {
       seen += chunk.toString()
       const m = /DevTools listening on ws:\/\/[^:]+:(\d+)\//.exec(seen)
@@ -106,6 +109,12 @@ export async function runLighthouseBench(serverUrl: string): Promise<LighthouseR
       })
       const lhr = result?.lhr
       if (!lhr) throw new Error(`Lighthouse gave no result for ${p.page}`)
+      const keep = process.env.PASTLOAD_LIGHTHOUSE_REPORTS
+      if (keep) {
+        // The whole report of each page, to read which scripts and requests cost the time.
+        mkdirSync(keep, { recursive: true })
+        writeFileSync(join(keep, `${p.page.replace(/\W+/g, '-')}.json`), JSON.stringify(lhr))
+      }
       if (lhr.runtimeError) {
         // On a heavily loaded machine a run can time out; the row says so instead of stopping the bench.
         rows.push({ page: p.page, performance: Number.NaN, accessibility: Number.NaN, lcpMs: Number.NaN, tbtMs: Number.NaN, cls: Number.NaN, load, failed: [], error: lhr.runtimeError.code })
@@ -127,7 +136,7 @@ export async function runLighthouseBench(serverUrl: string): Promise<LighthouseR
     return rows
   }
   finally {
-    chromium.stop()
+    await chromium.stop()
   }
 }
 
