@@ -253,3 +253,22 @@ export function computeTreatedPoint(
     removal: withDrains.removal,
   }
 }
+
+/** One row of a run's construction schedule, for exports and reports (years, fraction 0–1). */
+export interface ScheduleRow {
+  load: string
+  stage: number
+  start: number
+  duration: number
+  fraction: number
+  /** When the load is taken off, years (on every row of a removed load). */
+  removeAt: number | null
+}
+
+/** The schedule of every load, a row per stage (the default stage for a load without one). */
+export function scheduleRows(loads: readonly RunLoad[]): ScheduleRow[] {
+  return loads.flatMap((l, i) => {
+    const stages = l.stages && l.stages.length > 0 ? l.stages : [{ start: 0, duration: 0, fraction: 1 }]
+    return stages.map((st, k) => ({ load: l.label || `Load ${i + 1}`, stage: k + 1, start: st.start, duration: st.duration, fraction: st.fraction, removeAt: l.removeAt ?? null }))
+  })
+}
