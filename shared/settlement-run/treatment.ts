@@ -150,7 +150,7 @@ function unitTime(r: StagedResult, unit: number, nu: number, fraction: number, a
   let lo = after
   let top = Math.max(hi, after * 2)
   for (let i = 0; i < 40 && at(top) < target; i++) top *= 2
-  for (let i = 0; i < 80 && top - lo > 1e-10 * top; i++) {
+  for (let i = 0; i < 36 && top - lo > 1e-10 * top; i++) {
     const mid = 0.5 * (lo + top)
     if (at(mid) >= target) top = mid
     else lo = mid
@@ -232,6 +232,7 @@ export function computeTreatedPoint(
     const k = profile.unitStratum[s.unit]!
     strata[k] = strata[k]! + withDrains.sublayerFinal[j]!
   })
+  const withoutDrains = without ? years.map(t => without.settlementAt(t)) : null
   const curve: RunTimeCurve = {
     years,
     primary,
@@ -239,14 +240,14 @@ export function computeTreatedPoint(
     total: primary.map((p, i) => p + secondary[i]!),
     layers: strataRows,
     surfaceLoad,
-    ...(without ? { withoutDrains: years.map(t => without.settlementAt(t)) } : {}),
+    ...(withoutDrains ? { withoutDrains } : {}),
   }
   return {
     settlement: final,
     strata,
-    t50: timeToFraction(withDrains, 0.5, years),
-    t90: timeToFraction(withDrains, 0.9, years),
-    ...(without ? { t50WithoutDrains: timeToFraction(without, 0.5, years), t90WithoutDrains: timeToFraction(without, 0.9, years) } : {}),
+    t50: timeToFraction(withDrains, 0.5, years, primary),
+    t90: timeToFraction(withDrains, 0.9, years, primary),
+    ...(without && withoutDrains ? { t50WithoutDrains: timeToFraction(without, 0.5, years, withoutDrains), t90WithoutDrains: timeToFraction(without, 0.9, years, withoutDrains) } : {}),
     time,
     secondary: secondaryAtLife,
     curve,
