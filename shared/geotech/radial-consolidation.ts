@@ -110,12 +110,17 @@ export function radialDegree(th: number, mu: number): number {
   return 1 - Math.exp((-8 * th) / mu)
 }
 
+function checkDegree(u: number, what: string): void {
+  if (!(u >= 0 && u <= 1)) {
+    requireFinite(u, 'degree-invalid', what)
+    throw new GeotechError('degree-out-of-range', `${what} is ${u}; it must be in [0, 1].`)
+  }
+}
+
 /** U = 1 − (1 − Uv)(1 − Ur) (Carrillo 1942). */
 export function combinedDegree(uv: number, ur: number): number {
-  for (const [u, what] of [[uv, 'The vertical degree Uv'], [ur, 'The radial degree Ur']] as const) {
-    requireFinite(u, 'degree-invalid', what)
-    if (u < 0 || u > 1) throw new GeotechError('degree-out-of-range', `${what} is ${u}; it must be in [0, 1].`)
-  }
+  checkDegree(uv, 'The vertical degree Uv')
+  checkDegree(ur, 'The radial degree Ur')
   return 1 - (1 - uv) * (1 - ur)
 }
 

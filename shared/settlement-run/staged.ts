@@ -301,18 +301,19 @@ export function computeStaged(input: StagedInput): StagedResult {
 
 /**
  * The first time (years) the settlement reaches `fraction` of the final primary, by a scan
- * over `grid` (increasing times) and bisection inside the bracketing step; null when it
+ * over `grid` (increasing times; `values`, when given, are the settlements there already
+ * computed) and bisection inside the bracketing step; null when it
  * never does within the grid or there is no settlement.
  */
-export function timeToFraction(r: StagedResult, fraction: number, grid: readonly number[]): number | null {
+export function timeToFraction(r: StagedResult, fraction: number, grid: readonly number[], values?: readonly number[]): number | null {
   if (!(r.final > 0)) return null
   const target = fraction * r.final
   let prev = 0
-  for (const t of grid) {
-    if (r.settlementAt(t) >= target) {
+  for (const [k, t] of grid.entries()) {
+    if ((values ? values[k]! : r.settlementAt(t)) >= target) {
       let lo = prev
       let hi = t
-      for (let i = 0; i < 80 && hi - lo > 1e-12 * Math.max(1, hi); i++) {
+      for (let i = 0; i < 36 && hi - lo > 1e-12 * Math.max(1, hi); i++) {
         const mid = 0.5 * (lo + hi)
         if (r.settlementAt(mid) >= target) hi = mid
         else lo = mid
