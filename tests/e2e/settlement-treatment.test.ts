@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import type { Page } from 'playwright-core'
+import type { Locator, Page } from 'playwright-core'
 import { drainSpacingFor } from '../../shared/geotech/radial-consolidation'
 import { formatSettlement, formatYears } from '../../shared/plots/settlement-units'
 import { RUN_DRAIN_DEFAULTS } from '../../shared/schemas/settlement-runs'
@@ -14,6 +14,11 @@ async function type(page: Page, testid: string, value: string) {
   const f = page.getByTestId(testid)
   await f.fill(value)
   await f.press('Enter')
+}
+
+/** The element's text with its white space folded. */
+async function words(l: Locator): Promise<string> {
+  return ((await l.textContent()) ?? '').replace(/\s+/g, ' ').trim()
 }
 
 describe('designing the treatment in Chromium: stages, a surcharge taken off and vertical drains', () => {
@@ -49,7 +54,7 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     await page.getByTestId('load-row-0').waitFor()
     await page.getByTestId('load-label-0').fill('Embankment')
     await type(page, 'load-0-height', '4.5')
-    expect(await page.getByTestId('load-0-schedule-summary').textContent()).toBe('The whole load at once, at time zero.')
+    expect(await words(page.getByTestId('load-0-schedule-summary'))).toBe('The whole load at once, at time zero.')
     await page.getByTestId('load-0-add-stage').click()
     await page.getByTestId('load-0-stage-1').waitFor()
     await type(page, 'load-0-stage-0-duration', '2')
@@ -57,9 +62,9 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     await type(page, 'load-0-stage-1-duration', '2')
     // The live check of the shares: 50 % + 40 % is not the whole load; back to 50 % it is.
     const total = page.getByTestId('load-0-stages-total')
-    await expect.poll(() => total.textContent()).toBe('Stages add up to 100 %.')
+    await expect.poll(() => words(total)).toBe('Stages add up to 100 %.')
     await type(page, 'load-0-stage-1-fraction', '40')
-    await expect.poll(() => total.textContent()).toBe('Stages add up to 90 %: they must add up to 100 %.')
+    await expect.poll(() => words(total)).toBe('Stages add up to 90 %: they must add up to 100 %.')
     expect(await total.getAttribute('data-complete')).toBe('no')
     await type(page, 'load-0-stage-1-fraction', '50')
     await expect.poll(() => total.getAttribute('data-complete')).toBe('yes')
@@ -117,12 +122,12 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     const { run } = await must('reading the results', designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${runId}`))
     const centre = run.results!.points[0]!
     expect(centre.t90WithoutDrains).toBeGreaterThan(centre.t90!)
-    expect(await page.getByTestId('headline-t90').textContent()).toBe(formatYears(centre.t90))
+    expect(await words(page.getByTestId('headline-t90'))).toBe(formatYears(centre.t90))
     expect(await page.getByTestId('headline-t90-undrained').textContent()).toContain(`Without drains: ${formatYears(centre.t90WithoutDrains)}`)
     // Without drains the estuarine clay takes decades to reach 90 %; the drains bring it within a few years.
     expect(centre.t90WithoutDrains!).toBeGreaterThan(10)
     expect(centre.t90!).toBeLessThan(5)
-    const residual = (await page.getByTestId('headline-residual').textContent())!.replace(/\s+/g, ' ').trim()
+    const residual = await words(page.getByTestId('headline-residual'))
     expect(residual).toBe(`After removal at 9.0 months, ${formatSettlement(centre.residualAfterRemoval, 'SI')} of primary settlement remain under the permanent load (Centre).`)
     expect(centre.residualAfterRemoval!).toBeGreaterThan(0)
     expect(await page.getByTestId('headline-rebound').textContent()).toContain(formatSettlement(centre.rebound, 'SI'))
@@ -139,7 +144,7 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     expect(await curve.getByTestId('time-removal').textContent()).toContain('Taken off at 9.0 months')
 
     // The run says how it was built and drained.
-    expect((await page.getByTestId('run-schedule').textContent())!.replace(/\s+/g, ' ')).toContain('Surcharge (embankment): 100 % over 1.0 months from 6.0 months; taken off at 9.0 months.')
+    expect(await words(page.getByTestId('run-schedule'))).toContain('Surcharge (embankment): 100 % over 1.0 months from 6.0 months; taken off at 9.0 months.')
     expect(await page.getByTestId('run-drain-strata').locator('tbody tr').count()).toBe(1)
     await screenshotLaptopAndPhone(page, 'settlement-treatment-run')
 
@@ -154,7 +159,7 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     expect(expected).toBeLessThan(1.5)
     const found = page.getByTestId('aid-triangular-spacing')
     await expect.poll(() => found.getAttribute('data-value')).toBe(String(expected))
-    expect(await found.textContent()).toBe(`${expected.toFixed(2)} m`)
+    expect(await words(found)).toBe(`${expected.toFixed(2)} m`)
     await page.getByTestId('aid-triangular-use').click()
 
     // "Run again with changes" with that spacing: the editor has the run's inputs and the drains at the spacing found.
