@@ -17,7 +17,14 @@ export interface TimeSeries {
   point: Pick<RunPointResult, 'label' | 'curve' | 'time' | 't50' | 't90'> & Partial<Pick<RunPointResult, 't90WithoutDrains' | 'removedAt' | 'rebound'>>
 }
 export interface TimeLine { key: string, label: string, colour: string, width: number, dash?: string, d: string }
-export interface TimeMark { key: string, at: number, row: number, label: string }
+export interface TimeMark {
+  key: string
+  at: number
+  row: number
+  label: string
+  /** 'end': the label sits left of the line (it would run past the plot's right edge). */
+  anchor?: 'start' | 'end'
+}
 
 /** The load at the ground surface against the same time axis, in a band above the settlement axes. */
 export interface TimeLoadBand {
@@ -94,15 +101,23 @@ function loadHistory(series: TimeSeries[]): { years: number[], load: number[] } 
   return hi > 0 && (hi - lo > 1e-9 * hi || series[0]?.point.removedAt !== undefined) ? { years: c.years, load } : null
 }
 
-/** Rows for the marks' labels so that neighbours do not overlap (about 5.5 px a character at 10 px). */
-function markRows<T extends { at: number, label: string }>(marks: T[]): (T & { row: number })[] {
+/**
+ * Rows for the marks' labels so that neighbours do not overlap (about 5.5 px a character at 10 px); a
+ * label that would run past `right` sits left of its line.
+ */
+function markRows<T extends { at: number, label: string }>(marks: T[], right: number): (T & { row: number, anchor: 'start' | 'end' })[] {
+  const placed = marks.map((m) => {
+    const w = 3 + m.label.length * 5.5
+    const anchor: 'start' | 'end' = m.at + w > right ? 'end' : 'start'
+    return { m, anchor, x0: anchor === 'start' ? m.at : m.at - w, x1: anchor === 'start' ? m.at + w : m.at }
+  }).sort((a, b) => a.x0 - b.x0)
   const ends: number[] = []
-  return [...marks].sort((a, b) => a.at - b.at).map((m) => {
-    let row = ends.findIndex(end => m.at > end + 4)
+  return placed.map(({ m, anchor, x0, x1 }) => {
+    let row = ends.findIndex(end => x0 > end + 4)
     if (row < 0) row = ends.length
-    ends[row] = m.at + 3 + m.label.length * 5.5
-    return { ...m, row }
-  })
+    ends[row] = x1
+    return { ...m, row, anchor }
+  }).sort((a, b) => a.at - b.at)
 }
 
 export function settlementTimeScene(input: { series: TimeSeries[], years: number[], unitSystem: UnitSystem, width: number, height?: number, usStress?: UsStressUnit }): TimePlotScene {
@@ -152,7 +167,7 @@ export function settlementTimeScene(input: { series: TimeSeries[], years: number
     ...(single && s.point.removedAt !== undefined ? [{ key: `${si}-off`, t: s.point.removedAt, row: si, label: 'taken off' }] : []),
   ]).filter(m => m.t >= domainX[0] && m.t <= domainX[1]).map(m => ({ key: m.key, at: x(m.t), row: m.row, label: m.label }))
   // One series: rows so that close marks (t90 just after a removal, say) do not overlap; several: a row per series.
-  const marks = single ? markRows(marked) : marked
+  const marks: TimeMark[] = single ? markRows(marked, width - M.right) : marked
 
   let load: TimeLoadBand | null = null
   if (history) {
@@ -214,7 +229,8 @@ export function settlementTimeSvg(s: TimePlotScene, opts: { legend?: boolean } =
   parts.push(text(0, 0, s.yLabel, { 'transform': `translate(12,${(top + s.height - M.bottom) / 2}) rotate(-90)`, 'text-anchor': 'middle', 'font-size': 11, 'font-weight': 'bold', 'fill': '#48423a' }))
   for (const m of s.marks) {
     parts.push(el('line', { x1: m.at, x2: m.at, y1: M.top, y2: s.height - M.bottom, 'stroke': '#dc9c38', 'stroke-dasharray': '3 3' }))
-    parts.push(text(m.at + 3, top + 10 + m.row * 12, m.label, { 'font-size': 10, 'font-weight': 'bold', 'fill': '#8a481a' }))
+    const end = m.anchor === 'end'
+    parts.push(text(end ? m.at - 3 : m.at + 3, top + 10 + m.row * 12, m.label, { 'font-size': 10, 'font-weight': 'bold', 'fill': '#8a481a', 'text-anchor': end ? 'end' : undefined }))
   }
   for (const l of s.lines) parts.push(el('path', { 'd': l.d, 'fill': 'none', 'stroke': l.colour, 'stroke-width': l.width, 'stroke-dasharray': l.dash }))
   let height = s.height

@@ -32,7 +32,7 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     const engineer = await signIn(demoEmail('engineer'))
     const reviewer = await signIn(demoEmail('reviewer'))
     designer = await signIn(demoEmail('designer'))
-    const project = await createProject(owner, 'E2E-TREAT', 'Staged embankment with drains (browser)', ['engineer', 'reviewer', 'designer'])
+    const project = await createProject(owner, 'E2E-TREAT', 'Staged yard (browser)', ['engineer', 'reviewer', 'designer'])
     projectId = project.id
     const model = await createRunModel(engineer, projectId, undefined, 'Yard model')
     const members = await must('members', owner.get<{ members: { userId: string, role: string }[] }>(`${project.base}/members`))

@@ -191,6 +191,11 @@ describe('the time plot of a treated run', () => {
     const t90 = s.marks.find(m => m.label === 't90 with drains')!
     expect(off.row).not.toBe(t90.row)
     expect(settlementTimeSvg(s, { legend: true })).toContain('Load (kPa)')
+    // On a phone's width the last label would run past the right edge: it sits left of its line.
+    const narrow = settlementTimeScene({ series: [{ name: 'r', point }], years: [1], unitSystem: 'SI', width: 330 })
+    const last = narrow.marks.find(m => m.label === 't90 without drains')!
+    expect(last.anchor).toBe('end')
+    expect(last.at + 3 + last.label.length * 5.5).toBeGreaterThan(330 - narrow.margin.right)
     // In US units with tsf the band reads tsf (1 tsf = 2000 lbf/ft²).
     expect(settlementTimeScene({ series: [{ name: 'r', point }], years: [1], unitSystem: 'US', width: 600, usStress: 'tsf' }).load!.label).toBe('Load (tsf)')
   })
