@@ -162,8 +162,8 @@ export function settlementTimeScene(input: { series: TimeSeries[], years: number
   const drained = single && !!input.series[0]?.point.curve?.withoutDrains?.length
   const marked = input.series.flatMap((s, si) => [
     ...(s.point.t50 !== null ? [{ key: `${si}-t50`, t: s.point.t50, row: si, label: single ? 't50' : `t50 ${s.name}` }] : []),
-    ...(s.point.t90 !== null ? [{ key: `${si}-t90`, t: s.point.t90, row: si, label: single ? (drained ? 't90 with drains' : 't90') : `t90 ${s.name}` }] : []),
-    ...(drained && s.point.t90WithoutDrains != null ? [{ key: `${si}-t90n`, t: s.point.t90WithoutDrains, row: si, label: 't90 without drains' }] : []),
+    ...(s.point.t90 !== null ? [{ key: `${si}-t90`, t: s.point.t90, row: si, label: single ? 't90' : `t90 ${s.name}` }] : []),
+    ...(drained && s.point.t90WithoutDrains != null ? [{ key: `${si}-t90n`, t: s.point.t90WithoutDrains, row: si, label: 't90 no drains' }] : []),
     ...(single && s.point.removedAt !== undefined ? [{ key: `${si}-off`, t: s.point.removedAt, row: si, label: 'taken off' }] : []),
   ]).filter(m => m.t >= domainX[0] && m.t <= domainX[1]).map(m => ({ key: m.key, at: x(m.t), row: m.row, label: m.label }))
   // One series: rows so that close marks (t90 just after a removal, say) do not overlap; several: a row per series.

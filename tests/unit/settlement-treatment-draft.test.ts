@@ -185,15 +185,15 @@ describe('the time plot of a treated run', () => {
     expect(s.plotTop).toBeGreaterThan(s.load!.bottom)
     expect(s.yTicks[0]!.at).toBe(s.plotTop)
     expect(s.lines.map(l => l.label)).toEqual(['total, with drains', 'primary, without drains', 'primary'])
-    expect(s.marks.map(m => m.label)).toEqual(['t50', 'taken off', 't90 with drains', 't90 without drains'])
+    expect(s.marks.map(m => m.label)).toEqual(['t50', 'taken off', 't90', 't90 no drains'])
     // "taken off" at 0.75 yr and t90 at 0.9 yr are close on a log axis: their labels go on different rows.
     const off = s.marks.find(m => m.label === 'taken off')!
-    const t90 = s.marks.find(m => m.label === 't90 with drains')!
+    const t90 = s.marks.find(m => m.label === 't90')!
     expect(off.row).not.toBe(t90.row)
     expect(settlementTimeSvg(s, { legend: true })).toContain('Load (kPa)')
     // On a phone's width the last label would run past the right edge: it sits left of its line.
     const narrow = settlementTimeScene({ series: [{ name: 'r', point }], years: [1], unitSystem: 'SI', width: 330 })
-    const last = narrow.marks.find(m => m.label === 't90 without drains')!
+    const last = narrow.marks.find(m => m.label === 't90 no drains')!
     expect(last.anchor).toBe('end')
     expect(last.at + 3 + last.label.length * 5.5).toBeGreaterThan(330 - narrow.margin.right)
     // In US units with tsf the band reads tsf (1 tsf = 2000 lbf/ft²).
