@@ -78,7 +78,8 @@ export const RUN_OPTION_DEFAULTS = {
  */
 export const RUN_DRAIN_DEFAULTS = {
   pattern: 'triangular' as const,
-  diameter: (0.1 + 0.004) / 2,
+  /** (a + b)/2 = (0.100 + 0.004)/2 m. */
+  diameter: 0.052,
   smearRatio: 3,
   permeabilityRatio: 3,
   chRatio: 1,
