@@ -180,7 +180,8 @@ function checkTreatment(input: RunComputeInput, inVersion: string): RunInputProb
   }
   if (isTreated(input.loads, drains)) {
     for (const s of def.strata) {
-      if (s.compressible && s.compressibility && (s.compressibility.cv === undefined || s.compressibility.cv === null)) {
+      const c = s.compressibility
+      if (s.compressible && c && (c.cv === undefined || c.cv === null) && !c.trends?.cv) {
         return { code: 'cv-missing', message: `Stratum ${s.code} (${s.name}) has no cv ${inVersion}: a construction schedule, a removal or drains need the time rate of every compressible stratum.`, path: ['model'] }
       }
     }

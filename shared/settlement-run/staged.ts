@@ -118,10 +118,22 @@ export function stressForVoidRatioChange(cc: number, cr: number, s0: number, sp:
   return cc > 0 ? p * 10 ** ((de - toP) / cc) : p
 }
 
+/**
+ * Below this Tv the short-time form U = √(4Tv/π) equals Terzaghi's series to within about
+ * exp(−1/Tv) ≈ 1e-14 (Terzaghi 1925; the series' first correction term is of that order), and
+ * costs one square root instead of the dozens of series terms a small Tv needs.
+ */
+const SHORT_TIME_TV = 0.03
+
+/** Terzaghi's U(Tv), the short-time form for small Tv (see SHORT_TIME_TV). */
+function verticalDegree(tv: number): number {
+  return tv <= SHORT_TIME_TV ? Math.sqrt((4 * tv) / Math.PI) : degreeOfConsolidation(tv)
+}
+
 /** Average degree of a unit Δt after an increment: Terzaghi (1925), with drains combined with Hansbo (1981) by Carrillo (1942). */
 export function unitDegree(unit: StagedUnit, dt: number, useDrains = true): number {
   if (!(dt > 0)) return 0
-  const uv = degreeOfConsolidation((unit.cv * dt) / (unit.hdr * unit.hdr))
+  const uv = verticalDegree((unit.cv * dt) / (unit.hdr * unit.hdr))
   if (!useDrains || !unit.drains) return uv
   const d = unit.drains
   const ur = radialDegree((d.ch * dt) / (d.influenceDiameter * d.influenceDiameter), d.mu)

@@ -4,8 +4,8 @@
 import * as XLSX from 'xlsx-republish'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { RUN_DRAIN_DEFAULTS } from '../../shared/schemas/settlement-runs'
-import type { RunDrainDesign, RunPointDetail, SettlementRun } from '../../shared/types/settlement-runs'
-import { signedInDemo } from '../helpers/http'
+import type { RunDrainDesign, RunPointDetail, SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
+import { demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { createRunModel } from '../helpers/settlement-run'
 
@@ -120,5 +120,30 @@ describe('settlement runs with stages, a surcharge and drains', () => {
     expect((await post(treatedBody(model, { drains: { ...drains, pattern: 'hexagonal' } }))).status).toBe(400)
     expect((await post(treatedBody(model, { drains: { ...drains, strata: [] } }))).status).toBe(400)
     expect((await post(treatedBody(model, { drains: { ...drains, spacing: 50 } }))).status).toBe(400)
+  })
+})
+
+describe('the demo\'s treated run', () => {
+  const { designer } = signedInDemo('designer')
+
+  it('is seeded finished on the approved Yard model version 1: two lifts, a 1.5 m surcharge off at 9 months, 1.5 m triangular drains through the estuarine clay', async () => {
+    const projectId = await demoProjectId(designer)
+    const list = await must('list', designer.get<SettlementRunList>(`/api/projects/${projectId}/settlement-runs`))
+    const seeded = list.runs.find(r => r.name === 'Yard embankment in two lifts, surcharge and drains')
+    expect(seeded?.status).toBe('finished')
+    const { run } = await must('run', designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${seeded!.id}`))
+    expect(run.model).toMatchObject({ modelName: 'Yard model', version: 1, status: 'approved' })
+    expect(run.loads.map(l => l.label)).toEqual(['Yard embankment, two lifts', 'Surcharge'])
+    expect(run.loads[0]).toMatchObject({ height: 6, crestWidth: 96, crestLength: 56, stages: [{ start: 0, duration: 0.1, fraction: 0.5 }, { start: 0.25, duration: 0.1, fraction: 0.5 }] })
+    // The surcharge sits on the crest (96 m × 56 m) with 2:1 slopes: its crest is 6 m narrower each way.
+    expect(run.loads[1]).toMatchObject({ height: 1.5, crestWidth: 90, crestLength: 50, removeAt: 0.75 })
+    expect(run.options.drains).toMatchObject({ strata: ['EST'], pattern: 'triangular', spacing: 1.5 })
+    expect(run.grid).toBeNull()
+    const centre = run.results!.points[0]!
+    expect(centre.label).toBe('Yard centre')
+    expect(centre.t90!).toBeLessThan(centre.t90WithoutDrains!)
+    expect(centre.removedAt).toBe(0.75)
+    expect(centre.residualAfterRemoval).toBeGreaterThan(0)
+    expect(run.results!.drains!.strata.map(s => s.name)).toEqual(['Estuarine clay'])
   })
 })

@@ -101,3 +101,15 @@ describe('checkRunInput: schedules and drains', () => {
     expect(problem([{ ...embankment, stages: [{ start: 0, duration: 0.1, fraction: 0.5 }, { start: 0.25, duration: 0.1, fraction: 0.5 }], removeAt: 2 }], { drains })).toBeNull()
   })
 })
+
+describe('checkRunInput: a treated run needs the time rate', () => {
+  it('refuses a schedule on a version whose compressible stratum has no cv, and accepts the same run without one', () => {
+    const def = scenarioDefinition()
+    delete def.strata.find(s => s.code === 'GLA')!.compressibility!.cv
+    const loads: RunLoad[] = [{ ...embankment, stages: [{ start: 0, duration: 0.2, fraction: 1 }] }]
+    const p = checkRunInput({ ...run(loads), definition: def })
+    expect(p).toMatchObject({ code: 'cv-missing', path: ['model'] })
+    expect(p!.message).toMatch(/^Stratum GLA \(Older glacial clay\) has no cv in this version: /)
+    expect(checkRunInput({ ...run([embankment]), definition: def })).toBeNull()
+  })
+})
