@@ -1,8 +1,8 @@
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, toRaw } from 'vue'
 import {
-  draftFromRun, emptyDraft, loadFromBox, newLoad, nextLabel, round,
-  type DraftLoad, type DraftLoadType, type DraftPoint, type RunInputs, type SettlementDraft,
+  draftFromRun, emptyDraft, loadFromBox, newLoad, nextLabel, normalizeDraft, round,
+  type DraftDrains, type DraftLoad, type DraftLoadType, type DraftPoint, type RunInputs, type SettlementDraft,
 } from '#shared/settlement-run/draft'
 import { RUN_LIMITS, type RunOptions } from '#shared/schemas/settlement-runs'
 import { useUndoHistory } from '../composables/useUndoHistory'
@@ -116,7 +116,7 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
     const stored = readStored(id)
     if (stored && (wanted === null || stored.fromRunId === wanted)) {
       fromRunId.value = stored.fromRunId
-      draft.value = { ...emptyDraft(), ...stored.draft }
+      draft.value = normalizeDraft(stored.draft)
       restored.value = true
       return true
     }
@@ -297,8 +297,14 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
     }))
   }
 
-  function setOptions(patch: Partial<RunOptions>) {
+  function setOptions(patch: Partial<Omit<RunOptions, 'drains'>>) {
     edit('Edit the options', d => ({ ...d, options: { ...d.options, ...patch } }))
+  }
+
+  /** Changes the drains (SI); switching them on or off is its own step, keeping the values typed. */
+  function setDrains(patch: Partial<DraftDrains>, opts: DraftEditOptions & { label?: string } = {}): boolean {
+    const label = opts.label ?? (patch.on === undefined ? 'Edit the drains' : patch.on ? 'Add vertical drains' : 'Leave out the drains')
+    return edit(label, d => ({ ...d, drains: { ...d.drains, ...patch, strata: [...(patch.strata ?? d.drains.strata)] } }), opts)
   }
 
   function select(kind: 'load' | 'point', id: string | null) {
@@ -311,6 +317,6 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
     open, copyRun, reset, forget, edit, undo, redo, startGesture,
     addLoad, addLoadBox, updateLoad, moveLoad, removeLoad,
     addPoint, addInvestigationPoint, updatePoint, removePoint,
-    setName, setModel, defaultModel, setGrid, setOptions, select,
+    setName, setModel, defaultModel, setGrid, setOptions, setDrains, select,
   }
 })

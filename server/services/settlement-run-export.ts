@@ -1,13 +1,16 @@
 import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
+import { isTreated, scheduleRows } from '#shared/settlement-run/treatment'
 import type { RunPointDetail, RunResults, ServerSettlementRun } from '#shared/types/settlement-runs'
 import { contentDisposition } from './attachments'
 import { settlementRunForExport } from './settlement-runs'
 
 /**
- * A finished settlement run as a workbook (sheets Inputs, Points, Sublayers, Time curves, Grid;
- * SI units, the caution on the first sheet) or as JSON (the run as `GET …/{runId}` answers it,
- * with the caution and every point's sublayer table). A run not yet finished is 409.
+ * A finished settlement run as a workbook (sheets Inputs, Points, Sublayers, Time curves, Grid,
+ * and Treatment when the run has a construction schedule, a removal or drains; SI units, the
+ * caution on the first sheet) or as JSON (the run as `GET …/{runId}` answers it, with the caution,
+ * every point's sublayer table and `treatment`: the schedule rows and the drain design). A run
+ * not yet finished is 409.
  */
 
 export interface RunExportFile {
@@ -30,6 +33,42 @@ function describeLoad(l: ServerSettlementRun['loads'][number]): string {
     case 'circle': return `circle at (${l.x}, ${l.y}) m, radius ${l.radius} m, ${p}`
     case 'embankment': return `embankment at (${l.x}, ${l.y}) m, crest ${l.crestWidth} m × ${l.crestLength} m, ${l.height} m high, side slope ${l.sideSlope}:1, γ ${l.unitWeight} kN/m³, rotated ${l.rotation}°`
   }
+}
+
+/** The Treatment sheet: the construction schedule, the drain design and each point's figures. */
+function treatmentSheet(run: ServerSettlementRun & { results: RunResults }): (string | number | null)[][] {
+  const r = run.results
+  const rows: (string | number | null)[][] = [
+    ['Construction schedule (years from time zero; fraction of the load)'],
+    ['Load', 'Stage', 'Start (years)', 'Duration (years)', 'Fraction', 'Removed at (years)'],
+    ...scheduleRows(run.loads).map(s => [s.load, s.stage, s.start, s.duration, s.fraction, s.removeAt]),
+    [],
+  ]
+  const d = run.options.drains
+  const design = r.drains
+  if (d && design) {
+    rows.push(
+      ['Vertical drains'],
+      ['Strata', d.strata.join(', ')],
+      ['Pattern', d.pattern],
+      ['Spacing (m)', d.spacing],
+      ['Equivalent diameter dw (m)', d.diameter],
+      ['Influence diameter De (m)', design.influenceDiameter],
+      ['Smear ratio ds/dw', d.smearRatio],
+      ['Permeability ratio kh/ks', d.permeabilityRatio],
+      ['ch/cv', d.chRatio],
+      ['Discharge capacity qw (m³/yr)', d.dischargeCapacity ?? 'not given (no well resistance)'],
+      ['μ (Hansbo)', design.mu],
+      ['Stratum', 'cv (m²/yr)', 'ch (m²/yr)', 'Vertical drainage path (m)'],
+      ...design.strata.map(s => [s.name, s.cv, s.ch, s.drainagePath]),
+      [],
+    )
+  }
+  rows.push(
+    ['Point', 't50 (years)', 't90 (years)', 't50 without drains (years)', 't90 without drains (years)', 'Removed at (years)', 'Rebound (m)', 'Primary settlement after removal (m)'],
+    ...r.points.map(p => [p.label, p.t50, p.t90, p.t50WithoutDrains ?? null, p.t90WithoutDrains ?? null, p.removedAt ?? null, p.rebound ?? null, p.residualAfterRemoval ?? null]),
+  )
+  return rows
 }
 
 export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, details: RunPointDetail[]): Buffer {
@@ -69,10 +108,11 @@ export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, 
     ...details.flatMap(d => d.sublayers.map(s => [d.label, s.layer, s.top, s.bottom, s.depth, s.thickness, s.effectiveStress, s.stressIncrease, s.finalEffectiveStress, s.preconsolidation, s.finalPreconsolidation, s.case, s.voidRatioChange, s.strain, s.compression])),
   ]), 'Sublayers')
 
-  const curves: (string | number | null)[][] = [['Point', 'Time (years)', 'Primary (m)', 'Secondary (m)', 'Total (m)']]
+  const treated = results.points.some(p => p.curve?.surfaceLoad)
+  const curves: (string | number | null)[][] = [['Point', 'Time (years)', 'Primary (m)', 'Secondary (m)', 'Total (m)', ...(treated ? ['Primary without drains (m)', 'Δσ at surface (kPa)'] : [])]]
   for (const p of results.points) {
     const c = p.curve
-    if (c) c.years.forEach((t, i) => curves.push([p.label, t, c.primary[i] ?? null, c.secondary[i] ?? null, c.total[i] ?? null]))
+    if (c) c.years.forEach((t, i) => curves.push([p.label, t, c.primary[i] ?? null, c.secondary[i] ?? null, c.total[i] ?? null, ...(treated ? [c.withoutDrains?.[i] ?? null, c.surfaceLoad?.[i] ?? null] : [])]))
     else p.time.forEach(t => curves.push([p.label, t.years, t.settlement, null, null]))
   }
   XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(curves), 'Time curves')
@@ -91,6 +131,7 @@ export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, 
       ]
     : [['No grid in this run.']]
   XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(grid), 'Grid')
+  if (isTreated(run.loads, run.options.drains)) XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(treatmentSheet(run)), 'Treatment')
   return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
 }
 
@@ -102,7 +143,12 @@ export async function exportSettlementRun(projectId: string, runId: string, form
   }
   if (format === 'json') {
     return {
-      body: JSON.stringify({ caution: RESULT_CAUTION, run, points: details }, null, 2),
+      body: JSON.stringify({
+        caution: RESULT_CAUTION,
+        run,
+        points: details,
+        ...(isTreated(run.loads, run.options.drains) ? { treatment: { schedule: scheduleRows(run.loads), drains: results.drains ?? null } } : {}),
+      }, null, 2),
       contentType: 'application/json; charset=utf-8',
       disposition: contentDisposition('attachment', runFileName(run.name, 'json')),
     }

@@ -2,6 +2,7 @@ import { and, count, desc, eq, sql } from 'drizzle-orm'
 import { buildStressModel, createStressEvaluator } from '#shared/geotech/stress'
 import type { CreateSettlementRun } from '#shared/schemas/settlement-runs'
 import { checkRunInput, gridAxes, resolveLoads, type RunComputeInput } from '#shared/settlement-run/compute'
+import { isTreated } from '#shared/settlement-run/treatment'
 import { ModelIncompleteError, toSettlementLayers, toStressInput } from '#shared/site-model/convert'
 import type { RunPointDetail, ServerRunModel, ServerSettlementRun, ServerSettlementRunList, ServerSettlementRunSummary } from '#shared/types/settlement-runs'
 import { useDb } from '~~/server/db/client'
@@ -24,6 +25,8 @@ type RunRow = typeof settlementRuns.$inferSelect
 
 /** Runs up to this many estimated sublayer evaluations (points × sublayers, no grid) are computed in the request. */
 export const INLINE_SUBLAYER_LIMIT = 2500
+/** A named point of a treated run counts as this many plain ones against that limit. */
+export const TREATED_POINT_WEIGHT = 4
 
 /** Hands a run to the job queue; set by the job service when it starts (else runs are computed inline). */
 let enqueue: ((runId: string) => Promise<void>) | null = null
@@ -101,7 +104,9 @@ export async function createSettlementRun(projectId: string, userId: string, bod
     await publishLiveEvent({ type: 'run.changed', projectId, entityId: r.id }, tx)
     return r
   })
-  const small = !input.grid && input.points.length * estimatedSublayers(input) <= INLINE_SUBLAYER_LIMIT
+  // A treated point (schedule, removal, drains) costs several plain ones: its time rate is a superposition.
+  const weight = isTreated(input.loads, input.options.drains) ? TREATED_POINT_WEIGHT : 1
+  const small = !input.grid && weight * input.points.length * estimatedSublayers(input) <= INLINE_SUBLAYER_LIMIT
   if (small || !enqueue) {
     const status = await executeRun(row.id)
     return { run: { id: row.id, status: status ?? 'queued' } }

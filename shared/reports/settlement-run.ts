@@ -5,6 +5,7 @@ import { settlementDepthScene, settlementDepthSvg } from '../plots/settlement-de
 import { settlementTimeScene, settlementTimeSvg } from '../plots/settlement-time'
 import { formatDistortion, formatSettlement, formatYears, settlementUnitLabel } from '../plots/settlement-units'
 import type { RunLoad } from '../schemas/settlement-runs'
+import { isTreated, scheduleRows } from '../settlement-run/treatment'
 import type { RunPointDetail, RunResults, ServerSettlementRun } from '../types/settlement-runs'
 import { convert, unitLabel, type Quantity, type UnitSystem } from '../units'
 import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
@@ -107,6 +108,57 @@ function inputs(inp: SettlementRunReportInput): Content[] {
       layout: TABLE_LAYOUT,
     },
   ]
+}
+
+/** The construction schedule, the drain design and each point's treatment figures (only for a treated run). */
+function treatment(inp: SettlementRunReportInput): Content[] {
+  const { run, project } = inp
+  if (!isTreated(run.loads, run.options.drains)) return []
+  const u = project.unitSystem
+  const L = unitLabel('length', u)
+  const unit = settlementUnitLabel(u)
+  const out: Content[] = [
+    { text: 'Construction schedule', style: 'subsection' },
+    {
+      table: {
+        headerRows: 1,
+        widths: ['*', 'auto', 'auto', 'auto', 'auto', 'auto'],
+        body: [
+          head(['Load', 'Stage', 'Starts', 'Lasts', 'Share of the load', 'Taken off']),
+          ...scheduleRows(run.loads).map(r => [cell(r.load, 'left'), cell(String(r.stage)), cell(formatYears(r.start)), cell(r.duration > 0 ? formatYears(r.duration) : 'at once'), cell(`${Number((r.fraction * 100).toFixed(1))} %`), cell(r.removeAt !== null ? formatYears(r.removeAt) : '—')] as TableCell[]),
+        ],
+      },
+      layout: TABLE_LAYOUT,
+    },
+  ]
+  const d = run.options.drains
+  const design = run.results.drains
+  if (d && design) {
+    out.push({ text: 'Vertical drains', style: 'subsection' })
+    out.push(keyValues([
+      ['Through', design.strata.map(x => x.name).join(', ') || d.strata.join(', ')],
+      ['Pattern and spacing', `${d.pattern}, ${fmt(u, d.spacing, 'length', 2)} ${L}; influence diameter ${fmt(u, design.influenceDiameter, 'length', 2)} ${L}`],
+      ['Drain', `equivalent diameter ${fmt(u, d.diameter, 'length', 3)} ${L}${d.dischargeCapacity !== undefined ? `, discharge capacity ${d.dischargeCapacity} m³/yr` : ', no well resistance'}`],
+      ['Smear and flow', `ds/dw ${d.smearRatio}, kh/ks ${d.permeabilityRatio}, ch/cv ${d.chRatio}; μ = ${design.mu.toFixed(2)} (Hansbo 1981), combined with vertical drainage (Carrillo 1942)`],
+    ]))
+  }
+  const pts = run.results.points.filter(p => p.t90WithoutDrains !== undefined || p.removedAt !== undefined)
+  if (pts.length) {
+    out.push({
+      margin: [0, 4, 0, 0],
+      table: {
+        headerRows: 1,
+        widths: ['*', 'auto', 'auto', 'auto', 'auto', 'auto'],
+        body: [
+          head(['Point', 't90', 't90 without drains', 'Taken off', `Rebound (${unit})`, `Still to come (${unit})`]),
+          ...pts.map(p => [cell(p.label, 'left'), cell(formatYears(p.t90)), cell(p.t90WithoutDrains !== undefined ? formatYears(p.t90WithoutDrains) : '—'), cell(p.removedAt !== undefined ? formatYears(p.removedAt) : '—'), cell(p.rebound !== undefined ? s(p.rebound, u) : '—'), cell(p.residualAfterRemoval !== undefined ? s(p.residualAfterRemoval, u) : '—')] as TableCell[]),
+        ],
+      },
+      layout: TABLE_LAYOUT,
+    })
+    out.push({ text: 'Still to come: the primary settlement under the loads left in place after the surcharge is taken off.', style: 'note', margin: [0, 2, 0, 0] })
+  }
+  return out
 }
 
 function headline(inp: SettlementRunReportInput): Content {
@@ -281,6 +333,7 @@ export function settlementRunReport(inp: SettlementRunReportInput): TDocumentDef
   const mapHeight = 380
   const content: Content[] = [
     ...inputs(inp),
+    ...treatment(inp),
     { text: 'Settlement on the plan', style: 'section' },
     headline(inp),
     { svg: settlementPlanSvg({ grid: r.grid ?? null, loads: run.loads, points: r.points, maximum: r.maximum.label === null ? { x: r.maximum.x, y: r.maximum.y } : null, unitSystem: u, width: PAGE_INNER, height: mapHeight }), width: PAGE_INNER, margin: [0, 6, 0, 0] },

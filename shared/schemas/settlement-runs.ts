@@ -32,6 +32,26 @@ export const RUN_LIMITS = {
   gridMargin: [0, 1000],
   sublayer: [0.05, 5],
   maxYears: 1000,
+  /** Construction stages per load. */
+  stages: [1, 12],
+  /** Stage start, duration and removal time, years from the run's time zero. */
+  stageTime: [0, 100],
+  /** Fractions must sum to 1 within this tolerance (422 beyond). */
+  fractionTolerance: 1e-6,
+  /** Strata one drain pattern may pass through. */
+  drainStrata: 20,
+  /** Drain spacing, m. */
+  drainSpacing: [0.3, 10],
+  /** Equivalent drain diameter dw, m. */
+  drainDiameter: [0.01, 0.5],
+  /** Smear zone ratio ds/dw, –. */
+  smearRatio: [1, 20],
+  /** kh/ks inside the smear zone, –. */
+  permeabilityRatio: [1, 50],
+  /** ch/cv, –. */
+  chRatio: [0.1, 20],
+  /** Discharge capacity qw, m³/yr. */
+  dischargeCapacity: [1, 10_000],
 } as const
 
 /** Loads and points must lie within this distance (m) of the site origin, along x and y (422 beyond). */
@@ -46,6 +66,23 @@ export const RUN_OPTION_DEFAULTS = {
   designLife: 50,
   /** 1/500: common practice for a limit of angular distortion; check the project's criteria. */
   angularDistortionLimit: 1 / 500,
+}
+
+/**
+ * Defaults of a run's prefabricated vertical drains (`options.drains`).
+ * - `diameter`: equivalent diameter dw = (a + b)/2 of a 100 mm × 4 mm band = 0.052 m
+ *   (Hansbo 1979's perimeter-equivalent form).
+ * - `smearRatio` ds/dw = 3 and `permeabilityRatio` kh/ks = 3: common practice for mandrel-driven
+ *   band drains in soft clay; site trials should set them.
+ * - `chRatio` ch/cv = 1 (no credit for horizontal layering): common practice as a cautious default.
+ */
+export const RUN_DRAIN_DEFAULTS = {
+  pattern: 'triangular' as const,
+  /** (a + b)/2 = (0.100 + 0.004)/2 m. */
+  diameter: 0.052,
+  smearRatio: 3,
+  permeabilityRatio: 3,
+  chRatio: 1,
 }
 
 const L = RUN_LIMITS
@@ -82,7 +119,28 @@ function exactlyOnePressure(load: { pressure?: number, fill?: unknown }, ctx: z.
   }
 }
 
-const common = { label: label.optional() }
+/**
+ * One construction stage of a load: from `start` over `duration` (years from the run's time
+ * zero; 0 = placed at once) the stage adds `fraction` of the load's full pressure or height.
+ */
+export const RunStageSchema = z.object({
+  start: num('A stage start', L.stageTime[0], L.stageTime[1], 'years'),
+  duration: num('A stage duration', L.stageTime[0], L.stageTime[1], 'years'),
+  fraction: num('A stage fraction', 0, 1).refine(v => v > 0, { message: 'must be greater than 0' }),
+})
+export type RunStage = z.infer<typeof RunStageSchema>
+
+/**
+ * A load's schedule: `stages` (1–12; fractions sum to 1, checked by the service, 422) — when
+ * left out, the whole load is placed at time 0 — and `removeAt` (years) for a surcharge taken
+ * off at that time.
+ */
+const schedule = {
+  stages: z.array(RunStageSchema).min(L.stages[0], { message: `needs at least ${L.stages[0]} stage` }).max(L.stages[1], { message: `may have at most ${L.stages[1]} stages` }).optional(),
+  removeAt: num('The removal time', L.stageTime[0], L.stageTime[1], 'years').refine(v => v > 0, { message: 'must be greater than 0 years' }).optional(),
+}
+
+const common = { label: label.optional(), ...schedule }
 
 export const UniformLoadSchema = z.object({ type: z.literal('uniform'), ...common, ...pressureOrFill })
 export const RectangleLoadSchema = z.object({
@@ -101,6 +159,7 @@ export const EmbankmentLoadSchema = z.object({
   sideSlope: num('The side slope', L.sideSlope[0], L.sideSlope[1]),
   unitWeight,
   rotation: rotation.default(0),
+  ...schedule,
 })
 
 export const RunLoadSchema = z.discriminatedUnion('type', [
@@ -128,11 +187,33 @@ export const RunGridSchema = z.object({
 })
 export type RunGrid = z.infer<typeof RunGridSchema>
 
+export const DRAIN_PATTERNS = ['triangular', 'square'] as const
+export type DrainPattern = (typeof DRAIN_PATTERNS)[number]
+
+/**
+ * Prefabricated vertical drains through the named strata (stratum codes of the model version;
+ * an unknown code is refused with 422). Spacing and diameter in m, discharge capacity qw in
+ * m³/yr (left out: no well resistance). A spacing not greater than the drain diameter is 422.
+ */
+export const RunDrainsSchema = z.object({
+  strata: z.array(str(16).trim().min(1, { message: 'is required' }).max(16)).min(1, { message: 'name at least one stratum' }).max(L.drainStrata),
+  pattern: z.enum(DRAIN_PATTERNS, { error: 'must be triangular or square' }).default(RUN_DRAIN_DEFAULTS.pattern),
+  spacing: num('The drain spacing', L.drainSpacing[0], L.drainSpacing[1], 'm'),
+  diameter: num('The drain diameter', L.drainDiameter[0], L.drainDiameter[1], 'm').default(RUN_DRAIN_DEFAULTS.diameter),
+  smearRatio: num('The smear ratio', L.smearRatio[0], L.smearRatio[1]).default(RUN_DRAIN_DEFAULTS.smearRatio),
+  permeabilityRatio: num('The permeability ratio', L.permeabilityRatio[0], L.permeabilityRatio[1]).default(RUN_DRAIN_DEFAULTS.permeabilityRatio),
+  chRatio: num('The ch/cv ratio', L.chRatio[0], L.chRatio[1]).default(RUN_DRAIN_DEFAULTS.chRatio),
+  dischargeCapacity: num('The discharge capacity', L.dischargeCapacity[0], L.dischargeCapacity[1], 'm³/yr').optional(),
+})
+export type RunDrainsInput = z.input<typeof RunDrainsSchema>
+export type RunDrains = z.infer<typeof RunDrainsSchema>
+
 export const RunOptionsSchema = z.object({
   maxSublayerThickness: num('The sublayer thickness', L.sublayer[0], L.sublayer[1], 'm').default(RUN_OPTION_DEFAULTS.maxSublayerThickness),
   years: z.array(num('A time', 0, L.maxYears, 'years').refine(v => v > 0, { message: 'must be greater than 0 years' })).max(L.years).default(RUN_OPTION_DEFAULTS.years),
   designLife: num('The design life', 0, L.maxYears, 'years').refine(v => v > 0, { message: 'must be greater than 0 years' }).default(RUN_OPTION_DEFAULTS.designLife),
   angularDistortionLimit: num('The angular distortion limit', 0, 0.1).refine(v => v > 0, { message: 'must be greater than 0' }).default(RUN_OPTION_DEFAULTS.angularDistortionLimit),
+  drains: RunDrainsSchema.optional(),
 })
 export type RunOptions = z.infer<typeof RunOptionsSchema>
 

@@ -4,13 +4,15 @@ import { planStressIncrease, loadFootprint, type PlanLoad } from '../geotech/pla
 import { computeSettlement, type SettlementLayer } from '../geotech/settlement'
 import { createStressEvaluator } from '../geotech/stress'
 import type { RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
-import { MAX_GRID_POINTS, SITE_EXTENT } from '../schemas/settlement-runs'
+import { MAX_GRID_POINTS, RUN_LIMITS, SITE_EXTENT } from '../schemas/settlement-runs'
+import { influenceDiameter } from '../geotech/radial-consolidation'
 import { stratumBounds, type SiteModelDefinition } from '../site-model/definition'
 import { ModelIncompleteError, toSettlementLayers, toStressInput } from '../site-model/convert'
 import type { RunGridResult, RunPointDetail, RunPointResult, RunResults } from '../types/settlement-runs'
 import { gridAxes, gridDistortion } from './grid'
 import { buildSettlementKernel, kernelSettlement } from './kernel'
 import { timeCurve, type CurveLayer } from './time-rate'
+import { computeTreatedPoint, isTreated, permanentLoads, treatmentProfile, type TreatmentProfile } from './treatment'
 
 export { gridAxes, gridDistortion } from './grid'
 export { buildSettlementKernel, kernelSettlement } from './kernel'
@@ -70,6 +72,11 @@ function loadsSettle(loads: readonly PlanLoad[]): boolean {
   return loads.some(l => (l.type === 'embankment' ? l.height * l.unitWeight : l.pressure) !== 0)
 }
 
+/** A time in a message: years as the API takes them, and months as the editor shows them ("0.833 years (10 months)"). */
+function timeWords(years: number): string {
+  return `${Number(years.toPrecision(3))} years (${Number((years * 12).toPrecision(3))} months)`
+}
+
 /** Why a well-formed run cannot be computed on this site (422), or null. */
 export function checkRunInput(input: RunComputeInput): RunInputProblem | null {
   const resolved = resolveLoads(input.loads)
@@ -93,6 +100,8 @@ export function checkRunInput(input: RunComputeInput): RunInputProblem | null {
   }
   const def = input.definition
   const inVersion = input.version !== undefined ? `in version ${input.version}` : 'in this version'
+  const treatment = checkTreatment(input, inVersion)
+  if (treatment) return treatment
   // Compressibility: every compressible stratum settles under a load that is not zero
   // (Δσ from a surface load is positive at every depth under and beside it).
   if (loadsSettle(resolved)) {
@@ -139,6 +148,52 @@ export function checkRunInput(input: RunComputeInput): RunInputProblem | null {
   return null
 }
 
+/** The schedule and drain checks of a well-formed run (422): plain reasons. */
+function checkTreatment(input: RunComputeInput, inVersion: string): RunInputProblem | null {
+  for (const [i, l] of input.loads.entries()) {
+    const stages = l.stages ?? []
+    if (stages.length > 0) {
+      const sum = stages.reduce((a, st) => a + st.fraction, 0)
+      if (Math.abs(sum - 1) > RUN_LIMITS.fractionTolerance) {
+        return { code: 'stage-fractions', message: `The stages of load ${i + 1} add ${Number((sum * 100).toFixed(2))} % of the load; their fractions must sum to 100 %.`, path: ['loads', i, 'stages'] }
+      }
+    }
+    if (l.removeAt !== undefined) {
+      const late = stages.findIndex(st => st.start + st.duration > l.removeAt!)
+      if (late >= 0) {
+        const st = stages[late]!
+        const what = st.start >= l.removeAt ? `starts at ${timeWords(st.start)}` : `runs until ${timeWords(st.start + st.duration)}`
+        return { code: 'stage-after-removal', message: `Stage ${late + 1} of load ${i + 1} ${what}, after the load is removed at ${timeWords(l.removeAt)}.`, path: ['loads', i, 'stages', late, 'start'] }
+      }
+    }
+  }
+  const drains = input.options.drains
+  const def = input.definition
+  if (drains) {
+    if (!(drains.spacing > drains.diameter)) {
+      return { code: 'drain-spacing-too-small', message: `The drain spacing (${drains.spacing} m) must be larger than the drain diameter (${drains.diameter} m).`, path: ['options', 'drains', 'spacing'] }
+    }
+    const de = influenceDiameter(drains.pattern, drains.spacing)
+    if (!(de / drains.diameter > drains.smearRatio)) {
+      return { code: 'drain-smear-overlap', message: `At ${drains.spacing} m the smear zones around the drains (${drains.smearRatio} × ${drains.diameter} m across) would fill the soil between them; space the drains further apart.`, path: ['options', 'drains', 'spacing'] }
+    }
+    for (const [k, code] of drains.strata.entries()) {
+      if (!def.strata.some(s => s.code === code)) {
+        return { code: 'drain-stratum-unknown', message: `The drains pass through stratum ${code}, which is not ${inVersion}. Strata there: ${def.strata.map(s => s.code).join(', ')}.`, path: ['options', 'drains', 'strata', k] }
+      }
+    }
+  }
+  if (isTreated(input.loads, drains)) {
+    for (const s of def.strata) {
+      const c = s.compressibility
+      if (s.compressible && c && (c.cv === undefined || c.cv === null) && !c.trends?.cv) {
+        return { code: 'cv-missing', message: `Stratum ${s.code} (${s.name}) has no cv ${inVersion}: a construction schedule, a removal or drains need the time rate of every compressible stratum.`, path: ['model'] }
+      }
+    }
+  }
+  return null
+}
+
 /** "Halving every sublayer changes the total by 0.012 %": the convergence report in words. */
 export function describeConvergence(c: { halved: number, relativeChange: number } | null): string | null {
   if (!c) return null
@@ -179,7 +234,8 @@ function runProfile(input: RunComputeInput): RunProfile {
 }
 
 /** Computes one named point with the engine's full answer. */
-function computePoint(input: RunComputeInput, profile: RunProfile, loads: PlanLoad[], p: RunPoint, index: number): RunPointDetail {
+function computePoint(input: RunComputeInput, profile: RunProfile, loads: PlanLoad[], p: RunPoint, index: number, treatment: TreatmentProfile | null = null): RunPointDetail {
+  if (treatment) return computeTreatedRunPoint(input, profile, loads, p, index, treatment)
   const def = input.definition
   const { options } = input
   const loadAt = planStressIncrease(loads, p.x, p.y)
@@ -234,6 +290,39 @@ function computePoint(input: RunComputeInput, profile: RunProfile, loads: PlanLo
   }
 }
 
+/**
+ * A named point of a treated run: the sublayer table, convergence and warnings of the loads in
+ * place at the end (the engine), the settlement, time rate, curve and secondary compression
+ * of the staged engine (`treatment.ts`).
+ */
+function computeTreatedRunPoint(input: RunComputeInput, profile: RunProfile, loads: PlanLoad[], p: RunPoint, index: number, treatment: TreatmentProfile): RunPointDetail {
+  const def = input.definition
+  const { options } = input
+  const endLoadAt = planStressIncrease(permanentLoads(input.loads, loads), p.x, p.y)
+  const r = computeSettlement({ ...profile.base, load: { type: 'uniform', pressure: 0 }, stressIncrease: endLoadAt })
+  const t = computeTreatedPoint(def, treatment, input.loads, loads, p.x, p.y, options)
+  const warnings = [...r.warnings]
+  return {
+    index,
+    label: p.label,
+    x: p.x,
+    y: p.y,
+    settlement: t.settlement,
+    layers: def.strata.map((s, i) => ({ name: s.name, settlement: t.strata[i]! })),
+    t50: t.t50,
+    t90: t.t90,
+    ...(t.t50WithoutDrains !== undefined ? { t50WithoutDrains: t.t50WithoutDrains, t90WithoutDrains: t.t90WithoutDrains ?? null } : {}),
+    ...(t.removal ? { rebound: t.removal.rebound, residualAfterRemoval: t.removal.residual, removedAt: t.removal.at } : {}),
+    time: t.time,
+    secondary: t.secondary,
+    curve: t.curve,
+    convergence: r.convergence,
+    surfaceStressIncrease: planStressIncrease(loads, p.x, p.y)(0),
+    warnings,
+    sublayers: r.sublayers,
+  }
+}
+
 /** Computes the run; `onProgress(fraction)` is called after the named points and after every grid row. */
 export function computeRun(input: RunComputeInput, onProgress?: (fraction: number) => void): RunComputeOutput {
   const started = Date.now()
@@ -245,9 +334,15 @@ export function computeRun(input: RunComputeInput, onProgress?: (fraction: numbe
   const gridWork = axes ? axes.xs.length * axes.ys.length : 0
   const totalWork = Math.max(1, pointWork + gridWork)
 
+  const treated = isTreated(input.loads, input.options.drains)
+  const kernel = treated || axes ? buildSettlementKernel(profile.base) : null
+  const treatment = treated ? treatmentProfile(input.definition, profile.layers, profile.stratumOf, kernel!, input.options.drains) : null
+  // The grid shows the final primary settlement of the loads in place at the end.
+  const gridLoads = treated ? permanentLoads(input.loads, loads) : loads
+
   let sublayers = 0
   const details = input.points.map((p, index) => {
-    const d = computePoint(input, profile, loads, p, index)
+    const d = computePoint(input, profile, loads, p, index, treatment)
     sublayers += d.sublayers.length
     return d
   })
@@ -255,13 +350,12 @@ export function computeRun(input: RunComputeInput, onProgress?: (fraction: numbe
 
   let grid: RunGridResult | undefined
   if (axes) {
-    const kernel = buildSettlementKernel(profile.base)
     const settlement = axes.ys.map((y, j) => {
-      const row = axes.xs.map(x => kernelSettlement(kernel, planStressIncrease(loads, x, y)))
+      const row = axes.xs.map(x => kernelSettlement(kernel!, planStressIncrease(gridLoads, x, y)))
       onProgress?.((pointWork + (j + 1) * axes.xs.length) / totalWork)
       return row
     })
-    sublayers += kernel.count * gridWork
+    sublayers += kernel!.count * gridWork
     const limit = input.options.angularDistortionLimit
     const distortion = gridDistortion(axes.xs, axes.ys, settlement)
     grid = { ...axes, settlement, ...distortion, angularDistortionLimit: limit, exceedsLimit: distortion.maxAngularDistortion > limit }
@@ -282,6 +376,20 @@ export function computeRun(input: RunComputeInput, onProgress?: (fraction: numbe
   if (grid?.exceedsLimit) {
     warnings.push(`The largest angular distortion between neighbouring grid points, 1/${Math.round(1 / grid.maxAngularDistortion)}, exceeds the limit of 1/${Math.round(1 / grid.angularDistortionLimit)}.`)
   }
+  if (treated && grid) {
+    warnings.push('The grid shows the final primary settlement under the loads in place at the end, without the construction schedule or any surcharge taken off; the named points carry the schedule.')
+  }
   onProgress?.(1)
-  return { results: { points, grid, maximum, warnings, caution: RESULT_CAUTION, stats: { computeMs: Date.now() - started, sublayers } }, details }
+  return {
+    results: {
+      points,
+      grid,
+      maximum,
+      warnings,
+      caution: RESULT_CAUTION,
+      stats: { computeMs: Date.now() - started, sublayers },
+      ...(treatment?.design ? { drains: treatment.design } : {}),
+    },
+    details,
+  }
 }

@@ -1,7 +1,7 @@
 import { loadOutlines, type PlanLoad } from '../geotech/plan-loads'
 import { convert, type Quantity, type UnitSystem } from '../units'
 import { gridAxes } from './grid'
-import { RUN_OPTION_DEFAULTS, type RunGrid, type RunLoad, type RunLoadInput, type RunOptions, type RunPoint } from '../schemas/settlement-runs'
+import { RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, type DrainPattern, type RunGrid, type RunLoad, type RunLoadInput, type RunOptions, type RunPoint } from '../schemas/settlement-runs'
 
 /**
  * The run editor's working copy of a settlement run (SI: m, kPa, kN/m³, degrees, years) and the
@@ -44,6 +44,37 @@ export interface DraftLoad {
   pressure: number
   fillThickness: number
   fillUnitWeight: number
+  /** How the load is built: stages of start, duration (years from the run's time zero) and share of the full load. */
+  stages: DraftStage[]
+  /** When a surcharge is taken off, years; null: it stays. */
+  removeAt: number | null
+}
+
+/** One construction stage of a load: years from the run's time zero, and the share of the full load (0–1) it adds. */
+export interface DraftStage {
+  start: number
+  duration: number
+  fraction: number
+}
+
+/** Vertical drains through some strata of the run, kept while switched off so the values typed stay. */
+export interface DraftDrains {
+  on: boolean
+  /** Stratum codes of the model version. */
+  strata: string[]
+  pattern: DrainPattern
+  /** Centre-to-centre, m. */
+  spacing: number
+  /** Equivalent drain diameter, m. */
+  diameter: number
+  /** Smeared zone diameter over the drain's, ds/dw. */
+  smearRatio: number
+  /** kh/ks: undisturbed over smeared horizontal permeability. */
+  permeabilityRatio: number
+  /** ch/cv. */
+  chRatio: number
+  /** qw, m³/year; null: no well resistance. */
+  dischargeCapacity: number | null
 }
 
 export interface DraftPoint {
@@ -62,7 +93,9 @@ export interface SettlementDraft {
   points: DraftPoint[]
   gridOn: boolean
   grid: { spacing: number, margin: number }
-  options: RunOptions
+  /** The options without the drains (those are `drains`). */
+  options: Omit<RunOptions, 'drains'>
+  drains: DraftDrains
 }
 
 /** Sizes a load placed by a click takes (m, kPa, kN/m³): a 6 m embankment of 20 kN/m³ fill at 2:1. */
@@ -80,6 +113,32 @@ export const DEFAULT_LOAD: Omit<DraftLoad, 'id' | 'type' | 'label' | 'x' | 'y'> 
   pressure: 50,
   fillThickness: 1,
   fillUnitWeight: 20,
+  stages: [{ start: 0, duration: 0, fraction: 1 }],
+  removeAt: null,
+}
+
+/** The default schedule: the whole load at once, at time zero. */
+export function instantStages(): DraftStage[] {
+  return [{ start: 0, duration: 0, fraction: 1 }]
+}
+
+/** The spacing drains switched on start with, m (a first guess the spacing aid refines). */
+export const DEFAULT_DRAIN_SPACING = 1.5
+
+/** The drains a draft starts with (off). */
+export function defaultDrains(): DraftDrains {
+  const D = RUN_DRAIN_DEFAULTS
+  return {
+    on: false,
+    strata: [],
+    pattern: D.pattern,
+    spacing: DEFAULT_DRAIN_SPACING,
+    diameter: D.diameter,
+    smearRatio: D.smearRatio,
+    permeabilityRatio: D.permeabilityRatio,
+    chRatio: D.chRatio,
+    dischargeCapacity: null,
+  }
 }
 
 export const DEFAULT_GRID = { spacing: 5, margin: 10 }
@@ -93,12 +152,13 @@ export function emptyDraft(): SettlementDraft {
     gridOn: false,
     grid: { ...DEFAULT_GRID },
     options: { ...RUN_OPTION_DEFAULTS, years: [...RUN_OPTION_DEFAULTS.years] },
+    drains: defaultDrains(),
   }
 }
 
 /** A load of `type` centred at (x, y) with the default sizes. */
 export function newLoad(id: string, type: DraftLoadType, at: { x: number, y: number }, label = ''): DraftLoad {
-  return { id, type, label, x: round(at.x), y: round(at.y), ...DEFAULT_LOAD }
+  return { id, type, label, x: round(at.x), y: round(at.y), ...DEFAULT_LOAD, stages: instantStages() }
 }
 
 /**
@@ -166,15 +226,34 @@ export function gridPointCount(loads: readonly DraftLoad[], grid: RunGrid): numb
   return axes ? axes.xs.length * axes.ys.length : 0
 }
 
-/** The load as the request sends it (SI). */
+/** The load as the request sends it (SI); the default schedule (all at once at time zero) is left out. */
 export function requestLoadOf(l: DraftLoad): RunLoadInput {
   const label = l.label.trim() ? { label: l.label.trim() } : {}
   const loading = l.loading === 'fill' ? { fill: { thickness: l.fillThickness, unitWeight: l.fillUnitWeight } } : { pressure: l.pressure }
+  const schedule = {
+    ...(isInstant(l.stages) ? {} : { stages: l.stages.map(st => ({ start: st.start, duration: st.duration, fraction: st.fraction })) }),
+    ...(l.removeAt === null ? {} : { removeAt: l.removeAt }),
+  }
   switch (l.type) {
-    case 'uniform': return { type: 'uniform', ...label, ...loading }
-    case 'rectangle': return { type: 'rectangle', ...label, x: l.x, y: l.y, width: l.width, length: l.length, rotation: l.rotation, ...loading }
-    case 'circle': return { type: 'circle', ...label, x: l.x, y: l.y, radius: l.radius, ...loading }
-    case 'embankment': return { type: 'embankment', ...label, x: l.x, y: l.y, crestWidth: l.crestWidth, crestLength: l.crestLength, height: l.height, sideSlope: l.sideSlope, unitWeight: l.unitWeight, rotation: l.rotation }
+    case 'uniform': return { type: 'uniform', ...label, ...loading, ...schedule }
+    case 'rectangle': return { type: 'rectangle', ...label, x: l.x, y: l.y, width: l.width, length: l.length, rotation: l.rotation, ...loading, ...schedule }
+    case 'circle': return { type: 'circle', ...label, x: l.x, y: l.y, radius: l.radius, ...loading, ...schedule }
+    case 'embankment': return { type: 'embankment', ...label, x: l.x, y: l.y, crestWidth: l.crestWidth, crestLength: l.crestLength, height: l.height, sideSlope: l.sideSlope, unitWeight: l.unitWeight, rotation: l.rotation, ...schedule }
+  }
+}
+
+/** The drains as the request sends them (SI), or nothing when they are off. */
+export function requestDrainsOf(d: DraftDrains) {
+  if (!d.on) return undefined
+  return {
+    strata: [...d.strata],
+    pattern: d.pattern,
+    spacing: d.spacing,
+    diameter: d.diameter,
+    smearRatio: d.smearRatio,
+    permeabilityRatio: d.permeabilityRatio,
+    chRatio: d.chRatio,
+    ...(d.dischargeCapacity === null ? {} : { dischargeCapacity: d.dischargeCapacity }),
   }
 }
 
@@ -186,7 +265,7 @@ export function requestOf(d: SettlementDraft) {
     loads: d.loads.map(requestLoadOf),
     points: d.points.map(p => ({ label: p.label, x: p.x, y: p.y, ...(p.pointId ? { pointId: p.pointId } : {}) })),
     ...(d.gridOn ? { grid: { ...d.grid } } : {}),
-    options: { ...d.options, years: [...d.options.years] },
+    options: { ...d.options, years: [...d.options.years], ...(d.drains.on ? { drains: requestDrainsOf(d.drains) } : {}) },
   }
 }
 
@@ -203,7 +282,11 @@ export interface RunInputs {
 /** A draft holding a run's inputs, for "Run again with changes"; `ids` names the loads and points. */
 export function draftFromRun(run: RunInputs, ids: () => string): SettlementDraft {
   const loads = run.loads.map((l): DraftLoad => {
-    const base: DraftLoad = { id: ids(), type: l.type, label: l.label ?? '', x: 0, y: 0, ...DEFAULT_LOAD }
+    const base: DraftLoad = {
+      id: ids(), type: l.type, label: l.label ?? '', x: 0, y: 0, ...DEFAULT_LOAD,
+      stages: l.stages?.length ? l.stages.map(st => ({ start: st.start, duration: st.duration, fraction: st.fraction })) : instantStages(),
+      removeAt: l.removeAt ?? null,
+    }
     const loading = l.type === 'embankment'
       ? {}
       : l.fill ? { loading: 'fill' as const, fillThickness: l.fill.thickness, fillUnitWeight: l.fill.unitWeight } : { loading: 'pressure' as const, pressure: l.pressure ?? 0 }
@@ -221,8 +304,103 @@ export function draftFromRun(run: RunInputs, ids: () => string): SettlementDraft
     points: run.points.map(p => ({ id: ids(), label: p.label, x: p.x, y: p.y, ...(p.pointId ? { pointId: p.pointId } : {}) })),
     gridOn: !!run.grid,
     grid: run.grid ? { spacing: run.grid.spacing, margin: run.grid.margin } : { ...DEFAULT_GRID },
-    options: { ...RUN_OPTION_DEFAULTS, ...run.options, years: [...(run.options.years ?? RUN_OPTION_DEFAULTS.years)] },
+    options: { ...RUN_OPTION_DEFAULTS, ...withoutDrains(run.options), years: [...(run.options.years ?? RUN_OPTION_DEFAULTS.years)] },
+    drains: drainsFromRun(run.options.drains),
   }
+}
+
+function withoutDrains(o: RunOptions): Omit<RunOptions, 'drains'> {
+  const { drains: _drains, ...rest } = o
+  return rest
+}
+
+/** A run's drains as the draft's (on), or the defaults (off) for a run without. */
+export function drainsFromRun(d: RunOptions['drains']): DraftDrains {
+  const base = defaultDrains()
+  if (!d) return base
+  return {
+    on: true,
+    strata: [...d.strata],
+    pattern: d.pattern,
+    spacing: d.spacing,
+    diameter: d.diameter ?? base.diameter,
+    smearRatio: d.smearRatio ?? base.smearRatio,
+    permeabilityRatio: d.permeabilityRatio ?? base.permeabilityRatio,
+    chRatio: d.chRatio ?? base.chRatio,
+    dischargeCapacity: d.dischargeCapacity ?? null,
+  }
+}
+
+/**
+ * A draft kept by an earlier Pastload (a tab's session copy) brought up to today's fields: loads
+ * without a schedule are placed at once, a draft without drains has them off.
+ */
+export function normalizeDraft(d: Partial<SettlementDraft>): SettlementDraft {
+  const empty = emptyDraft()
+  const { drains: _drains, ...options } = { ...empty.options, ...(d.options ?? {}) } as RunOptions
+  return {
+    ...empty,
+    ...d,
+    loads: (d.loads ?? []).map(l => ({
+      ...l,
+      stages: Array.isArray(l.stages) && l.stages.length ? l.stages : instantStages(),
+      removeAt: typeof l.removeAt === 'number' ? l.removeAt : null,
+    })),
+    options,
+    drains: { ...empty.drains, ...(d.drains ?? {}) },
+  }
+}
+
+// Construction schedules (years; the editor shows months)
+
+export const MONTHS_PER_YEAR = 12
+
+/** True for the default schedule: one stage, the whole load at time zero, at once. */
+export function isInstant(stages: readonly DraftStage[]): boolean {
+  const [only] = stages
+  return stages.length === 1 && !!only && only.start === 0 && only.duration === 0 && only.fraction === 1
+}
+
+/** The stages' shares added up (1 when the whole load is placed). */
+export function stagesTotal(stages: readonly DraftStage[]): number {
+  return stages.reduce((a, st) => a + st.fraction, 0)
+}
+
+/** True when the shares add up to the whole load (within the tolerance the server allows). */
+export function stagesComplete(stages: readonly DraftStage[]): boolean {
+  return Math.abs(stagesTotal(stages) - 1) <= RUN_LIMITS.fractionTolerance
+}
+
+/** When the last stage ends, years. */
+export function scheduleEnd(stages: readonly DraftStage[]): number {
+  return stages.reduce((a, st) => Math.max(a, st.start + st.duration), 0)
+}
+
+/**
+ * One more stage after the last: a month after the last ends, lasting as long as it (at least a
+ * month), taking half of its share, so the shares still add up as before.
+ */
+export function addStage(stages: readonly DraftStage[]): DraftStage[] {
+  const last = stages[stages.length - 1]
+  if (!last) return instantStages()
+  const month = 1 / MONTHS_PER_YEAR
+  const half = last.fraction / 2
+  return [
+    ...stages.slice(0, -1),
+    { ...last, fraction: half },
+    { start: last.start + last.duration + month, duration: Math.max(last.duration, month), fraction: last.fraction - half },
+  ]
+}
+
+/** The schedule without stage `i`; the last stage's removal gives back the default. */
+export function removeStage(stages: readonly DraftStage[], i: number): DraftStage[] {
+  const rest = stages.filter((_st, k) => k !== i)
+  return rest.length ? rest : instantStages()
+}
+
+/** The schedule with stage `i` changed. */
+export function updateStage(stages: readonly DraftStage[], i: number, patch: Partial<DraftStage>): DraftStage[] {
+  return stages.map((st, k) => (k === i ? { ...st, ...patch } : st))
 }
 
 /** The next free label of the form `${prefix}${n}` among `taken`. */
@@ -257,4 +435,21 @@ export function siFromTyped(text: string, quantity: Quantity | null, system: Uni
   const v = Number(t)
   if (!Number.isFinite(v)) return null
   return quantity ? convert(v, quantity, system, 'SI') : v
+}
+
+// Drain sizes at the edges: a drain's diameter in mm (SI) or inches (US), its discharge capacity in m³ or ft³ a year.
+
+/** How many display units of `system` one metre of drain diameter is (1000 mm; 39.37 in). */
+export function drainDiameterFactor(system: UnitSystem): number {
+  return system === 'US' ? convert(1, 'length', 'SI', 'US') * 12 : 1000
+}
+export function drainDiameterUnit(system: UnitSystem): string {
+  return system === 'US' ? 'in' : 'mm'
+}
+/** How many display units of `system` one m³/year of discharge capacity is. */
+export function dischargeFactor(system: UnitSystem): number {
+  return system === 'US' ? convert(1, 'length', 'SI', 'US') ** 3 : 1
+}
+export function dischargeUnit(system: UnitSystem): string {
+  return system === 'US' ? 'ft³/yr' : 'm³/yr'
 }

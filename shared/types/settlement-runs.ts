@@ -4,7 +4,7 @@
  * `Date`), the plain name what the page reads (`Serialize<…>`).
  */
 import type { SublayerResult } from '../geotech/settlement'
-import type { RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
+import type { DrainPattern, RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
 import type { VersionStatus } from './models'
 import type { Serialize } from './serialize'
 
@@ -37,6 +37,10 @@ export interface RunTimeCurve {
   total: number[]
   /** Primary settlement of each stratum (its own drainage path), m. */
   layers: { name: string, settlement: number[] }[]
+  /** Primary settlement without the drains, m, at each time (only when the run has drains). */
+  withoutDrains?: number[]
+  /** Δσ at the ground surface under this point, kPa, at each time (the loads in place then). */
+  surfaceLoad?: number[]
 }
 
 /** One named point's result (`results.points[]`). */
@@ -48,9 +52,21 @@ export interface RunPointResult {
   settlement: number
   /** By stratum, m. */
   layers: { name: string, settlement: number }[]
-  /** Years to 50 % / 90 % of primary settlement; null where no cv or no settlement. */
+  /**
+   * Years to 50 % / 90 % of primary settlement (the final primary under the loads in place at
+   * the end); null where no cv or no settlement. With drains, the drained figure.
+   */
   t50: number | null
   t90: number | null
+  /** The same without the drains (only when the run has drains). */
+  t50WithoutDrains?: number | null
+  t90WithoutDrains?: number | null
+  /** Rebound at the removal of the load(s) taken off, m, positive upward (only when a load is removed). */
+  rebound?: number
+  /** Primary settlement still to come under the permanent loads after removal, m (only when a load is removed). */
+  residualAfterRemoval?: number
+  /** When the (last) load was removed, years (only when a load is removed). */
+  removedAt?: number
   /** At the options' years. */
   time: RunTimePoint[]
   /** Secondary compression over the design life, m (null when no stratum has Cα). */
@@ -83,8 +99,25 @@ export interface RunGridResult {
   exceedsLimit: boolean
 }
 
+/** The drain design a run used and what it means for each drained stratum (`results.drains`). */
+export interface RunDrainDesign {
+  pattern: DrainPattern
+  /** m. */
+  spacing: number
+  /** Equivalent drain diameter dw, m. */
+  diameter: number
+  /** De = 1.05 s (triangular) or 1.128 s (square), m. */
+  influenceDiameter: number
+  /** Hansbo's μ (smear and, with qw, well resistance). */
+  mu: number
+  /** Each drained stratum: cv and ch (m²/yr) and its vertical drainage path (m). */
+  strata: { name: string, cv: number, ch: number, drainagePath: number }[]
+}
+
 export interface RunResults {
   points: RunPointResult[]
+  /** Only when the run has drains. */
+  drains?: RunDrainDesign
   grid?: RunGridResult
   /** The largest settlement over the named points and the grid. */
   maximum: { settlement: number, x: number, y: number, label: string | null }

@@ -247,6 +247,29 @@ function runGridBench(): BenchRow {
   return compare('settlement run grid, 41 × 41 points × 102 sublayers, embankment + 2 rectangles', 2, ours, bare, 7, 'target also: the grid ≤ 1 s')
 }
 
+/**
+ * A treated named point: the demo yard's 6 m embankment in two lifts, a 1.5 m surcharge taken off
+ * at 9 months and 1.5 m triangular drains through the estuarine clay (the staged engine: about
+ * 300 load increments, with and without drains), against the same point with the whole load
+ * placed at once and no drains (the plain engine). Goal: a treated point ≤ 100× a plain one
+ * (its curve superposes some 300 increments, twice: with and without the drains).
+ */
+function runStagedBench(): BenchRow {
+  const definition = scenarioDefinition()
+  const yard = { x: 0, y: 0, crestWidth: 96, crestLength: 56, sideSlope: 2, unitWeight: 20, rotation: 0 }
+  const staged: RunLoad[] = [
+    { type: 'embankment', ...yard, height: 6, stages: [{ start: 0, duration: 0.1, fraction: 0.5 }, { start: 0.25, duration: 0.1, fraction: 0.5 }] },
+    { type: 'embankment', ...yard, crestWidth: 90, crestLength: 50, height: 1.5, stages: [{ start: 0.35, duration: 0.05, fraction: 1 }], removeAt: 0.75 },
+  ]
+  const plain: RunLoad[] = [{ type: 'embankment', ...yard, height: 6 }]
+  const points = [{ label: 'Centre', x: 0, y: 0 }]
+  const options = { maxSublayerThickness: 0.25, years: [0.25, 0.5, 0.75, 1, 5, 20], designLife: 50, angularDistortionLimit: 1 / 500 }
+  const drains = { strata: ['EST'], pattern: 'triangular' as const, spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 1 }
+  const ours = () => computeRun({ definition, loads: staged, points, grid: null, options: { ...options, drains } }).results.points[0]!.t90!
+  const bare = () => computeRun({ definition, loads: plain, points, grid: null, options }).results.points[0]!.t90!
+  return compare('settlement run, one treated point (two lifts, surcharge off, drains) vs the same point loaded at once', 100, ours, bare, 5, 'baseline: the plain engine (computeSettlement) at the same point')
+}
+
 /** Each benchmark runs in its own process (tests/bench/one.ts). */
 export const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   settlement: () => settlementBench(100_000),
@@ -254,5 +277,6 @@ export const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   trend: () => [trendBench(50_000)],
   planLoads: () => planLoadBench(),
   runGrid: () => [runGridBench()],
+  runStaged: () => [runStagedBench()],
   runReport: async () => [await runReportBench()],
 }

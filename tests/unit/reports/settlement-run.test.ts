@@ -114,3 +114,26 @@ describe('settlement-run report document', () => {
     for (const page of pdfPagesText(pdf)) expect(page).toContain('RPR-mx731l1w1-LONG')
   })
 })
+
+describe('settlement-run report of a treated run', () => {
+  it('shows the construction schedule, the drain design and each point\'s t90 without drains, rebound and what is still to come', () => {
+    const treatedLoads: ServerSettlementRun['loads'] = [
+      { ...loads[0]!, stages: [{ start: 0, duration: 0.1, fraction: 0.5 }, { start: 0.25, duration: 0.1, fraction: 0.5 }] },
+      { type: 'embankment', label: 'Surcharge', x: 0, y: 0, crestWidth: 20, crestLength: 28, height: 1.5, sideSlope: 2, unitWeight: 20, rotation: 0, stages: [{ start: 0.35, duration: 0, fraction: 1 }], removeAt: 0.75 },
+    ]
+    const options: RunOptions = { ...OPTIONS, drains: { strata: ['EST'], pattern: 'triangular', spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 1 } }
+    const out = computeRun({ definition: scenarioDefinition(), loads: treatedLoads, points: points.slice(0, 1), grid: null, options })
+    const base = input()
+    const doc = settlementRunReport({ ...base, run: { ...base.run, loads: treatedLoads, points: points.slice(0, 1), grid: null, options, results: out.results }, details: out.details })
+    const all = texts(doc.content)
+    expect(all).toContain('Construction schedule')
+    expect(all).toContain('Vertical drains')
+    expect(all).toContain('Surcharge')
+    expect(all).toContain('t90 without drains')
+    expect(all.some(t => t.startsWith('triangular, 1.50 m; influence diameter 1.58 m'))).toBe(true)
+    const tables = (doc.content as Content[]).filter((c): c is Content & { table: { body: unknown[][] } } => typeof c === 'object' && c !== null && 'table' in c)
+    const schedule = tables.find(t => texts(t.table.body[0]).includes('Share of the load'))!
+    // Two stages of the embankment and the surcharge's one.
+    expect(schedule.table.body).toHaveLength(1 + 3)
+  })
+})
