@@ -1,7 +1,7 @@
 import { GeotechError } from '../geotech/errors'
 import { buildStressModel } from '../geotech/stress'
 import { computeSettlement, voidRatioChange, type PreconsolidationModel, type SettlementInput } from '../geotech/settlement'
-import { consolidationUnits, degreeOfConsolidation, timeFactorForDegree, type Drainage } from '../geotech/consolidation'
+import { consolidationUnits, degreeOfConsolidation, timeFactorForDegree } from '../geotech/consolidation'
 import { evaluateTrend, type TrendFit } from '../geotech/trend-model'
 import { cholesky, localAverageCovariance, lowerTimes } from './field'
 import { lognormalSigma, normalCorrelationForLognormals, normalStream } from './random'

@@ -132,7 +132,7 @@ describe('Monte Carlo settlement — the drawn parameters match the inputs', () 
   }
 
   it.each([['cc', 0.45, 0.3], ['e0', 1.3, 0.15], ['cr', 0.06, 0.4], ['cv', 2, 0.5]] as const)('%s: sample mean and COV within 4 SE of %s and %s', (name, m, cov) => {
-    expect((layer as Record<string, unknown>)[name]).toBe(m)
+    expect((layer as unknown as Record<string, unknown>)[name]).toBe(m)
     const x = values(name, m, cov)
     const mean = ssMean(x)
     const sd = sampleStandardDeviation(x)
