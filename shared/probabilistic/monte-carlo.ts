@@ -5,7 +5,11 @@ import { consolidationUnits, degreeOfConsolidation, timeFactorForDegree } from '
 import { evaluateTrend, type TrendFit } from '../geotech/trend-model'
 import { cholesky, localAverageCovariance, lowerTimes } from './field'
 import { lognormalSigma, normalCorrelationForLognormals, normalStream } from './random'
-import { exceedanceProbability, histogramOfSorted, rankCorrelation, sortedFinite, summariseSorted, type Histogram, type Quantiles } from './summary'
+import { exceedanceProbability, histogramOfSorted, midranks, pearson, sortedFinite, summariseSorted, type Histogram, type Quantiles } from './summary'
+
+// Local bindings of the engine's functions: the hot loops call them directly, not through a module namespace.
+const lawOfSublayer = voidRatioChange
+const degreeAt = degreeOfConsolidation
 
 /**
  * Monte Carlo primary settlement (domain §3) with scattered soil parameters. Per stratum, each of
@@ -366,8 +370,10 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
   const factor: Record<'cc' | 'cr' | 'e0' | 'preconsolidation', Float64Array> = {
     cc: new Float64Array(count), cr: new Float64Array(count), e0: new Float64Array(count), preconsolidation: new Float64Array(count),
   }
+  const factors = [factor.cc, factor.cr, factor.e0, factor.preconsolidation]
   const trendValue = new Float64Array(count)
   const useTrend = new Uint8Array(count)
+  const scratch = plan.units ? { settlement: new Float64Array(plan.units.length), cv: new Float64Array(plan.units.length) } : null
 
   for (let chunk = chunkStart; chunk < chunkEnd; chunk++) {
     const first = chunk * MONTE_CARLO_CHUNK
@@ -376,7 +382,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
     const streams = variables.map(v => normalStream(plan.seed, `${chunk}\u0000${v.stratum}\u0000${v.variable}`))
     for (let r = first; r < last; r++) {
       const out = r - start
-      for (const f of Object.values(factor)) f.fill(1)
+      for (const f of factors) f.fill(1)
       useTrend.fill(0)
       for (let j = 0; j < layers.length; j++) cvOf[j] = layers[j]!.cv ?? 0
       let raisedHere = false
@@ -461,7 +467,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
             if (useTrend[i] === 1) raisedHere = true
             p = s0
           }
-          const de = voidRatioChange(layer.cc * factor.cc[i]!, layer.cr * factor.cr[i]!, s0, p, finalEffectiveStress[i]!)
+          const de = lawOfSublayer(layer.cc * factor.cc[i]!, layer.cr * factor.cr[i]!, s0, p, finalEffectiveStress[i]!)
           sum += (de / (1 + layer.e0 * factor.e0[i]!)) * thickness[i]!
         }
         layerSum[j] = sum
@@ -469,19 +475,23 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
       }
       samples.settlement[out] = total
       if (raisedHere) samples.raised++
-      if (samples.t90) samples.t90[out] = t90Of(plan, layerSum, cvOf, total)
+      if (samples.t90) samples.t90[out] = t90Of(plan, layerSum, cvOf, total, scratch!)
     }
   }
   return samples
 }
 
-/** Years to 90 % of primary settlement: Σ Sₖ·U(cvₖt/Hₖ²) = 0.9·S over the consolidation units (Terzaghi 1925), the engine's degree of consolidation. */
-function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array, total: number): number {
+/**
+ * Years to 90 % of primary settlement: Σ Sₖ·U(cvₖt/Hₖ²) = 0.9·S over the consolidation units (Terzaghi 1925),
+ * with the engine's degree of consolidation. The root lies between the units' own t90 when none rebounds;
+ * it is found by regula falsi with the Illinois step (Dowell & Jarratt 1971), to 1e-12 of t.
+ */
+function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array, total: number, scratch: { settlement: Float64Array, cv: Float64Array }): number {
   const units = plan.units!
   if (!(total > 0)) return Number.NaN
   const k = units.length
-  const us = new Float64Array(k)
-  const ucv = new Float64Array(k)
+  const us = scratch.settlement
+  const ucv = scratch.cv
   let lo = Infinity
   let hi = 0
   let monotone = true
@@ -502,23 +512,42 @@ function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array,
       if (t > hi) hi = t
     }
   }
-  if (k === 1 || lo === hi) return lo
+  if (k === 1 || (monotone && lo === hi)) return lo
   if (!monotone) {
     // Rebound in some unit: search the whole span, as the engine does.
     lo = 0
     for (let u = 0; u < k; u++) hi = Math.max(hi, (timeFactorForDegree(0.9999) * units[u]!.hdr * units[u]!.hdr) / ucv[u]!)
   }
-  const degree = (t: number): number => {
+  const f = (t: number): number => {
     let s = 0
-    for (let u = 0; u < k; u++) s += us[u]! * degreeOfConsolidation((ucv[u]! * t) / (units[u]!.hdr * units[u]!.hdr))
-    return s / total
+    for (let u = 0; u < k; u++) s += us[u]! * degreeAt((ucv[u]! * t) / (units[u]!.hdr * units[u]!.hdr))
+    return s / total - 0.9
   }
+  let flo = f(lo)
+  let fhi = f(hi)
+  // Not bracketed (rounding at the ends): the end nearer the root.
+  if (!(flo < 0 && fhi >= 0)) return Math.abs(flo) < Math.abs(fhi) ? lo : hi
+  let side = 0
   for (let i = 0; i < 200 && hi - lo > 1e-12 * hi; i++) {
-    const mid = 0.5 * (lo + hi)
-    if (degree(mid) < 0.9) lo = mid
-    else hi = mid
+    let t = (lo * fhi - hi * flo) / (fhi - flo)
+    if (!(t > lo && t < hi)) t = 0.5 * (lo + hi)
+    const ft = f(t)
+    if (ft === 0) return t
+    if (ft < 0) {
+      lo = t
+      flo = ft
+      if (side === -1) fhi /= 2
+      side = -1
+    }
+    else {
+      hi = t
+      fhi = ft
+      if (side === 1) flo /= 2
+      side = 1
+    }
+    if (Math.abs(ft) < 1e-15) break
   }
-  return 0.5 * (lo + hi)
+  return Math.abs(flo) < Math.abs(fhi) ? lo : hi
 }
 
 /** Joins the samples of all chunks (in any order) into one set. */
@@ -563,8 +592,10 @@ export function summariseMonteCarlo(plan: MonteCarloPlan, samples: MonteCarloSam
     const t = sortedFinite(samples.t90)
     if (t.length > 0) result.t90 = summariseSorted(t)
   }
+  const settlementRanks = plan.variables.length > 0 ? midranks(samples.settlement) : new Float64Array(0)
   plan.variables.forEach((v, k) => {
-    const rho = rankCorrelation(samples.draws[k]!, samples.settlement)
+    // Spearman's ρ: Pearson's correlation of the midranks (Spearman 1904), the settlement's ranked once.
+    const rho = pearson(midranks(samples.draws[k]!), settlementRanks)
     if (Number.isFinite(rho)) result.sensitivity.push({ stratum: v.stratum, variable: v.variable, rankCorrelation: rho })
   })
   result.sensitivity.sort((a, b) => Math.abs(b.rankCorrelation) - Math.abs(a.rankCorrelation))
