@@ -130,20 +130,36 @@ export function exceedanceProbability(x: ArrayLike<number>, limit: number): numb
   return n === 0 ? Number.NaN : k / n
 }
 
-/** Midranks (0-based) of the values: ties share the average of the ranks they span. */
+/**
+ * Midranks (0-based) of finite values: ties share the average of the ranks they span. The values
+ * are sorted once (a numeric typed-array sort) and each is placed by binary search: its first and
+ * last positions among equal values give its midrank.
+ */
 export function midranks(x: ArrayLike<number>): Float64Array {
   const n = x.length
-  const order = new Uint32Array(n)
-  for (let i = 0; i < n; i++) order[i] = i
-  order.sort((a, b) => x[a]! - x[b]!)
+  const sorted = Float64Array.from(x).sort()
   const ranks = new Float64Array(n)
-  let i = 0
-  while (i < n) {
-    let j = i
-    while (j + 1 < n && x[order[j + 1]!]! === x[order[i]!]!) j++
-    const r = (i + j) / 2
-    for (let k = i; k <= j; k++) ranks[order[k]!] = r
-    i = j + 1
+  for (let i = 0; i < n; i++) {
+    const v = x[i]!
+    // First position with sorted ≥ v …
+    let lo = 0
+    let hi = n
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1
+      if (sorted[mid]! < v) lo = mid + 1
+      else hi = mid
+    }
+    // … and, when it has ties (rare in draws), the first position with sorted > v.
+    let end = lo + 1
+    if (end < n && sorted[end] === v) {
+      hi = n
+      while (end < hi) {
+        const mid = (end + hi) >>> 1
+        if (sorted[mid]! <= v) end = mid + 1
+        else hi = mid
+      }
+    }
+    ranks[i] = (lo + end - 1) / 2
   }
   return ranks
 }

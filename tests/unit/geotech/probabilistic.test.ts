@@ -371,3 +371,13 @@ describe('Summaries against simple-statistics 7.12', () => {
     expect(Array.from(midranks([3, 1, 3, 2]))).toEqual([2.5, 0, 2.5, 1])
   })
 })
+
+describe('Monte Carlo settlement — a variable that does not move the settlement', () => {
+  it('cv alone varies: the settlement is constant, its sensitivity left out, t90 spread (no slow path on 20 000 ties)', () => {
+    const r = runMonteCarlo(ncProfile(), { realizations: N, seed: 2, strata: { Clay: { cv: { cov: 0.4 } } } })
+    expect(r.sd).toBe(0)
+    expect(r.sensitivity).toEqual([])
+    expect(r.t90!.sd).toBeGreaterThan(0)
+    expect(Array.from(midranks(new Float64Array(N).fill(1)).subarray(0, 2))).toEqual([(N - 1) / 2, (N - 1) / 2])
+  })
+})
