@@ -31,6 +31,14 @@ export function calcSettlement(body: SettlementRequest, options: { sublayers: bo
       data: { code: 'too-many-realizations', limit: PROBABILISTIC_LIMITS.inline },
     })
   }
+  if (probabilistic && realizations * planned > PROBABILISTIC_LIMITS.inlineWork) {
+    throw createError({
+      statusCode: 413,
+      statusMessage: 'Payload Too Large',
+      message: `${realizations} realisations of ${planned} sublayers are more than this route computes at once (${PROBABILISTIC_LIMITS.inlineWork.toLocaleString('en')} realisation-sublayers). Use thicker sublayers or fewer realisations, or start a settlement run (POST /api/projects/{projectId}/settlement-runs), which runs as a job.`,
+      data: { code: 'too-much-work', limit: PROBABILISTIC_LIMITS.inlineWork },
+    })
+  }
   if (probabilistic) {
     const names = new Set(body.layers.map(l => l.name))
     const unknown = Object.keys(probabilistic.layers).filter(k => !names.has(k))

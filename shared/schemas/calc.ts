@@ -158,10 +158,11 @@ export const MAX_SETTLEMENT_LAYERS = 200
 
 /**
  * Bounds of the probabilistic block: realisations 100 – 100 000 (those above `inline` are refused
- * with 413 and a pointer to settlement runs), a COV of at most 2 (common practice: soil parameters
+ * with 413 and a pointer to settlement runs, as are more than `inlineWork` realisations × sublayers),
+ * a COV of at most 2 (common practice: soil parameters
  * scatter with COVs well below 1; more is a typing error), at most 50 named layers.
  */
-export const PROBABILISTIC_LIMITS = { realizations: [100, 100_000], inline: 20_000, cov: 2, layers: 50, seed: 2_147_483_647 } as const
+export const PROBABILISTIC_LIMITS = { realizations: [100, 100_000], inline: 20_000, cov: 2, layers: 50, seed: 2_147_483_647, inlineWork: 40_000_000 } as const
 export const PROBABILISTIC_DEFAULTS = { realizations: 5000, seed: 1, ccE0Correlation: 0.5 } as const
 
 const CovSchema = z.object({

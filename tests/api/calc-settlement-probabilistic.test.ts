@@ -95,6 +95,13 @@ describe('POST /api/calc/settlement — probabilistic', () => {
     expect(r.body.data?.code).toBe('too-many-realizations')
   })
 
+  it('more realisations × sublayers than the route computes at once: 413 too', async () => {
+    const r = await designer.post<Answer>('/api/calc/settlement', { ...BODY, sublayers: { count: 2500 }, probabilistic: { realizations: 10_000, layers: { Clay: { cc: { cov: 0.2 } } } } })
+    expect(r.status).toBe(413)
+    expect(r.body.data?.code).toBe('too-much-work')
+    expect(r.body.message).toContain('settlement run')
+  })
+
   it('a layer name the request lacks, or one that is not compressible: 422 with the reason', async () => {
     const r = await designer.post<Answer>('/api/calc/settlement', { ...BODY, probabilistic: { layers: { Peat: { cc: { cov: 0.2 } } } } })
     expect(r.status).toBe(422)
