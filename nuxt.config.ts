@@ -125,6 +125,12 @@ export default defineNuxtConfig({
           outfile: join(nitro.options.output.serverDir, 'workers', 'settlement-run.bundle.mjs'),
           bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
         })
+        // The Monte Carlo worker (a piscina task, services/monte-carlo-pool.ts): the engine bundled the same way.
+        await build({
+          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/monte-carlo.mjs')],
+          outfile: join(nitro.options.output.serverDir, 'workers', 'monte-carlo.bundle.mjs'),
+          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
+        })
         // The report renderer's worker: the report builders bundled, pdfmake resolved from .output's node_modules.
         await build({
           entryPoints: [resolve(nitro.options.rootDir, 'server/workers/report-render.mjs')],

@@ -75,11 +75,25 @@ export interface TrendFit {
   aicc: number
   /** Confidence band of the mean response over the fitted depth range (breakpoint held fixed for `crust`). */
   band: TrendBandPoint[]
+  /**
+   * Covariance of the fitted parameters, s²·(XᵀWX)⁻¹ with s² = RSS/(n − m): the matrix the band is drawn
+   * from (in log space the linearised s²·(JᵀWJ)⁻¹; Seber & Wild 1989, §2.1). `names` are keys of `parameters`
+   * in the matrix's order; the crust's breakpoint is held fixed and its `valueAtBreakpoint` follows from the
+   * model below. `logScale`: the matrix is of ln of the named parameters (a constant fitted on ln σ'p).
+   */
+  covariance?: TrendCovariance
   depthRange: { top: number, bottom: number }
   /** For `auto`: why this model was chosen, in words. */
   reason?: string
   /** For `auto`: every model tried. */
   candidates?: TrendCandidate[]
+}
+
+/** Parameter covariance of a fit (see `TrendFit.covariance`). */
+export interface TrendCovariance {
+  names: string[]
+  matrix: number[][]
+  logScale: boolean
 }
 
 export const MODEL_NAMES: Record<TrendModel, string> = {

@@ -8,7 +8,7 @@ import tQuantile from '@stdlib/stats-base-dists-t-quantile'
 import { GeotechError } from './errors'
 import { startSentence } from '../sentence'
 import { bracketIndex } from './stress'
-import { evaluateTrend, MODEL_NAMES, type CrustBelowModel, type TrendBandPoint, type TrendCandidate, type TrendFit, type TrendModel, type TrendOptions, type TrendPoint } from './trend-model'
+import { evaluateTrend, MODEL_NAMES, type CrustBelowModel, type TrendBandPoint, type TrendCandidate, type TrendCovariance, type TrendFit, type TrendModel, type TrendOptions, type TrendPoint } from './trend-model'
 
 export * from './trend-model'
 
@@ -263,7 +263,15 @@ function fitStraight(points: readonly TrendPoint[], model: 'constant' | 'linear'
   const parameters: Record<string, number> = model === 'constant'
     ? { preconsolidation: logConstant ? Math.exp(intercept) : intercept }
     : { intercept, gradient }
-  return { model, logSpace: logConstant, parameters, n, k: m + 1, ...stats, band, depthRange: { top, bottom } }
+  // s²·(XᵀWX)⁻¹ for X = [1] or [1, z], written with the centred sums (the band's own terms).
+  const covariance: TrendCovariance = model === 'constant'
+    ? { names: ['preconsolidation'], matrix: [[s2 / sumW]], logScale: logConstant }
+    : {
+        names: ['intercept', 'gradient'],
+        matrix: [[s2 * (1 / sumW + (mz * mz) / szz), -s2 * mz / szz], [-s2 * mz / szz, s2 / szz]],
+        logScale: false,
+      }
+  return { model, logSpace: logConstant, parameters, n, k: m + 1, ...stats, band, covariance, depthRange: { top, bottom } }
 }
 
 /** Validates the points once and builds σ'v0(z) for band depths and breakpoints. */
@@ -638,6 +646,13 @@ function finish(
       ? { depth, fitted, lower: fitted * Math.exp(-t * se), upper: fitted * Math.exp(t * se) }
       : { depth, fitted, lower: fitted - t * se, upper: fitted + t * se }
   })
+  // θ's names: the model's (the model below for a crust) and, for a crust, its gradient last.
+  const names = [...Object.keys(namedParameters(below ?? (model as CrustBelowModel), solved.theta)), ...(model === 'crust' ? ['crustGradient'] : [])]
+  const covariance: TrendCovariance = {
+    names,
+    matrix: Array.from({ length: design.p }, (_, j) => Array.from({ length: design.p }, (_, k) => s2 * solved.covariance[j * design.p + k]!)),
+    logScale: false,
+  }
   return {
     model,
     ...(below ? { crustBelow: below } : {}),
@@ -647,6 +662,7 @@ function finish(
     k: m + 1,
     ...stats,
     band,
+    covariance,
     depthRange: { top: prepared.top, bottom: prepared.bottom },
   }
 }

@@ -156,6 +156,39 @@ export const SublayerOptionsSchema = z.union([
 /** Most layers one settlement request may carry. */
 export const MAX_SETTLEMENT_LAYERS = 200
 
+/**
+ * Bounds of the probabilistic block: realisations 100 – 100 000 (those above `inline` are refused
+ * with 413 and a pointer to settlement runs, as are more than `inlineWork` realisations × sublayers),
+ * a COV of at most 2 (common practice: soil parameters
+ * scatter with COVs well below 1; more is a typing error), at most 50 named layers.
+ */
+export const PROBABILISTIC_LIMITS = { realizations: [100, 100_000], inline: 20_000, cov: 2, layers: 50, seed: 2_147_483_647, inlineWork: 40_000_000 } as const
+export const PROBABILISTIC_DEFAULTS = { realizations: 5000, seed: 1, ccE0Correlation: 0.5 } as const
+
+const CovSchema = z.object({
+  cov: num('Coefficient of variation (sd / mean) of the lognormal parameter, about the layer\'s value as its mean', { min: 0, max: PROBABILISTIC_LIMITS.cov }),
+})
+
+export const ProbabilisticLayerSchema = z.object({
+  cc: CovSchema.optional(),
+  cr: CovSchema.optional(),
+  e0: CovSchema.optional(),
+  cv: CovSchema.optional(),
+  preconsolidation: CovSchema.optional().describe("Scales σ'p of the layer's model lognormally (one factor per realisation)"),
+}).strict()
+
+export const ProbabilisticRequestSchema = z.object({
+  realizations: int(PROBABILISTIC_LIMITS.realizations[0], PROBABILISTIC_LIMITS.realizations[1]).optional()
+    .describe(`Realisations (default ${PROBABILISTIC_DEFAULTS.realizations}); above ${PROBABILISTIC_LIMITS.inline} the answer is 413: use a settlement run`),
+  seed: int(0, PROBABILISTIC_LIMITS.seed).optional().describe(`Seed of the random numbers (default ${PROBABILISTIC_DEFAULTS.seed}): the same inputs and seed give the same numbers`),
+  layers: z.record(str(80).min(1), ProbabilisticLayerSchema)
+    .refine(r => Object.keys(r).length <= PROBABILISTIC_LIMITS.layers, { message: `must name at most ${PROBABILISTIC_LIMITS.layers} layers` })
+    .describe('Variation per layer name (layers with the same name share their draws); layers not named do not vary'),
+  ccE0Correlation: num('Correlation of Cc and e0 within a layer (default 0.5, common practice)', { min: -1, max: 1 }).optional(),
+  limit: num('Settlement limit, m: the answer gives the probability of exceeding it', { min: 0, max: L.length, unit: 'm' }).optional(),
+}).strict()
+export type ProbabilisticRequest = z.infer<typeof ProbabilisticRequestSchema>
+
 export const SettlementRequestSchema = z.object({
   ...profileBase,
   layers: z.array(SettlementLayerSchema).min(1, { message: 'needs at least one layer' }).max(MAX_SETTLEMENT_LAYERS),
@@ -163,6 +196,7 @@ export const SettlementRequestSchema = z.object({
   sublayers: SublayerOptionsSchema.optional().describe('Default { maxThickness: 0.25 }'),
   time: z.object({ years: z.array(num('years', { min: 0, max: L.years, unit: 'years' })).min(1).max(1000) }).optional(),
   designLife: z.number().positive().max(L.years, { message: `must be at most ${L.years} years` }).optional().describe('Years after loading for secondary compression'),
+  probabilistic: ProbabilisticRequestSchema.optional().describe('Monte Carlo settlement: lognormal Cc, Cr, e0, cv and σ\'p per layer'),
 }).meta({ id: 'SettlementRequest' })
 export type SettlementRequest = z.infer<typeof SettlementRequestSchema>
 
@@ -192,6 +226,22 @@ export const SublayerRowSchema = z.object({
   compression: z.number().describe('m'),
 })
 
+const QuantilesSchema = z.object({ p05: z.number(), p10: z.number(), p50: z.number(), p90: z.number(), p95: z.number() })
+
+export const ProbabilisticResponseSchema = z.object({
+  realizations: z.number().int(),
+  seed: z.number().int(),
+  mean: z.number().describe('m'),
+  sd: z.number().describe('Sample standard deviation, m'),
+  quantiles: QuantilesSchema.describe('Percentiles of final primary settlement, m (linear between order statistics)'),
+  histogram: z.object({ edges: z.array(z.number()), counts: z.array(z.number().int()) }).describe('Equal bins from the least to the greatest settlement, m'),
+  exceedance: z.object({ limit: z.number(), probability: z.number() }).optional(),
+  t90: z.object({ mean: z.number(), sd: z.number(), quantiles: QuantilesSchema }).optional().describe('Years to 90 % of primary settlement, when every compressible layer has cv'),
+  sensitivity: z.array(z.object({ layer: z.string(), variable: z.enum(['cc', 'cr', 'e0', 'cv', 'preconsolidation']), rankCorrelation: z.number() }))
+    .describe('Spearman rank correlation of each varying parameter with the settlement, largest first'),
+  warnings: z.array(z.string()),
+}).meta({ id: 'ProbabilisticSettlement' })
+
 export const SettlementResponseSchema = z.object({
   settlement: z.number().describe('Total primary consolidation settlement, m'),
   convergence: z.object({ halved: z.number(), relativeChange: z.number() }).nullable().describe('Total with every sublayer halved, and the relative change'),
@@ -205,6 +255,7 @@ export const SettlementResponseSchema = z.object({
     layers: z.array(z.object({ name: z.string(), endOfPrimary: z.number(), settlement: z.number() })),
   }).optional(),
   warnings: z.array(z.string()),
+  probabilistic: ProbabilisticResponseSchema.optional().describe('Present when the request asks for it'),
   caution: z.string(),
 }).meta({ id: 'SettlementResponse' })
 

@@ -102,6 +102,7 @@ const CALC_BODIES: Record<string, Json> = {
     layers: [{ name: 'Clay', thickness: 6, unitWeight: 16, unitWeightSaturated: 16.5, compressible: true, cc: 0.8, cr: 0.08, e0: 2, preconsolidation: { type: 'pop', value: 20 }, cv: 2 }],
     load: { type: 'uniform', pressure: 50 },
     time: { years: [1, 5] },
+    probabilistic: { realizations: 200, seed: 3, layers: { Clay: { cc: { cov: 0.3 }, e0: { cov: 0.1 }, cv: { cov: 0.4 } } } },
   },
   '/api/calc/preconsolidation': { points: [{ stress: 10, voidRatio: 2.05 }, { stress: 20, voidRatio: 2.03 }, { stress: 40, voidRatio: 2.0 }, { stress: 80, voidRatio: 1.9 }, { stress: 160, voidRatio: 1.65 }, { stress: 320, voidRatio: 1.4 }], e0: 2.1 },
   '/api/calc/trend-fit': { model: 'linear', points: [{ depth: 2, preconsolidation: 40 }, { depth: 4, preconsolidation: 50 }, { depth: 6, preconsolidation: 62 }] },

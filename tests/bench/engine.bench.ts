@@ -12,6 +12,7 @@ import { toStressInput } from '../../shared/site-model/convert'
 import { scenarioDefinition } from '../helpers/scenario-definition'
 import { fitTrend } from '../../shared/geotech/trends'
 import { runReportBench } from './report.bench'
+import { monteCarloBench } from './probabilistic.bench'
 
 export interface BenchRow { name: string, ours: number, baseline: number, ratio: number, goal: number, note?: string }
 
@@ -279,4 +280,5 @@ export const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   runGrid: () => [runGridBench()],
   runStaged: () => [runStagedBench()],
   runReport: async () => [await runReportBench()],
+  monteCarlo: () => [monteCarloBench()],
 }
