@@ -4,7 +4,8 @@ import {
   draftFromRun, emptyDraft, loadFromBox, newLoad, nextLabel, normalizeDraft, round,
   type DraftDrains, type DraftLoad, type DraftLoadType, type DraftPoint, type RunInputs, type SettlementDraft,
 } from '#shared/settlement-run/draft'
-import { RUN_LIMITS, type RunOptions } from '#shared/schemas/settlement-runs'
+import { RUN_LIMITS } from '#shared/schemas/settlement-run-limits'
+import type { RunOptions } from '#shared/schemas/settlement-runs'
 import { useUndoHistory } from '../composables/useUndoHistory'
 
 /**

@@ -1,5 +1,11 @@
 import { z } from 'zod'
 import { int, str, UuidSchema } from './common'
+import { DRAIN_PATTERNS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS } from './settlement-run-limits'
+
+// The bounds and defaults need no zod: they live in settlement-run-limits.ts (the run pages import them from
+// there, so a results page's first load carries no zod) and are exported from here too.
+export { DRAIN_PATTERNS, MAX_GRID_POINTS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, SITE_EXTENT } from './settlement-run-limits'
+export type { DrainPattern } from './settlement-run-limits'
 
 /**
  * Settlement runs (`/api/projects/{projectId}/settlement-runs`): the request a designer's
@@ -8,82 +14,6 @@ import { int, str, UuidSchema } from './common'
  * beyond ±5 km of the site origin, a grid of more than 10,000 points, a version without
  * compressibility, σ'v0 ≤ 0) is refused by the service with 422 and the plain reason.
  */
-
-/** What one run may hold (bounds of the shape, 400 beyond). */
-export const RUN_LIMITS = {
-  name: 120,
-  label: 40,
-  loads: 20,
-  points: 100,
-  years: 50,
-  /** Plan coordinates as a shape bound, m; the site's own bound (422) is SITE_EXTENT. */
-  coordinate: 1_000_000,
-  /** Load dimensions, m. */
-  size: 10_000,
-  /** Pressures, kPa. */
-  pressure: 10_000,
-  /** Fill thickness or embankment height, m. */
-  height: 100,
-  unitWeight: [5, 30],
-  /** Side slope n (horizontal : 1 vertical). */
-  sideSlope: [0, 20],
-  /** Grid spacing and margin, m. */
-  gridSpacing: [0.5, 1000],
-  gridMargin: [0, 1000],
-  sublayer: [0.05, 5],
-  maxYears: 1000,
-  /** Construction stages per load. */
-  stages: [1, 12],
-  /** Stage start, duration and removal time, years from the run's time zero. */
-  stageTime: [0, 100],
-  /** Fractions must sum to 1 within this tolerance (422 beyond). */
-  fractionTolerance: 1e-6,
-  /** Strata one drain pattern may pass through. */
-  drainStrata: 20,
-  /** Drain spacing, m. */
-  drainSpacing: [0.3, 10],
-  /** Equivalent drain diameter dw, m. */
-  drainDiameter: [0.01, 0.5],
-  /** Smear zone ratio ds/dw, –. */
-  smearRatio: [1, 20],
-  /** kh/ks inside the smear zone, –. */
-  permeabilityRatio: [1, 50],
-  /** ch/cv, –. */
-  chRatio: [0.1, 20],
-  /** Discharge capacity qw, m³/yr. */
-  dischargeCapacity: [1, 10_000],
-} as const
-
-/** Loads and points must lie within this distance (m) of the site origin, along x and y (422 beyond). */
-export const SITE_EXTENT = 5000
-/** Most points a grid may have (422 beyond). */
-export const MAX_GRID_POINTS = 10_000
-
-/** Defaults a run's options take when the request leaves them out. */
-export const RUN_OPTION_DEFAULTS = {
-  maxSublayerThickness: 0.25,
-  years: [0.25, 0.5, 1, 2, 5, 10, 20, 50] as number[],
-  designLife: 50,
-  /** 1/500: common practice for a limit of angular distortion; check the project's criteria. */
-  angularDistortionLimit: 1 / 500,
-}
-
-/**
- * Defaults of a run's prefabricated vertical drains (`options.drains`).
- * - `diameter`: equivalent diameter dw = (a + b)/2 of a 100 mm × 4 mm band = 0.052 m
- *   (Hansbo 1979's perimeter-equivalent form).
- * - `smearRatio` ds/dw = 3 and `permeabilityRatio` kh/ks = 3: common practice for mandrel-driven
- *   band drains in soft clay; site trials should set them.
- * - `chRatio` ch/cv = 1 (no credit for horizontal layering): common practice as a cautious default.
- */
-export const RUN_DRAIN_DEFAULTS = {
-  pattern: 'triangular' as const,
-  /** (a + b)/2 = (0.100 + 0.004)/2 m. */
-  diameter: 0.052,
-  smearRatio: 3,
-  permeabilityRatio: 3,
-  chRatio: 1,
-}
 
 const L = RUN_LIMITS
 function num(what: string, min: number, max: number, unit = '') {
@@ -187,8 +117,6 @@ export const RunGridSchema = z.object({
 })
 export type RunGrid = z.infer<typeof RunGridSchema>
 
-export const DRAIN_PATTERNS = ['triangular', 'square'] as const
-export type DrainPattern = (typeof DRAIN_PATTERNS)[number]
 
 /**
  * Prefabricated vertical drains through the named strata (stratum codes of the model version;

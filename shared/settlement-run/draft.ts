@@ -1,7 +1,8 @@
 import { loadOutlines, type PlanLoad } from '../geotech/plan-loads'
 import { convert, type Quantity, type UnitSystem } from '../units'
 import { gridAxes } from './grid'
-import { RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, type DrainPattern, type RunGrid, type RunLoad, type RunLoadInput, type RunOptions, type RunPoint } from '../schemas/settlement-runs'
+import { RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, type DrainPattern } from '../schemas/settlement-run-limits'
+import type { RunGrid, RunLoad, RunLoadInput, RunOptions, RunPoint } from '../schemas/settlement-runs'
 
 /**
  * The run editor's working copy of a settlement run (SI: m, kPa, kN/m³, degrees, years) and the

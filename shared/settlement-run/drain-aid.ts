@@ -1,5 +1,5 @@
 import { DRAIN_SPACING_SEARCH, drainSpacingFor } from '../geotech/radial-consolidation'
-import { DRAIN_PATTERNS, type DrainPattern } from '../schemas/settlement-runs'
+import { DRAIN_PATTERNS, type DrainPattern } from '../schemas/settlement-run-limits'
 import type { SiteModelDefinition } from '../site-model/definition'
 
 /**
