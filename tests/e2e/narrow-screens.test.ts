@@ -24,17 +24,15 @@ async function sideOverflow(page: Page): Promise<SideOverflow> {
     const viewport = document.documentElement.clientWidth
     const scrollWidth = document.documentElement.scrollWidth
     const culprits: string[] = []
-    const clipped = (el: Element): boolean => {
-      for (let p = el.parentElement; p && p !== document.body; p = p.parentElement) {
-        const o = getComputedStyle(p).overflowX
-        if (o === 'auto' || o === 'scroll' || o === 'hidden' || o === 'clip') return true
-      }
-      return false
-    }
+    const sticksOut = (el: Element) => el.getBoundingClientRect().right > viewport + 0.5
     if (scrollWidth > viewport) {
+      // The outermost element past the edge whose box holds it neither in nor in a scroll of its own.
       for (const el of document.body.querySelectorAll('*')) {
         const r = el.getBoundingClientRect()
-        if (r.width > 0 && r.right > viewport + 0.5 && !clipped(el)) {
+        const parent = el.parentElement
+        // An absolutely placed element (a screen-reader text, a tip) escapes a scrolling box that is not its containing block.
+        const placed = getComputedStyle(el).position === 'absolute' && el instanceof HTMLElement && el.offsetParent && !sticksOut(el.offsetParent)
+        if (sticksOut(el) && parent && ((r.width > 0 && !sticksOut(parent) && getComputedStyle(parent).overflowX === 'visible') || placed)) {
           culprits.push(`${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${String(el.getAttribute('class') ?? '').split(/\s+/).slice(0, 4).join('.')} right=${Math.round(r.right)}`)
           if (culprits.length >= 10) break
         }
@@ -44,9 +42,10 @@ async function sideOverflow(page: Page): Promise<SideOverflow> {
   })
 }
 
-async function expectNoSideScroll(page: Page, what: string) {
+async function expectNoSideScroll(page: Page, what: string, shot?: string) {
+  if (shot) await screenshot(page, shot)
   const o = await sideOverflow(page)
-  expect(o.scrollWidth, `${what} is ${o.scrollWidth} px wide on a ${o.viewport} px screen: ${o.culprits.join('; ')}`).toBeLessThanOrEqual(o.viewport)
+  expect.soft(o.scrollWidth, `${what} is ${o.scrollWidth} px wide on a ${o.viewport} px screen: ${o.culprits.join('; ')}`).toBeLessThanOrEqual(o.viewport)
 }
 
 /** The element is on screen, not hidden and not off to the side. */
@@ -94,8 +93,7 @@ describe('the demo on a 390 px phone', () => {
     const saved = await intervalsOf(demo.client, demo.projectId, bh01)
     expect(await page.getByTestId('log-item').count()).toBe(saved.length)
     expect(await page.getByTestId('log-item-description').first().textContent()).toContain(saved[0]!.description.trim().slice(0, 20))
-    await expectNoSideScroll(page, 'The point page')
-    await screenshot(page, 'narrow-point-phone')
+    await expectNoSideScroll(page, 'The point page', 'narrow-point-phone')
 
     const inForce = (await demo.client.get<{ modelId: string | null }>(`/api/projects/${demo.projectId}/model-in-force`)).body
     expect(inForce.modelId).toBeTruthy()
@@ -108,8 +106,7 @@ describe('the demo on a 390 px phone', () => {
     const tracks = await page.getByTestId('track-scroller').evaluate(el => ({ client: el.clientWidth, scroll: el.scrollWidth, overflow: getComputedStyle(el).overflowX }))
     expect(tracks.overflow).toBe('auto')
     expect(tracks.client).toBeLessThanOrEqual(PHONE.width)
-    await expectNoSideScroll(page, 'The stress-model page')
-    await screenshot(page, 'narrow-model-phone')
+    await expectNoSideScroll(page, 'The stress-model page', 'narrow-model-phone')
 
     await page.goto(demo.url('/preconsolidation'))
     await page.getByTestId('points-table').locator('tbody tr').first().waitFor()
@@ -117,8 +114,7 @@ describe('the demo on a 390 px phone', () => {
     const table = await page.getByTestId('points-table').evaluate(el => ({ box: el.parentElement!.clientWidth, table: el.scrollWidth, overflow: getComputedStyle(el.parentElement!).overflowX }))
     expect(table.overflow).toBe('auto')
     expect(table.box).toBeLessThan(table.table)
-    await expectNoSideScroll(page, 'The σ\'p data page')
-    await screenshot(page, 'narrow-preconsolidation-phone')
+    await expectNoSideScroll(page, 'The σ\'p data page', 'narrow-preconsolidation-phone')
     await page.close()
   })
 
@@ -136,8 +132,8 @@ describe('the demo on a 390 px phone', () => {
     const wide: string[] = []
     for (const path of pages) {
       await page.goto(demo.url(path))
-      await page.locator('h1').first().waitFor()
       await page.waitForLoadState('networkidle')
+      await page.locator('#__nuxt h1, #__nuxt h2').first().waitFor()
       const o = await sideOverflow(page)
       if (o.scrollWidth > o.viewport) wide.push(`${path || '/'} ${o.scrollWidth} px: ${o.culprits.join('; ')}`)
       await screenshot(page, `narrow-other${path.replace(/\/[0-9a-f-]{36}/g, '').replace(/\//g, '-') || '-overview'}-phone`)
@@ -162,8 +158,7 @@ describe('editing a log on a 390 px phone', () => {
     const text = 'Soft grey silty CLAY with shell fragments, logged on a phone'
     await form.getByLabel('Description').fill(text)
     await form.getByLabel('Consistency / density').fill('soft')
-    await screenshot(page, 'narrow-log-form-phone')
-    await expectNoSideScroll(page, 'The point page with a form open')
+    await expectNoSideScroll(page, 'The point page with a form open', 'narrow-log-form-phone')
     await form.getByTestId('log-form-done').click()
     await form.waitFor({ state: 'detached' })
     expect(await second.getByTestId('log-item-description').textContent()).toBe(text)
