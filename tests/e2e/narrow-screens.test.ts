@@ -136,7 +136,7 @@ describe('the demo on a 390 px phone', () => {
       await page.locator('#__nuxt h1, #__nuxt h2').first().waitFor()
       const o = await sideOverflow(page)
       if (o.scrollWidth > o.viewport) wide.push(`${path || '/'} ${o.scrollWidth} px: ${o.culprits.join('; ')}`)
-      await screenshot(page, `narrow-other${path.replace(/\/[0-9a-f-]{36}/g, '').replace(/\//g, '-') || '-overview'}-phone`)
+      await screenshot(page, `narrow-other${path.replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-') || '-overview'}-phone`)
     }
     expect(wide).toEqual([])
     await page.close()
