@@ -127,7 +127,8 @@ describe('the demo on a 390 px phone', () => {
     const runs = (await demo.client.get<{ runs: { id: string }[] }>(`/api/projects/${id}/settlement-runs`)).body.runs
     const pages = [
       '', '/plan', '/strata', '/tests', `/tests/oedometer/${tests[0]!.id}`, '/import', '/review', '/reports',
-      '/models', `/models/${inForce.modelId}/versions/1`, '/settlement', `/settlement/${runs[0]!.id}`, `/points/${bh01}/sheet`,
+      '/models', `/models/${inForce.modelId}/versions/1`, `/models/${inForce.modelId}/compare`, '/settlement', '/settlement/new',
+      `/settlement/${runs[0]!.id}`, `/settlement/compare?a=${runs[0]!.id}&b=${runs[runs.length - 1]!.id}`, `/points/${bh01}/sheet`, '/settings',
     ]
     const wide: string[] = []
     for (const path of pages) {
@@ -136,7 +137,7 @@ describe('the demo on a 390 px phone', () => {
       await page.locator('#__nuxt h1, #__nuxt h2').first().waitFor()
       const o = await sideOverflow(page)
       if (o.scrollWidth > o.viewport) wide.push(`${path || '/'} ${o.scrollWidth} px: ${o.culprits.join('; ')}`)
-      await screenshot(page, `narrow-other${path.replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-') || '-overview'}-phone`)
+      await screenshot(page, `narrow-other${path.replace(/\?.*$/, '').replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-') || '-overview'}-phone`)
     }
     expect(wide).toEqual([])
     await page.close()
