@@ -40,11 +40,15 @@ function watchCsp(page: Page) {
   })
 }
 
-export async function launch(): Promise<Browser> {
+/** A browser as a device: its screen, and touch (`hasTouch`, `isMobile`) for a phone or tablet. */
+export interface Device { viewport?: { width: number, height: number }, hasTouch?: boolean, isMobile?: boolean }
+
+export async function launch(device: Device = {}): Promise<Browser> {
   const dir = mkdtempSync(join(tmpdir(), 'pastload-chromium-'))
   const context = await chromium.launchPersistentContext(dir, {
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     viewport: { width: 1280, height: 800 },
+    ...device,
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
   })
   // Runs before any page script; the browser reports each blocked load or inline use as a DOM event.
@@ -65,9 +69,9 @@ export async function launch(): Promise<Browser> {
  * One Chromium for the enclosing describe: launched before its first test, closed (and
  * checked for late CSP violations) after its last. Read `.context` inside hooks and tests.
  */
-export function useBrowser(): { readonly context: BrowserContext } {
+export function useBrowser(device: Device = {}): { readonly context: BrowserContext } {
   let browser: Browser | undefined
-  beforeAll(async () => { browser = await launch() })
+  beforeAll(async () => { browser = await launch(device) })
   afterAll(async () => { await browser?.close() })
   return {
     get context() {
@@ -105,8 +109,8 @@ export async function openProjectAs(context: BrowserContext, role: ProjectRole, 
  * person in through the form and opens the project's page at `path` (`/models/<id>`, `/strata`, …),
  * at the `viewport` size if given.
  */
-export function useProjectAs(role: ProjectRole, copyTag?: string) {
-  const browser = useBrowser()
+export function useProjectAs(role: ProjectRole, copyTag?: string, device: Device = {}) {
+  const browser = useBrowser(device)
   let client: Client | undefined
   let projectId = ''
   beforeAll(async () => {

@@ -12,7 +12,7 @@ describe('site plan: points drawn at the same place', () => {
     const nest = page.locator('[data-testid="plan-point"][data-cluster-size="3"]')
     await nest.waitFor()
     expect(await nest.locator('text.label').textContent()).toBe('P-1 +2')
-    expect(await nest.getAttribute('aria-label')).toContain('with 2 more points drawn at the same place')
+    expect(await nest.getAttribute('aria-label')).toContain('with 2 more points near here')
     // The other two are not drawn (nor reachable by Tab) while the nest is one mark.
     for (const hidden of ['P-2', 'P-3']) {
       const mark = page.locator(`[data-testid="plan-point"][aria-label^="${hidden},"]`)
@@ -24,6 +24,7 @@ describe('site plan: points drawn at the same place', () => {
     await page.keyboard.press('Enter')
     const list = page.getByTestId('plan-cluster')
     await list.waitFor()
+    expect((await list.locator('p').first().textContent())?.trim()).toBe('3 points near here')
     expect(await list.getByTestId('plan-cluster-point').allTextContents()).toEqual([
       expect.stringContaining('P-1'), expect.stringContaining('P-2'), expect.stringContaining('P-3'),
     ])

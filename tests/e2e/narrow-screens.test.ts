@@ -1,0 +1,221 @@
+// Pastload on a phone (390 px) and a tablet with touch (768 px), in Chromium. The point page, the
+// stress-model page and the σ'p data page never scroll sideways (tables scroll inside their card,
+// the canvas tracks as one block); the log is a list of intervals with a form, edited and saved by
+// tap; at 768 px every control tapped is at least 44 px tall. The other project pages are checked too.
+import type { Page } from 'playwright-core'
+import { describe, expect, it } from 'vitest'
+import type { IntervalRow } from '../../shared/types/investigation'
+import type { Client } from '../helpers/http'
+import { screenshot, useProjectAs } from './helpers'
+
+const PHONE = { width: 390, height: 844 }
+const TABLET = { width: 768, height: 1024 }
+
+interface SideOverflow {
+  viewport: number
+  scrollWidth: number
+  /** What sticks out past the right edge, outside any box that scrolls or clips sideways (for the failure message). */
+  culprits: string[]
+}
+
+/** The document's width against the screen's, and the elements that stick out. */
+async function sideOverflow(page: Page): Promise<SideOverflow> {
+  return page.evaluate(() => {
+    const viewport = document.documentElement.clientWidth
+    const scrollWidth = document.documentElement.scrollWidth
+    const culprits: string[] = []
+    const sticksOut = (el: Element) => el.getBoundingClientRect().right > viewport + 0.5
+    if (scrollWidth > viewport) {
+      // The outermost element past the edge whose box holds it neither in nor in a scroll of its own.
+      for (const el of document.body.querySelectorAll('*')) {
+        const r = el.getBoundingClientRect()
+        const parent = el.parentElement
+        // An absolutely placed element (a screen-reader text, a tip) escapes a scrolling box that is not its containing block.
+        const placed = getComputedStyle(el).position === 'absolute' && el instanceof HTMLElement && el.offsetParent && !sticksOut(el.offsetParent)
+        if (sticksOut(el) && parent && ((r.width > 0 && !sticksOut(parent) && getComputedStyle(parent).overflowX === 'visible') || placed)) {
+          culprits.push(`${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${String(el.getAttribute('class') ?? '').split(/\s+/).slice(0, 4).join('.')} right=${Math.round(r.right)}`)
+          if (culprits.length >= 10) break
+        }
+      }
+    }
+    return { viewport, scrollWidth, culprits }
+  })
+}
+
+async function expectNoSideScroll(page: Page, what: string, shot?: string) {
+  if (shot) await screenshot(page, shot)
+  const o = await sideOverflow(page)
+  expect.soft(o.scrollWidth, `${what} is ${o.scrollWidth} px wide on a ${o.viewport} px screen: ${o.culprits.join('; ')}`).toBeLessThanOrEqual(o.viewport)
+}
+
+/** The element is on screen, not hidden and not off to the side. */
+async function expectShown(page: Page, testId: string) {
+  const el = page.getByTestId(testId).first()
+  await el.waitFor()
+  const box = await el.boundingBox()
+  expect(box, `${testId} has no box`).not.toBeNull()
+  expect(box!.width).toBeGreaterThan(0)
+  expect(box!.x).toBeGreaterThanOrEqual(0)
+  expect(box!.x + box!.width).toBeLessThanOrEqual(page.viewportSize()!.width + 0.5)
+}
+
+async function pointIdOf(client: Client, projectId: string, identifier: string): Promise<string> {
+  const r = await client.get<{ points: { id: string, identifier: string }[] }>(`/api/projects/${projectId}/points?q=${identifier}`)
+  const p = r.body.points.find(x => x.identifier === identifier)
+  if (!p) throw new Error(`no point ${identifier}`)
+  return p.id
+}
+
+async function intervalsOf(client: Client, projectId: string, pointId: string): Promise<IntervalRow[]> {
+  return (await client.get<{ intervals: IntervalRow[] }>(`/api/projects/${projectId}/points/${pointId}`)).body.intervals
+}
+
+/** Every tap target at least 44 px tall and wide (a fingertip). */
+async function expectFingerSized(page: Page, testId: string) {
+  const box = await page.getByTestId(testId).first().boundingBox()
+  expect(box, `${testId} has no box`).not.toBeNull()
+  expect(box!.height, `${testId} is ${box!.height} px tall`).toBeGreaterThanOrEqual(44)
+  expect(box!.width, `${testId} is ${box!.width} px wide`).toBeGreaterThanOrEqual(44)
+}
+
+describe('the demo on a 390 px phone', () => {
+  const demo = useProjectAs('geologist')
+
+  it('the point page, the stress-model page and the σ\'p data page fit the screen, with their key content shown', async () => {
+    const bh01 = await pointIdOf(demo.client, demo.projectId, 'BH-01')
+    const page = await demo.open(`/points/${bh01}`, { viewport: PHONE })
+    await page.getByTestId('log-item').first().waitFor()
+    await expectShown(page, 'point-identifier')
+    await expectShown(page, 'point-facts')
+    await expectShown(page, 'log-item-depths')
+    // The grid is not drawn; the list says each interval in words.
+    expect(await page.getByTestId('log-grid').isVisible()).toBe(false)
+    const saved = await intervalsOf(demo.client, demo.projectId, bh01)
+    expect(await page.getByTestId('log-item').count()).toBe(saved.length)
+    expect(await page.getByTestId('log-item-description').first().textContent()).toContain(saved[0]!.description.trim().slice(0, 20))
+    await expectNoSideScroll(page, 'The point page', 'narrow-point-phone')
+
+    const inForce = (await demo.client.get<{ modelId: string | null }>(`/api/projects/${demo.projectId}/model-in-force`)).body
+    expect(inForce.modelId).toBeTruthy()
+    await page.goto(demo.url(`/models/${inForce.modelId}`))
+    await page.getByTestId('model-workspace').waitFor()
+    await page.getByTestId('track-scroller').waitFor()
+    await expectShown(page, 'model-title')
+    await expectShown(page, 'workspace-caution')
+    // The tracks scroll sideways as one block inside their box.
+    const tracks = await page.getByTestId('track-scroller').evaluate(el => ({ client: el.clientWidth, scroll: el.scrollWidth, overflow: getComputedStyle(el).overflowX }))
+    expect(tracks.overflow).toBe('auto')
+    expect(tracks.client).toBeLessThanOrEqual(PHONE.width)
+    await expectNoSideScroll(page, 'The stress-model page', 'narrow-model-phone')
+
+    await page.goto(demo.url('/preconsolidation'))
+    await page.getByTestId('points-table').locator('tbody tr').first().waitFor()
+    await expectShown(page, 'shown-count')
+    const table = await page.getByTestId('points-table').evaluate(el => ({ box: el.parentElement!.clientWidth, table: el.scrollWidth, overflow: getComputedStyle(el.parentElement!).overflowX }))
+    expect(table.overflow).toBe('auto')
+    expect(table.box).toBeLessThan(table.table)
+    await expectNoSideScroll(page, 'The σ\'p data page', 'narrow-preconsolidation-phone')
+    await page.close()
+  })
+
+  it('the other project pages fit the screen too', async () => {
+    const page = await demo.open('', { viewport: PHONE })
+    const id = demo.projectId
+    const bh01 = await pointIdOf(demo.client, id, 'BH-01')
+    const inForce = (await demo.client.get<{ modelId: string }>(`/api/projects/${id}/model-in-force`)).body
+    const tests = (await demo.client.get<{ tests: { id: string }[] }>(`/api/projects/${id}/tests/oedometer`)).body.tests
+    const runs = (await demo.client.get<{ runs: { id: string }[] }>(`/api/projects/${id}/settlement-runs`)).body.runs
+    const pages = [
+      '', '/plan', '/strata', '/tests', `/tests/oedometer/${tests[0]!.id}`, '/import', '/review', '/reports',
+      '/models', `/models/${inForce.modelId}/versions/1`, `/models/${inForce.modelId}/compare`, '/settlement', '/settlement/new',
+      `/settlement/${runs[0]!.id}`, `/settlement/compare?a=${runs[0]!.id}&b=${runs[runs.length - 1]!.id}`, `/points/${bh01}/sheet`, '/settings',
+    ]
+    const wide: string[] = []
+    for (const path of pages) {
+      await page.goto(demo.url(path))
+      await page.waitForLoadState('networkidle')
+      await page.locator('#__nuxt h1, #__nuxt h2').first().waitFor()
+      const o = await sideOverflow(page)
+      if (o.scrollWidth > o.viewport) wide.push(`${path || '/'} ${o.scrollWidth} px: ${o.culprits.join('; ')}`)
+      await screenshot(page, `narrow-other${path.replace(/\?.*$/, '').replace(/\/[0-9a-f-]{36}/g, '-id').replace(/\//g, '-') || '-overview'}-phone`)
+    }
+    expect(wide).toEqual([])
+    await page.close()
+  })
+})
+
+describe('editing a log on a 390 px phone', () => {
+  const site = useProjectAs('geologist', 'E2E-NAR')
+
+  it('opens an interval from the list, edits it in its form and saves the log', async () => {
+    const bh01 = await pointIdOf(site.client, site.projectId, 'BH-01')
+    const before = await intervalsOf(site.client, site.projectId, bh01)
+    const page = await site.open(`/points/${bh01}`, { viewport: PHONE })
+    const second = page.getByTestId('log-item').nth(1)
+    await second.getByTestId('log-item-open').click()
+    const form = page.getByTestId('log-form')
+    await form.waitFor()
+    expect(await form.getByLabel('Description').inputValue()).toBe(before[1]!.description)
+    const text = 'Soft grey silty CLAY with shell fragments, logged on a phone'
+    await form.getByLabel('Description').fill(text)
+    await form.getByLabel('Consistency / density').fill('soft')
+    await expectNoSideScroll(page, 'The point page with a form open', 'narrow-log-form-phone')
+    await form.getByTestId('log-form-done').click()
+    await form.waitFor({ state: 'detached' })
+    expect(await second.getByTestId('log-item-description').textContent()).toBe(text)
+    await page.getByTestId('log-unsaved').waitFor()
+
+    await page.getByTestId('log-save').click()
+    await page.getByTestId('log-notice').waitFor()
+    expect(await page.getByTestId('log-notice').textContent()).toContain(`Saved the log of BH-01: ${before.length} intervals.`)
+    const after = await intervalsOf(site.client, site.projectId, bh01)
+    expect(after.length).toBe(before.length)
+    expect(after[1]!.description).toBe(text)
+    expect(after[1]!.consistency).toBe('soft')
+    expect(after[0]!.description).toBe(before[0]!.description)
+    await screenshot(page, 'narrow-log-saved-phone')
+    await page.close()
+  })
+})
+
+describe('the point page on a 768 px tablet with touch', () => {
+  const site = useProjectAs('geologist', 'E2E-NAR-T', { viewport: TABLET, hasTouch: true, isMobile: true })
+
+  it('takes taps: an interval changed through its form and saved, every target finger-sized', async () => {
+    const bh01 = await pointIdOf(site.client, site.projectId, 'BH-01')
+    const before = await intervalsOf(site.client, site.projectId, bh01)
+    const page = await site.open(`/points/${bh01}`)
+    expect(await page.evaluate(() => matchMedia('(pointer: coarse)').matches)).toBe(true)
+    await page.getByTestId('log-item').first().waitFor()
+    await expectNoSideScroll(page, 'The point page at 768 px')
+    await expectFingerSized(page, 'log-item-open')
+    await expectFingerSized(page, 'log-add-item')
+    await expectFingerSized(page, 'log-save')
+    for (const tab of ['Samples', 'SPT', 'Groundwater']) {
+      const box = await page.getByRole('tab', { name: new RegExp(`^${tab}`) }).boundingBox()
+      expect(box!.height, `the ${tab} tab is ${box!.height} px tall`).toBeGreaterThanOrEqual(44)
+    }
+
+    // The last interval: its consistency changed by tapping into the form.
+    const last = before.length - 1
+    await page.getByTestId('log-item').nth(last).getByTestId('log-item-open').tap()
+    const form = page.getByTestId('log-form')
+    await form.waitFor()
+    await expectFingerSized(page, 'log-form-done')
+    await expectFingerSized(page, 'log-form-delete')
+    const field = form.getByLabel('Consistency / density')
+    expect((await field.boundingBox())!.height).toBeGreaterThanOrEqual(44)
+    await field.tap()
+    await field.fill('very stiff')
+    await screenshot(page, 'narrow-log-form-tablet')
+    await form.getByTestId('log-form-done').tap()
+    await form.waitFor({ state: 'detached' })
+
+    await page.getByTestId('log-save').tap()
+    await page.getByTestId('log-notice').waitFor()
+    const after = await intervalsOf(site.client, site.projectId, bh01)
+    expect(after.map(iv => iv.consistency)).toEqual([...before.slice(0, last).map(iv => iv.consistency), 'very stiff'])
+    await screenshot(page, 'narrow-point-tablet')
+    await page.close()
+  })
+})
