@@ -152,7 +152,11 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
     const prev = rows.value[at - 1]
     const row = emptyRow()
     // A new row below another starts where that one ends.
-    if (prev && !Number.isNaN(parseDepth(prev.bottom))) row.top = prev.bottom.trim()
+    if (prev && !Number.isNaN(parseDepth(prev.bottom))) {
+      row.top = prev.bottom.trim()
+      // Shown in feet, it starts at that row's exact metres, not at the rounded feet read back.
+      if (prev.saved && row.top === prev.saved.bottomText) row.saved = { top: prev.saved.bottom, topText: row.top, bottom: Number.NaN, bottomText: '' }
+    }
     rows.value.splice(at, 0, row)
     restartEditSession()
     if (focus) hooks.focusCell(at, row.top ? 'bottom' : 'top')

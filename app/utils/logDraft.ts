@@ -31,9 +31,9 @@ export function logColumnLabels(unit: DepthUnit = 'm'): Record<LogColumn, string
 }
 export const LOG_COLUMN_LABELS: Record<LogColumn, string> = logColumnLabels('m')
 
-/** A depth in metres as text in the unit (4 decimals at most). */
+/** A depth in metres as text in the unit: metres to 4 decimals at most, feet to 2 (trailing zeros dropped). */
 export function depthText(metres: number, unit: DepthUnit = 'm'): string {
-  return Number((metres / METRES_PER[unit]).toFixed(4)).toString()
+  return Number((metres / METRES_PER[unit]).toFixed(unit === 'm' ? 4 : 2)).toString()
 }
 
 /**
@@ -57,6 +57,11 @@ export interface DraftRow {
   stratumId: string
   moisture: string
   consistency: string
+  /**
+   * The saved depths in metres with the text first shown for them (feet rounded to 0.01): while a cell still
+   * holds that text the row keeps its exact metres, so showing a log in feet never changes it.
+   */
+  saved?: { top: number, bottom: number, topText: string, bottomText: string }
 }
 
 /** A saved log interval as the point reply holds it (the fields the table edits). */
@@ -87,12 +92,15 @@ export function emptyRow(): DraftRow {
 }
 
 export function draftFromInterval(iv: SavedInterval, unit: DepthUnit = 'm'): DraftRow {
+  const top = depthText(iv.top, unit)
+  const bottom = depthText(iv.bottom, unit)
   return {
     key: newKey(),
     id: iv.id,
     version: iv.version,
-    top: depthText(iv.top, unit),
-    bottom: depthText(iv.bottom, unit),
+    top,
+    bottom,
+    ...(unit === 'm' ? {} : { saved: { top: iv.top, bottom: iv.bottom, topText: top, bottomText: bottom } }),
     description: iv.description,
     uscs: iv.uscs ?? '',
     stratumId: iv.stratumId ?? '',
@@ -116,8 +124,8 @@ export function toPayloadRow(r: DraftRow, unit: DepthUnit = 'm'): IntervalPayloa
   const opt = (s: string) => (s.trim() === '' ? null : s.trim())
   return {
     ...(r.id ? { id: r.id, version: r.version } : {}),
-    top: depthToMetres(parseDepth(r.top), unit),
-    bottom: depthToMetres(parseDepth(r.bottom), unit),
+    top: r.saved && r.top.trim() === r.saved.topText ? r.saved.top : depthToMetres(parseDepth(r.top), unit),
+    bottom: r.saved && r.bottom.trim() === r.saved.bottomText ? r.saved.bottom : depthToMetres(parseDepth(r.bottom), unit),
     description: r.description.trim(),
     uscs: opt(r.uscs),
     stratumId: opt(r.stratumId),

@@ -1,6 +1,6 @@
 import type { RunLoad, RunOptions } from '../schemas/settlement-runs'
 import type { RunResults, SettlementRun } from '../types/settlement-runs'
-import { convert, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
+import { convert, displayDigits, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
 
 /**
  * Two settlement runs side by side: what differs in their inputs, their headline figures with
@@ -50,7 +50,7 @@ export function describeLoad(l: RunLoad, u: CompareUnits = SI): string {
   const G = unitLabel('unitWeight', u.system)
   const len = (v: number, d = 2) => num(v, 'length', u, d)
   const at = (x: number, y: number) => `(${len(x, 1)}, ${len(y, 1)})`
-  const p = 'fill' in l && l.fill ? `fill ${len(l.fill.thickness)} ${L} × ${num(l.fill.unitWeight, 'unitWeight', u, 1)} ${G}` : 'pressure' in l && l.pressure !== undefined ? `${num(l.pressure, 'stress', u, u.system === 'US' && u.usStress === 'tsf' ? 2 : 1)} ${unitLabel('stress', u.system, { usStress: u.usStress })}` : ''
+  const p = 'fill' in l && l.fill ? `fill ${len(l.fill.thickness)} ${L} × ${num(l.fill.unitWeight, 'unitWeight', u, 1)} ${G}` : 'pressure' in l && l.pressure !== undefined ? `${num(l.pressure, 'stress', u, displayDigits('stress', u.system, { usStress: u.usStress }))} ${unitLabel('stress', u.system, { usStress: u.usStress })}` : ''
   switch (l.type) {
     case 'uniform': return `uniform, ${p}`
     case 'rectangle': return `rectangle ${len(l.width)} × ${len(l.length)} ${L} at ${at(l.x, l.y)}${l.rotation ? `, ${fmt(l.rotation, 1)}°` : ''}, ${p}`

@@ -160,7 +160,7 @@ describe('US units on every converted page', () => {
     // A sounding: the cone plot's axes and the Ic track.
     await page.goto(`${web}/points/${cpt.id}`)
     await page.getByTestId('cpt-plot').waitFor()
-    await expect.poll(() => page.getByTestId('cpt-plot').locator('svg text').allInnerTexts().then(t => t.join(' '))).toContain('Depth (ft)')
+    await expect.poll(() => page.getByTestId('cpt-plot').locator('svg text').allTextContents().then(t => t.join(' '))).toContain('Depth (ft)')
     await read('cpt point')
     await shoot(page, 'units-us-cpt')
 

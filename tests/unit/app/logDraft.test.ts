@@ -68,12 +68,15 @@ describe('a log typed in feet', () => {
 
   it('shows saved metres as feet and reads them back to the same metres, so an untouched row is unchanged', () => {
     const r = draftFromInterval(saved, 'ft')
-    expect(r.bottom).toBe('98.4252')
-    expect(r.top).toBe('3.937')
+    expect(r.bottom).toBe('98.43')
+    expect(r.top).toBe('3.94')
     const back = toPayload([r], 'ft').intervals[0]!
     expect(back.top).toBe(1.2)
     expect(back.bottom).toBe(30)
-    expect(depthText(30, 'ft')).toBe('98.4252')
+    // A depth typed anew is read from its feet (3.95 ft = 1.20396 m, to 0.1 mm).
+    expect(toPayload([{ ...r, top: '3.95' }], 'ft').intervals[0]!.top).toBe(1.204)
+    expect(depthText(30, 'ft')).toBe('98.43')
+    expect(depthText(1.23456, 'm')).toBe('1.2346')
     expect(depthToMetres(10, 'ft')).toBe(3.048)
     expect(depthToMetres(10, 'm')).toBe(10)
   })
@@ -86,6 +89,6 @@ describe('a log typed in feet', () => {
     // 0–10 ft, then 5–20 ft overlaps; the hole ends at 6 m (19.685 ft).
     const check = validateDraft([row('0', '10'), row('5', '20')], 6, 'ft')
     expect(check.errors[1]!.top).toBe('Overlaps the interval 0–10 ft (row 1).')
-    expect(check.errors[1]!.bottom).toBe("Bottom (20 ft) is below the hole's final depth (19.685 ft).")
+    expect(check.errors[1]!.bottom).toBe("Bottom (20 ft) is below the hole's final depth (19.69 ft).")
   })
 })
