@@ -65,7 +65,7 @@ export function exportWorkbook(project: ProjectRow, model: { name: string }, v: 
   const { rows } = tableOrRefuse(v.definition, maxThickness)
   // In the project's units, labelled in each heading (the JSON export stays SI, as its own `units` says).
   const u = exportUnits(project)
-  const cv = (x: number | null | undefined) => (x === null || x === undefined ? null : Number(convert(x, 'coefficientOfConsolidation', 'SI', project.unitSystem).toFixed(4)))
+  const cv = (x: number | null | undefined) => (x === null || x === undefined ? null : project.unitSystem === 'SI' ? x : Number(convert(x, 'coefficientOfConsolidation', 'SI', project.unitSystem).toFixed(4)))
   const cvLabel = unitLabel('coefficientOfConsolidation', project.unitSystem)
   const wb = XLSX.utils.book_new()
   XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([

@@ -29,11 +29,11 @@ export async function loadProjectLogs(projectId: string) {
   return { points, byId, strata: strataRows, intervals, samples: sampleRows, spt, groundwater, vane, cpt }
 }
 
-/** Values and column labels in the project's units (SI or US, psf or tsf); values rounded to what a file needs. */
+/** Values and column labels in the project's units (SI or US, psf or tsf); SI values as stored, converted ones rounded to what a file needs. */
 export function exportUnits(project: Pick<ProjectRow, 'unitSystem' | 'usStressUnit'>) {
   const opts = { usStress: project.usStressUnit }
   const DIGITS: Record<Quantity, number> = { length: 4, stress: 3, unitWeight: 3, coefficientOfConsolidation: 4 }
-  const v = (x: number | null | undefined, q: Quantity) => (x === null || x === undefined ? null : Number(convert(x, q, 'SI', project.unitSystem, opts).toFixed(DIGITS[q])))
+  const v = (x: number | null | undefined, q: Quantity) => (x === null || x === undefined ? null : project.unitSystem === 'SI' ? x : Number(convert(x, q, 'SI', project.unitSystem, opts).toFixed(DIGITS[q])))
   const label = (q: Quantity) => unitLabel(q, project.unitSystem, opts)
   return {
     len: (x: number | null | undefined) => v(x, 'length'),
