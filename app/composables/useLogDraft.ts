@@ -5,7 +5,7 @@ import { useWriteAction } from './useWriteAction'
 import { apiConflictCurrent, apiErrorIssues, apiErrorMessage, apiErrorStatus } from '../utils/apiErrors'
 import {
   applyPaste, draftFromInterval, emptyRow, isBlankRow, isMultiCellPaste, LOG_COLUMNS, parseDepth, parseTsv, rowContent, toPayload, validateDraft,
-  type DraftRow, type LogColumn, type RowErrors,
+  type DepthUnit, type DraftRow, type LogColumn, type RowErrors,
 } from '../utils/logDraft'
 
 /** What the log's draft is made from (the table's props). */
@@ -17,6 +17,8 @@ export interface LogDraftSource {
   intervals: IntervalRow[]
   strata: StratumRow[]
   canEdit: boolean
+  /** The unit depths are typed and shown in (the project's; metres when not given). */
+  lengthUnit?: DepthUnit
 }
 
 export interface LogDraftHooks {
@@ -41,16 +43,17 @@ const LEAVE_WARNING = 'The log has unsaved edits. Leave and lose them?'
  */
 export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
   const savedById = computed(() => new Map(source.intervals.map(iv => [iv.id, iv])))
+  const unit = (): DepthUnit => source.lengthUnit ?? 'm'
   /** Rows from the saved log; an empty log starts with one blank row to type or paste into. */
   function rowsFrom(list: IntervalRow[]): DraftRow[] {
-    return list.length || !source.canEdit ? list.map(draftFromInterval) : [emptyRow()]
+    return list.length || !source.canEdit ? list.map(iv => draftFromInterval(iv, unit())) : [emptyRow()]
   }
   const rows = ref<DraftRow[]>(rowsFrom(source.intervals))
   const baseline = ref<IntervalRow[]>(source.intervals)
 
   const strataIds = computed(() => new Set(source.strata.map(s => s.id)))
   const strataById = computed(() => new Map(source.strata.map(s => [s.id, s])))
-  const check = computed(() => validateDraft(rows.value, source.finalDepth))
+  const check = computed(() => validateDraft(rows.value, source.finalDepth, unit()))
   const serverErrors = ref<Record<string, RowErrors>>({})
   const notes = ref<string[]>([])
   const conflict = ref<{ message: string, current: IntervalRow[] } | null>(null)
@@ -65,7 +68,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
   const problemCount = computed(() => errors.value.reduce((n, e) => n + Object.keys(e).length, 0))
 
   const dirty = computed(() => {
-    const { intervals } = toPayload(rows.value)
+    const { intervals } = toPayload(rows.value, unit())
     if (intervals.length !== baseline.value.length) return true
     const byId = new Map(baseline.value.map(b => [b.id, b]))
     return intervals.some(iv => !iv.id || !byId.has(iv.id) || rowContent(iv) !== rowContent(byId.get(iv.id)!))
@@ -73,7 +76,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
 
   // The drawing follows the draft as it is typed.
   const graphic = computed(() => {
-    const { intervals, rowIndex } = toPayload(rows.value)
+    const { intervals, rowIndex } = toPayload(rows.value, unit())
     return {
       intervals: intervals.map((iv, i) => ({
         top: iv.top,
@@ -88,7 +91,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
   watch(graphic, g => hooks.draft(g), { immediate: true })
 
   function sameAsRows(list: IntervalRow[]): boolean {
-    const { intervals } = toPayload(rows.value)
+    const { intervals } = toPayload(rows.value, unit())
     return list.length === intervals.length && list.every((iv, i) => intervals[i]?.id === iv.id && intervals[i]?.version === iv.version && rowContent(intervals[i]!) === rowContent(iv))
   }
 
@@ -149,7 +152,11 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
     const prev = rows.value[at - 1]
     const row = emptyRow()
     // A new row below another starts where that one ends.
-    if (prev && !Number.isNaN(parseDepth(prev.bottom))) row.top = prev.bottom.trim()
+    if (prev && !Number.isNaN(parseDepth(prev.bottom))) {
+      row.top = prev.bottom.trim()
+      // Shown in feet, it starts at that row's exact metres, not at the rounded feet read back.
+      if (prev.saved && row.top === prev.saved.bottomText) row.saved = { top: prev.saved.bottom, topText: row.top, bottom: Number.NaN, bottomText: '' }
+    }
     rows.value.splice(at, 0, row)
     restartEditSession()
     if (focus) hooks.focusCell(at, row.top ? 'bottom' : 'top')
@@ -259,7 +266,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
       focusFirstProblem()
       return
     }
-    const { intervals, rowIndex } = toPayload(rows.value)
+    const { intervals, rowIndex } = toPayload(rows.value, unit())
     let saved: IntervalRow[] = []
     const ok = await run(
       async () => {
@@ -316,7 +323,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
     await save()
   }
 
-  const mineForCompare = computed(() => toPayload(rows.value).intervals)
+  const mineForCompare = computed(() => toPayload(rows.value, unit()).intervals)
   const mineContent = computed(() => new Set(mineForCompare.value.map(rowContent)))
   const theirsContent = computed(() => new Set((conflict.value?.current ?? []).map(rowContent)))
 

@@ -1,11 +1,5 @@
 import { computed, toValue, type MaybeRefOrGetter } from 'vue'
-import { convert, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '#shared/units'
-
-/** Decimals shown per quantity when a page does not ask for others (US stress: psf whole, tsf to 0.01). */
-const DIGITS: Record<UnitSystem, Record<Quantity, number>> = {
-  SI: { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 },
-  US: { length: 2, stress: 0, unitWeight: 1, coefficientOfConsolidation: 2 },
-}
+import { convert, displayDigits, formatQuantity, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '#shared/units'
 
 /**
  * Numbers with units at the edges of every page: values stay SI in state, the store and the engine;
@@ -26,8 +20,7 @@ export function useModelUnits(system: MaybeRefOrGetter<UnitSystem | undefined>, 
   const factor = (q: Quantity) => convert(1, q, 'SI', sys.value, opts.value)
   /** Decimals for a quantity in the current system (tsf needs two where psf needs none). */
   function digitsFor(q: Quantity): number {
-    if (sys.value === 'US' && q === 'stress' && stressUnit.value === 'tsf') return 2
-    return DIGITS[sys.value][q]
+    return displayDigits(q, sys.value, opts.value)
   }
   /** The bare number in display units, rounded ('—' when missing). */
   function number(v: number | null | undefined, q: Quantity, digits?: number): string {
@@ -36,8 +29,7 @@ export function useModelUnits(system: MaybeRefOrGetter<UnitSystem | undefined>, 
   }
   /** The number with its unit label ("98.43 ft", "1250 psf"; '—' when missing). */
   function format(v: number | null | undefined, q: Quantity, digits?: number): string {
-    if (v === null || v === undefined || !Number.isFinite(v)) return '—'
-    return `${number(v, q, digits)} ${label(q)}`
+    return formatQuantity(v, q, sys.value, opts.value, digits)
   }
   /** A column heading or field label with its unit: "Depth (ft)". */
   const heading = (text: string, q: Quantity) => `${text} (${label(q)})`

@@ -158,6 +158,8 @@ export interface RowColumn<R> {
   numeric?: boolean
   /** The cells' classes (numeric columns get `text-right tabular-nums` when not given). */
   cellClass?: string
+  /** Words people wrote themselves (remarks): marked so, their units are theirs. */
+  userText?: boolean
   value: (row: R) => string | number
 }
 

@@ -2,6 +2,7 @@ import Papa from 'papaparse'
 import { checkIntervals, type Gap } from '#shared/investigation/intervals'
 import { isUscsGroupSymbol } from '#shared/geotech/plasticity'
 import { IntervalInputSchema } from '#shared/schemas/investigation'
+import { FOOT_M } from '#shared/units'
 import type { IntervalRow } from '#shared/types/investigation'
 
 /**
@@ -12,14 +13,36 @@ import type { IntervalRow } from '#shared/types/investigation'
 export const LOG_COLUMNS = ['top', 'bottom', 'description', 'uscs', 'stratumId', 'moisture', 'consistency'] as const
 export type LogColumn = (typeof LOG_COLUMNS)[number]
 
-export const LOG_COLUMN_LABELS: Record<LogColumn, string> = {
-  top: 'Top (m)',
-  bottom: 'Bottom (m)',
-  description: 'Description',
-  uscs: 'USCS',
-  stratumId: 'Stratum',
-  moisture: 'Moisture',
-  consistency: 'Consistency / density',
+/** The unit depths are typed in: the project's length unit. The draft's text is in it; payloads are in metres. */
+export type DepthUnit = 'm' | 'ft'
+const METRES_PER: Record<DepthUnit, number> = { m: 1, ft: FOOT_M }
+
+/** The column headings, depths in the given unit. */
+export function logColumnLabels(unit: DepthUnit = 'm'): Record<LogColumn, string> {
+  return {
+    top: `Top (${unit})`,
+    bottom: `Bottom (${unit})`,
+    description: 'Description',
+    uscs: 'USCS',
+    stratumId: 'Stratum',
+    moisture: 'Moisture',
+    consistency: 'Consistency / density',
+  }
+}
+export const LOG_COLUMN_LABELS: Record<LogColumn, string> = logColumnLabels('m')
+
+/** A depth in metres as text in the unit: metres to 4 decimals at most, feet to 2 (trailing zeros dropped). */
+export function depthText(metres: number, unit: DepthUnit = 'm'): string {
+  return Number((metres / METRES_PER[unit]).toFixed(unit === 'm' ? 4 : 2)).toString()
+}
+
+/**
+ * A typed depth in the unit as metres. From feet the metres are rounded to 0.1 mm, so a stored
+ * depth shown in feet (4 decimals, within 0.02 mm) reads back as the same metres.
+ */
+export function depthToMetres(value: number, unit: DepthUnit = 'm'): number {
+  if (unit === 'm' || !Number.isFinite(value)) return value
+  return Math.round(value * METRES_PER[unit] * 1e4) / 1e4
 }
 
 export interface DraftRow {
@@ -34,6 +57,11 @@ export interface DraftRow {
   stratumId: string
   moisture: string
   consistency: string
+  /**
+   * The saved depths in metres with the text first shown for them (feet rounded to 0.01): while a cell still
+   * holds that text the row keeps its exact metres, so showing a log in feet never changes it.
+   */
+  saved?: { top: number, bottom: number, topText: string, bottomText: string }
 }
 
 /** A saved log interval as the point reply holds it (the fields the table edits). */
@@ -63,17 +91,16 @@ export function emptyRow(): DraftRow {
   return { key: newKey(), top: '', bottom: '', description: '', uscs: '', stratumId: '', moisture: '', consistency: '' }
 }
 
-function depthText(v: number): string {
-  return Number(v.toFixed(4)).toString()
-}
-
-export function draftFromInterval(iv: SavedInterval): DraftRow {
+export function draftFromInterval(iv: SavedInterval, unit: DepthUnit = 'm'): DraftRow {
+  const top = depthText(iv.top, unit)
+  const bottom = depthText(iv.bottom, unit)
   return {
     key: newKey(),
     id: iv.id,
     version: iv.version,
-    top: depthText(iv.top),
-    bottom: depthText(iv.bottom),
+    top,
+    bottom,
+    ...(unit === 'm' ? {} : { saved: { top: iv.top, bottom: iv.bottom, topText: top, bottomText: bottom } }),
     description: iv.description,
     uscs: iv.uscs ?? '',
     stratumId: iv.stratumId ?? '',
@@ -82,9 +109,9 @@ export function draftFromInterval(iv: SavedInterval): DraftRow {
   }
 }
 
-/** A depth as typed or pasted: "1.2", "1,2", "1.20 m"; NaN when blank or not a depth. */
+/** A depth as typed or pasted: "1.2", "1,2", "1.20 m", "3.9 ft" (the number as written); NaN when blank or not a depth. */
 export function parseDepth(text: string): number {
-  const t = text.trim().replace(/\s*m$/i, '')
+  const t = text.trim().replace(/\s*(m|ft)$/i, '')
   if (!/^[-+]?(\d+([.,]\d*)?|[.,]\d+)$/.test(t)) return Number.NaN
   return Number(t.replace(',', '.'))
 }
@@ -93,12 +120,12 @@ export function isBlankRow(r: DraftRow): boolean {
   return !r.id && LOG_COLUMNS.every(c => r[c].trim() === '')
 }
 
-export function toPayloadRow(r: DraftRow): IntervalPayload {
+export function toPayloadRow(r: DraftRow, unit: DepthUnit = 'm'): IntervalPayload {
   const opt = (s: string) => (s.trim() === '' ? null : s.trim())
   return {
     ...(r.id ? { id: r.id, version: r.version } : {}),
-    top: parseDepth(r.top),
-    bottom: parseDepth(r.bottom),
+    top: r.saved && r.top.trim() === r.saved.topText ? r.saved.top : depthToMetres(parseDepth(r.top), unit),
+    bottom: r.saved && r.bottom.trim() === r.saved.bottomText ? r.saved.bottom : depthToMetres(parseDepth(r.bottom), unit),
     description: r.description.trim(),
     uscs: opt(r.uscs),
     stratumId: opt(r.stratumId),
@@ -108,12 +135,12 @@ export function toPayloadRow(r: DraftRow): IntervalPayload {
 }
 
 /** The rows to send (blank new rows are left out) and, for each, its row index in the table. */
-export function toPayload(rows: readonly DraftRow[]): { intervals: IntervalPayload[], rowIndex: number[] } {
+export function toPayload(rows: readonly DraftRow[], unit: DepthUnit = 'm'): { intervals: IntervalPayload[], rowIndex: number[] } {
   const intervals: IntervalPayload[] = []
   const rowIndex: number[] = []
   rows.forEach((r, i) => {
     if (isBlankRow(r)) return
-    intervals.push(toPayloadRow(r))
+    intervals.push(toPayloadRow(r, unit))
     rowIndex.push(i)
   })
   return { intervals, rowIndex }
@@ -127,9 +154,9 @@ const FIELD_NAMES: Partial<Record<LogColumn, string>> = { uscs: 'USCS symbol', s
  * Live problems per table row: the zod schema for each row's shape, then the
  * interval rules (overlaps, depth past the hole) across the log; plus the gaps.
  */
-export function validateDraft(rows: readonly DraftRow[], finalDepth: number): { errors: RowErrors[], gaps: Gap[], count: number } {
+export function validateDraft(rows: readonly DraftRow[], finalDepth: number, unit: DepthUnit = 'm'): { errors: RowErrors[], gaps: Gap[], count: number } {
   const errors: RowErrors[] = rows.map(() => ({}))
-  const { intervals, rowIndex } = toPayload(rows)
+  const { intervals, rowIndex } = toPayload(rows, unit)
   let count = 0
   const put = (row: number, col: LogColumn, message: string) => {
     const e = errors[row]
@@ -148,7 +175,7 @@ export function validateDraft(rows: readonly DraftRow[], finalDepth: number): { 
       put(rowIndex[i]!, col as LogColumn, name ? `${name} ${issue.message}` : issue.message)
     }
   })
-  const rules = checkIntervals(intervals, finalDepth)
+  const rules = checkIntervals(intervals, finalDepth, { number: v => depthText(v, unit), unit })
   for (const issue of rules.issues) put(rowIndex[issue.index]!, issue.field, issue.message)
   return { errors, gaps: rules.gaps, count }
 }

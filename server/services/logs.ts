@@ -8,6 +8,7 @@ import { logIntervals, strata } from '../db/schema'
 import { recordAudit } from './audit'
 import { unprocessableError } from './http-errors'
 import { assertLogValid, requirePoint } from './points'
+import { projectDepthWords } from './project-units'
 
 /** A row of the log as the table sends it: with the id and version it read, or neither for a new row. */
 export type LogRowInput = IntervalInput & { id?: string, version?: number }
@@ -36,7 +37,8 @@ export async function replaceLog(projectId: string, actorId: string, pointId: st
         data: { current: existing },
       })
     }
-    assertLogValid(intervals, point.finalDepth)
+    // Refused in the project's units (the units are read only when there is something to say).
+    if (checkIntervals(intervals, point.finalDepth).issues.length) assertLogValid(intervals, point.finalDepth, (await projectDepthWords(projectId, tx)).intervals)
 
     const stratumIds = [...new Set(intervals.map(iv => iv.stratumId).filter((s): s is string => !!s))]
     if (stratumIds.length) {

@@ -5,7 +5,7 @@ import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
 import { diffDefinitions } from '#shared/site-model/diff'
 import { describeChanges } from '#shared/site-model/change-words'
-import type { UnitSystem } from '#shared/units'
+import type { UnitSystem, UsStressUnit } from '#shared/units'
 import type { ServerCompareAnswer, ServerSiteModelRecord, ServerSiteModelRow } from '#shared/types/models'
 import { useDb } from '../db/client'
 import { anyOf } from '../db/any'
@@ -148,7 +148,7 @@ export async function refuseVersionWrite(projectId: string, modelId: string, ver
 }
 
 /** What changed between two saved versions, and both stress profiles to overlay. */
-export async function compareVersions(projectId: string, modelId: string, a: number, b: number, units: UnitSystem = 'SI'): Promise<ServerCompareAnswer> {
+export async function compareVersions(projectId: string, modelId: string, a: number, b: number, units: UnitSystem = 'SI', usStress: UsStressUnit = 'psf'): Promise<ServerCompareAnswer> {
   await requireModel(projectId, modelId)
   const [va, vb] = await Promise.all([requireVersion(modelId, a), requireVersion(modelId, b)])
   const profile = (def: SiteModelDefinition) => runEngine(() => computeStressProfile(toStressInput(def))).points
@@ -156,7 +156,7 @@ export async function compareVersions(projectId: string, modelId: string, a: num
     a: { version: a, message: va.message, savedAt: va.createdAt, author: va.author },
     b: { version: b, message: vb.message, savedAt: vb.createdAt, author: vb.author },
     changes: diffDefinitions(va.definition, vb.definition).filter(c => !c.path.startsWith('flagsInForce')),
-    summary: describeChanges(va.definition, vb.definition, { units }),
+    summary: describeChanges(va.definition, vb.definition, { units, convert: { usStress } }),
     flagsChanged: diffDefinitions(va.definition.flagsInForce, vb.definition.flagsInForce).length > 0,
     profiles: { a: profile(va.definition), b: profile(vb.definition) },
   }

@@ -5,6 +5,7 @@ import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 import { requirePoint } from './points'
 import { notFound, unprocessableError, versionedUpdate } from './http-errors'
+import { projectDepthWords } from './project-units'
 
 /**
  * Create, update and delete for the simple rows that hang off a point (SPT,
@@ -19,8 +20,11 @@ const TABLES = {
 export type PointRowKind = keyof typeof TABLES
 type Row = { id: string, pointId: string, version: number, depth: number | null }
 
-function checkDepth(depth: number | null | undefined, finalDepth: number) {
-  if (depth !== null && depth !== undefined && depth > finalDepth) throw unprocessableError(`The depth (${depth} m) is below the hole's final depth (${finalDepth} m).`)
+async function checkDepth(depth: number | null | undefined, finalDepth: number, projectId: string, tx: Parameters<typeof projectDepthWords>[1]) {
+  if (depth === null || depth === undefined || depth <= finalDepth) return
+  // In the project's units (ft on a US project).
+  const words = await projectDepthWords(projectId, tx)
+  throw unprocessableError(`The depth (${words.depth(depth)}) is below the hole's final depth (${words.depth(finalDepth)}).`)
 }
 
 interface Ctx { actorId: string, projectId: string, pointId: string }
@@ -29,7 +33,7 @@ export async function createPointRow(kind: PointRowKind, ctx: Ctx, values: Recor
   const table = TABLES[kind]
   return useDb().transaction(async (tx) => {
     const point = await requirePoint(ctx.projectId, ctx.pointId, tx)
-    checkDepth(values.depth, point.finalDepth)
+    await checkDepth(values.depth, point.finalDepth, ctx.projectId, tx)
     const row = returnedRow(await tx.insert(table).values({ ...values, pointId: point.id } as never).returning() as Row[])
     await recordAudit({ actorId: ctx.actorId, projectId: ctx.projectId, action: 'create', entity: kind, entityId: row.id, after: row }, tx)
     return row
@@ -40,7 +44,7 @@ export async function updatePointRow(kind: PointRowKind, ctx: Ctx, rowId: string
   const table = TABLES[kind]
   return useDb().transaction(async (tx) => {
     const point = await requirePoint(ctx.projectId, ctx.pointId, tx)
-    checkDepth(patch.depth, point.finalDepth)
+    await checkDepth(patch.depth, point.finalDepth, ctx.projectId, tx)
     const scope = and(eq(table.id, rowId), eq(table.pointId, point.id))
     const [before] = await tx.select().from(table).where(scope) as Row[]
     const row = await versionedUpdate({

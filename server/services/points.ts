@@ -1,5 +1,5 @@
 import { and, asc, eq } from 'drizzle-orm'
-import { checkIntervals } from '#shared/investigation/intervals'
+import { checkIntervals, type IntervalWords } from '#shared/investigation/intervals'
 import { type Tx, useDb } from '../db/client'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, samples, sptResults, vaneReadings } from '../db/schema'
 import { notFound, unprocessableError } from './http-errors'
@@ -43,8 +43,8 @@ export async function pointDetail(point: ServerPointRow): Promise<ServerPointCon
 }
 
 /** 422 with per-row issues when a log breaks the interval rules (shared/investigation/intervals.ts). */
-export function assertLogValid(intervals: { top: number, bottom: number }[], finalDepth: number) {
-  const { issues } = checkIntervals(intervals, finalDepth)
+export function assertLogValid(intervals: { top: number, bottom: number }[], finalDepth: number, words: IntervalWords = {}) {
+  const { issues } = checkIntervals(intervals, finalDepth, words)
   const [first] = issues
   if (first) {
     throw unprocessableError(

@@ -1,4 +1,5 @@
 import { and, asc, eq, isNotNull, isNull } from 'drizzle-orm'
+import { projectDepthWords } from '~~/server/services/project-units'
 import { behaviourIndexProfile } from '#shared/geotech/behaviour-index'
 import { isGeotechError } from '#shared/geotech/errors'
 import { cptProfile, DEFAULT_CONE_FACTOR, MESRI_STRENGTH_RATIO, resamplePreconsolidation, vanePreconsolidation, type CptProfile } from '#shared/geotech/insitu'
@@ -207,6 +208,7 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
   const warnings: string[] = []
   const points: PreconsolidationPoint[] = []
   let uncorrected = 0
+  let words: Awaited<ReturnType<typeof projectDepthWords>> | undefined
   for (const r of readings) {
     const code = stratumAt(ctx, intervals.get(r.pointId), r.depth)
     const local = pis
@@ -235,7 +237,9 @@ export async function vanePoints(projectId: string, ctx: StressContext): Promise
     }
     catch (err) {
       if (!isGeotechError(err)) throw err
-      warnings.push(`${r.pointIdentifier} vane at ${r.depth} m: ${err.message}`)
+      // The depth in the project's units (ft on a US project); read only when there is something to say.
+      words ??= await projectDepthWords(projectId)
+      warnings.push(`${r.pointIdentifier} vane at ${words.depth(r.depth)}: ${err.message}`)
     }
   }
   if (uncorrected) warnings.push(`${uncorrected} vane reading${uncorrected === 1 ? '' : 's'} had no plasticity index in ${uncorrected === 1 ? 'its' : 'their'} stratum: σ'p = su,FV/${MESRI_STRENGTH_RATIO} without Bjerrum's correction (μ = 1).`)

@@ -8,12 +8,19 @@ import { rehomeAttachmentsOf } from './attachments'
 import { recordAudit } from './audit'
 import { conflictOnDuplicate, notFound, unprocessableError, versionedUpdate } from './http-errors'
 import { requirePoint } from './points'
+import { projectDepthWords } from './project-units'
+
+/** The 422 of a sample reaching below its hole, in the project's units. */
+async function bottomBelowHole(projectId: string, bottom: number, finalDepth: number, tx: Parameters<typeof projectDepthWords>[1]) {
+  const words = await projectDepthWords(projectId, tx)
+  return unprocessableError(`The sample's bottom (${words.depth(bottom)}) is below the hole's final depth (${words.depth(finalDepth)}).`)
+}
 
 /** A new sample at a point; its bottom must be within the hole (422), its identifier new at the point (409). */
 export async function createSample(projectId: string, actorId: string, pointId: string, body: SampleInput) {
   return conflictOnDuplicate(() => useDb().transaction(async (tx) => {
     const point = await requirePoint(projectId, pointId, tx)
-    if (body.bottom > point.finalDepth) throw unprocessableError(`The sample's bottom (${body.bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
+    if (body.bottom > point.finalDepth) throw await bottomBelowHole(projectId, body.bottom, point.finalDepth, tx)
     const row = returnedRow(await tx.insert(samples).values({ ...body, pointId: point.id }).returning())
     await recordAudit({ actorId, projectId, action: 'create', entity: 'sample', entityId: row.id, after: row }, tx)
     return row
@@ -30,7 +37,7 @@ export async function updateSample(projectId: string, actorId: string, pointId: 
     const top = patch.top ?? before.top
     const bottom = patch.bottom ?? before.bottom
     if (bottom < top) throw unprocessableError('The sample\'s bottom must not be above its top.')
-    if (bottom > point.finalDepth) throw unprocessableError(`The sample's bottom (${bottom} m) is below the hole's final depth (${point.finalDepth} m).`)
+    if (bottom > point.finalDepth) throw await bottomBelowHole(projectId, bottom, point.finalDepth, tx)
     const row = await versionedUpdate({
       entity: 'Sample',
       update: () => tx.update(samples).set({ ...patch, version: sql`${samples.version} + 1` }).where(and(scope, eq(samples.version, version))).returning(),

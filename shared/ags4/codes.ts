@@ -132,6 +132,10 @@ export const UNIT_DESCRIPTIONS: Readonly<Record<string, string>> = {
   'MPa': 'megaPascal',
   'kN/m3': 'kiloNewtons per cubic metre',
   'Mg/m3': 'megagrams per cubic metre',
+  'ft': 'foot',
+  'psf': 'pounds-force per square foot',
+  'tsf': 'short tons-force per square foot',
+  'pcf': 'pounds-force per cubic foot',
   'yyyy-mm-dd': 'year month day',
   'yyyy-mm-ddThh:mm:ssZ': 'year month day hours minutes seconds, UTC (ISO 8601)',
 }

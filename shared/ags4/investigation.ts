@@ -919,6 +919,8 @@ export interface AgsExportOptions {
   issue?: string
   /** TRAN_DESC. */
   description?: string
+  /** The project's units: a US project's file states ft, psf or tsf and pcf in its UNIT row and values to match (SI by default). */
+  units?: { system: 'SI' | 'US', usStress?: 'psf' | 'tsf' }
 }
 
 type Row = Record<string, AgsValue>
@@ -959,7 +961,7 @@ export function investigationToAgsGroups(data: InvestigationRecord, options: Ags
   for (const p of data.points) writePoint(p, rows)
 
   const order: GroupName[] = ['PROJ', 'TRAN', 'PSTR', 'LOCA', 'GEOL', 'SAMP', 'LNMC', 'LLPL', 'LDEN', 'CONG', 'CONS', 'ISPT', 'WSTG', 'MONG', 'MOND', 'SCPG', 'SCPT', 'IVAN']
-  const dataGroups = order.filter(name => rows[name].length > 0).map(name => group(name, rows[name]))
+  const dataGroups = order.filter(name => rows[name].length > 0).map(name => inUnits(group(name, rows[name]), options.units))
   const dict = dictGroup(dataGroups)
   const withDict = dict ? [...dataGroups, dict] : dataGroups
   const abbr = abbrGroup(withDict, data)
@@ -970,6 +972,47 @@ export function investigationToAgsGroups(data: InvestigationRecord, options: Ags
   const [proj, tran, ...rest] = dataGroups
   const definitions = [unit, type, ...(abbr ? [abbr] : []), ...(dict ? [dict] : [])]
   return [...(proj ? [proj] : []), ...(tran ? [tran] : []), ...definitions, ...rest]
+}
+
+/** SI units Pastload writes and the US unit a US project's file states instead, with the factor SI → US (exact definitions, see units.ts). */
+function usUnitFor(unit: string, usStress: 'psf' | 'tsf'): { unit: string, factor: number } | null {
+  if (unit === 'm') return { unit: 'ft', factor: 1 / (unitFactor('length', 'ft') ?? 1) }
+  if (unit === 'kPa') return { unit: usStress, factor: 1 / (unitFactor('stress', usStress) ?? 1) }
+  if (unit === 'kN/m3') return { unit: 'pcf', factor: 1 / (unitFactor('unitWeight', 'pcf') ?? 1) }
+  return null
+}
+
+/** One more decimal place for a value written in tsf (a tsf is 2000 psf), so a stress keeps its precision. */
+function finerType(type: string, unit: string): string {
+  const dp = /^(\d+)DP$/.exec(type)
+  return dp && unit === 'tsf' ? `${Number(dp[1]) + 2}DP` : type
+}
+
+/**
+ * A group written in a US project's units: its m, kPa and kN/m³ headings become ft, psf or tsf and pcf in the UNIT row
+ * with their values converted; a monitoring reading (MOND) converts with its own MOND_UNIT.
+ */
+function inUnits(g: AgsWritableGroup, units: AgsExportOptions['units']): AgsWritableGroup {
+  if (!units || units.system !== 'US') return g
+  const usStress = units.usStress ?? 'psf'
+  const change = g.units.map(u => usUnitFor(u, usStress))
+  const convert = (v: AgsValue, f: number) => (typeof v === 'number' ? Number((v * f).toPrecision(10)) : v)
+  const rows = g.rows.map((r) => {
+    const out: Row = { ...r }
+    g.headings.forEach((h, i) => {
+      const c = change[i]
+      if (c && h in out) out[h] = convert(out[h] ?? null, c.factor)
+    })
+    const rowUnit = typeof out.MOND_UNIT === 'string' ? usUnitFor(out.MOND_UNIT, usStress) : null
+    if (rowUnit) Object.assign(out, { MOND_RDNG: convert(out.MOND_RDNG ?? null, rowUnit.factor), MOND_UNIT: rowUnit.unit })
+    return out
+  })
+  return {
+    ...g,
+    units: g.units.map((u, i) => change[i]?.unit ?? u),
+    types: g.types.map((t, i) => finerType(t, change[i]?.unit ?? '')),
+    rows,
+  }
 }
 
 /** Writes the record as an AGS4 file that passes checkAgs without errors. */

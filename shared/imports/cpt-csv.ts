@@ -1,5 +1,5 @@
 import Papa from 'papaparse'
-import { parseCell, type ImportMapping, type RowError, TARGET_FIELDS } from './targets'
+import { parseCell, type ImportMapping, type ImportUnits, type RowError, TARGET_FIELDS, unitFactorOf } from './targets'
 
 /**
  * The CPT import's check of a CSV without quote characters in one pass of
@@ -59,8 +59,10 @@ export function eachCsvRow(text: string, format: { newline: string, delimiter: s
 }
 
 /** `mapping` must already have passed `checkMapping` (every CPT field mapped to a header of the file). */
-export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number, maxRows?: number }): CheckedCpt {
+export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number, maxRows?: number, units?: ImportUnits }): CheckedCpt {
   const fields = TARGET_FIELDS.cpt
+  // Numbers in the file's units become SI as they are read.
+  const factors = fields.map(f => unitFactorOf('cpt', ctx.units, f.key))
   const headerOf = fields.map(f => mapping[f.key] ?? '')
   const columnOf = headerOf.map(h => csv.headers.indexOf(h))
   if (columnOf.some(c => c < 0)) throw new Error('checkCptCsv needs a checked mapping')
@@ -93,7 +95,7 @@ export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cp
         if (parsed.error) why = parsed.error
         else if (parsed.value !== null) v = parsed.value as number
       }
-      values[k] = v
+      values[k] = factors[k] === 1 ? v : Number((v * factors[k]!).toPrecision(12))
       problem[k] = why ? `${fields[k]!.label} ${why}.` : Number.isNaN(v) ? `${fields[k]!.label} is empty.` : ''
     }
     for (let k = 0; k < 4; k++) if (problem[k]) errors.push({ row, column: headerOf[k]!, message: problem[k]! })

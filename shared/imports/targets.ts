@@ -6,6 +6,7 @@ import { convertStages, STAGE_CONVENTION_LABELS, type SpecimenBasis, type StageC
 import { EARLIEST_DATE, isPlainText, LATEST_DATE, PLAIN_TEXT_MESSAGE } from '../schemas/common'
 import { VaneInputSchema } from '../schemas/investigation'
 import { StageInputSchema } from '../schemas/lab'
+import { US_TO_SI, type UnitSystem, type UsStressUnit } from '../units'
 
 /**
  * Tabular imports (CSV, XLSX): what each target table needs, how file columns
@@ -134,14 +135,92 @@ export interface RowError {
 }
 
 const norm = (s: string) => s.toLowerCase().replace(/[^a-z0-9%³]+/g, '')
+/** A header without a unit in brackets at its end: "Final depth (ft)" → "Final depth". */
+const bare = (s: string) => s.replace(/\s*\([^()]*\)\s*$/, '')
 
-/** Suggests a mapping field → header from the headers' spelling. */
+// ─── Units of the numeric columns ────────────────────────────────────────────
+
+/** What a numeric import field measures; fields without one (%, counts, ratios) are read as they are. */
+export type ImportQuantity = 'length' | 'stress' | 'unitWeight'
+
+/** The units a file's column may be in, per quantity (SI first). */
+export const IMPORT_UNITS: Record<ImportQuantity, readonly string[]> = {
+  length: ['m', 'ft'],
+  stress: ['kPa', 'MPa', 'psf', 'tsf'],
+  unitWeight: ['kN/m³', 'pcf'],
+}
+
+/** SI units (m, kPa, kN/m³) per unit of the file (exact definitions, shared/units). */
+const TO_SI: Record<string, number> = { 'm': 1, 'ft': US_TO_SI.length, 'kPa': 1, 'MPa': 1000, 'psf': US_TO_SI.stress, 'tsf': US_TO_SI.stressTsf, 'kN/m³': 1, 'pcf': US_TO_SI.unitWeight }
+/** Spellings of a unit in a header's brackets. */
+const UNIT_SPELLINGS: Record<string, string> = { 'm': 'm', 'ft': 'ft', 'feet': 'ft', 'kpa': 'kPa', 'mpa': 'MPa', 'psf': 'psf', 'tsf': 'tsf', 'kn/m3': 'kN/m³', 'kn/m³': 'kN/m³', 'pcf': 'pcf' }
+
+const QUANTITY_OF: Partial<Record<ImportTarget, Record<string, ImportQuantity>>> = {
+  'points': { easting: 'length', northing: 'length', groundElevation: 'length', finalDepth: 'length' },
+  'intervals': { top: 'length', bottom: 'length' },
+  'samples': { top: 'length', bottom: 'length' },
+  'index-tests': { bulkUnitWeight: 'unitWeight' },
+  'groundwater': { depth: 'length', pressure: 'stress' },
+  'cpt': { depth: 'length', qc: 'stress', fs: 'stress', u2: 'stress' },
+  'oedometer-stages': { stress: 'stress' },
+  'vane': { depth: 'length', peak: 'stress', remoulded: 'stress' },
+}
+
+/** The unit each numeric column of an import is in, by field key (`{ finalDepth: 'ft' }`); a field not named is in SI. */
+export type ImportUnits = Record<string, string>
+
+/** The quantity a field of the target measures, or null. */
+export function importFieldQuantity(target: ImportTarget, key: string): ImportQuantity | null {
+  return QUANTITY_OF[target]?.[key] ?? null
+}
+
+/** A field's label without the SI unit it names ("Final depth (m)" → "Final depth"), for a form that asks for the unit beside it. */
+export function fieldName(field: Pick<ImportField, 'label'>): string {
+  return field.label.replace(/\s*\((m|kPa|kN\/m³)\)$/, '')
+}
+
+/**
+ * The units to offer for each numeric field: the unit a mapped header names in brackets ("Depth (ft)"), else the
+ * project's (ft, psf or tsf, pcf on a US project; m, kPa, kN/m³ on an SI one).
+ */
+export function suggestUnits(target: ImportTarget, mapping: ImportMapping, system: UnitSystem, usStress: UsStressUnit = 'psf'): ImportUnits {
+  const project: Record<ImportQuantity, string> = system === 'US' ? { length: 'ft', stress: usStress, unitWeight: 'pcf' } : { length: 'm', stress: 'kPa', unitWeight: 'kN/m³' }
+  const out: ImportUnits = {}
+  for (const [key, q] of Object.entries(QUANTITY_OF[target] ?? {})) {
+    const said = /\(([^()]*)\)\s*$/.exec(mapping[key] ?? '')?.[1]?.trim().toLowerCase()
+    const named = said ? UNIT_SPELLINGS[said] : undefined
+    out[key] = named && IMPORT_UNITS[q].includes(named) ? named : project[q]
+  }
+  return out
+}
+
+/** Problems with the units given, naming the file's column: a unit Pastload does not read for the field's quantity. */
+export function checkUnits(target: ImportTarget, units: ImportUnits | undefined, mapping: ImportMapping = {}): string[] {
+  const problems: string[] = []
+  for (const [key, unit] of Object.entries(units ?? {})) {
+    const field = TARGET_FIELDS[target].find(f => f.key === key)
+    const q = importFieldQuantity(target, key)
+    const name = field ? `${fieldName(field)}${mapping[key] ? ` (column “${mapping[key]}”)` : ''}` : key
+    if (!field) problems.push(`${key} is not a column of ${TARGET_LABELS[target].toLowerCase()}.`)
+    else if (!q) problems.push(`${name} has no unit to choose.`)
+    else if (!IMPORT_UNITS[q].includes(unit)) problems.push(`${name} cannot be in ${JSON.stringify(unit)}: choose one of ${IMPORT_UNITS[q].join(', ')}.`)
+  }
+  return problems
+}
+
+/** The factor from the file's unit of a field to SI (1 when not given). */
+export function unitFactorOf(target: ImportTarget, units: ImportUnits | undefined, key: string): number {
+  const unit = units?.[key]
+  return unit && importFieldQuantity(target, key) ? TO_SI[unit] ?? 1 : 1
+}
+
+/** Suggests a mapping field → header from the headers' spelling (a unit in brackets at the end aside). */
 export function suggestMapping(target: ImportTarget, headers: readonly string[]): ImportMapping {
   const mapping: ImportMapping = {}
   const used = new Set<string>()
   for (const field of TARGET_FIELDS[target]) {
     const wanted = new Set(field.aliases.map(norm))
-    const hit = headers.find(h => !used.has(h) && wanted.has(norm(h)))
+    const hit = headers.find(h => !used.has(h) && wanted.has(norm(h))) ?? headers.find(h => !used.has(h) && wanted.has(norm(bare(h))))
     if (hit) {
       mapping[field.key] = hit
       used.add(hit)
@@ -234,8 +313,10 @@ export interface ValidatedImport {
  * depths beyond the hole, increasing CPT depth). `rows` are the data rows after
  * the header; `fileRows` their 1-based rows in the file (default: header on row 1, no blank lines).
  */
-export function validateRows(target: ImportTarget, headers: readonly string[], rows: readonly Cell[][], mapping: ImportMapping, ctx: ImportContext, fileRows?: readonly number[]): ValidatedImport {
+export function validateRows(target: ImportTarget, headers: readonly string[], rows: readonly Cell[][], mapping: ImportMapping, ctx: ImportContext, fileRows?: readonly number[], units?: ImportUnits): ValidatedImport {
   const fields = TARGET_FIELDS[target]
+  // Numbers in the file's units become SI as they are read, before any check compares them.
+  const factors = new Map(fields.map(field => [field.key, unitFactorOf(target, units, field.key)]))
   const index = new Map(headers.map((h, i) => [h, i]))
   const records: Record<string, ParsedValue>[] = []
   const rowNumbers: number[] = []
@@ -249,7 +330,8 @@ export function validateRows(target: ImportTarget, headers: readonly string[], r
       const { value, error } = col === undefined ? { value: null } : parseCell(cells[col], field.type)
       if (error) errors.push({ row, column: header!, message: `${field.label} ${error}.` })
       else if (value === null && field.required) errors.push({ row, column: header ?? field.label, message: `${field.label} is empty.` })
-      rec[field.key] = value
+      const factor = factors.get(field.key) ?? 1
+      rec[field.key] = typeof value === 'number' && factor !== 1 ? Number((value * factor).toPrecision(12)) : value
     }
     records.push(rec)
     rowNumbers.push(row)

@@ -24,14 +24,19 @@ export interface Gap {
 /** Depths closer than this are the same depth (0.1 mm): avoids false overlaps from decimal rounding. */
 export const DEPTH_TOLERANCE = 1e-4
 
-export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: number): { issues: IntervalIssue[], gaps: Gap[] } {
+/** How the messages write a depth given in metres: the number and its unit (default "1.2" and "m"; a US project's pages and server pass feet). */
+export interface IntervalWords { number?: (metres: number) => string, unit?: string }
+
+export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: number, words: IntervalWords = {}): { issues: IntervalIssue[], gaps: Gap[] } {
+  const n = words.number ?? fmt
+  const d = (v: number) => `${n(v)} ${words.unit ?? 'm'}`
   const issues: IntervalIssue[] = []
   intervals.forEach((iv, index) => {
-    if (!Number.isFinite(iv.top) || iv.top < 0) issues.push({ index, field: 'top', message: 'Top must be a depth of 0 m or more.' })
+    if (!Number.isFinite(iv.top) || iv.top < 0) issues.push({ index, field: 'top', message: `Top must be a depth of ${d(0)} or more.` })
     if (!Number.isFinite(iv.bottom)) issues.push({ index, field: 'bottom', message: 'Bottom must be a number.' })
-    else if (iv.bottom <= iv.top) issues.push({ index, field: 'bottom', message: `Bottom (${fmt(iv.bottom)} m) must be below the top (${fmt(iv.top)} m).` })
+    else if (iv.bottom <= iv.top) issues.push({ index, field: 'bottom', message: `Bottom (${d(iv.bottom)}) must be below the top (${d(iv.top)}).` })
     if (Number.isFinite(iv.bottom) && iv.bottom > finalDepth + DEPTH_TOLERANCE) {
-      issues.push({ index, field: 'bottom', message: `Bottom (${fmt(iv.bottom)} m) is below the hole's final depth (${fmt(finalDepth)} m).` })
+      issues.push({ index, field: 'bottom', message: `Bottom (${d(iv.bottom)}) is below the hole's final depth (${d(finalDepth)}).` })
     }
   })
   const order = intervals
@@ -44,7 +49,7 @@ export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: n
   let reachTop = 0
   for (const iv of order) {
     if (iv.top < reach - DEPTH_TOLERANCE) {
-      issues.push({ index: iv.index, field: 'top', message: `Overlaps the interval ${fmt(reachTop)}–${fmt(reach)} m (row ${reachIndex + 1}).` })
+      issues.push({ index: iv.index, field: 'top', message: `Overlaps the interval ${n(reachTop)}–${d(reach)} (row ${reachIndex + 1}).` })
     }
     else if (iv.top > reach + DEPTH_TOLERANCE) {
       gaps.push({ top: reach, bottom: iv.top })

@@ -4,7 +4,7 @@ import type { PreconsolidationSource } from '../schemas/lab'
 import type { FlagVerdict } from '../review/flags'
 import type { SiteModelDefinition } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
-import { conversionFactor, unitLabel, type UnitSystem } from '../units'
+import { conversionFactor, unitLabel, type UnitSystem, type UsStressUnit } from '../units'
 import { px, svgEscape } from './axes'
 import {
   depthAxisSvg, drawingSheet, frameScene, frameSvg, ocrAxis, pointMarksSvg, popAxis, ratioDotsSvg, ratioTrackScene, ratioTrackSvg,
@@ -35,6 +35,8 @@ export interface ModelDrawingInput {
   /** Per stratum: the fit's confidence band (null for none or a hand-drawn trend). */
   fitBands: readonly (readonly TrendBandPoint[] | null)[]
   units: UnitSystem
+  /** US stresses in psf (default) or tsf, as the project chose. */
+  usStress?: UsStressUnit
   /** Depth range drawn, m (defaults to the whole model). */
   range?: { top: number, bottom: number }
   width?: number
@@ -92,8 +94,8 @@ export function modelDrawing(input: ModelDrawingInput): ModelDrawing {
   const ocr = ocrAxis(linesShown, frames.ocr.width)
   const pop = popAxis(linesShown, frames.pop.width)
   const lengthFactor = conversionFactor('length', 'SI', input.units)
-  const stressFactor = conversionFactor('stress', 'SI', input.units)
-  const stressUnit = unitLabel('stress', input.units)
+  const stressFactor = conversionFactor('stress', 'SI', input.units, { usStress: input.usStress })
+  const stressUnit = unitLabel('stress', input.units, { usStress: input.usStress })
 
   const parts: string[] = []
   parts.push(depthAxisSvg({ x: LEFT - 6, band, y, lengthFactor, unit: unitLabel('length', input.units) }))

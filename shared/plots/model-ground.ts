@@ -2,7 +2,7 @@ import * as d3 from 'd3'
 import { stratumBounds } from '../site-model/definition-plain'
 import type { SiteModelDefinition } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
-import { conversionFactor, unitLabel, type UnitSystem } from '../units'
+import { conversionFactor, unitLabel, type UnitSystem, type UsStressUnit } from '../units'
 import { px, svgEscape } from './axes'
 import { depthAxisSvg, drawingSheet, frameScene, frameSvg, type PlotBand, type Scale } from './model-tracks'
 import { INK } from './palette'
@@ -149,6 +149,8 @@ export interface GroundDrawingInput {
   definition: SiteModelDefinition
   profile: readonly ProfilePoint[]
   units: UnitSystem
+  /** US stresses in psf (default) or tsf, as the project chose. */
+  usStress?: UsStressUnit
   width?: number
   height?: number
 }
@@ -202,9 +204,9 @@ export function groundDrawing(input: GroundDrawingInput): GroundDrawing {
   }))
 
   const pore = poreTrackScene({ definition: def, profile: input.profile, y, width: poreWidth })
-  const stressFactor = conversionFactor('stress', 'SI', input.units)
+  const stressFactor = conversionFactor('stress', 'SI', input.units, { usStress: input.usStress })
   parts.push(frameSvg({
-    ...frames.pore, band, title: 'Pore pressure u', unit: unitLabel('stress', input.units),
+    ...frames.pore, band, title: 'Pore pressure u', unit: unitLabel('stress', input.units, { usStress: input.usStress }),
     scene: frameScene({ width: poreWidth, band, y, lengthFactor, scale: pore.scale, factor: stressFactor, ticks: 4 }),
     content: poreTrackSvg(pore, { width: poreWidth, waterLabel: `water table ${(def.groundwater.waterTableDepth * lengthFactor).toFixed(2)} ${lengthUnit}` }),
   }))

@@ -2,7 +2,7 @@ import type { GroundwaterKind, PointRecord, ProjectRecord, SampleType } from '..
 import { placeLabels, wrapText, type LogScale, ptPerMetre } from '../reports/point-log-layout'
 import type { PreconsolidationSource } from '../schemas/lab'
 import { stratumColour, stratumPattern, FALLBACK_APPEARANCE, defaultAppearanceFor } from '../strata/appearance'
-import { convert, unitLabel, type UnitSystem } from '../units'
+import { convert, unitLabel, type UnitSystem, type UsStressUnit } from '../units'
 import {
   LOG_INK, logGlyphMarkup, round2, SAMPLE_MARK_WIDTH, sampleGlyph, sigmaPGlyph, sigmaPMarkOf, sptGlyph, waterGlyph,
 } from './log-glyphs'
@@ -45,6 +45,8 @@ export interface LogStress {
 export interface PointLogData {
   project: ProjectRecord
   units: UnitSystem
+  /** US stresses in psf (default) or tsf, as the project chose. */
+  usStress?: UsStressUnit
   /** The point's own fields, as the investigation model has them (its log and readings are below). */
   point: Omit<PointRecord, 'intervals' | 'samples' | 'spt' | 'groundwater' | 'cpt' | 'vane'>
   intervals: LogInterval[]
@@ -111,7 +113,7 @@ export function niceAxis(max: number): { max: number, step: number } {
 /** The stress axes for the whole log (every page uses the same), in display units. */
 export function stressAxes(data: PointLogData): { stress: { max: number, step: number }, ocr: { max: number, step: number } } {
   const s = data.stress
-  const toU = (kPa: number) => convert(kPa, 'stress', 'SI', data.units)
+  const toU = (kPa: number) => convert(kPa, 'stress', 'SI', data.units, { usStress: data.usStress })
   const depthOk = (d: number) => d <= data.point.finalDepth + 1e-9
   const values = [
     ...s.profile.filter(p => depthOk(p.depth)).map(p => p.effectiveStress),
@@ -166,7 +168,7 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
   const ppm = ptPerMetre(o.scale)
   const units = data.units
   const lenU = unitLabel('length', units)
-  const stressU = unitLabel('stress', units)
+  const stressU = unitLabel('stress', units, { usStress: data.usStress })
   const axes = o.axes ?? stressAxes(data)
   const prefix = o.idPrefix ?? 'plog'
   const drawH = (o.to - o.from) * ppm
@@ -322,7 +324,7 @@ export function pointLogPageSvg(data: PointLogData, o: LogPageOptions): LogPageS
   const ow = C.ocr.x1 - C.ocr.x0
   parts.push(`<rect x="${sx0}" y="${LOG_HEAD}" width="${sw}" height="${round2(drawH)}" fill="${LOG_INK.siltLight}" fill-opacity="0.45"/>`)
   parts.push(`<rect x="${ox0}" y="${LOG_HEAD}" width="${ow}" height="${round2(drawH)}" fill="${LOG_INK.siltLight}" fill-opacity="0.45"/>`)
-  const toU = (kPa: number) => convert(kPa, 'stress', 'SI', units)
+  const toU = (kPa: number) => convert(kPa, 'stress', 'SI', units, { usStress: data.usStress })
   const xs = (kPa: number) => sx0 + Math.min(1, Math.max(0, toU(kPa) / axes.stress.max)) * sw
   const xo = (ocr: number) => ox0 + Math.min(1, Math.max(0, ocr / axes.ocr.max)) * ow
   const s = data.stress

@@ -1,6 +1,6 @@
 import * as d3 from 'd3'
 import type { RunSublayerRow } from '../types/settlement-runs'
-import { convert, unitLabel, type UnitSystem } from '../units'
+import { convert, unitLabel, type UnitSystem, type UsStressUnit } from '../units'
 import { el, svgDocument, text, scaleTicks, type AxisTick } from './svg'
 
 /**
@@ -42,7 +42,7 @@ export function depthPlotExtent(rows: Row[]): [number, number] {
   return [0, Math.max(1, ...rows.map(r => r.bottom))]
 }
 
-export function settlementDepthScene(input: { sublayers: Row[], unitSystem: UnitSystem, width: number, height?: number, depthDomain?: [number, number] }): DepthPlotScene {
+export function settlementDepthScene(input: { sublayers: Row[], unitSystem: UnitSystem, usStress?: UsStressUnit, width: number, height?: number, depthDomain?: [number, number] }): DepthPlotScene {
   const { width, unitSystem } = input
   const height = input.height ?? 440
   const M = DEPTH_PLOT_MARGIN
@@ -75,9 +75,9 @@ export function settlementDepthScene(input: { sublayers: Row[], unitSystem: Unit
     margin: M,
     lines,
     strata,
-    xTicks: scaleTicks(x, convert(1, 'stress', 'SI', unitSystem), Math.max(3, Math.round(width / 90))),
+    xTicks: scaleTicks(x, convert(1, 'stress', 'SI', unitSystem, { usStress: input.usStress }), Math.max(3, Math.round(width / 90))),
     yTicks: scaleTicks(y, convert(1, 'length', 'SI', unitSystem), 10).filter(t => t.at >= M.top - 0.5 && t.at <= height - M.bottom + 0.5),
-    xLabel: `Stress (${unitLabel('stress', unitSystem)})`,
+    xLabel: `Stress (${unitLabel('stress', unitSystem, { usStress: input.usStress })})`,
     yLabel: `Depth (${unitLabel('length', unitSystem)})`,
     legendCols: width < 440 ? 2 : 3,
   }

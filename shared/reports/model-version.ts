@@ -6,9 +6,9 @@ import { VERDICT_LABELS, type FlagVerdict } from '../review/flags'
 import type { DefinitionChange } from '../site-model/diff'
 import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS, type SiteModelDefinition, stratumBounds } from '../site-model/definition'
 import type { ProfilePoint } from '../types/calc'
-import { convert, unitLabel, type Quantity, type UnitSystem } from '../units'
+import { convert, unitLabel, type ConvertOptions, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
 import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
-import { TREND_MODEL_LABELS, TREND_PARAMETERS } from '../site-model/trend-words'
+import { TREND_MODEL_LABELS, TREND_PARAMETERS, trendParameterLabel } from '../site-model/trend-words'
 
 /**
  * The site-model version report: cover with the approval record and content hash, strata and unit
@@ -31,7 +31,7 @@ export interface ModelVersionReportFlag {
 }
 
 export interface ModelVersionReportData {
-  project: { name: string, jobNumber: string, client: string, units: UnitSystem }
+  project: { name: string, jobNumber: string, client: string, units: UnitSystem, usStress?: UsStressUnit }
   model: { name: string }
   version: { number: number, status: string, message: string, savedBy: string | null, savedAt: string, savedFrom: number | null, superseded: boolean, supersededBy: number | null }
   approval: { by: string | null, at: string, hash: string, override: string | null, overFlags: number } | null
@@ -48,17 +48,18 @@ export interface ModelVersionReportData {
 const DIGITS: Record<Quantity, number> = { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 }
 
 /** A value in the project's units with its unit. */
-export function shown(v: number | null | undefined, q: Quantity, units: UnitSystem, digits = DIGITS[q]): string {
+export function shown(v: number | null | undefined, q: Quantity, units: UnitSystem, digits?: number, opts: ConvertOptions = {}): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—'
-  return `${convert(v, q, 'SI', units).toFixed(digits)} ${unitLabel(q, units)}`
+  const d = digits ?? (units === 'US' && q === 'stress' && opts.usStress === 'tsf' ? 2 : DIGITS[q])
+  return `${convert(v, q, 'SI', units, opts).toFixed(d)} ${unitLabel(q, units, opts)}`
 }
 const fixed = (v: number | null | undefined, d: number) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(d))
 
-export function trendParameterText(key: string, v: number, units: UnitSystem): string {
+export function trendParameterText(key: string, v: number, units: UnitSystem, opts: ConvertOptions = {}): string {
   const m = TREND_PARAMETERS[key]
   if (!m || !m.quantity) return v.toFixed(3)
-  if (m.perDepth) return `${(convert(v, 'stress', 'SI', units) / convert(1, 'length', 'SI', units)).toFixed(2)} ${unitLabel('stress', units)}/${unitLabel('length', units)}`
-  return shown(v, m.quantity, units)
+  if (m.perDepth) return `${(convert(v, 'stress', 'SI', units, opts) / convert(1, 'length', 'SI', units)).toFixed(opts.usStress === 'tsf' && units === 'US' ? 3 : 2)} ${unitLabel('stress', units, opts)}/${unitLabel('length', units)}`
+  return shown(v, m.quantity, units, undefined, opts)
 }
 
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec']
@@ -99,6 +100,8 @@ function changeValue(v: unknown): string {
 
 export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefinitions {
   const u = d.project.units
+  // US stresses in psf or tsf as the project chose.
+  const uo: ConvertOptions = { usStress: d.project.usStress }
   const def = d.definition
   const bounds = stratumBounds(def)
   const approved = d.version.status === 'approved' && !!d.approval
@@ -127,34 +130,34 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
   // Strata and unit weights.
   content.push({ text: 'Strata and unit weights', style: 'section' })
   content.push(table([38, '*', 54, 54, 54, 58, 58, 60], [
-    head('Code', 'Stratum', `Top (${unitLabel('length', u)})`, `Base (${unitLabel('length', u)})`, `Thick. (${unitLabel('length', u)})`, `γ (${unitLabel('unitWeight', u)})`, `γsat (${unitLabel('unitWeight', u)})`, 'Compressible'),
+    head('Code', 'Stratum', `Top (${unitLabel('length', u, uo)})`, `Base (${unitLabel('length', u, uo)})`, `Thick. (${unitLabel('length', u, uo)})`, `γ (${unitLabel('unitWeight', u, uo)})`, `γsat (${unitLabel('unitWeight', u, uo)})`, 'Compressible'),
     ...def.strata.map((s, i) => [
       cell(s.code, { bold: true }), cell(s.name),
-      cell(fixed(convert(bounds[i]!.top, 'length', 'SI', u), 2)), cell(fixed(convert(bounds[i]!.bottom, 'length', 'SI', u), 2)), cell(fixed(convert(s.thickness, 'length', 'SI', u), 2)),
-      cell(fixed(convert(s.unitWeight, 'unitWeight', 'SI', u), 1)), cell(fixed(convert(s.unitWeightSaturated, 'unitWeight', 'SI', u), 1)), cell(s.compressible ? 'yes' : 'no'),
+      cell(fixed(convert(bounds[i]!.top, 'length', 'SI', u, uo), 2)), cell(fixed(convert(bounds[i]!.bottom, 'length', 'SI', u, uo), 2)), cell(fixed(convert(s.thickness, 'length', 'SI', u, uo), 2)),
+      cell(fixed(convert(s.unitWeight, 'unitWeight', 'SI', u, uo), 1)), cell(fixed(convert(s.unitWeightSaturated, 'unitWeight', 'SI', u, uo), 1)), cell(s.compressible ? 'yes' : 'no'),
     ]),
   ]))
 
   // Groundwater and the pore-pressure profile.
   content.push({ text: 'Groundwater and pore pressure', style: 'section' })
   const gw = def.groundwater
-  content.push({ text: `Water table at ${shown(gw.waterTableDepth, 'length', u)} below ground; γw ${shown(def.gammaW, 'unitWeight', u, 2)}; surcharge ${shown(def.surcharge, 'stress', u)}. ${gw.piezometers.length ? `${gw.piezometers.length} piezometric control point${gw.piezometers.length === 1 ? '' : 's'} below it (u given; linear between them).` : 'Hydrostatic below the water table.'}`, margin: [0, 0, 0, 4] })
+  content.push({ text: `Water table at ${shown(gw.waterTableDepth, 'length', u, undefined, uo)} below ground; γw ${shown(def.gammaW, 'unitWeight', u, 2, uo)}; surcharge ${shown(def.surcharge, 'stress', u, undefined, uo)}. ${gw.piezometers.length ? `${gw.piezometers.length} piezometric control point${gw.piezometers.length === 1 ? '' : 's'} below it (u given; linear between them).` : 'Hydrostatic below the water table.'}`, margin: [0, 0, 0, 4] })
   if (gw.piezometers.length) {
-    content.push(table([80, 100], [head(`Depth (${unitLabel('length', u)})`, `u (${unitLabel('stress', u)})`), ...gw.piezometers.map(p => [cell(fixed(convert(p.depth, 'length', 'SI', u), 2)), cell(fixed(convert(p.porePressure, 'stress', 'SI', u), 1))])]))
+    content.push(table([80, 100], [head(`Depth (${unitLabel('length', u, uo)})`, `u (${unitLabel('stress', u, uo)})`), ...gw.piezometers.map(p => [cell(fixed(convert(p.depth, 'length', 'SI', u, uo), 2)), cell(fixed(convert(p.porePressure, 'stress', 'SI', u, uo), 1))])]))
   }
   content.push({ text: 'Stresses at the profile\'s breakpoints', style: 'subsection' })
   content.push(table([70, '*', 70, 70, 70], [
-    head(`Depth (${unitLabel('length', u)})`, 'Stratum', `σv (${unitLabel('stress', u)})`, `u (${unitLabel('stress', u)})`, `σ'v0 (${unitLabel('stress', u)})`),
-    ...d.profile.map(p => [cell(fixed(convert(p.depth, 'length', 'SI', u), 2)), cell(p.layer), cell(fixed(convert(p.totalStress, 'stress', 'SI', u), 1)), cell(fixed(convert(p.porePressure, 'stress', 'SI', u), 1)), cell(fixed(convert(p.effectiveStress, 'stress', 'SI', u), 1))]),
+    head(`Depth (${unitLabel('length', u, uo)})`, 'Stratum', `σv (${unitLabel('stress', u, uo)})`, `u (${unitLabel('stress', u, uo)})`, `σ'v0 (${unitLabel('stress', u, uo)})`),
+    ...d.profile.map(p => [cell(fixed(convert(p.depth, 'length', 'SI', u, uo), 2)), cell(p.layer), cell(fixed(convert(p.totalStress, 'stress', 'SI', u, uo), 1)), cell(fixed(convert(p.porePressure, 'stress', 'SI', u, uo), 1)), cell(fixed(convert(p.effectiveStress, 'stress', 'SI', u, uo), 1))]),
   ]))
 
   // --- drawings: the ground (strata, unit weights, pore pressure), the whole depth, then each stratum ---
   const inner = 595.28 - 72
-  const ground = groundDrawing({ definition: def, profile: d.profile, units: u, width: 720, height: 800 })
+  const ground = groundDrawing({ definition: def, profile: d.profile, units: u, usStress: d.project.usStress, width: 720, height: 800 })
   content.push({ text: 'Strata, unit weights and pore pressure', style: 'section', pageBreak: 'before' })
   content.push({ text: 'γ applies above the water table and γsat below it (drawn strong where each applies). u is the model\'s water profile — hydrostatic from the water table, linear between the piezometric control points — beside the hydrostatic line.', fontSize: 8.5, color: REPORT_INK.silt, margin: [0, 0, 0, 4] })
   content.push({ svg: ground.svg, width: inner })
-  const whole = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, width: 720, height: 880 })
+  const whole = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, usStress: d.project.usStress, width: 720, height: 880 })
   content.push({ text: 'Stress history, whole depth', style: 'section', pageBreak: 'before' })
   content.push({ svg: whole.svg, width: inner })
 
@@ -163,11 +166,11 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
     const c = counts(d.points, i)
     const t = s.trend
     content.push({ text: `${s.code} — ${s.name}`, style: 'section', pageBreak: 'before' })
-    content.push({ text: `${shown(b.top, 'length', u)} to ${shown(b.bottom, 'length', u)} · σ'p points: ${c.included} fitted, ${c.excluded} left out by the engineer, ${c.flaggedOut} excluded by reviewer flags`, fontSize: 8.5, color: REPORT_INK.silt, margin: [0, 0, 0, 4] })
+    content.push({ text: `${shown(b.top, 'length', u, undefined, uo)} to ${shown(b.bottom, 'length', u, undefined, uo)} · σ'p points: ${c.included} fitted, ${c.excluded} left out by the engineer, ${c.flaggedOut} excluded by reviewer flags`, fontSize: 8.5, color: REPORT_INK.silt, margin: [0, 0, 0, 4] })
     const pad = Math.max(0.2, (b.bottom - b.top) * 0.04)
-    const drawing = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, range: { top: Math.max(0, b.top - pad), bottom: b.bottom + pad }, width: 720, height: 700, legend: false })
+    const drawing = modelDrawing({ definition: def, profile: d.profile, points: d.points, fitBands: d.fitBands, units: u, usStress: d.project.usStress, range: { top: Math.max(0, b.top - pad), bottom: b.bottom + pad }, width: 720, height: 700, legend: false })
     content.push({ svg: drawing.svg, width: inner })
-    content.push({ text: trendWords(t, u), fontSize: 8.5, margin: [0, 4, 0, 0] })
+    content.push({ text: trendWords(t, u, uo), fontSize: 8.5, margin: [0, 4, 0, 0] })
     content.push({ text: 'Symbols and lines as in the key under the whole-depth drawing.', style: 'note', margin: [0, 2, 0, 0] })
   })
 
@@ -181,8 +184,8 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
       if (t.manual) return [cell(s.code, { bold: true }), cell('Hand-drawn'), cell(`${t.manual.knots.length} knots: “${t.manual.reason}”`), cell(''), cell(''), cell(''), cell('')]
       return [
         cell(s.code, { bold: true }), cell(`${TREND_MODEL_LABELS[t.model] ?? t.model}${t.logSpace ? ' (ln σ\'p)' : ''}`),
-        cell(Object.entries(t.parameters).map(([k, v]) => `${TREND_PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join('; ')),
-        cell(String(t.n)), cell(fixed(t.r2, 3)), cell(t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u)), cell(fixed(t.aicc, 1)),
+        cell(Object.entries(t.parameters).map(([k, v]) => `${trendParameterLabel(k, unitLabel('length', u))} ${trendParameterText(k, v, u, uo)}`).join('; ')),
+        cell(String(t.n)), cell(fixed(t.r2, 3)), cell(t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u, undefined, uo)), cell(fixed(t.aicc, 1)),
       ]
     }),
   ]))
@@ -235,13 +238,14 @@ export function modelVersionDocument(d: ModelVersionReportData): TDocumentDefini
     checked: null,
     approved: approved && d.approval ? { name: d.approval.by ?? 'unknown', date: reportDate(d.approval.at) } : null,
     units: u,
+    usStress: d.project.usStress,
     approvedRecord: approved,
   }, content)
 }
 
-function trendWords(t: SiteModelDefinition['strata'][number]['trend'], u: UnitSystem): string {
+function trendWords(t: SiteModelDefinition['strata'][number]['trend'], u: UnitSystem, uo: ConvertOptions = {}): string {
   if (!t) return 'No σ\'p trend in this stratum.'
   if (t.manual) return `Hand-drawn trend (${t.manual.knots.length} knots): “${t.manual.reason}”`
-  const params = Object.entries(t.parameters).map(([k, v]) => `${TREND_PARAMETERS[k]?.label ?? k} ${trendParameterText(k, v, u)}`).join(', ')
-  return `${TREND_MODEL_LABELS[t.model] ?? t.model}${t.logSpace ? ' on ln σ\'p' : ''}: ${params} · n ${t.n} · R² ${fixed(t.r2, 3)} · RMSE ${t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u)} · AICc ${fixed(t.aicc, 1)}`
+  const params = Object.entries(t.parameters).map(([k, v]) => `${trendParameterLabel(k, unitLabel('length', u))} ${trendParameterText(k, v, u, uo)}`).join(', ')
+  return `${TREND_MODEL_LABELS[t.model] ?? t.model}${t.logSpace ? ' on ln σ\'p' : ''}: ${params} · n ${t.n} · R² ${fixed(t.r2, 3)} · RMSE ${t.logSpace ? `${fixed(t.rmse, 3)} (ln)` : shown(t.rmse, 'stress', u, undefined, uo)} · AICc ${fixed(t.aicc, 1)}`
 }

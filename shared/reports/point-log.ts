@@ -219,6 +219,7 @@ export function pointLogDocument(data: PointLogData, o: PointLogSheetOptions): {
     revision: o.revision,
     prepared: o.prepared ?? null,
     units: data.units,
+    usStress: data.usStress,
     // A log is a record of what was found, not a design version: no band.
     approvedRecord: o.approvedRecord ?? true,
   }

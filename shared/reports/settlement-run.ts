@@ -7,7 +7,7 @@ import { formatDistortion, formatSettlement, formatYears, settlementUnitLabel } 
 import type { RunLoad } from '../schemas/settlement-runs'
 import { isTreated, scheduleRows } from '../settlement-run/treatment'
 import type { RunPointDetail, RunResults, ServerSettlementRun } from '../types/settlement-runs'
-import { convert, unitLabel, type Quantity, type UnitSystem } from '../units'
+import { convert, displayDigits, unitLabel, type ConvertOptions, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
 import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
 
 /**
@@ -18,7 +18,7 @@ import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
  */
 
 export interface SettlementRunReportInput {
-  project: { name: string, jobNumber: string, client: string, unitSystem: UnitSystem }
+  project: { name: string, jobNumber: string, client: string, unitSystem: UnitSystem, usStressUnit?: UsStressUnit }
   run: ServerSettlementRun & { results: RunResults }
   /** Each named point's sublayer table (`settlement_run_points`), in the run's point order. */
   details: RunPointDetail[]
@@ -32,9 +32,14 @@ const PLOT_W = 380
 
 const dateText = (d: Date | string | null | undefined) => (d ? new Date(d).toISOString().slice(0, 10) : '—')
 
-function fmt(units: UnitSystem, v: number | null | undefined, q: Quantity, digits = 1): string {
+function fmt(units: UnitSystem, v: number | null | undefined, q: Quantity, digits = 1, opts: ConvertOptions = {}): string {
   if (v === null || v === undefined || !Number.isFinite(v)) return '—'
-  return convert(v, q, 'SI', units).toFixed(digits)
+  return convert(v, q, 'SI', units, opts).toFixed(digits)
+}
+
+/** A stress in the project's unit (kPa, psf or tsf), without the unit. */
+function stress(units: UnitSystem, v: number | null | undefined, opts: ConvertOptions): string {
+  return fmt(units, v, 'stress', displayDigits('stress', units, opts), opts)
 }
 
 /** The model version line: its approval as the run stored it. */
@@ -44,12 +49,12 @@ export function runModelLine(run: Pick<ServerSettlementRun, 'model'>): string {
   return `${m.modelName}, version ${m.version} — ${m.status}, not approved`
 }
 
-function loadRow(l: RunLoad, i: number, u: UnitSystem): TableCell[] {
+function loadRow(l: RunLoad, i: number, u: UnitSystem, so: ConvertOptions = {}): TableCell[] {
   const L = unitLabel('length', u)
-  const P = unitLabel('stress', u)
+  const P = unitLabel('stress', u, so)
   const len = (v: number) => fmt(u, v, 'length', 1)
   const pressure = 'pressure' in l && l.pressure !== undefined
-    ? `${fmt(u, l.pressure, 'stress', u === 'US' ? 0 : 1)} ${P}`
+    ? `${stress(u, l.pressure, so)} ${P}`
     : 'fill' in l && l.fill ? `fill ${len(l.fill.thickness)} ${L} × ${fmt(u, l.fill.unitWeight, 'unitWeight', 1)} ${unitLabel('unitWeight', u)}` : '—'
   let where = '—'
   let size = 'whole site'
@@ -104,7 +109,7 @@ function inputs(inp: SettlementRunReportInput): Content[] {
     ]),
     { text: 'Loads', style: 'subsection' },
     {
-      table: { headerRows: 1, widths: [70, 58, 100, '*', 110], body: [head(['Load', 'Shape', 'Centre', 'Size', 'Pressure or fill']), ...run.loads.map((l, i) => loadRow(l, i, u))] },
+      table: { headerRows: 1, widths: [70, 58, 100, '*', 110], body: [head(['Load', 'Shape', 'Centre', 'Size', 'Pressure or fill']), ...run.loads.map((l, i) => loadRow(l, i, u, { usStress: project.usStressUnit }))] },
       layout: TABLE_LAYOUT,
     },
   ]
@@ -245,19 +250,20 @@ const CASE_WORDS: Record<string, string> = { 'NC': 'NC', 'OC': 'OC', 'OC-NC': 'O
 
 function pointPages(inp: SettlementRunReportInput): Content[] {
   const u = inp.project.unitSystem
+  const so: ConvertOptions = { usStress: inp.project.usStressUnit }
   const L = unitLabel('length', u)
-  const P = unitLabel('stress', u)
+  const P = unitLabel('stress', u, so)
   const unit = settlementUnitLabel(u)
   const out: Content[] = []
   inp.run.results.points.forEach((p, i) => {
     const d = inp.details.find(x => x.index === i) ?? inp.details[i]
     out.push({ text: `Named point ${p.label}`, style: 'section', pageBreak: 'before' })
-    out.push({ text: `E ${fmt(u, p.x, 'length', 1)}, N ${fmt(u, p.y, 'length', 1)} ${L} · settlement ${formatSettlement(p.settlement, u)} · Δσ at the surface ${fmt(u, p.surfaceStressIncrease, 'stress', u === 'US' ? 0 : 1)} ${P} · t90 ${formatYears(p.t90)}`, style: 'small', margin: [0, 0, 0, 4] })
+    out.push({ text: `E ${fmt(u, p.x, 'length', 1)}, N ${fmt(u, p.y, 'length', 1)} ${L} · settlement ${formatSettlement(p.settlement, u)} · Δσ at the surface ${stress(u, p.surfaceStressIncrease, so)} ${P} · t90 ${formatYears(p.t90)}`, style: 'small', margin: [0, 0, 0, 4] })
     const halfW = (PAGE_INNER - 12) / 2
     if (d) {
       out.push({
         columns: [
-          { width: halfW, svg: settlementDepthSvg(settlementDepthScene({ sublayers: d.sublayers, unitSystem: u, width: PLOT_W, height: 460 }), `depth-${i}`) },
+          { width: halfW, svg: settlementDepthSvg(settlementDepthScene({ sublayers: d.sublayers, unitSystem: u, usStress: inp.project.usStressUnit, width: PLOT_W, height: 460 }), `depth-${i}`) },
           { width: halfW, svg: settlementTimeSvg(settlementTimeScene({ series: [{ name: inp.run.name, point: p }], years: inp.run.options.years, unitSystem: u, width: PLOT_W, height: 330 }), { legend: true }) },
         ],
         columnGap: 12,
@@ -272,9 +278,9 @@ function pointPages(inp: SettlementRunReportInput): Content[] {
             head(['Stratum', `Top (${L})`, `Bottom (${L})`, `σ'v0 (${P})`, `Δσ (${P})`, `σ'vf (${P})`, `σ'p (${P})`, `σ'p final (${P})`, 'Case', 'Δe', 'Strain (%)', `Compr. (${unit})`]),
             ...d.sublayers.map(r => [
               cell(r.layer, 'left'), cell(fmt(u, r.top, 'length', 2)), cell(fmt(u, r.bottom, 'length', 2)),
-              cell(fmt(u, r.effectiveStress, 'stress', u === 'US' ? 0 : 1)), cell(fmt(u, r.stressIncrease, 'stress', u === 'US' ? 0 : 1)),
-              cell(fmt(u, r.finalEffectiveStress, 'stress', u === 'US' ? 0 : 1)), cell(fmt(u, r.preconsolidation, 'stress', u === 'US' ? 0 : 1)),
-              cell(fmt(u, r.finalPreconsolidation, 'stress', u === 'US' ? 0 : 1)), cell(CASE_WORDS[r.case] ?? r.case, 'left'),
+              cell(stress(u, r.effectiveStress, so)), cell(stress(u, r.stressIncrease, so)),
+              cell(stress(u, r.finalEffectiveStress, so)), cell(stress(u, r.preconsolidation, so)),
+              cell(stress(u, r.finalPreconsolidation, so)), cell(CASE_WORDS[r.case] ?? r.case, 'left'),
               cell(r.voidRatioChange.toFixed(4)), cell((r.strain * 100).toFixed(2)), cell(s(r.compression, u)),
             ] as TableCell[]),
             [{ text: 'Total', style: 'tableCell', bold: true, colSpan: 11 }, ...Array.from({ length: 10 }, () => ({ text: '' })), { text: s(d.sublayers.reduce((a, r) => a + r.compression, 0), u), style: 'tableCell', bold: true, alignment: 'right' }] as TableCell[],
@@ -352,6 +358,7 @@ export function settlementRunReport(inp: SettlementRunReportInput): TDocumentDef
     checked: null,
     approved: null,
     units: u,
+    usStress: project.usStressUnit,
     approvedRecord: run.model.status === 'approved',
   }, content, { author: inp.issue?.issuedBy.name })
 }

@@ -1,6 +1,6 @@
 import type { Column, Content, DynamicContent, TDocumentDefinitions, Watermark } from 'pdfmake/interfaces'
 import { RESULT_CAUTION } from '../caution'
-import type { UnitSystem } from '../units'
+import type { UnitSystem, UsStressUnit } from '../units'
 
 /**
  * Pastload's report sheet: one visual language for every PDF (point log, site-model version, settlement
@@ -45,6 +45,8 @@ export interface ReportHeader {
   checked?: ReportSignOff | null
   approved?: ReportSignOff | null
   units: UnitSystem
+  /** US stresses in psf (default) or tsf, as the project chose. */
+  usStress?: UsStressUnit
   /** false: the diagonal "not approved" band on every page. */
   approvedRecord: boolean
 }
@@ -58,7 +60,10 @@ export interface ReportOptions {
 /** Page margins in points: [left, top, right, bottom]; the header and footer live in the top and bottom margins. */
 export const REPORT_MARGINS: [number, number, number, number] = [36, 62, 36, 74]
 
-const UNIT_WORDS: Record<UnitSystem, string> = { SI: 'SI units (m, kPa, kN/m³)', US: 'US customary units (ft, psf, pcf)' }
+/** The units line of the sheet's footer. */
+export function unitWords(units: UnitSystem, usStress: UsStressUnit = 'psf'): string {
+  return units === 'SI' ? 'SI units (m, kPa, kN/m³)' : `US customary units (ft, ${usStress}, pcf)`
+}
 
 function signOffCell(label: string, s: ReportSignOff | null | undefined): Column {
   return {
@@ -121,7 +126,7 @@ export function reportFooterContent(h: ReportHeader, page: number, pages: number
             width: '*',
             stack: [
               { text: status, fontSize: 7.5, bold: true, color: h.approvedRecord ? REPORT_INK.tideDark : REPORT_INK.alert },
-              { text: UNIT_WORDS[h.units], fontSize: 7, color: REPORT_INK.silt },
+              { text: unitWords(h.units, h.usStress), fontSize: 7, color: REPORT_INK.silt },
             ],
           },
           { width: 'auto', text: `page ${page} of ${pages}`, fontSize: 8, alignment: 'right', color: REPORT_INK.tideDark, bold: true },

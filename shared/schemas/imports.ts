@@ -25,6 +25,11 @@ const commitFields = {
   dryRun: z.boolean().default(false),
   /** Remember this mapping for the next file of this target. */
   saveMapping: z.boolean().default(true),
+  /**
+   * The unit of each numeric column, by field key (`{ finalDepth: 'ft', pressure: 'psf' }`); a field not named is
+   * in SI (m, kPa, kN/m³). A unit not in `IMPORT_UNITS` for its field is a 422 naming the column.
+   */
+  units: z.record(str().max(60), str().max(20)).optional(),
 }
 
 /** A commit of an uploaded table into one target; a CPT sounding and an oedometer test's stages name what they belong to. */

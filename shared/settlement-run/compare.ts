@@ -1,9 +1,11 @@
 import type { RunLoad, RunOptions } from '../schemas/settlement-runs'
 import type { RunResults, SettlementRun } from '../types/settlement-runs'
+import { convert, displayDigits, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
 
 /**
  * Two settlement runs side by side: what differs in their inputs, their headline figures with
- * the difference (b − a), and their named points matched by label. Pure; SI values (m, kPa, years).
+ * the difference (b − a), and their named points matched by label. Pure; SI values (m, kPa, years) in, words in the
+ * project's units.
  */
 export interface InputDifference {
   /** What differs, in plain words ('Model version', 'Load 2', 'Design life'). */
@@ -33,20 +35,33 @@ function fmt(v: number, digits = 2): string {
   return String(Number(v.toFixed(digits)))
 }
 
-/** One load in a line of plain words (SI). */
-export function describeLoad(l: RunLoad): string {
-  const p = 'fill' in l && l.fill ? `fill ${fmt(l.fill.thickness)} m × ${fmt(l.fill.unitWeight, 1)} kN/m³` : 'pressure' in l && l.pressure !== undefined ? `${fmt(l.pressure, 1)} kPa` : ''
+/** The units the words are written in: the project's (SI when not given; US stresses in psf unless tsf). */
+export interface CompareUnits { system: UnitSystem, usStress?: UsStressUnit }
+const SI: CompareUnits = { system: 'SI' }
+
+/** A value given in SI, in the display unit, rounded, without its unit. */
+function num(v: number, q: Quantity, u: CompareUnits, digits: number): string {
+  return fmt(convert(v, q, 'SI', u.system, { usStress: u.usStress }), digits)
+}
+
+/** One load in a line of plain words, in the given units (SI by default). */
+export function describeLoad(l: RunLoad, u: CompareUnits = SI): string {
+  const L = unitLabel('length', u.system)
+  const G = unitLabel('unitWeight', u.system)
+  const len = (v: number, d = 2) => num(v, 'length', u, d)
+  const at = (x: number, y: number) => `(${len(x, 1)}, ${len(y, 1)})`
+  const p = 'fill' in l && l.fill ? `fill ${len(l.fill.thickness)} ${L} × ${num(l.fill.unitWeight, 'unitWeight', u, 1)} ${G}` : 'pressure' in l && l.pressure !== undefined ? `${num(l.pressure, 'stress', u, displayDigits('stress', u.system, { usStress: u.usStress }))} ${unitLabel('stress', u.system, { usStress: u.usStress })}` : ''
   switch (l.type) {
     case 'uniform': return `uniform, ${p}`
-    case 'rectangle': return `rectangle ${fmt(l.width)} × ${fmt(l.length)} m at (${fmt(l.x, 1)}, ${fmt(l.y, 1)})${l.rotation ? `, ${fmt(l.rotation, 1)}°` : ''}, ${p}`
-    case 'circle': return `circle r ${fmt(l.radius)} m at (${fmt(l.x, 1)}, ${fmt(l.y, 1)}), ${p}`
-    case 'embankment': return `embankment crest ${fmt(l.crestWidth)} × ${fmt(l.crestLength)} m at (${fmt(l.x, 1)}, ${fmt(l.y, 1)}), ${fmt(l.height)} m high, slope ${fmt(l.sideSlope)}:1, ${fmt(l.unitWeight, 1)} kN/m³${l.rotation ? `, ${fmt(l.rotation, 1)}°` : ''}`
+    case 'rectangle': return `rectangle ${len(l.width)} × ${len(l.length)} ${L} at ${at(l.x, l.y)}${l.rotation ? `, ${fmt(l.rotation, 1)}°` : ''}, ${p}`
+    case 'circle': return `circle r ${len(l.radius)} ${L} at ${at(l.x, l.y)}, ${p}`
+    case 'embankment': return `embankment crest ${len(l.crestWidth)} × ${len(l.crestLength)} ${L} at ${at(l.x, l.y)}, ${len(l.height)} ${L} high, slope ${fmt(l.sideSlope)}:1, ${num(l.unitWeight, 'unitWeight', u, 1)} ${G}${l.rotation ? `, ${fmt(l.rotation, 1)}°` : ''}`
   }
 }
 
-function describeOptions(o: RunOptions): [string, string][] {
+function describeOptions(o: RunOptions, u: CompareUnits): [string, string][] {
   return [
-    ['Largest sublayer', `${fmt(o.maxSublayerThickness, 3)} m`],
+    ['Largest sublayer', `${num(o.maxSublayerThickness, 'length', u, 3)} ${unitLabel('length', u.system)}`],
     ['Times of interest', `${o.years.map(y => fmt(y, 3)).join(', ')} years`],
     ['Design life', `${fmt(o.designLife, 1)} years`],
     ['Angular distortion limit', `1/${fmt(1 / o.angularDistortionLimit, 0)}`],
@@ -54,7 +69,8 @@ function describeOptions(o: RunOptions): [string, string][] {
 }
 
 /** What differs between two runs' inputs, in order: version, loads, points, grid, options. */
-export function inputDifferences(a: RunInputs, b: RunInputs): InputDifference[] {
+export function inputDifferences(a: RunInputs, b: RunInputs, u: CompareUnits = SI): InputDifference[] {
+  const L = unitLabel('length', u.system)
   const out: InputDifference[] = []
   const ver = (r: RunInputs) => `${r.model.modelName} v${r.model.version}${r.model.status === 'approved' ? ' (approved)' : ' (not approved)'}`
   if (a.model.modelId !== b.model.modelId || a.model.version !== b.model.version || a.model.status !== b.model.status) out.push({ what: 'Model version', a: ver(a), b: ver(b) })
@@ -62,17 +78,17 @@ export function inputDifferences(a: RunInputs, b: RunInputs): InputDifference[] 
   for (let i = 0; i < n; i++) {
     const loadA = a.loads[i]
     const loadB = b.loads[i]
-    const la = loadA ? describeLoad(loadA) : '—'
-    const lb = loadB ? describeLoad(loadB) : '—'
+    const la = loadA ? describeLoad(loadA, u) : '—'
+    const lb = loadB ? describeLoad(loadB, u) : '—'
     const label = loadA?.label ?? loadB?.label
     if (la !== lb) out.push({ what: `Load ${i + 1}${label ? ` (${label})` : ''}`, a: la, b: lb })
   }
-  const pts = (r: RunInputs) => r.points.map(p => `${p.label} (${fmt(p.x, 1)}, ${fmt(p.y, 1)})`).join('; ') || '—'
+  const pts = (r: RunInputs) => r.points.map(p => `${p.label} (${num(p.x, 'length', u, 1)}, ${num(p.y, 'length', u, 1)})`).join('; ') || '—'
   if (pts(a) !== pts(b)) out.push({ what: 'Named points', a: pts(a), b: pts(b) })
-  const grid = (r: RunInputs) => (r.grid ? `every ${fmt(r.grid.spacing)} m, ${fmt(r.grid.margin)} m beyond the loads` : 'none')
+  const grid = (r: RunInputs) => (r.grid ? `every ${num(r.grid.spacing, 'length', u, 2)} ${L}, ${num(r.grid.margin, 'length', u, 2)} ${L} beyond the loads` : 'none')
   if (grid(a) !== grid(b)) out.push({ what: 'Grid', a: grid(a), b: grid(b) })
-  const oa = describeOptions(a.options)
-  const ob = describeOptions(b.options)
+  const oa = describeOptions(a.options, u)
+  const ob = describeOptions(b.options, u)
   oa.forEach(([what, va], i) => {
     const vb = ob[i]?.[1] ?? '—'
     if (va !== vb) out.push({ what, a: va, b: vb })

@@ -2,7 +2,7 @@ import { convert, unitLabel, type ConvertOptions, type Quantity, type UnitSystem
 import { MODEL_NAMES } from '../geotech/trend-model'
 import { COMPRESSIBILITY_KEYS, COMPRESSIBILITY_LABELS } from './definition-plain'
 import type { Compressibility, ModelStratum, SiteModelDefinition, StratumTrend, TrendProblemCode } from './definition'
-import { TREND_PARAMETERS } from './trend-words'
+import { TREND_PARAMETERS, trendParameterLabel } from './trend-words'
 
 /**
  * What changed between two site model definitions, as sentences a reviewer reads
@@ -21,7 +21,8 @@ class Words {
   constructor(private readonly system: UnitSystem, private readonly options: ConvertOptions) {}
   /** A value in the display unit, without the unit. */
   num(v: number, q: Quantity): string {
-    const d = this.system === 'US' && q === 'stress' ? 0 : DIGITS[q]
+    // US stress: psf whole, tsf to 0.01 (a tsf is 2000 psf).
+    const d = this.system === 'US' && q === 'stress' ? (this.options.usStress === 'tsf' ? 2 : 0) : DIGITS[q]
     return convert(v, q, 'SI', this.system, this.options).toFixed(d)
   }
 
@@ -73,7 +74,7 @@ function trendText(t: StratumTrend, w: Words): string {
   const entries = Object.entries(t.parameters).filter(([k]) => TREND_PARAMETERS[k])
   const log = t.logSpace ? ' on ln σ\'p' : ''
   if (entries.length === 1) return `${modelName(t)}${log} ${w.parameter(entries[0]![0], entries[0]![1])}`
-  return `${modelName(t)}${log} (${entries.map(([k, v]) => `${TREND_PARAMETERS[k]!.label} ${w.parameter(k, v)}`).join(', ')})`
+  return `${modelName(t)}${log} (${entries.map(([k, v]) => `${trendParameterLabel(k, w.unit('length'))} ${w.parameter(k, v)}`).join(', ')})`
 }
 
 function trendChanges(code: string, a: StratumTrend | undefined, b: StratumTrend | undefined, w: Words): string[] {
@@ -95,7 +96,7 @@ function trendChanges(code: string, a: StratumTrend | undefined, b: StratumTrend
       out.push(`${code} trend: ${modelName(b)}${b.logSpace ? ' on ln σ\'p' : ''} ${w.parameter(k, a.parameters[k]!, false)} → ${w.parameter(k, b.parameters[k]!, false)}${unit ? ` ${unit}` : ''}`)
     }
     else if (changed.length) {
-      const part = (k: string) => `${TREND_PARAMETERS[k]!.label} ${a.parameters[k] === undefined ? '—' : w.parameter(k, a.parameters[k], false)} → ${b.parameters[k] === undefined ? '—' : w.parameter(k, b.parameters[k])}`
+      const part = (k: string) => `${trendParameterLabel(k, w.unit('length'))} ${a.parameters[k] === undefined ? '—' : w.parameter(k, a.parameters[k], false)} → ${b.parameters[k] === undefined ? '—' : w.parameter(k, b.parameters[k])}`
       out.push(`${code} trend: ${modelName(b)}, ${changed.map(part).join(', ')}`)
     }
   }

@@ -22,3 +22,9 @@ export const TREND_PARAMETERS: Record<string, { label: string, quantity: 'stress
   valueAtBreakpoint: { label: 'σ\'p at crust base', quantity: 'stress' },
   effectiveStressAtBreakpoint: { label: 'σ\'v0 at crust base', quantity: 'stress' },
 }
+
+/** A trend parameter's label with depths in the given length unit ("σ'p at 0 ft" on a US project); the key itself when unknown. */
+export function trendParameterLabel(key: string, lengthUnit = 'm'): string {
+  const label = TREND_PARAMETERS[key]?.label ?? key
+  return label.replace(/ at 0 m$/, ` at 0 ${lengthUnit}`)
+}

@@ -101,3 +101,24 @@ export function convert(value: number, quantity: Quantity, from: UnitSystem, to:
 export function unitExpression(quantity: Quantity, system: UnitSystem, options: ConvertOptions = {}): string {
   return system === 'SI' ? SI_UNITS[quantity] : usUnit(quantity, options.usStress ?? 'psf')
 }
+
+/** Decimals a number of each quantity is shown with, per system (US stress: psf whole; tsf to 0.01, see `displayDigits`). */
+export const DISPLAY_DIGITS: Record<UnitSystem, Record<Quantity, number>> = {
+  SI: { length: 2, stress: 1, unitWeight: 1, coefficientOfConsolidation: 2 },
+  US: { length: 2, stress: 0, unitWeight: 1, coefficientOfConsolidation: 2 },
+}
+
+/** Decimals for a quantity in a system (a tsf is 2000 psf, so tsf needs two where psf needs none). */
+export function displayDigits(quantity: Quantity, system: UnitSystem, options: ConvertOptions = {}): number {
+  if (system === 'US' && quantity === 'stress' && options.usStress === 'tsf') return 2
+  return DISPLAY_DIGITS[system][quantity]
+}
+
+/**
+ * The one formatter of a number with its unit, for pages (through `useModelUnits`), files and reports:
+ * an SI value shown in the system's unit with its label ("98.43 ft", "1250 psf", "0.63 tsf"); '—' when missing.
+ */
+export function formatQuantity(value: number | null | undefined, quantity: Quantity, system: UnitSystem, options: ConvertOptions = {}, digits?: number): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return '—'
+  return `${convert(value, quantity, 'SI', system, options).toFixed(digits ?? displayDigits(quantity, system, options))} ${unitLabel(quantity, system, options)}`
+}

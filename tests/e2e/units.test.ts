@@ -7,6 +7,10 @@ import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import { useDemoCopy } from '../helpers/demo-project'
 import { baseUrl, demoEmail, signIn } from '../helpers/http'
+import { pdfPagesText } from '../helpers/pdf'
+import { must } from '../helpers/project'
+import { createRunModel, smallRunBody } from '../helpers/settlement-run'
+import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { screenshot, signInAs, useBrowser } from './helpers'
 
 /** SI unit labels as they would read on a page: a number then the unit, or the unit in a heading's brackets. */
@@ -108,4 +112,96 @@ describe('US units on every converted page', () => {
     expect(head).toContain('Depth (ft)')
     expect(head).toContain('(psf)')
   }, 300_000)
+
+  it('the point page, its log sheet, strata, σ\'p data, the stress model, its compare and the run compare read in US units too', async () => {
+    const projectId = copy.id
+    const api = await signIn(demoEmail('owner'))
+    const engineer = await signIn(demoEmail('engineer'))
+    const designer = await signIn(demoEmail('designer'))
+    const base = `/api/projects/${projectId}`
+    await must('switching to US', api.patch(base, { unitSystem: 'US', usStressUnit: 'psf' }))
+    const points = (await must('points', api.get<{ points: { id: string, identifier: string }[] }>(`${base}/points`))).points
+    const bh01 = points.find(p => p.identifier === 'BH-01')!
+    const cpt = points.find(p => p.identifier.startsWith('CPT'))!
+    // A model with two versions (the water table moved), and two runs on version 1, for the compare pages.
+    const model = await createRunModel(engineer, projectId, undefined, 'Units model')
+    const { model: m } = await must('model', engineer.get<{ model: { version: number, draft: SiteModelDefinition } }>(model.url))
+    const draft = { ...m.draft, groundwater: { ...m.draft.groundwater, waterTableDepth: m.draft.groundwater.waterTableDepth + 0.3 } }
+    const put = await must('draft', engineer.request<{ model: { version: number } }>('PUT', `${model.url}/draft`, { draft, version: m.version }))
+    await must('version 2', engineer.post(`${model.url}/versions`, { message: 'Water table lower', version: put.model.version }), 201)
+    const runA = (await must('run A', designer.post<{ run: { id: string } }>(`${base}/settlement-runs`, smallRunBody(model, { name: 'Slab A' })), 201)).run.id
+    const runB = (await must('run B', designer.post<{ run: { id: string } }>(`${base}/settlement-runs`, smallRunBody(model, { name: 'Slab B', loads: [{ type: 'rectangle', label: 'Slab', x: 0, y: 0, width: 40, length: 30, pressure: 120 }] })), 201)).run.id
+
+    const page = await signInAs(browser.context, demoEmail('owner'))
+    const web = `${baseUrl()}/projects/${projectId}`
+    await page.setViewportSize({ width: 1366, height: 850 })
+    const left: string[] = []
+    const read = async (name: string) => {
+      for (const found of siLeft(await mainText(page))) left.push(`${name}: ${found}`)
+    }
+
+    // The point page: header figures, the log table and graphic log, then each tab of tests and observations.
+    await page.goto(`${web}/points/${bh01.id}`)
+    await page.getByTestId('point-facts').waitFor()
+    await page.getByTestId('graphic-log').waitFor()
+    await expect.poll(() => page.getByTestId('point-facts').innerText()).toContain('98.43 ft')
+    await read('point')
+    await shoot(page, 'units-us-point')
+    for (const tab of ['SPT', 'Groundwater', 'Vane']) {
+      await page.getByRole('tab', { name: new RegExp(`^${tab}`) }).click()
+      await read(`point ${tab}`)
+    }
+    await page.getByRole('tab', { name: /^SPT/ }).click()
+    expect(await page.getByTestId('spt-table').locator('thead').innerText()).toContain('Depth (ft)')
+    await shoot(page, 'units-us-point-spt')
+    // The log table heads its depths in feet.
+    expect(await page.getByTestId('log-table').locator('thead').innerText()).toContain('Top (ft)')
+
+    // A sounding: the cone plot's axes and the Ic track.
+    await page.goto(`${web}/points/${cpt.id}`)
+    await page.getByTestId('cpt-plot').waitFor()
+    await expect.poll(() => page.getByTestId('cpt-plot').locator('svg text').allTextContents().then(t => t.join(' '))).toContain('Depth (ft)')
+    await read('cpt point')
+    await shoot(page, 'units-us-cpt')
+
+    const pages: { name: string, path: string, ready: (p: Page) => Promise<unknown> }[] = [
+      { name: 'log-sheet', path: `/points/${bh01.id}/sheet`, ready: p => p.getByTestId('log-drawing').first().waitFor() },
+      { name: 'strata', path: '/strata', ready: p => p.getByTestId('stratum-row').first().waitFor() },
+      { name: 'preconsolidation', path: '/preconsolidation', ready: p => p.locator('[data-testid="points-table"] tbody tr').first().waitFor() },
+      { name: 'stress-model', path: `/models/${model.modelId}`, ready: p => p.getByTestId('stress-track').waitFor() },
+      { name: 'model-compare', path: `/models/${model.modelId}/compare?a=1&b=2`, ready: p => p.getByTestId('compare-summary').waitFor() },
+      { name: 'run-compare', path: `/settlement/compare?a=${runA}&b=${runB}`, ready: p => p.getByTestId('compare-inputs').waitFor() },
+    ]
+    for (const p of pages) {
+      await page.goto(`${web}${p.path}`)
+      await p.ready(page)
+      await read(p.name)
+      await shoot(page, `units-us-${p.name}`)
+    }
+    expect(left).toEqual([])
+
+    // Known values: BH-01's 30.0 m on the sheet, the water table moved 0.3 m = 0.98 ft in the compare's words,
+    // and the run compare's load in psf (100 kPa = 2089 psf, 120 kPa = 2506 psf; 1 psf = 0.047880 kPa).
+    await page.goto(`${web}/points/${bh01.id}/sheet`)
+    await expect.poll(() => page.getByTestId('sheet-facts').first().innerText()).toContain('98.43 ft')
+    await page.goto(`${web}/models/${model.modelId}/compare?a=1&b=2`)
+    expect(await page.getByTestId('compare-summary').innerText()).toMatch(/water table [\d.]+ → [\d.]+ ft/)
+    await page.goto(`${web}/settlement/compare?a=${runA}&b=${runB}`)
+    const inputs = await page.getByTestId('compare-inputs').innerText()
+    expect(inputs).toContain('2089 psf')
+    expect(inputs).toContain('2506 psf')
+
+    // In tsf the σ'p table and the point log PDF follow (a tsf is 2000 psf).
+    await must('switching to tsf', api.patch(base, { usStressUnit: 'tsf' }))
+    await page.goto(`${web}/preconsolidation`)
+    await expect.poll(() => page.locator('[data-testid="points-table"] thead').innerText()).toContain('σ\'p (tsf)')
+    await shoot(page, 'units-us-tsf-preconsolidation')
+    const res = await fetch(`${api.base}${base}/points/${bh01.id}/report.pdf`, { headers: { cookie: api.cookie } })
+    expect(res.status).toBe(200)
+    const text = pdfPagesText(new Uint8Array(await res.arrayBuffer())).join('\n')
+    expect(text).toContain('US customary units (ft, tsf, pcf)')
+    expect(text).toContain('98.43 ft')
+    expect(text).toMatch(/\btsf\b/)
+    expect(text).not.toMatch(/\bkPa\b/)
+  }, 400_000)
 })

@@ -101,3 +101,20 @@ describe('longestT90 and matchPoints', () => {
     expect(m[2]).toEqual({ label: 'Tank', a: null, b: 0.3, difference: null })
   })
 })
+
+// A US project reads the inputs in ft, psf or tsf and pcf (1 ft = 0.3048 m, 1 psf = 0.047880 kPa,
+// 1 tsf = 2000 psf, 1 pcf = 0.157087 kN/m³: NIST SP 811, 2008, App. B.8).
+describe('input words in US units', () => {
+  it('writes a load in ft and psf, or tsf when the project chose it', () => {
+    expect(describeLoad({ type: 'circle', x: 3.048, y: 0, radius: 6.096, pressure: 47.880259 }, { system: 'US' })).toBe('circle r 20 ft at (10, 0), 1000 psf')
+    expect(describeLoad({ type: 'uniform', pressure: 95.760518 }, { system: 'US', usStress: 'tsf' })).toBe('uniform, 1 tsf')
+    expect(describeLoad({ type: 'uniform', fill: { thickness: 3.048, unitWeight: 18.850 } }, { system: 'US' })).toBe('uniform, fill 10 ft × 120 pcf')
+  })
+
+  it('words the grid and the sublayer option in feet', () => {
+    const b = inputs({ grid: { spacing: 3.048, margin: 6.096 }, options: { maxSublayerThickness: 0.3048, years: [1, 10], designLife: 50, angularDistortionLimit: 1 / 500 } })
+    const d = inputDifferences(inputs(), b, { system: 'US' })
+    expect(d.find(x => x.what === 'Grid')?.b).toBe('every 10 ft, 20 ft beyond the loads')
+    expect(d.find(x => x.what === 'Largest sublayer')?.b).toBe('1 ft')
+  })
+})

@@ -8,6 +8,7 @@ import { pointHeader } from '#shared/investigation/point-header'
 import { cptSoundings, groundwaterObservations, indexTests, investigationPoints, logIntervals, oedometerTests, samples, sptResults, strata, vaneReadings } from '~~/server/db/schema'
 import type { ProjectRow } from '~~/server/utils/guards'
 import { sptBlowsText, sptFromStored, sptResultText, sptStored } from '#shared/investigation/spt-blows'
+import { convert, unitLabel, type Quantity } from '#shared/units'
 
 /** Everything logged in a project, one row per record, for the exports. */
 export async function loadProjectLogs(projectId: string) {
@@ -28,9 +29,31 @@ export async function loadProjectLogs(projectId: string) {
   return { points, byId, strata: strataRows, intervals, samples: sampleRows, spt, groundwater, vane, cpt }
 }
 
-/** The project's logs as an XLSX workbook, one sheet per table, SI units in the headers. */
+/** Values and column labels in the project's units (SI or US, psf or tsf); SI values as stored, converted ones rounded to what a file needs. */
+export function exportUnits(project: Pick<ProjectRow, 'unitSystem' | 'usStressUnit'>) {
+  const opts = { usStress: project.usStressUnit }
+  const DIGITS: Record<Quantity, number> = { length: 4, stress: 3, unitWeight: 3, coefficientOfConsolidation: 4 }
+  const v = (x: number | null | undefined, q: Quantity) => (x === null || x === undefined ? null : project.unitSystem === 'SI' ? x : Number(convert(x, q, 'SI', project.unitSystem, opts).toFixed(DIGITS[q])))
+  const label = (q: Quantity) => unitLabel(q, project.unitSystem, opts)
+  return {
+    len: (x: number | null | undefined) => v(x, 'length'),
+    stress: (x: number | null | undefined) => v(x, 'stress'),
+    gamma: (x: number | null | undefined) => v(x, 'unitWeight'),
+    label,
+    /** "Depth (ft)". */
+    head: (text: string, q: Quantity) => `${text} (${label(q)})`,
+    /** The About sheet's units line. */
+    words: `${label('length')}, ${label('stress')}, ${label('unitWeight')}, %`,
+  }
+}
+
+/** The project's logs as an XLSX workbook, one sheet per table, in the project's units with their labels in the headers. */
 export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
   const d = await loadProjectLogs(project.id)
+  const u = exportUnits(project)
+  const L = (text: string) => u.head(text, 'length')
+  const S = (text: string) => u.head(text, 'stress')
+  const G = (text: string) => u.head(text, 'unitWeight')
   const code = new Map(d.strata.map(s => [s.id, s.code]))
   const pt = (id: string) => d.byId.get(id) ?? ''
   const wb = XLSX.utils.book_new()
@@ -39,28 +62,28 @@ export async function logsWorkbook(project: ProjectRow): Promise<Buffer> {
     ['Project', `${project.jobNumber} ${project.name}`],
     ['Client', project.client],
     ['Exported', new Date().toISOString()],
-    ['Units', 'm, kPa, kN/m³, %'],
+    ['Units', u.words],
     ['Caution', RESULT_CAUTION],
   ])
-  add('Strata', [['Code', 'Name', 'Description', 'Unit weight (kN/m³)', 'Saturated unit weight (kN/m³)'], ...d.strata.map(s => [s.code, s.name, s.description, s.unitWeight, s.unitWeightSaturated])])
-  add('Points', [['Point', 'Kind', 'Easting (m)', 'Northing (m)', 'Ground elevation (m)', 'Final depth (m)', 'Started', 'Ended', 'Method', 'Logged by', 'Remarks'],
-    ...d.points.map(p => [p.identifier, p.kind, p.easting, p.northing, p.groundElevation, p.finalDepth, p.startedOn, p.endedOn, p.method, p.loggedBy, p.remarks])])
-  add('Intervals', [['Point', 'Top (m)', 'Bottom (m)', 'Description', 'USCS', 'Stratum', 'Moisture', 'Consistency / density'],
-    ...d.intervals.map(i => [pt(i.pointId), i.top, i.bottom, i.description, i.uscs, i.stratumId ? code.get(i.stratumId) ?? null : null, i.moisture, i.consistency])])
-  add('Samples', [['Point', 'Sample', 'Top (m)', 'Bottom (m)', 'Type', 'Recovery (%)', 'Remarks'],
-    ...d.samples.map(({ sample: s }) => [pt(s.pointId), s.identifier, s.top, s.bottom, s.type, s.recovery, s.remarks])])
-  add('Index tests', [['Point', 'Sample', 'Water content (%)', 'Liquid limit (%)', 'Plastic limit (%)', 'Plasticity index (%)', 'Bulk unit weight (kN/m³)'],
-    ...d.samples.flatMap(({ sample: s, index: i }) => i ? [[pt(s.pointId), s.identifier, i.waterContent, i.liquidLimit, i.plasticLimit, i.liquidLimit !== null && i.plasticLimit !== null ? i.liquidLimit - i.plasticLimit : null, i.bulkUnitWeight]] : [])])
+  add('Strata', [['Code', 'Name', 'Description', G('Unit weight'), G('Saturated unit weight')], ...d.strata.map(s => [s.code, s.name, s.description, u.gamma(s.unitWeight), u.gamma(s.unitWeightSaturated)])])
+  add('Points', [['Point', 'Kind', L('Easting'), L('Northing'), L('Ground elevation'), L('Final depth'), 'Started', 'Ended', 'Method', 'Logged by', 'Remarks'],
+    ...d.points.map(p => [p.identifier, p.kind, u.len(p.easting), u.len(p.northing), u.len(p.groundElevation), u.len(p.finalDepth), p.startedOn, p.endedOn, p.method, p.loggedBy, p.remarks])])
+  add('Intervals', [['Point', L('Top'), L('Bottom'), 'Description', 'USCS', 'Stratum', 'Moisture', 'Consistency / density'],
+    ...d.intervals.map(i => [pt(i.pointId), u.len(i.top), u.len(i.bottom), i.description, i.uscs, i.stratumId ? code.get(i.stratumId) ?? null : null, i.moisture, i.consistency])])
+  add('Samples', [['Point', 'Sample', L('Top'), L('Bottom'), 'Type', 'Recovery (%)', 'Remarks'],
+    ...d.samples.map(({ sample: s }) => [pt(s.pointId), s.identifier, u.len(s.top), u.len(s.bottom), s.type, s.recovery, s.remarks])])
+  add('Index tests', [['Point', 'Sample', 'Water content (%)', 'Liquid limit (%)', 'Plastic limit (%)', 'Plasticity index (%)', G('Bulk unit weight')],
+    ...d.samples.flatMap(({ sample: s, index: i }) => i ? [[pt(s.pointId), s.identifier, i.waterContent, i.liquidLimit, i.plasticLimit, i.liquidLimit !== null && i.plasticLimit !== null ? i.liquidLimit - i.plasticLimit : null, u.gamma(i.bulkUnitWeight)]] : [])])
   // Blows as written and the result as reported: N, or blows over the penetration when the test drive stopped short ("50/100 mm").
-  add('SPT', [['Point', 'Depth (m)', 'Blows', 'Seating blows', 'Seating (mm)', 'Test drive blows', 'Test drive (mm)', 'N', 'Result'], ...d.spt.map((s) => {
+  add('SPT', [['Point', L('Depth'), 'Blows', 'Seating blows', 'Seating (mm)', 'Test drive blows', 'Test drive (mm)', 'N', 'Result'], ...d.spt.map((s) => {
     const t = sptFromStored(s)
-    return [pt(s.pointId), s.depth, sptBlowsText(t), t.seating.length ? t.seatingBlows : null, t.seating.length ? t.seatingPenetration : null, t.testBlows, t.testPenetration, t.n, sptResultText(t)]
+    return [pt(s.pointId), u.len(s.depth), sptBlowsText(t), t.seating.length ? t.seatingBlows : null, t.seating.length ? t.seatingPenetration : null, t.testBlows, t.testPenetration, t.n, sptResultText(t)]
   })])
-  add('Groundwater', [['Point', 'Kind', 'Observed at', 'Depth (m)', 'Pressure (kPa)', 'Remarks'], ...d.groundwater.map(g => [pt(g.pointId), g.kind, g.observedAt, g.depth, g.pressure, g.remarks])])
-  add('Vane', [['Point', 'Depth (m)', 'Peak su,FV (kPa)', 'Remoulded (kPa)'], ...d.vane.map(v => [pt(v.pointId), v.depth, v.peak, v.remoulded])])
-  const cptRows: (string | number | null)[][] = [['Point', 'Cone area ratio', 'Depth (m)', 'qc (kPa)', 'fs (kPa)', 'u2 (kPa)']]
+  add('Groundwater', [['Point', 'Kind', 'Observed at', L('Depth'), S('Pressure'), 'Remarks'], ...d.groundwater.map(g => [pt(g.pointId), g.kind, g.observedAt, u.len(g.depth), u.stress(g.pressure), g.remarks])])
+  add('Vane', [['Point', L('Depth'), S('Peak su,FV'), S('Remoulded')], ...d.vane.map(v => [pt(v.pointId), u.len(v.depth), u.stress(v.peak), u.stress(v.remoulded)])])
+  const cptRows: (string | number | null)[][] = [['Point', 'Cone area ratio', L('Depth'), S('qc'), S('fs'), S('u2')]]
   for (const c of d.cpt) {
-    for (let i = 0; i < c.count; i++) cptRows.push([pt(c.pointId), c.areaRatio, c.depth[i] ?? null, c.qc[i] ?? null, c.fs[i] ?? null, c.u2[i] ?? null])
+    for (let i = 0; i < c.count; i++) cptRows.push([pt(c.pointId), c.areaRatio, u.len(c.depth[i]), u.stress(c.qc[i]), u.stress(c.fs[i]), u.stress(c.u2[i])])
   }
   add('CPT', cptRows)
   return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer

@@ -1,7 +1,7 @@
 import { and, count, eq, sql } from 'drizzle-orm'
 import { type Capability, type ProjectRole, roleCan } from '#shared/auth/roles'
 import { checkCptCsv, type CptColumns, type PlainCsvText } from '#shared/imports/cpt-csv'
-import { checkMapping, type ImportContext, type ImportTarget, type ParsedValue, type RowError, stageConventionOf, STAGE_VALUE_FIELDS, validateRows, vaneKey } from '#shared/imports/targets'
+import { checkMapping, checkUnits, type ImportContext, type ImportTarget, type ParsedValue, type RowError, stageConventionOf, STAGE_VALUE_FIELDS, validateRows, vaneKey } from '#shared/imports/targets'
 import { checkPointLimit, IMPORT_ROW_LIMITS, tooManyRows } from '#shared/imports/limits'
 import type { ImportCommit } from '#shared/schemas/imports'
 import type { LogReplacement } from '#shared/types/imports'
@@ -127,7 +127,7 @@ export const IMPORT_TARGET_REGISTRY: { [T in ImportTarget]: ImportTargetEntry<Bo
     // A CPT sounding in a CSV without quotes is checked in one pass over the text, straight into typed columns.
     check: (source, body, ctx, filename) => {
       if (!source.plain) return checkTable(source.table, body, ctx)
-      const checked = checkCptCsv(source.plain, body.mapping, { ...ctx, maxRows: IMPORT_ROW_LIMITS.cpt })
+      const checked = checkCptCsv(source.plain, body.mapping, { ...ctx, maxRows: IMPORT_ROW_LIMITS.cpt, units: body.units })
       if (checked.overLimit) throw asUploadRefusal(tooManyRows(filename, IMPORT_ROW_LIMITS.cpt, 'cpt', true))
       return { records: [], cpt: checked.columns, errors: checked.errors, rowCount: checked.rowCount }
     },
@@ -166,7 +166,7 @@ export const IMPORT_TARGET_REGISTRY: { [T in ImportTarget]: ImportTargetEntry<Bo
 
 /** The general row check of a table (CSV or XLSX) against the target's fields and the project. */
 function checkTable(table: Awaited<ReturnType<typeof tableOrThrow>>, body: ImportCommit, ctx: ProjectImportContext): Checked {
-  const { errors, records } = validateRows(body.target, table.headers, table.rows, body.mapping, ctx, table.rowNumbers)
+  const { errors, records } = validateRows(body.target, table.headers, table.rows, body.mapping, ctx, table.rowNumbers, body.units)
   return { records, errors, rowCount: table.rows.length }
 }
 
@@ -188,6 +188,8 @@ export async function commitImport(args: { projectId: string, actorId: string, r
   const source: Source = plain ? { plain } : { table: await tableOrThrow(file.content, file.format as UploadFormat, file.filename, body.sheet, undefined, body.target) }
   const mappingProblems = checkMapping(body.target, source.plain ? source.plain.headers : source.table.headers, body.mapping)
   if (mappingProblems.length) throw unprocessableError(mappingProblems[0]!, { mappingProblems })
+  const unitProblems = checkUnits(body.target, body.units, body.mapping)
+  if (unitProblems.length) throw unprocessableError(unitProblems[0]!, { mappingProblems: unitProblems })
   if (entry.capability && !roleCan(role, entry.capability)) {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: `Your role (${role}) cannot enter test data.` })
   }

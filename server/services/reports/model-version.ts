@@ -62,7 +62,7 @@ export async function buildModelVersionReport(ctx: ReportContext, modelId: strin
   const approvedAt = v.status === 'approved' && v.approvalHash ? v.decidedAt : null
   const approved = !!approvedAt
   const data: ModelVersionReportData = {
-    project: { name: project.name, jobNumber: project.jobNumber, client: project.client, units: project.unitSystem },
+    project: { name: project.name, jobNumber: project.jobNumber, client: project.client, units: project.unitSystem, usStress: project.usStressUnit },
     model: { name: model.name },
     version: { number: v.version, status: v.status, message: v.message, savedBy: v.author, savedAt: v.createdAt.toISOString(), savedFrom: v.savedFrom, superseded: v.supersededAt !== null, supersededBy: v.supersededBy },
     approval: approvedAt ? { by: review.decidedBy, at: approvedAt.toISOString(), hash: v.approvalHash ?? '', override: v.approvalOverride, overFlags: v.approvalFlags?.length ?? 0 } : null,

@@ -102,6 +102,7 @@ export async function pointLogData(projectId: string, pointId: string): Promise<
   return {
     project: { name: project.name, jobNumber: project.jobNumber, client: project.client },
     units: project.unitSystem,
+    usStress: project.usStressUnit,
     point: {
       identifier: point.identifier,
       kind: point.kind,

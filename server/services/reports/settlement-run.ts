@@ -41,7 +41,7 @@ function requireFinished(run: ServerSettlementRun): NonNullable<ServerSettlement
 }
 
 async function reportProject(projectId: string) {
-  const [project] = await useDb().select({ name: projects.name, jobNumber: projects.jobNumber, client: projects.client, unitSystem: projects.unitSystem })
+  const [project] = await useDb().select({ name: projects.name, jobNumber: projects.jobNumber, client: projects.client, unitSystem: projects.unitSystem, usStressUnit: projects.usStressUnit })
     .from(projects).where(eq(projects.id, projectId)).limit(1)
   if (!project) notFound('Project')
   return project

@@ -222,6 +222,47 @@ describe('investigationToAgsGroups', () => {
   })
 })
 
+// A US project's file: its UNIT row states ft, psf (or tsf) and pcf and the values follow (1 ft = 0.3048 m,
+// 1 psf = 0.047880 kPa, 1 tsf = 2000 psf, 1 pcf = 0.157087 kN/m³, NIST SP 811, 2008, App. B.8); read back it gives the same record
+// within the rounding of the written decimals.
+describe('an export in US units', () => {
+  const original = demoRecord()
+  const file = parseAgs(investigationToAgs(original, { ...EXPORT, units: { system: 'US' } }))
+  const g = (name: string) => file.groups.find(x => x.name === name)!
+
+  it('states ft, psf and pcf in the UNIT row and heads, and the checker finds nothing', () => {
+    expect(file.errors).toEqual([])
+    expect(checkAgs(file, standardDictionary())).toEqual([])
+    const units = g('UNIT').rows.map(r => r.values.UNIT_UNIT)
+    expect(units).toEqual(expect.arrayContaining(['ft', 'psf', 'pcf']))
+    expect(units).not.toContain('m')
+    expect(units).not.toContain('kPa')
+    expect(g('LOCA').units[g('LOCA').headings.indexOf('LOCA_FDEP')]).toBe('ft')
+    expect(g('CONS').units[g('CONS').headings.indexOf('CONS_INCF')]).toBe('psf')
+    expect(g('PSTR').units[g('PSTR').headings.indexOf('PSTR_UWT')]).toBe('pcf')
+  })
+
+  it('writes the values in those units and reads them back to the same SI record', () => {
+    const hole = original.points[0]!
+    const loca = g('LOCA').rows.find(r => r.values.LOCA_ID === hole.identifier)!
+    expect(loca.values.LOCA_FDEP).toBe((hole.finalDepth / 0.3048).toFixed(2))
+    const back = agsToInvestigation(file)
+    expect(back.issues.filter(i => i.severity === 'error')).toEqual([])
+    const bh = back.data.points.find(p => p.identifier === hole.identifier)!
+    expect(bh.finalDepth).toBeCloseTo(hole.finalDepth, 2)
+    expect(bh.intervals.map(i => i.bottom)).toEqual(hole.intervals.map(i => expect.closeTo(i.bottom, 2)))
+    expect(back.data.strata[0]!.unitWeight).toBeCloseTo(original.strata[0]!.unitWeight, 2)
+  })
+
+  it('writes stresses in tsf with two more decimals when the project chose tsf', () => {
+    const tsf = parseAgs(investigationToAgs(original, { ...EXPORT, units: { system: 'US', usStress: 'tsf' } }))
+    const cons = tsf.groups.find(x => x.name === 'CONS')!
+    expect(cons.units[cons.headings.indexOf('CONS_INCF')]).toBe('tsf')
+    expect(cons.types[cons.headings.indexOf('CONS_INCF')]).toBe('3DP')
+    expect(checkAgs(tsf, standardDictionary())).toEqual([])
+  })
+})
+
 /** Rows joined with CR LF, as rule 2a asks. */
 function ags(...lines: string[]): string {
   return lines.join('\r\n') + '\r\n'

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { applyPaste, emptyRow, isMultiCellPaste, parseTsv, toPayload, validateDraft, type DraftRow } from '../../../app/utils/logDraft'
+import { applyPaste, depthText, depthToMetres, draftFromInterval, emptyRow, isMultiCellPaste, logColumnLabels, parseDepth, parseTsv, toPayload, validateDraft, type DraftRow } from '../../../app/utils/logDraft'
 
 // The log table's editing rules: spreadsheet pastes (tab-separated text, as a spreadsheet puts
 // on the clipboard, with double-quoted cells holding tabs, line breaks and doubled quotes) and
@@ -59,5 +59,36 @@ describe('checking the draft', () => {
     expect(check.errors[1]!.top).toContain('Overlaps the interval 0–1.2 m (row 1)')
     expect(check.gaps).toEqual([{ top: 3, bottom: 5 }])
     expect(toPayload(rows).rowIndex).toEqual([0, 1])
+  })
+})
+
+// A US project's log is typed in feet and saved in metres (1 ft = 0.3048 m exactly, NIST SP 811, 2008, App. B.8).
+describe('a log typed in feet', () => {
+  const saved = { id: 'i1', version: 1, top: 1.2, bottom: 30, description: 'Soft grey CLAY', uscs: 'CH', stratumId: null, moisture: null, consistency: null }
+
+  it('shows saved metres as feet and reads them back to the same metres, so an untouched row is unchanged', () => {
+    const r = draftFromInterval(saved, 'ft')
+    expect(r.bottom).toBe('98.43')
+    expect(r.top).toBe('3.94')
+    const back = toPayload([r], 'ft').intervals[0]!
+    expect(back.top).toBe(1.2)
+    expect(back.bottom).toBe(30)
+    // A depth typed anew is read from its feet (3.95 ft = 1.20396 m, to 0.1 mm).
+    expect(toPayload([{ ...r, top: '3.95' }], 'ft').intervals[0]!.top).toBe(1.204)
+    expect(depthText(30, 'ft')).toBe('98.43')
+    expect(depthText(1.23456, 'm')).toBe('1.2346')
+    expect(depthToMetres(10, 'ft')).toBe(3.048)
+    expect(depthToMetres(10, 'm')).toBe(10)
+  })
+
+  it('takes a pasted depth with its unit, heads the columns in feet and words the checks in feet', () => {
+    expect(parseDepth('3.9 ft')).toBe(3.9)
+    expect(parseDepth('1.20 m')).toBe(1.2)
+    expect(logColumnLabels('ft').top).toBe('Top (ft)')
+    expect(logColumnLabels('m').bottom).toBe('Bottom (m)')
+    // 0–10 ft, then 5–20 ft overlaps; the hole ends at 6 m (19.685 ft).
+    const check = validateDraft([row('0', '10'), row('5', '20')], 6, 'ft')
+    expect(check.errors[1]!.top).toBe('Overlaps the interval 0–10 ft (row 1).')
+    expect(check.errors[1]!.bottom).toBe("Bottom (20 ft) is below the hole's final depth (19.69 ft).")
   })
 })

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest'
 import fc from 'fast-check'
 import { create, createUnitDependencies, unitDependencies } from 'mathjs'
-import { POUND_FORCE_N, QUANTITIES, UNIT_LABELS, US_TO_SI, conversionFactor, convert, unitLabel } from '../../../shared/units/index'
+import { POUND_FORCE_N, QUANTITIES, UNIT_LABELS, US_TO_SI, conversionFactor, convert, displayDigits, formatQuantity, unitLabel } from '../../../shared/units/index'
 
 /*
  * Conversion factors from NIST Special Publication 811 (2008), Appendix B:
@@ -114,3 +114,26 @@ describe('the exact factors agree with mathjs unit definitions', () => {
     expect(math.unit(1, 'lbf').toNumber('N')).toBeCloseTo(POUND_FORCE_N, 13)
   })
 })
+
+// The one formatter of numbers with units, for pages, files and reports (1 ft = 0.3048 m, 1 psf = 0.047880 kPa,
+// 1 tsf = 2000 psf, NIST SP 811, 2008, App. B.8).
+describe('formatQuantity and displayDigits', () => {
+  it('writes BH-01\'s 30.0 m final depth as 98.43 ft, and stresses in psf whole or tsf to 0.01', () => {
+    expect(formatQuantity(30, 'length', 'SI')).toBe('30.00 m')
+    expect(formatQuantity(30, 'length', 'US')).toBe('98.43 ft')
+    expect(formatQuantity(47.88026, 'stress', 'US')).toBe('1000 psf')
+    expect(formatQuantity(95.76052, 'stress', 'US', { usStress: 'tsf' })).toBe('1.00 tsf')
+    expect(formatQuantity(100, 'stress', 'SI', { usStress: 'tsf' })).toBe('100.0 kPa')
+    expect(formatQuantity(18, 'unitWeight', 'US', {}, 0)).toBe('115 pcf')
+    expect(formatQuantity(null, 'length', 'US')).toBe('—')
+    expect(formatQuantity(Number.NaN, 'length', 'US')).toBe('—')
+  })
+
+  it('gives tsf two decimals where psf has none', () => {
+    expect(displayDigits('stress', 'US')).toBe(0)
+    expect(displayDigits('stress', 'US', { usStress: 'tsf' })).toBe(2)
+    expect(displayDigits('stress', 'SI', { usStress: 'tsf' })).toBe(1)
+    expect(displayDigits('length', 'US')).toBe(2)
+  })
+})
+

@@ -140,3 +140,22 @@ describe('checkCptCsv: the one-pass CPT check of a plain CSV', () => {
     expect(readCsvTable(Buffer.from(csv), 'stages.csv', undefined, 'cpt').rows).toHaveLength(1001)
   })
 })
+
+describe('a CPT file in US units', () => {
+  it('reads depth in ft and the cone in tsf and psf to m and kPa, on both paths alike (1 ft = 0.3048 m, 1 tsf = 95.76052 kPa)', () => {
+    const csv = 'Depth (ft),qc (tsf),fs (psf),u2 (psf)\n1,10,200,100\n2,12,250,150\n'
+    const mapping = { depth: 'Depth (ft)', qc: 'qc (tsf)', fs: 'fs (psf)', u2: 'u2 (psf)' }
+    const units = { depth: 'ft', qc: 'tsf', fs: 'psf', u2: 'psf' }
+    const plain = openPlainCsv(Buffer.from(csv), 'cpt.csv')!
+    const f = checkCptCsv(plain, mapping, { cptFinalDepth: 30, units })
+    expect(f.errors).toEqual([])
+    expect(Array.from(f.columns.depth)).toEqual([0.3048, 0.6096])
+    expect(f.columns.qc[0]).toBeCloseTo(957.6052, 3)
+    expect(f.columns.fs[0]).toBeCloseTo(9.576052, 5)
+    const table = readCsvTable(Buffer.from(csv), 'cpt.csv')
+    const g = validateRows('cpt', table.headers, table.rows, mapping, { points: new Map(), samples: new Set(), strata: new Set(), cptFinalDepth: 30 }, table.rowNumbers, units)
+    expect(g.records.map(r => r.depth)).toEqual([0.3048, 0.6096])
+    expect(g.records.map(r => r.qc)).toEqual(Array.from(f.columns.qc))
+  })
+})
+

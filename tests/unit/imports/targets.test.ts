@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { checkMapping, suggestMapping, validateRows, type ImportContext } from '../../../shared/imports/targets'
+import { checkMapping, checkUnits, fieldName, suggestMapping, suggestUnits, TARGET_FIELDS, validateRows, type ImportContext } from '../../../shared/imports/targets'
 
 const ctx = (): ImportContext => ({ points: new Map([['BH-01', { finalDepth: 20 }]]), samples: new Set(['BH-01/U1']), strata: new Set(['EST']) })
 
@@ -54,3 +54,39 @@ describe('validateRows', () => {
     expect(r.errors.map(e => [e.row, e.column])).toEqual([[2, 'PL'], [3, 'sample']])
   })
 })
+
+// Numeric columns in the file's own units: 1 ft = 0.3048 m, 1 psf = 0.047880 kPa, 1 tsf = 2000 psf, 1 pcf = 0.157087 kN/m³
+// (NIST SP 811, 2008, App. B.8).
+describe('units of the numeric columns', () => {
+  it('offers the unit a header names in brackets, else the project\'s units', () => {
+    const mapping = suggestMapping('groundwater', ['Hole', 'Kind', 'Date', 'Depth (ft)', 'u (kPa)'])
+    expect(mapping).toMatchObject({ point: 'Hole', depth: 'Depth (ft)' })
+    expect(suggestUnits('groundwater', { ...mapping, pressure: 'u (kPa)' }, 'US', 'tsf')).toEqual({ depth: 'ft', pressure: 'kPa' })
+    expect(suggestUnits('groundwater', { depth: 'Depth', pressure: 'u' }, 'US', 'tsf')).toEqual({ depth: 'ft', pressure: 'tsf' })
+    expect(suggestUnits('index-tests', {}, 'US')).toEqual({ bulkUnitWeight: 'pcf' })
+    expect(suggestUnits('points', {}, 'SI')).toEqual({ easting: 'm', northing: 'm', groundElevation: 'm', finalDepth: 'm' })
+    expect(fieldName(TARGET_FIELDS.points.find(f => f.key === 'finalDepth')!)).toBe('Final depth')
+  })
+
+  it('reads a column in ft, psf or pcf to SI before checking it against the hole', () => {
+    const headers = ['point', 'kind', 'when', 'depth', 'u']
+    const mapping = { point: 'point', kind: 'kind', observedAt: 'when', depth: 'depth', pressure: 'u' }
+    const ok = validateRows('groundwater', headers, [['BH-01', 'standing', '2026-11-02T09:00:00Z', '10', '1000']], mapping, ctx(), undefined, { depth: 'ft', pressure: 'psf' })
+    expect(ok.errors).toEqual([])
+    expect(ok.records[0]!.depth).toBe(3.048)
+    expect(ok.records[0]!.pressure).toBeCloseTo(47.88026, 5)
+    // 70 ft = 21.336 m is below BH-01's 20 m: the check sees metres.
+    const deep = validateRows('groundwater', headers, [['BH-01', 'standing', '2026-11-02T09:00:00Z', '70', '']], mapping, ctx(), undefined, { depth: 'ft' })
+    expect(deep.errors.map(e => e.column)).toEqual(['depth'])
+    const gamma = validateRows('index-tests', ['point', 'sample', 'g'], [['BH-01', 'U1', '120']], { point: 'point', sample: 'sample', bulkUnitWeight: 'g' }, ctx(), undefined, { bulkUnitWeight: 'pcf' })
+    expect(gamma.records[0]!.bulkUnitWeight).toBeCloseTo(18.850, 3)
+  })
+
+  it('names the column of a unit it does not read for that field', () => {
+    expect(checkUnits('points', { finalDepth: 'ft', easting: 'm' })).toEqual([])
+    expect(checkUnits('points', { finalDepth: 'furlongs' }, { finalDepth: 'FDEP' })).toEqual(['Final depth (column “FDEP”) cannot be in "furlongs": choose one of m, ft.'])
+    expect(checkUnits('vane', { peak: 'ft' })).toEqual(['Peak su cannot be in "ft": choose one of kPa, MPa, psf, tsf.'])
+    expect(checkUnits('points', { kind: 'm' })).toEqual(['Kind has no unit to choose.'])
+  })
+})
+

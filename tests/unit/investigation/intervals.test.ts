@@ -38,4 +38,13 @@ describe('checkIntervals', () => {
     const r = checkIntervals([{ top: 0, bottom: 0.1 + 0.2 }, { top: 0.3, bottom: 1 }], 1)
     expect(r).toEqual({ issues: [], gaps: [] })
   })
+
+  it('words its depths in the unit given (a US project: feet)', () => {
+    const ft = { number: (m: number) => (m / 0.3048).toFixed(2), unit: 'ft' }
+    const r = checkIntervals([{ top: 0, bottom: 3.048 }, { top: 1.524, bottom: 6.096 }], 4.572, ft)
+    expect(r.issues.map(i => i.message)).toEqual([
+      "Bottom (20.00 ft) is below the hole's final depth (15.00 ft).",
+      'Overlaps the interval 0.00–10.00 ft (row 1).',
+    ])
+  })
 })

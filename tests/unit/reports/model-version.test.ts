@@ -74,6 +74,8 @@ describe('site-model version report', () => {
   it('words trend parameters in the project units', () => {
     // 25 kPa = 522.1 psf (1 psf = 0.04788026 kPa, NIST SP 811).
     expect(trendParameterText('pop', 25, 'US')).toBe('522.1 psf')
+    // 25 kPa = 0.26 tsf (1 tsf = 2000 psf = 95.76052 kPa).
+    expect(trendParameterText('pop', 25, 'US', { usStress: 'tsf' })).toBe('0.26 tsf')
     expect(trendParameterText('gradient', -52.27, 'SI')).toBe('-52.27 kPa/m')
     expect(trendParameterText('ocr', 1.5, 'SI')).toBe('1.500')
     expect(reportDate('2026-11-21T23:30:00.000Z')).toBe('21 Nov 2026')

@@ -37,6 +37,16 @@ describe('point log document', () => {
     expect(pointLogPageSvg(data, { scale: 100, from: 20, to: 24 }).svg).toContain('End 78.74 ft')
   })
 
+  it('labels the stress strip in tsf when the US project chose tsf, and the sheet says so', () => {
+    const data = demoLogData({ units: 'US', usStress: 'tsf' })
+    const { svg } = pointLogPageSvg(data, { scale: 100, from: 0, to: 20 })
+    expect(svg).toContain('>tsf<')
+    expect(svg).not.toContain('>psf<')
+    const { doc } = pointLogDocument(data, { scale: 100, revision: null })
+    const footer = doc.footer as (page: number, pages: number, size: { width: number, height: number }) => unknown
+    expect(JSON.stringify(footer(1, 1, { width: 595.28, height: 841.89 }))).toContain('US customary units (ft, tsf, pcf)')
+  })
+
   it('keeps the key to what is drawn: no σ\'p or line entries without a stress model', () => {
     const data = demoLogData({ stress: { available: false, model: 'No saved version of the design model.', profile: [], trend: [], points: [] } })
     const keys = pointLogKey(data).map(e => e.key)

@@ -16,9 +16,9 @@ const loads: ServerSettlementRun['loads'] = [{ type: 'embankment', label: 'Stock
 const points = [{ label: 'Crest', x: 0, y: 0 }, { label: 'Toe', x: 16, y: 0 }, { label: 'Gate', x: 30, y: 10 }]
 const computed = computeRun({ definition: scenarioDefinition(), loads, points, grid: { spacing: 4, margin: 8 }, options: OPTIONS })
 
-function input(over: Partial<ServerSettlementRun['model']> = {}, units: 'SI' | 'US' = 'SI'): SettlementRunReportInput {
+function input(over: Partial<ServerSettlementRun['model']> = {}, units: 'SI' | 'US' = 'SI', usStressUnit: 'psf' | 'tsf' = 'psf'): SettlementRunReportInput {
   return {
-    project: { name: 'Trent Wharf yard', jobNumber: 'TRN-0417', client: 'Harbour Board', unitSystem: units },
+    project: { name: 'Trent Wharf yard', jobNumber: 'TRN-0417', client: 'Harbour Board', unitSystem: units, usStressUnit },
     run: {
       id: '00000000-0000-4000-8000-000000000001',
       name: 'Stockpile on the yard',
@@ -91,6 +91,16 @@ describe('settlement-run report document', () => {
     expect(all).toContain('σ\'v0 (psf)')
     expect(all).not.toContain('(kPa)')
     expect(all).not.toContain('(mm)')
+  })
+
+  it('shows stresses in tsf when the US project chose tsf', () => {
+    const doc = settlementRunReport(input({}, 'US', 'tsf'))
+    const all = texts(doc.content).join(' ')
+    expect(all).toContain('σ\'v0 (tsf)')
+    expect(all).not.toContain('(psf)')
+    expect(all).not.toContain('(kPa)')
+    // The stresses-with-depth drawing is labelled in tsf too.
+    expect(JSON.stringify(doc.content)).toContain('Stress (tsf)')
   })
 
   it('renders: job number, the version and its approval, the settlement of each point, the caution; page 1 as PNG', { timeout: 60_000 }, async () => {

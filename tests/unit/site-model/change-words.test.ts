@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { describeChanges } from '../../../shared/site-model/change-words'
+import { trendParameterLabel } from '../../../shared/site-model/trend-words'
 import { SiteModelDefinitionSchema, type SiteModelDefinition, type StratumTrend } from '../../../shared/site-model/definition'
 
 const trend = (t: Partial<StratumTrend>): StratumTrend => ({ model: 'pop', logSpace: false, parameters: { pop: 26.7 }, n: 3, r2: 0.41, rmse: 4, aic: 10, aicc: 12, includedPointIds: ['a', 'b', 'c'], excludedPointIds: [], ...t })
@@ -83,3 +84,21 @@ describe('describeChanges: two definitions in words', () => {
     expect(describeChanges(a, c)).toEqual(['EST trend: constant POP 26.7 kPa → drawn by hand (2 knots)'])
   })
 })
+
+// On a US project the trend's words follow the units, its depth label included
+// (26.7 kPa = 557.6 psf, 12 kPa = 250.6 psf, 3.10 kPa/m = 19.73 psf/ft; 1 psf = 0.047880 kPa, 1 ft = 0.3048 m, NIST SP 811, 2008, App. B.8).
+describe('trend words in US units', () => {
+  it('labels the linear trend\'s intercept at 0 ft, in psf or tsf as the project chose', () => {
+    expect(trendParameterLabel('intercept', 'ft')).toBe('σ\'p at 0 ft')
+    expect(trendParameterLabel('intercept')).toBe('σ\'p at 0 m')
+    expect(trendParameterLabel('pop', 'ft')).toBe('POP')
+    const a = site()
+    const b = site()
+    b.strata[1]!.trend = trend({ model: 'linear', parameters: { intercept: 12, gradient: 3.1 } })
+    const line = describeChanges(a, b, { units: 'US' }).find(l => l.startsWith('EST trend:'))
+    expect(line).toBe('EST trend: constant POP 558 psf → σ\'p linear in depth (σ\'p at 0 ft 251 psf, gradient 19.73 psf/ft)')
+    const tsf = describeChanges(a, b, { units: 'US', convert: { usStress: 'tsf' } }).find(l => l.startsWith('EST trend:'))
+    expect(tsf).toBe('EST trend: constant POP 0.28 tsf → σ\'p linear in depth (σ\'p at 0 ft 0.13 tsf, gradient 0.01 tsf/ft)')
+  })
+})
+

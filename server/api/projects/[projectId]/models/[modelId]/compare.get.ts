@@ -7,5 +7,5 @@ export default defineEventHandler(async (event): Promise<ServerCompareAnswer> =>
   const { project } = await requireProjectRole(event, 'project.read')
   const { modelId } = validateParams(event, ModelParamsSchema)
   const { a, b } = validateQuery(event, CompareQuerySchema)
-  return compareVersions(project.id, modelId, a, b, project.unitSystem)
+  return compareVersions(project.id, modelId, a, b, project.unitSystem, project.usStressUnit)
 })
