@@ -146,6 +146,12 @@ export default defineNuxtConfig({
     },
   },
   hooks: {
+    // No <link rel="prefetch"> for every chunk a page might load later: on a phone's connection those requests
+    // compete with the page's own first paint. A link's page is still fetched when the pointer or the focus
+    // reaches it (experimental.defaults.nuxtLink above), and a chunk the page needs is fetched when it is needed.
+    'build:manifest'(manifest) {
+      for (const chunk of Object.values(manifest)) chunk.prefetch = false
+    },
     // server/error.ts runs before Nuxt's page error handler and Nitro's JSON one: it logs an
     // unexpected error once, redacted, and answers a lost database connection with 503.
     'nitro:config'(config) {
