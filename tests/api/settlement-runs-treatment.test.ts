@@ -88,6 +88,31 @@ describe('settlement runs with stages, a surcharge and drains', () => {
     expect(j.body.treatment.drains.influenceDiameter).toBeCloseTo(1.575, 12)
   })
 
+  it('a US project\'s workbook is in its units, labelled (ft, tsf); the JSON stays SI and says so', async () => {
+    await must('US units', owner.patch(base, { unitSystem: 'US', usStressUnit: 'tsf' }))
+    try {
+      const x = await fetch(`${designer.base}${base}/settlement-runs/${runId}/export?format=xlsx`, { headers: { cookie: designer.cookie } })
+      expect(x.status).toBe(200)
+      const wb = XLSX.read(Buffer.from(await x.arrayBuffer()), { type: 'buffer' })
+      const sheet = (name: string) => XLSX.utils.sheet_to_json<(string | number | null)[]>(wb.Sheets[name]!, { header: 1 })
+      expect(sheet('Inputs').find(r => r[0] === 'Units')?.[1]).toBe('ft, tsf, pcf, years')
+      // 1.5 m = 4.9213 ft (1 ft = 0.3048 m exactly, NIST SP 811).
+      expect(sheet('Treatment').find(r => r[0] === 'Spacing (ft)')?.[1]).toBe(4.9213)
+      const points = sheet('Points')
+      expect(points[0]).toContain('Settlement (ft)')
+      expect(points[0]).toContain('Δσ at surface (tsf)')
+      const j = await reviewer.get<{ units: { length: string }, run: { results: { points: { settlement: number }[] } } }>(`${base}/settlement-runs/${runId}/export?format=json`)
+      expect(j.body.units.length).toBe('m')
+      const settlementFt = points[1]![points[0]!.indexOf('Settlement (ft)')] as number
+      expect(settlementFt).toBeCloseTo(j.body.run.results.points[0]!.settlement / 0.3048, 3)
+      const sublayers = sheet('Sublayers')
+      expect(sublayers[0]).toContain("σ'v0 (tsf)")
+    }
+    finally {
+      await must('SI units again', owner.patch(base, { unitSystem: 'SI' }))
+    }
+  })
+
   it('refuses schedules and drains the run cannot take with 422 and the plain reason', async () => {
     const post = (body: unknown) => designer.post<Refusal>(`${base}/settlement-runs`, body)
     const fractions = await post(treatedBody(model, { loads: [{ type: 'embankment', ...yard, height: 3, stages: [{ start: 0, duration: 0, fraction: 0.5 }, { start: 1, duration: 0, fraction: 0.3 }] }] }))

@@ -6,7 +6,7 @@ export default defineEventHandler(async (event) => {
   const { project } = await requireProjectRole(event, 'export.read')
   const { runId } = validateParams(event, SettlementRunParamsSchema)
   const { format } = validateQuery(event, SettlementRunExportQuerySchema)
-  const file = await exportSettlementRun(project.id, runId, format)
+  const file = await exportSettlementRun(project, runId, format)
   setResponseHeader(event, 'Content-Type', file.contentType)
   setResponseHeader(event, 'Content-Disposition', file.disposition)
   setResponseHeader(event, 'Cache-Control', 'no-store')
