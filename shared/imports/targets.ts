@@ -298,6 +298,13 @@ export interface ImportContext {
   oedometerBasis?: SpecimenBasis
   /** For a vane import: readings already in the project, as `point@depth` (depth in mm, rounded). */
   vaneDepths?: Set<string>
+  /** A depth (m) as the row checks' messages write it, in the project's units; "12 m" when left out. */
+  depthWords?: (metres: number) => string
+}
+
+/** The messages' depth words: the context's, else metres as stored. */
+function depthWordsOf(ctx: Pick<ImportContext, 'depthWords'>): (metres: number) => string {
+  return ctx.depthWords ?? (m => `${m} m`)
 }
 
 export interface ValidatedImport {
@@ -343,6 +350,7 @@ export function validateRows(target: ImportTarget, headers: readonly string[], r
 
 function checkReferences(target: ImportTarget, records: Record<string, ParsedValue>[], rowNumbers: number[], mapping: ImportMapping, ctx: ImportContext, errors: RowError[]) {
   const col = (key: string) => mapping[key] ?? key
+  const dw = depthWordsOf(ctx)
   const pointOf = (rec: Record<string, ParsedValue>, i: number) => {
     const id = rec.point
     if (typeof id !== 'string') return null
@@ -388,7 +396,7 @@ function checkReferences(target: ImportTarget, records: Record<string, ParsedVal
       if (seen.has(key) || ctx.samples.has(key)) errors.push({ row: rowNumbers[i]!, column: col('identifier'), message: `Sample ${String(rec.identifier)} already exists at ${String(rec.point)}.` })
       seen.add(key)
       if (typeof rec.top === 'number' && typeof rec.bottom === 'number' && rec.bottom < rec.top) errors.push({ row: rowNumbers[i]!, column: col('bottom'), message: 'Bottom must not be above the top.' })
-      if (p && typeof rec.bottom === 'number' && rec.bottom > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('bottom'), message: `Bottom (${rec.bottom} m) is below the hole's final depth (${p.finalDepth} m).` })
+      if (p && typeof rec.bottom === 'number' && rec.bottom > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('bottom'), message: `Bottom (${dw(rec.bottom)}) is below the hole's final depth (${dw(p.finalDepth)}).` })
     })
   }
   if (target === 'index-tests') {
@@ -402,15 +410,15 @@ function checkReferences(target: ImportTarget, records: Record<string, ParsedVal
     records.forEach((rec, i) => {
       const p = pointOf(rec, i)
       if (rec.depth === null && rec.pressure === null) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: 'Give a depth or a pressure.' })
-      if (p && typeof rec.depth === 'number' && rec.depth > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth (${rec.depth} m) is below the hole's final depth (${p.finalDepth} m).` })
+      if (p && typeof rec.depth === 'number' && rec.depth > p.finalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth (${dw(rec.depth)}) is below the hole's final depth (${dw(p.finalDepth)}).` })
     })
   }
   if (target === 'cpt') {
     let prev = -Infinity
     records.forEach((rec, i) => {
       if (typeof rec.depth !== 'number') return
-      if (rec.depth <= prev) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${rec.depth} m does not increase from the row above (${prev} m).` })
-      if (ctx.cptFinalDepth !== undefined && rec.depth > ctx.cptFinalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${rec.depth} m is below the point's final depth (${ctx.cptFinalDepth} m).` })
+      if (rec.depth <= prev) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${dw(rec.depth)} does not increase from the row above (${dw(prev)}).` })
+      if (ctx.cptFinalDepth !== undefined && rec.depth > ctx.cptFinalDepth) errors.push({ row: rowNumbers[i]!, column: col('depth'), message: `Depth ${dw(rec.depth)} is below the point's final depth (${dw(ctx.cptFinalDepth)}).` })
       prev = rec.depth
     })
   }
@@ -475,6 +483,7 @@ function checkVane(records: Record<string, ParsedValue>[], rowNumbers: number[],
   const fields = TARGET_FIELDS.vane
   const col = (k: string) => mapping[k] ?? fields.find(x => x.key === k)!.label
   const seen = new Map<string, number>()
+  const dw = depthWordsOf(ctx)
   records.forEach((rec, i) => {
     const row = rowNumbers[i]!
     const p = pointOf(rec, i)
@@ -488,11 +497,11 @@ function checkVane(records: Record<string, ParsedValue>[], rowNumbers: number[],
       }
     }
     if (!p) return
-    if (rec.depth > p.finalDepth) errors.push({ row, column: col('depth'), message: `Depth (${rec.depth} m) is below the hole's final depth (${p.finalDepth} m).` })
+    if (rec.depth > p.finalDepth) errors.push({ row, column: col('depth'), message: `Depth (${dw(rec.depth)}) is below the hole's final depth (${dw(p.finalDepth)}).` })
     const k = vaneKey(String(rec.point), rec.depth)
     const first = seen.get(k)
-    if (first !== undefined) errors.push({ row, column: col('depth'), message: `${String(rec.point)} at ${rec.depth} m appears twice in the file (first on row ${first}).` })
+    if (first !== undefined) errors.push({ row, column: col('depth'), message: `${String(rec.point)} at ${dw(rec.depth)} appears twice in the file (first on row ${first}).` })
     else seen.set(k, row)
-    if (ctx.vaneDepths?.has(k)) errors.push({ row, column: col('depth'), message: `${String(rec.point)} already has a vane reading at ${rec.depth} m.` })
+    if (ctx.vaneDepths?.has(k)) errors.push({ row, column: col('depth'), message: `${String(rec.point)} already has a vane reading at ${dw(rec.depth)}.` })
   })
 }

@@ -61,6 +61,18 @@ describe('units of imported and exported numbers', () => {
     expect(detail.body.groundwater[0]!.pressure).toBeCloseTo(47.880, 3)
   })
 
+  it('quotes depths in a US project\'s row checks in ft, as the file has them', async () => {
+    await must('US units', owner.patch(base, { unitSystem: 'US' }))
+    await createPoint(geo, projectId, { identifier: 'BH-01', kind: 'borehole', easting: 10, northing: 20, groundElevation: 2.5, finalDepth: 20 })
+    const csv = 'Hole,Depth (ft),Peak su (psf)\nBH-01,80,500\n'
+    const up = await upload<{ importId: string }>(geo, `${base}/imports`, 'vane.csv', csv)
+    expect(up.status).toBe(201)
+    const r = await geo.post<Report>(`${base}/imports/${up.body.importId}/commit`, { target: 'vane', mapping: { point: 'Hole', depth: 'Depth (ft)', peak: 'Peak su (psf)' }, units: { depth: 'ft', peak: 'psf' } })
+    expect(r.status).toBe(422)
+    // 20 m = 65.62 ft (1 ft = 0.3048 m).
+    expect(r.body.data.errors?.map(e => e.message)).toContain('Depth (80.00 ft) is below the hole\'s final depth (65.62 ft).')
+  })
+
   it('reads an AGS4 file per its UNIT row (ft, psf) into m and kPa', async () => {
     const up = await upload<{ importId: string }>(owner, `${base}/imports`, 'us.ags', usFile(), 'text/plain')
     expect(up.status).toBe(201)

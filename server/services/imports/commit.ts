@@ -14,18 +14,21 @@ import { notFound, unprocessableError } from '../http-errors'
 import { replaceTestStages, requireTest, staleTest } from '../lab'
 import type { UploadFormat } from './files'
 import { asUploadRefusal, loadImportFile, plainCsvOrThrow, tableOrThrow } from './preview'
+import { projectDepthWords } from '~~/server/services/project-units'
 
 type Rec = Record<string, ParsedValue | undefined>
 
 /** What an import needs to know about the project to check references. */
 export async function importContext(projectId: string): Promise<ImportContext & { pointIds: Map<string, string>, strataIds: Map<string, string>, sampleIds: Map<string, string> }> {
   const db = useDb()
-  const [points, sampleRows, strataRows] = await Promise.all([
+  const [points, sampleRows, strataRows, words] = await Promise.all([
     db.select({ id: investigationPoints.id, identifier: investigationPoints.identifier, finalDepth: investigationPoints.finalDepth }).from(investigationPoints).where(eq(investigationPoints.projectId, projectId)),
     db.select({ id: samples.id, identifier: samples.identifier, point: investigationPoints.identifier }).from(samples).innerJoin(investigationPoints, eq(investigationPoints.id, samples.pointId)).where(eq(investigationPoints.projectId, projectId)),
     db.select({ id: strata.id, code: strata.code }).from(strata).where(eq(strata.projectId, projectId)),
+    projectDepthWords(projectId, db),
   ])
   return {
+    depthWords: words.depth,
     points: new Map(points.map(p => [p.identifier, { finalDepth: p.finalDepth }])),
     pointIds: new Map(points.map(p => [p.identifier, p.id])),
     samples: new Set(sampleRows.map(s => `${s.point}/${s.identifier}`)),
