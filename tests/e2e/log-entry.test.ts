@@ -110,7 +110,7 @@ describe('the log and SPT entered at the keyboard', () => {
     await blows.fill('25/75 50/40')
     expect(await page.getByTestId('spt-preview').textContent()).toBe('seating 25 for 75 mm, stopped short: 50/40 mm, no N')
     await page.keyboard.press('Enter')
-    await page.getByText('SPT at 7.5 m added.').waitFor()
+    await page.getByText('SPT at 7.50 m added.').waitFor()
     const table = page.getByTestId('spt-table')
     expect(await table.locator('tbody tr').first().locator('td').allTextContents()).toEqual(expect.arrayContaining(['7.50', '25/75mm / 50/40mm', '25 / 75 mm', '50 / 40 mm', '50/40 mm']))
     // The graphic log writes the refusal as written too.

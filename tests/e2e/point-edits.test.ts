@@ -128,10 +128,10 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     expect((await detail()).samples).toEqual([expect.objectContaining({ identifier: 'U-1', top: 4.2, bottom: 4.7, recovery: 85 })])
 
     await page.getByRole('tab', { name: /Vane/ }).click()
-    await page.getByRole('button', { name: 'Edit vane reading at 5 m' }).click()
+    await page.getByRole('button', { name: 'Edit vane reading at 5.00 m' }).click()
     await page.getByLabel('Peak (kPa)').fill('21.5')
     await page.getByRole('button', { name: 'Save changes' }).click()
-    await page.getByText('Vane reading at 5 m updated.').waitFor()
+    await page.getByText('Vane reading at 5.00 m updated.').waitFor()
     await page.getByTestId('vane-table').filter({ hasText: '21.5' }).waitFor()
     await screenshot(page, 'vane-edited')
     expect((await detail()).vane).toEqual([expect.objectContaining({ depth: 5, peak: 21.5, remoulded: 6 })])
@@ -141,7 +141,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
   it('a vane reading saved meanwhile shows both sides; "keep mine" saves over it, keeping their other change', async () => {
     const page = await openPoint(demoEmail('geologist'))
     await page.getByRole('tab', { name: /Vane/ }).click()
-    await page.getByRole('button', { name: 'Edit vane reading at 5 m' }).click()
+    await page.getByRole('button', { name: 'Edit vane reading at 5.00 m' }).click()
     await page.getByLabel('Peak (kPa)').fill('22')
     const reading = (await detail()).vane[0]!
     expect((await admin.patch(`${api()}/vane/${reading.id}`, { depth: 5, peak: 21.5, remoulded: 6.5, version: reading.version })).status).toBe(200)
@@ -153,7 +153,7 @@ describe('editing a point, its samples and its vane readings in Chromium', () =>
     expect(await page.getByLabel('Remoulded (kPa)').inputValue()).toBe('6.5')
     await screenshot(page, 'vane-conflict')
     await conflict.getByTestId('conflict-keep-mine').click()
-    await page.getByText('Vane reading at 5 m updated.').waitFor()
+    await page.getByText('Vane reading at 5.00 m updated.').waitFor()
     expect((await detail()).vane).toEqual([expect.objectContaining({ depth: 5, peak: 22, remoulded: 6.5 })])
     await page.close()
   })
