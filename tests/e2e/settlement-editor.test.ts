@@ -4,7 +4,7 @@ import type { Page } from 'playwright-core'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
 import { createPoint, createProject, must } from '../helpers/project'
-import { createRunModel } from '../helpers/settlement-run'
+import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
 import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 /** Both screen sizes of the page as it stands. */
@@ -46,10 +46,7 @@ describe('the settlement run editor in Chromium', () => {
     await createPoint(engineer, projectId, { identifier: 'BH-R1', easting: 10, northing: 20 })
     await createPoint(engineer, projectId, { identifier: 'BH-R2', easting: 150, northing: 90 })
     const model = await createRunModel(engineer, projectId, undefined, 'Yard model')
-    const members = await must('members', owner.get<{ members: { userId: string, role: string }[] }>(`${project.base}/members`))
-    const reviewerId = members.members.find(m => m.role === 'reviewer')!.userId
-    await must('submitting version 1', engineer.post(`${model.url}/versions/1/submit`, { message: 'For settlement runs', reviewerIds: [reviewerId] }))
-    await must('approving version 1', reviewer.post(`${model.url}/versions/1/decision`, { decision: 'approve', comment: 'Agreed.' }))
+    await approveFirstVersion({ owner, engineer, reviewer }, project.base, model.url, 'For settlement runs')
   })
 
   it('a designer draws an embankment, places two points, edits and undoes a value, runs and lands on the run', async () => {

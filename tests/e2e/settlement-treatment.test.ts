@@ -6,7 +6,7 @@ import { RUN_DRAIN_DEFAULTS } from '../../shared/schemas/settlement-runs'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { type Client, demoEmail, signIn } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
-import { createRunModel } from '../helpers/settlement-run'
+import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
 import { openProjectAs, screenshotLaptopAndPhone, useBrowser } from './helpers'
 
 /** Types `value` into the field `testid` and commits it (Enter). */
@@ -35,10 +35,7 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     const project = await createProject(owner, 'E2E-TREAT', 'Staged yard (browser)', ['engineer', 'reviewer', 'designer'])
     projectId = project.id
     const model = await createRunModel(engineer, projectId, undefined, 'Yard model')
-    const members = await must('members', owner.get<{ members: { userId: string, role: string }[] }>(`${project.base}/members`))
-    const reviewerId = members.members.find(m => m.role === 'reviewer')!.userId
-    await must('submitting version 1', engineer.post(`${model.url}/versions/1/submit`, { message: 'For the treatment design', reviewerIds: [reviewerId] }))
-    await must('approving version 1', reviewer.post(`${model.url}/versions/1/decision`, { decision: 'approve', comment: 'Agreed.' }))
+    await approveFirstVersion({ owner, engineer, reviewer }, project.base, model.url, 'For the treatment design')
   })
 
   it('a designer builds the embankment in two stages with a surcharge off at 9 months and drains at 1.5 m, reads t90 with and without drains and the residual, and uses the spacing aid', async () => {

@@ -23,3 +23,11 @@ export function smallRunBody(model: { modelId: string, version: number }, extra:
     ...extra,
   }
 }
+
+/** Version 1 of a model sent by the engineer to the project's reviewer and approved by them: the model in force for runs. */
+export async function approveFirstVersion(people: { owner: Client, engineer: Client, reviewer: Client }, projectBase: string, modelUrl: string, message: string): Promise<void> {
+  const members = await must('members', people.owner.get<{ members: { userId: string, role: string }[] }>(`${projectBase}/members`))
+  const reviewerId = members.members.find(m => m.role === 'reviewer')!.userId
+  await must('submitting version 1', people.engineer.post(`${modelUrl}/versions/1/submit`, { message, reviewerIds: [reviewerId] }))
+  await must('approving version 1', people.reviewer.post(`${modelUrl}/versions/1/decision`, { decision: 'approve', comment: 'Agreed.' }))
+}
