@@ -8,7 +8,6 @@ import { sublayerTable } from '#shared/site-model/sublayers'
 import type { ProjectRow } from '../utils/guards'
 import { unprocessableError } from './http-errors'
 import { exportUnits } from '~~/server/services/exports/logs'
-import { convert, unitLabel } from '#shared/units'
 
 export const EXPORT_SCHEMA = 'pastload.site-model-export'
 export const EXPORT_SCHEMA_VERSION = 1
@@ -65,8 +64,7 @@ export function exportWorkbook(project: ProjectRow, model: { name: string }, v: 
   const { rows } = tableOrRefuse(v.definition, maxThickness)
   // In the project's units, labelled in each heading (the JSON export stays SI, as its own `units` says).
   const u = exportUnits(project)
-  const cv = (x: number | null | undefined) => (x === null || x === undefined ? null : project.unitSystem === 'SI' ? x : Number(convert(x, 'coefficientOfConsolidation', 'SI', project.unitSystem).toFixed(4)))
-  const cvLabel = unitLabel('coefficientOfConsolidation', project.unitSystem)
+  const cvLabel = u.label('coefficientOfConsolidation')
   const wb = XLSX.utils.book_new()
   XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([
     ['Project', `${project.jobNumber} ${project.name}`],
@@ -78,6 +76,6 @@ export function exportWorkbook(project: ProjectRow, model: { name: string }, v: 
     ['Caution', RESULT_CAUTION],
   ]), 'About')
   const head = ['Layer', u.head('Top', 'length'), u.head('Bottom', 'length'), u.head('Mid-depth', 'length'), u.head("σ'v0", 'stress'), u.head("σ'p", 'stress'), 'OCR', u.head('POP', 'stress'), 'Cc', 'Cr', 'e0', `cv (${cvLabel})`]
-  XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([head, ...rows.map(r => [r.layer, u.len(r.top), u.len(r.bottom), u.len(r.depth), u.stress(r.effectiveStress), u.stress(r.preconsolidation), r.ocr, u.stress(r.pop), r.cc, r.cr, r.e0, cv(r.cv)])]), 'Sublayers')
+  XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet([head, ...rows.map(r => [r.layer, u.len(r.top), u.len(r.bottom), u.len(r.depth), u.stress(r.effectiveStress), u.stress(r.preconsolidation), r.ocr, u.stress(r.pop), r.cc, r.cr, r.e0, u.cv(r.cv)])]), 'Sublayers')
   return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
 }

@@ -2,7 +2,7 @@ import * as XLSX from 'xlsx-republish'
 import { RESULT_CAUTION } from '#shared/caution'
 import { isTreated, scheduleRows } from '#shared/settlement-run/treatment'
 import type { RunPointDetail, RunResults, ServerSettlementRun } from '#shared/types/settlement-runs'
-import { FOOT_M, convert, unitLabel } from '#shared/units'
+import { FOOT_M } from '#shared/units'
 import type { ProjectRow } from '../utils/guards'
 import { contentDisposition } from './attachments'
 import { exportUnits } from './exports/logs'
@@ -35,8 +35,6 @@ export function runExportUnits(project: Pick<ProjectRow, 'unitSystem' | 'usStres
   const num = (x: number | null | undefined, f: (v: number) => number) => (x === null || x === undefined ? null : f(x))
   return {
     ...u,
-    cv: (x: number | null | undefined) => num(x, v => (us ? Number(convert(v, 'coefficientOfConsolidation', 'SI', 'US').toFixed(4)) : v)),
-    cvLabel: unitLabel('coefficientOfConsolidation', project.unitSystem),
     /** Discharge capacity: m³/yr, or ft³/yr on a US project. */
     flow: (x: number | null | undefined) => num(x, v => (us ? Number((v / FOOT_M ** 3).toFixed(1)) : v)),
     flowLabel: us ? 'ft³/yr' : 'm³/yr',
@@ -81,7 +79,7 @@ function treatmentSheet(run: ServerSettlementRun & { results: RunResults }, u: R
       ['ch/cv', d.chRatio],
       [`Discharge capacity qw (${u.flowLabel})`, u.flow(d.dischargeCapacity) ?? 'not given (no well resistance)'],
       ['μ (Hansbo)', design.mu],
-      ['Stratum', `cv (${u.cvLabel})`, `ch (${u.cvLabel})`, u.head('Vertical drainage path', 'length')],
+      ['Stratum', u.head('cv', 'coefficientOfConsolidation'), u.head('ch', 'coefficientOfConsolidation'), u.head('Vertical drainage path', 'length')],
       ...design.strata.map(s => [s.name, u.cv(s.cv), u.cv(s.ch), u.len(s.drainagePath)]),
       [],
     )

@@ -39,6 +39,7 @@ export function exportUnits(project: Pick<ProjectRow, 'unitSystem' | 'usStressUn
     len: (x: number | null | undefined) => v(x, 'length'),
     stress: (x: number | null | undefined) => v(x, 'stress'),
     gamma: (x: number | null | undefined) => v(x, 'unitWeight'),
+    cv: (x: number | null | undefined) => v(x, 'coefficientOfConsolidation'),
     label,
     /** "Depth (ft)". */
     head: (text: string, q: Quantity) => `${text} (${label(q)})`,
