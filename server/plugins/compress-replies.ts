@@ -25,9 +25,13 @@ export default defineNitroPlugin((nitroApp) => {
     const body = compressibleJson(event, response.body)
     if (body === null) return
     setResponseHeader(event, 'vary', 'Accept-Encoding')
-    const compressed = compressText(body, getRequestHeader(event, 'accept-encoding'))
-    if (!compressed) return
     setResponseHeader(event, 'content-type', 'application/json')
+    const compressed = compressText(body, getRequestHeader(event, 'accept-encoding'))
+    // The JSON text made here is the one sent, compressed or not: h3 does not serialise the value again.
+    if (!compressed) {
+      response.body = body
+      return
+    }
     setResponseHeader(event, 'content-encoding', compressed.coding)
     response.body = compressed.bytes
   })

@@ -73,6 +73,7 @@ describe('compressed JSON replies', () => {
     const r = await rawGet('/api/health', 'gzip, br')
     expect(r.status).toBe(200)
     expect(r.headers['content-encoding']).toBeUndefined()
+    expect(String(r.headers['content-type'])).toMatch(/^application\/json/)
     expect(JSON.parse(r.body.toString('utf8'))).toBeTypeOf('object')
   })
 })
