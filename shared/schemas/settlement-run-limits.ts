@@ -81,3 +81,28 @@ export const RUN_DRAIN_DEFAULTS = {
 
 export const DRAIN_PATTERNS = ['triangular', 'square'] as const
 export type DrainPattern = (typeof DRAIN_PATTERNS)[number]
+
+/** The parameters a probabilistic run scatters per stratum (σ'p is `preconsolidation`). */
+export const RUN_SCATTER_VARIABLES = ['cc', 'cr', 'e0', 'cv', 'ch', 'preconsolidation'] as const
+export type RunScatterVariable = (typeof RUN_SCATTER_VARIABLES)[number]
+
+/**
+ * Bounds of `options.probabilistic`: realisations 100 – 100 000, a COV of at most 2 (soil
+ * parameters scatter with COVs well below 1; more is a typing error: common practice), a
+ * correlation length of 0.1 – 100 m, a settlement limit of at most 10 m, at most 50 strata.
+ */
+export const RUN_PROBABILISTIC_LIMITS = {
+  realizations: [100, 100_000],
+  cov: 2,
+  correlationLength: [0.1, 100],
+  seed: 2_147_483_647,
+  strata: 50,
+  limit: 10,
+} as const
+
+/** Defaults of `options.probabilistic`; the Cc–e0 correlation of 0.5 is common practice. */
+export const RUN_PROBABILISTIC_DEFAULTS = {
+  realizations: 5000,
+  seed: 1,
+  ccE0Correlation: 0.5,
+}

@@ -1,11 +1,11 @@
 import { z } from 'zod'
 import { int, str, UuidSchema } from './common'
-import { DRAIN_PATTERNS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS } from './settlement-run-limits'
+import { DRAIN_PATTERNS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RUN_PROBABILISTIC_DEFAULTS, RUN_PROBABILISTIC_LIMITS } from './settlement-run-limits'
 
 // The bounds and defaults need no zod: they live in settlement-run-limits.ts (the run pages import them from
 // there, so a results page's first load carries no zod) and are exported from here too.
-export { DRAIN_PATTERNS, MAX_GRID_POINTS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, SITE_EXTENT } from './settlement-run-limits'
-export type { DrainPattern } from './settlement-run-limits'
+export { DRAIN_PATTERNS, MAX_GRID_POINTS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RUN_PROBABILISTIC_DEFAULTS, RUN_PROBABILISTIC_LIMITS, RUN_SCATTER_VARIABLES, SITE_EXTENT } from './settlement-run-limits'
+export type { DrainPattern, RunScatterVariable } from './settlement-run-limits'
 
 /**
  * Settlement runs (`/api/projects/{projectId}/settlement-runs`): the request a designer's
@@ -136,12 +136,56 @@ export const RunDrainsSchema = z.object({
 export type RunDrainsInput = z.input<typeof RunDrainsSchema>
 export type RunDrains = z.infer<typeof RunDrainsSchema>
 
+const P = RUN_PROBABILISTIC_LIMITS
+/** One scattered parameter of a stratum: its COV about the adopted value, optionally a random field along depth. */
+export const RunVariationSchema = z.object({
+  cov: num('A coefficient of variation', 0, P.cov),
+  /** Scale of fluctuation θ (m) of a 1-D random field (exponential autocorrelation); left out: one value per realisation. */
+  correlationLength: num('The correlation length', P.correlationLength[0], P.correlationLength[1], 'm').optional(),
+}).strict()
+export type RunVariation = z.infer<typeof RunVariationSchema>
+
+/**
+ * What scatters in one stratum (keyed by stratum code). An entered COV wins over "from the data".
+ * `preconsolidation` scales σ'p lognormally about the model; with `fromData` and no entry, a stratum
+ * whose σ'p is a fitted trend draws whole trend lines from the fit's covariance instead.
+ */
+export const RunStratumVariationSchema = z.object({
+  cc: RunVariationSchema.optional(),
+  cr: RunVariationSchema.optional(),
+  e0: RunVariationSchema.optional(),
+  cv: RunVariationSchema.optional(),
+  ch: RunVariationSchema.optional(),
+  preconsolidation: RunVariationSchema.optional(),
+}).strict()
+export type RunStratumVariation = z.infer<typeof RunStratumVariationSchema>
+
+/**
+ * `options.probabilistic`: Monte Carlo settlement at every named point (and P50/P95 over the grid).
+ * `fromData` fills each COV not entered from the stratum's interpreted tests (n ≥ 3; else a stated
+ * default, marked as an assumption) and σ'p from the trend fit's covariance.
+ */
+export const RunProbabilisticSchema = z.object({
+  realizations: int(P.realizations[0], P.realizations[1]).default(RUN_PROBABILISTIC_DEFAULTS.realizations),
+  seed: int(0, P.seed).default(RUN_PROBABILISTIC_DEFAULTS.seed),
+  fromData: z.boolean().default(false),
+  layers: z.record(str(16).trim().min(1).max(16), RunStratumVariationSchema)
+    .refine(r => Object.keys(r).length <= P.strata, { message: `may name at most ${P.strata} strata` })
+    .default({}),
+  ccE0Correlation: num('The Cc–e0 correlation', -1, 1).default(RUN_PROBABILISTIC_DEFAULTS.ccE0Correlation),
+  /** Settlement limit, m: each point reports the probability of exceeding it. */
+  limit: num('The settlement limit', 0, P.limit, 'm').optional(),
+}).strict()
+export type RunProbabilisticInput = z.input<typeof RunProbabilisticSchema>
+export type RunProbabilistic = z.infer<typeof RunProbabilisticSchema>
+
 export const RunOptionsSchema = z.object({
   maxSublayerThickness: num('The sublayer thickness', L.sublayer[0], L.sublayer[1], 'm').default(RUN_OPTION_DEFAULTS.maxSublayerThickness),
   years: z.array(num('A time', 0, L.maxYears, 'years').refine(v => v > 0, { message: 'must be greater than 0 years' })).max(L.years).default(RUN_OPTION_DEFAULTS.years),
   designLife: num('The design life', 0, L.maxYears, 'years').refine(v => v > 0, { message: 'must be greater than 0 years' }).default(RUN_OPTION_DEFAULTS.designLife),
   angularDistortionLimit: num('The angular distortion limit', 0, 0.1).refine(v => v > 0, { message: 'must be greater than 0' }).default(RUN_OPTION_DEFAULTS.angularDistortionLimit),
   drains: RunDrainsSchema.optional(),
+  probabilistic: RunProbabilisticSchema.optional(),
 })
 export type RunOptions = z.infer<typeof RunOptionsSchema>
 
@@ -159,6 +203,8 @@ export type CreateSettlementRun = z.infer<typeof CreateSettlementRunSchema>
 
 export const SettlementRunParamsSchema = z.object({ projectId: UuidSchema, runId: UuidSchema })
 export const SettlementRunPointParamsSchema = SettlementRunParamsSchema.extend({ index: z.coerce.number().int().min(0).max(L.points - 1) })
+/** Query of `GET …/settlement-runs/scatter`: the model version whose tests give the COVs "from the data". */
+export const RunScatterQuerySchema = z.object({ modelId: UuidSchema, version: z.coerce.number().int().min(1).max(100_000) })
 export const SettlementRunExportQuerySchema = z.object({ format: z.enum(['xlsx', 'json']) })
 export const SettlementRunListQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(100),

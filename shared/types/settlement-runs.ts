@@ -4,11 +4,13 @@
  * `Date`), the plain name what the page reads (`Serialize<…>`).
  */
 import type { SublayerResult } from '../geotech/settlement'
-import type { DrainPattern, RunGrid, RunLoad, RunOptions, RunPoint } from '../schemas/settlement-runs'
+import type { DrainPattern, RunGrid, RunLoad, RunOptions, RunPoint, RunScatterVariable } from '../schemas/settlement-runs'
+import type { Distribution } from '../probabilistic/monte-carlo'
+import type { Histogram } from '../probabilistic/summary'
 import type { VersionStatus } from './models'
 import type { Serialize } from './serialize'
 
-export const RUN_STATUSES = ['queued', 'running', 'finished', 'failed'] as const
+export const RUN_STATUSES = ['queued', 'running', 'finished', 'failed', 'cancelled'] as const
 export type RunStatus = (typeof RUN_STATUSES)[number]
 
 /** The site-model version a run used, as it stood when the run was made. */
@@ -44,6 +46,63 @@ export interface RunTimeCurve {
 }
 
 /** One named point's result (`results.points[]`). */
+/**
+ * Monte Carlo final primary settlement at one point (m), from `options.probabilistic`.
+ * `exceedanceCurve` gives P(settlement > s) at increasing s (for the curve and a limit typed on the page).
+ */
+export interface RunPointProbabilistic extends Distribution {
+  realizations: number
+  /** Settlement at the adopted values (m): the deterministic result. */
+  deterministic: number
+  histogram: Histogram
+  exceedanceCurve: { settlement: number[], probability: number[] }
+  /** Probability of exceeding the run's `limit`. */
+  exceedance?: { limit: number, probability: number }
+  /** Years to 90 % of primary settlement, when every compressible stratum has cv. */
+  t90?: Distribution
+  /** By |rank correlation| with the settlement, largest first. */
+  sensitivity: { stratum: string, variable: RunScatterVariable, rankCorrelation: number }[]
+  warnings: string[]
+}
+
+/** Where a scattered parameter's COV came from: the stratum's tests, a stated default (an assumption), or typed by the engineer. */
+export type RunScatterSource = 'data' | 'default' | 'entered'
+
+export interface RunVariableScatter {
+  variable: RunScatterVariable
+  cov: number
+  source: RunScatterSource
+  /** Tests behind a COV from the data (0 otherwise). */
+  n: number
+  correlationLength?: number
+  /** σ'p only: whole trend lines drawn from the fit's covariance instead of a COV. */
+  trend?: boolean
+}
+
+/** The scatter of one compressible stratum, as the run used it (or as the data give it, before a run). */
+export interface RunStratumScatter {
+  code: string
+  name: string
+  variables: RunVariableScatter[]
+}
+
+/** GET …/settlement-runs/scatter: the COVs "from the data" of a model version's compressible strata. */
+export interface RunScatterReply { strata: RunStratumScatter[] }
+
+/** The probabilistic set-up a run used (on `results.probabilistic`). */
+export interface RunProbabilisticSetup {
+  realizations: number
+  seed: number
+  ccE0Correlation: number
+  limit: number | null
+  fromData: boolean
+  strata: RunStratumScatter[]
+  warnings: string[]
+  /** Worker threads the realisations were split across. */
+  threads: number
+  computeMs: number
+}
+
 export interface RunPointResult {
   label: string
   x: number
@@ -77,6 +136,7 @@ export interface RunPointResult {
   /** Δσ at the ground surface under this point, kPa. */
   surfaceStressIncrease: number
   warnings: string[]
+  probabilistic?: RunPointProbabilistic
 }
 
 /** A grid pair and its difference: `a` and `b` are plan points (m). */
@@ -97,6 +157,8 @@ export interface RunGridResult {
   /** The options' limit and whether the worst pair exceeds it. */
   angularDistortionLimit: number
   exceedsLimit: boolean
+  /** P50 and P95 of final primary settlement per grid node (m), with the realisations used per node. */
+  probabilistic?: { realizations: number, p50: number[][], p95: number[][] }
 }
 
 /** The drain design a run used and what it means for each drained stratum (`results.drains`). */
@@ -118,6 +180,7 @@ export interface RunResults {
   points: RunPointResult[]
   /** Only when the run has drains. */
   drains?: RunDrainDesign
+  probabilistic?: RunProbabilisticSetup
   grid?: RunGridResult
   /** The largest settlement over the named points and the grid. */
   maximum: { settlement: number, x: number, y: number, label: string | null }

@@ -5,7 +5,7 @@ import type { RunPointDetail, RunResults, ServerRunModel } from '#shared/types/s
 import { projects } from './projects'
 import { users } from './users'
 
-export const settlementRunStatus = pgEnum('settlement_run_status', ['queued', 'running', 'finished', 'failed'])
+export const settlementRunStatus = pgEnum('settlement_run_status', ['queued', 'running', 'finished', 'failed', 'cancelled'])
 
 /**
  * A settlement run: immutable inputs (the model version's definition copied in, so the run

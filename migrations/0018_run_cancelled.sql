@@ -1,0 +1,1 @@
+ALTER TYPE "public"."settlement_run_status" ADD VALUE 'cancelled';
