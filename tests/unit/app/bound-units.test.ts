@@ -5,7 +5,9 @@ import { OedometerTestInputSchema } from '../../../shared/schemas/lab'
 import { CreateSettlementRunSchema } from '../../../shared/schemas/settlement-runs'
 import { boundMessage, boundText, messageInUnits } from '../../../shared/units/bounds'
 import { useModelUnits } from '../../../app/composables/useModelUnits'
-import { fieldIssues } from '../../../app/utils/formNumbers'
+import { fieldIssues, issueMessage } from '../../../app/utils/formNumbers'
+import { MODEL_QUANTITIES } from '../../../app/utils/siteModelEdits'
+import { SiteModelDefinitionSchema } from '../../../shared/site-model/definition'
 import { emptyRow, validateDraft } from '../../../app/utils/logDraft'
 
 describe('bounds in the typed units', () => {
@@ -46,6 +48,14 @@ describe('bounds in the typed units', () => {
     const issues = fieldIssues(r.error!, { stages: 'Stages' }, us.typed({ stress: 'stress' }))
     // 100 000 kPa = 1044.27… tsf (1 tsf = 2000 lbf/ft²).
     expect(issues.stages).toBe('Stages σ\' must be at most 1044.27 tsf')
+  })
+
+  it('gives a stress model definition\'s bounds by each number\'s own key (the model page\'s check before saving)', () => {
+    const def = { schemaVersion: 2, groundwater: { waterTableDepth: 600, piezometers: [] }, strata: [{ code: 'EST', name: 'Estuarine clay', thickness: 12, unitWeight: 40, unitWeightSaturated: 16, compressible: false }] }
+    const r = SiteModelDefinitionSchema.safeParse(def)
+    const typed = useModelUnits('US', 'psf').typed(MODEL_QUANTITIES)
+    const messages = r.error!.issues.map(i => issueMessage(i, String(i.path[0]), typed))
+    expect(messages).toEqual(['must be at most 1640.41 ft', 'must be at most 190.9 pcf'])
   })
 
   it('quotes the log table\'s depth bounds in feet on a US project', () => {
