@@ -3,6 +3,8 @@ import { useModelEditorStore } from '~/stores/modelEditor'
 import type { WorkspaceEditor } from '~/composables/useTrendFits'
 import { diffDefinitions } from '#shared/site-model/diff'
 import type { DefinitionChange, SiteModelRow } from '#shared/types/models'
+import { issueMessage } from '~/utils/formNumbers'
+import { MODEL_QUANTITIES } from '~/utils/siteModelEdits'
 
 export interface DraftConflict {
   theirs: SiteModelRow
@@ -27,6 +29,7 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
   const issues = ref<{ path: string, message: string }[]>([])
   const conflict = shallowRef<DraftConflict | null>(null)
   const base = () => modelUrl(toValue(projectId), toValue(modelId))
+  const typed = useProjectUnits().typed(MODEL_QUANTITIES)
 
   function start(model: SiteModelRow) {
     if (store.modelId === model.id && store.draft) return
@@ -45,7 +48,7 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
     const { SiteModelDefinitionSchema } = await import('#shared/site-model/definition')
     const parsed = SiteModelDefinitionSchema.safeParse(d)
     if (parsed.success) { issues.value = []; return true }
-    issues.value = parsed.error.issues.map(i => ({ path: i.path.join('.'), message: i.message }))
+    issues.value = parsed.error.issues.map(i => ({ path: i.path.join('.'), message: issueMessage(i, String(i.path[0] ?? ''), typed) }))
     error.value = 'The draft is not complete yet:'
     return false
   }

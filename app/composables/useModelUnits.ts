@@ -1,5 +1,6 @@
 import { computed, toValue, type MaybeRefOrGetter } from 'vue'
 import { convert, displayDigits, formatQuantity, unitLabel, type Quantity, type UnitSystem, type UsStressUnit } from '#shared/units'
+import { boundMessage, type BoundIssue } from '#shared/units/bounds'
 
 /**
  * Numbers with units at the edges of every page: values stay SI in state, the store and the engine;
@@ -38,7 +39,11 @@ export function useModelUnits(system: MaybeRefOrGetter<UnitSystem | undefined>, 
     if (v === null || v === undefined || !Number.isFinite(v)) return ''
     return String(Math.round(show(v, q) * 10 ** digits) / 10 ** digits)
   }
-  return { system: sys, stressUnit, label, show, read, factor, digitsFor, number, format, heading, input }
+  /** A schema's range message for a value typed in this system ("must be at most 1640.41 ft" for the SI check's 500 m). */
+  const bound = (issue: BoundIssue, q: Quantity) => boundMessage(issue, q, sys.value, opts.value)
+  /** The fields of a form typed in these units, for `fieldIssues`: bounds in the units the person typed. */
+  const typed = (quantities: Partial<Record<string, Quantity>>) => ({ quantities, bound })
+  return { system: sys, stressUnit, label, show, read, factor, digitsFor, number, format, heading, input, bound, typed }
 }
 
 export type ModelUnits = ReturnType<typeof useModelUnits>

@@ -2,7 +2,7 @@ import { computed, nextTick, reactive, ref, type Ref } from 'vue'
 import type { ZodType } from 'zod'
 import type { ConflictField } from '../components/point/PointConflictNotice.vue'
 import { apiConflictCurrent, apiErrorMessage } from '../utils/apiErrors'
-import { fieldIssues } from '../utils/formNumbers'
+import { fieldIssues, type TypedUnits } from '../utils/formNumbers'
 import { useWriteAction } from './useWriteAction'
 
 /** The rows of a point's tab that are edited one at a time through the form below the table. */
@@ -39,6 +39,8 @@ export interface RowEditorOptions<R> {
   input: (form: RowForm) => unknown
   /** Field labels for the schema's messages ("Depth must be …"). */
   issueLabels: Record<string, string>
+  /** The fields typed in the project's units (`units.typed({ depth: 'length' })`): their range messages quote bounds in those units. */
+  issueUnits?: TypedUnits
   messages: {
     saved: (data: Record<string, unknown>, updated: boolean) => string
     confirmDelete: (row: R) => string
@@ -92,7 +94,7 @@ export function usePointRowEditor<R extends SavedPointRow>(kind: PointRowKind, s
   async function submit() {
     clear()
     const parsed = schema.safeParse(options.input(form))
-    errors.value = parsed.success ? {} : fieldIssues(parsed.error, options.issueLabels)
+    errors.value = parsed.success ? {} : fieldIssues(parsed.error, options.issueLabels, options.issueUnits)
     if (!parsed.success) return
     const data = parsed.data as Record<string, unknown>
     const target = editing.value

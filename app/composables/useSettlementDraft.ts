@@ -1,5 +1,6 @@
 import { CreateSettlementRunSchema, MAX_GRID_POINTS } from '#shared/schemas/settlement-runs'
 import { gridPointCount, requestOf } from '#shared/settlement-run/draft'
+import { messageInUnits } from '#shared/units/bounds'
 import type { SettlementRun } from '#shared/types/settlement-runs'
 import type { ModelVersionReply } from '#shared/types/models'
 import { useSettlementDraftStore } from '~/stores/settlementDraft'
@@ -18,6 +19,7 @@ export function useSettlementDraft(projectId: MaybeRefOrGetter<string>) {
   const write = useWriteAction()
   const issues = ref<DraftIssues>({})
   const { data: inForce } = useModelInForce()
+  const units = useProjectUnits()
   const base = () => `/api/projects/${toValue(projectId)}/settlement-runs`
 
   /** The chosen version with its review (who approved it and when). */
@@ -71,7 +73,9 @@ export function useSettlementDraft(projectId: MaybeRefOrGetter<string>) {
     if (!parsed.success) {
       for (const i of parsed.error.issues) {
         const path = i.path.map(String).join('.')
-        const msg = /expected number, received NaN|received NaN/i.test(i.message) ? 'must be a number' : i.message
+        // Bounds in the units typed (ft, psf, pcf); the drain's diameter and discharge are typed in their own (mm or in, m³/yr or ft³/yr).
+        const ownUnit = /(diameter|dischargeCapacity)$/.test(path)
+        const msg = /expected number, received NaN|received NaN/i.test(i.message) ? 'must be a number' : ownUnit ? i.message : messageInUnits(i, units.system.value, { usStress: units.stressUnit.value })
         out[path || 'form'] ??= path === 'model' || path.startsWith('model.') ? 'choose a saved model version' : msg
       }
     }

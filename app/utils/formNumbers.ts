@@ -1,4 +1,6 @@
 import type { z } from 'zod'
+import type { Quantity } from '#shared/units'
+import type { BoundIssue } from '#shared/units/bounds'
 
 /** A typed number ("1.5", "1,5"); NaN when blank, so the schema reports it as missing. */
 export function formNumber(text: string): number {
@@ -16,13 +18,31 @@ export function numberText(v: number | null | undefined): string {
   return v === null || v === undefined ? '' : String(v)
 }
 
-/** zod issues as one message per top-level field, prefixed with the field's label. */
-export function fieldIssues(error: z.ZodError, labels: Record<string, string>): Record<string, string> {
+/**
+ * The fields a form read in the project's units, and how a range message names their bounds in those
+ * units (`useProjectUnits().bound`): the schemas check SI values, the person typed ft, psf or pcf.
+ */
+export interface TypedUnits {
+  quantities: Partial<Record<string, Quantity>>
+  bound: (issue: BoundIssue, quantity: Quantity) => string
+}
+
+/** One issue's message, with a range bound in the units the field was typed in. */
+export function issueMessage(issue: z.ZodError['issues'][number], key: string, units?: TypedUnits): string {
+  if (/expected number, received NaN/.test(issue.message)) return 'must be a number'
+  // A nested field (a stage's stress) is named by its own key, a top-level one by the form's.
+  const own = issue.path.at(-1)
+  const quantity = (typeof own === 'string' ? units?.quantities[own] : undefined) ?? units?.quantities[key]
+  return quantity && units ? units.bound(issue as BoundIssue, quantity) : issue.message
+}
+
+/** zod issues as one message per top-level field, prefixed with the field's label; bounds in the typed units when `units` says which fields were typed in which quantity. */
+export function fieldIssues(error: z.ZodError, labels: Record<string, string>, units?: TypedUnits): Record<string, string> {
   const out: Record<string, string> = {}
   for (const issue of error.issues) {
     const key = String(issue.path[0] ?? '')
     const label = labels[key] ?? key
-    const msg = /expected number, received NaN/.test(issue.message) ? 'must be a number' : issue.message
+    const msg = issueMessage(issue, key, units)
     out[key] ??= msg.startsWith(label) ? msg : `${label} ${msg}`
   }
   return out

@@ -3,6 +3,7 @@ import { checkIntervals, type Gap } from '#shared/investigation/intervals'
 import { isUscsGroupSymbol } from '#shared/geotech/plasticity'
 import { IntervalInputSchema } from '#shared/schemas/investigation'
 import { FOOT_M } from '#shared/units'
+import { boundMessage } from '#shared/units/bounds'
 import type { IntervalRow } from '#shared/types/investigation'
 
 /**
@@ -172,7 +173,9 @@ export function validateDraft(rows: readonly DraftRow[], finalDepth: number, uni
       const col = issue.path[0]
       if (typeof col !== 'string' || !(LOG_COLUMNS as readonly string[]).includes(col)) continue
       const name = FIELD_NAMES[col as LogColumn]
-      put(rowIndex[i]!, col as LogColumn, name ? `${name} ${issue.message}` : issue.message)
+      // The schema quotes its depth bounds in metres; the row was typed in the project's unit.
+      const message = col === 'top' || col === 'bottom' ? boundMessage(issue, 'length', unit === 'ft' ? 'US' : 'SI') : issue.message
+      put(rowIndex[i]!, col as LogColumn, name ? `${name} ${message}` : message)
     }
   })
   const rules = checkIntervals(intervals, finalDepth, { number: v => depthText(v, unit), unit })

@@ -1,5 +1,6 @@
 import type { Compressibility, CompressibilityKey, DepthTrend, ModelStratum, SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { SITE_MODEL_SCHEMA_VERSION, stratumBounds } from '#shared/site-model/definition-plain'
+import type { Quantity } from '#shared/units'
 import { configure } from 'safe-stable-stringify'
 import { toRaw } from 'vue'
 
@@ -222,4 +223,11 @@ const sortedJson = configure({ deterministic: true, circularValue: TypeError, bi
 /** JSON with object keys sorted, so two equal definitions serialise alike whatever order the keys came in. */
 export function stableJson(value: unknown): string {
   return sortedJson(value) ?? ''
+}
+
+/** The numbers of a model definition the page shows in the project's units, by their own key: their range messages quote bounds in those units. */
+export const MODEL_QUANTITIES: Readonly<Record<string, Quantity>> = {
+  thickness: 'length', waterTableDepth: 'length', depth: 'length', referenceDepth: 'length',
+  unitWeight: 'unitWeight', unitWeightSaturated: 'unitWeight',
+  surcharge: 'stress', porePressure: 'stress', preconsolidation: 'stress',
 }

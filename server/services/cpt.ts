@@ -6,6 +6,7 @@ import { returnedRow } from '../db/rows'
 import { recordAudit } from './audit'
 import { requirePoint } from './points'
 import { unprocessableError } from './http-errors'
+import { projectDepthWords } from './project-units'
 
 export interface CptArrays {
   areaRatio: number
@@ -15,23 +16,23 @@ export interface CptArrays {
   u2: NumberList
 }
 
-/** Depths must increase and stay within the hole; the sounding is replaced whole. */
-export function assertCptValid(c: CptArrays, finalDepth: number) {
+/** Depths must increase and stay within the hole; the sounding is replaced whole. `depth` writes a depth in the project's units (`projectDepthWords`). */
+export function assertCptValid(c: CptArrays, finalDepth: number, depth: (metres: number) => string = m => `${m} m`) {
   const depths = Array.from(c.depth)
-  depths.forEach((depth, i) => {
+  depths.forEach((d, i) => {
     const above = depths[i - 1]
-    if (above !== undefined && !(depth > above)) throw unprocessableError(`CPT row ${i + 1}: depth ${depth} m does not increase from ${above} m.`)
+    if (above !== undefined && !(d > above)) throw unprocessableError(`CPT row ${i + 1}: depth ${depth(d)} does not increase from ${depth(above)}.`)
   })
   const [first = 0] = depths
   const last = depths.at(-1) ?? first
-  if (first < 0) throw unprocessableError('CPT depths must be 0 m or deeper.')
-  if (last > finalDepth + 1e-6) throw unprocessableError(`The sounding reaches ${last} m, below the point's final depth (${finalDepth} m).`)
+  if (first < 0) throw unprocessableError(`CPT depths must not be negative (the first is ${depth(first)}).`)
+  if (last > finalDepth + 1e-6) throw unprocessableError(`The sounding reaches ${depth(last)}, below the point's final depth (${depth(finalDepth)}).`)
 }
 
 export async function replaceCptSounding(ctx: { actorId: string, projectId: string, pointId: string }, c: CptArrays & { version?: number }, txIn?: Tx) {
   const run = async (tx: Tx) => {
     const point = await requirePoint(ctx.projectId, ctx.pointId, tx, { lock: true })
-    assertCptValid(c, point.finalDepth)
+    assertCptValid(c, point.finalDepth, (await projectDepthWords(ctx.projectId, tx)).depth)
     const [before] = await tx.select({ id: cptSoundings.id, version: cptSoundings.version, count: cptSoundings.count, areaRatio: cptSoundings.areaRatio }).from(cptSoundings).where(eq(cptSoundings.pointId, point.id))
     if (before && c.version !== undefined && c.version !== before.version) {
       throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This sounding was replaced by someone else since you opened it.', data: { current: before } })

@@ -10,6 +10,7 @@ import { runEngine } from '../utils/engine'
 import { rehomeAttachmentsOf } from './attachments'
 import { recordAudit } from './audit'
 import { unprocessableError } from './http-errors'
+import { projectDepthWords } from './project-units'
 import {
   adoptionHistory, ccCheck, insituAt, interpretTest, isEngineMethod, loggedIntervals, prepareSpecimen, requireProjectSample, requireTest, reviseTest, sampleDepth,
   stratumAtLogged, stressContext, type TestChanges, testJson, timeAnalysis, timeSummary,
@@ -104,7 +105,8 @@ export async function testInterpretation(projectId: string, testId: string) {
     warnings.push(`${stress.info.description} No OCR or sample quality until a version of the design model is saved.`)
   }
   else if (insitu.effectiveStress === null) {
-    warnings.push(`The stress model in force does not reach ${insitu.depth.toFixed(2)} m (or gives σ'v0 ≤ 0 there): no σ'v0, OCR or sample quality.`)
+    const { depth } = await projectDepthWords(projectId)
+    warnings.push(`The stress model in force does not reach ${depth(Number(insitu.depth.toFixed(2)))} (or gives σ'v0 ≤ 0 there): no σ'v0, OCR or sample quality.`)
   }
   const [history, cc] = await Promise.all([adoptionHistory(testId), ccCheck(ctx, out.cc)])
   const adoption = history.find(a => a.supersededAt === null) ?? null
@@ -198,7 +200,8 @@ export async function adoptPreconsolidation(projectId: string, actor: { id: stri
       const label = ADOPTION_METHOD_LABELS[body.method]
       if (!r) throw unprocessableError(`The ${label} construction gives no σ'p on this curve; adopt another method's value, or type one.`, { code: 'method-without-result' })
       if (Math.abs(body.value / r.preconsolidation - 1) > MATCH_TOLERANCE) {
-        throw unprocessableError(`The ${label} σ'p of this curve is ${r.preconsolidation.toFixed(1)} kPa, not ${body.value} kPa. Adopt it as it is, or type your own value.`, { code: 'value-does-not-match-method' })
+        const { stress: s } = await projectDepthWords(projectId, tx)
+        throw unprocessableError(`The ${label} σ'p of this curve is ${s(r.preconsolidation)}, not ${s(body.value)}. Adopt it as it is, or type your own value.`, { code: 'value-does-not-match-method' })
       }
     }
     const now = new Date()

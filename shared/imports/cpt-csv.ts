@@ -59,7 +59,7 @@ export function eachCsvRow(text: string, format: { newline: string, delimiter: s
 }
 
 /** `mapping` must already have passed `checkMapping` (every CPT field mapped to a header of the file). */
-export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number, maxRows?: number, units?: ImportUnits }): CheckedCpt {
+export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cptFinalDepth?: number, maxRows?: number, units?: ImportUnits, depthWords?: (metres: number) => string }): CheckedCpt {
   const fields = TARGET_FIELDS.cpt
   // Numbers in the file's units become SI as they are read.
   const factors = fields.map(f => unitFactorOf('cpt', ctx.units, f.key))
@@ -67,6 +67,8 @@ export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cp
   const columnOf = headerOf.map(h => csv.headers.indexOf(h))
   if (columnOf.some(c => c < 0)) throw new Error('checkCptCsv needs a checked mapping')
   const finalDepth = ctx.cptFinalDepth
+  // Depths in messages in the project's units, as the general row check writes them.
+  const dw = ctx.depthWords ?? ((m: number) => `${m} m`)
   let capacity = Math.max(64, Math.ceil(csv.text.length / 24))
   let cols = [new Float64Array(capacity), new Float64Array(capacity), new Float64Array(capacity), new Float64Array(capacity)]
   const values = [0, 0, 0, 0]
@@ -101,8 +103,8 @@ export function checkCptCsv(csv: PlainCsvText, mapping: ImportMapping, ctx: { cp
     for (let k = 0; k < 4; k++) if (problem[k]) errors.push({ row, column: headerOf[k]!, message: problem[k]! })
     if (!problem[0]) {
       const depth = values[0]!
-      if (depth <= prev) errors.push({ row, column: headerOf[0]!, message: `Depth ${depth} m does not increase from the row above (${prev} m).` })
-      if (finalDepth !== undefined && depth > finalDepth) errors.push({ row, column: headerOf[0]!, message: `Depth ${depth} m is below the point's final depth (${finalDepth} m).` })
+      if (depth <= prev) errors.push({ row, column: headerOf[0]!, message: `Depth ${dw(depth)} does not increase from the row above (${dw(prev)}).` })
+      if (finalDepth !== undefined && depth > finalDepth) errors.push({ row, column: headerOf[0]!, message: `Depth ${dw(depth)} is below the point's final depth (${dw(finalDepth)}).` })
       prev = depth
     }
     if (n === capacity) {

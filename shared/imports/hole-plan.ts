@@ -1,5 +1,5 @@
 import { toAscii } from '../ags4/write'
-import { checkIntervals } from '../investigation/intervals'
+import { checkIntervals, depthPhrases, type IntervalWords } from '../investigation/intervals'
 import { pointHeader } from '../investigation/point-header'
 import { sptFromStored, sptStored } from '../investigation/spt-blows'
 import type { GroundwaterRecord, LogIntervalRecord, PointRecord, SampleRecord, SptRecord, VaneRecord } from '../investigation/types'
@@ -255,23 +255,24 @@ export function holeAfter(plan: HolePlan, existing: ExistingHole | undefined): {
 
 /**
  * Pastload's log rules on each hole as it would be after the import: intervals that overlap or go
- * below the final depth, samples below the final depth.
+ * below the final depth, samples below the final depth. Depths in `words`: the project's units (ft on a US project).
  */
-export function holePlanIssues(plans: readonly HolePlan[], existing: ReadonlyMap<string, ExistingHole>): HolePlanIssue[] {
+export function holePlanIssues(plans: readonly HolePlan[], existing: ReadonlyMap<string, ExistingHole>, words: IntervalWords = {}): HolePlanIssue[] {
   const out: HolePlanIssue[] = []
+  const { depth, span } = depthPhrases(words)
   for (const plan of plans) {
     // A skipped hole is checked as the file has it: a problem in the file is reported even if it is not written.
     const after = holeAfter(plan.action === 'skip' ? { ...plan, action: 'add' } : plan, existing.get(plan.identifier))
     const rows = after.intervals.map(i => i.row)
-    for (const issue of checkIntervals(rows, after.finalDepth).issues) {
+    for (const issue of checkIntervals(rows, after.finalDepth, words).issues) {
       const iv = after.intervals[issue.index]!
       const where = iv.fromFile ? '' : ' (already in the project)'
-      out.push({ identifier: plan.identifier, kind: 'interval', top: iv.row.top, fromFile: iv.fromFile, message: `${plan.identifier} ${iv.row.top}–${iv.row.bottom} m${where}: ${issue.message.replace(/ \(row \d+\)/, '')}` })
+      out.push({ identifier: plan.identifier, kind: 'interval', top: iv.row.top, fromFile: iv.fromFile, message: `${plan.identifier} ${span(iv.row.top, iv.row.bottom)}${where}: ${issue.message.replace(/ \(row \d+\)/, '')}` })
     }
     for (const s of after.samples) {
       if (s.row.bottom > after.finalDepth + 1e-6) {
         const where = s.fromFile ? '' : ' (already in the project)'
-        out.push({ identifier: plan.identifier, kind: 'sample', top: s.row.top, fromFile: s.fromFile, message: `${plan.identifier} sample ${s.row.identifier}${where}: bottom (${s.row.bottom} m) is below the hole's final depth (${after.finalDepth} m).` })
+        out.push({ identifier: plan.identifier, kind: 'sample', top: s.row.top, fromFile: s.fromFile, message: `${plan.identifier} sample ${s.row.identifier}${where}: bottom (${depth(s.row.bottom)}) is below the hole's final depth (${depth(after.finalDepth)}).` })
       }
     }
   }

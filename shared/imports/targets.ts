@@ -146,14 +146,15 @@ export type ImportQuantity = 'length' | 'stress' | 'unitWeight'
 /** The units a file's column may be in, per quantity (SI first). */
 export const IMPORT_UNITS: Record<ImportQuantity, readonly string[]> = {
   length: ['m', 'ft'],
-  stress: ['kPa', 'MPa', 'psf', 'tsf'],
+  stress: ['kPa', 'MPa', 'psf', 'tsf', 'psi'],
   unitWeight: ['kN/m³', 'pcf'],
 }
 
 /** SI units (m, kPa, kN/m³) per unit of the file (exact definitions, shared/units). */
-const TO_SI: Record<string, number> = { 'm': 1, 'ft': US_TO_SI.length, 'kPa': 1, 'MPa': 1000, 'psf': US_TO_SI.stress, 'tsf': US_TO_SI.stressTsf, 'kN/m³': 1, 'pcf': US_TO_SI.unitWeight }
+// 1 psi = 144 psf (1 lbf/in², 144 in² to the ft²).
+const TO_SI: Record<string, number> = { 'm': 1, 'ft': US_TO_SI.length, 'kPa': 1, 'MPa': 1000, 'psf': US_TO_SI.stress, 'tsf': US_TO_SI.stressTsf, 'psi': 144 * US_TO_SI.stress, 'kN/m³': 1, 'pcf': US_TO_SI.unitWeight }
 /** Spellings of a unit in a header's brackets. */
-const UNIT_SPELLINGS: Record<string, string> = { 'm': 'm', 'ft': 'ft', 'feet': 'ft', 'kpa': 'kPa', 'mpa': 'MPa', 'psf': 'psf', 'tsf': 'tsf', 'kn/m3': 'kN/m³', 'kn/m³': 'kN/m³', 'pcf': 'pcf' }
+const UNIT_SPELLINGS: Record<string, string> = { 'm': 'm', 'ft': 'ft', 'feet': 'ft', 'kpa': 'kPa', 'mpa': 'MPa', 'psf': 'psf', 'tsf': 'tsf', 'psi': 'psi', 'kn/m3': 'kN/m³', 'kn/m³': 'kN/m³', 'pcf': 'pcf' }
 
 const QUANTITY_OF: Partial<Record<ImportTarget, Record<string, ImportQuantity>>> = {
   'points': { easting: 'length', northing: 'length', groundElevation: 'length', finalDepth: 'length' },
@@ -180,16 +181,52 @@ export function fieldName(field: Pick<ImportField, 'label'>): string {
 }
 
 /**
- * The units to offer for each numeric field: the unit a mapped header names in brackets ("Depth (ft)"), else the
- * project's (ft, psf or tsf, pcf on a US project; m, kPa, kN/m³ on an SI one).
+ * A US cone's readings as US sounding logs usually give them (common practice): cone resistance and sleeve
+ * friction in tsf, pore pressure in psi. An SI file's readings are kPa (or MPa, named in the heading).
  */
+export const US_CONE_UNITS: Readonly<Record<string, string>> = { qc: 'tsf', fs: 'tsf', u2: 'psi' }
+
+/** The unit a column heading names in brackets at its end ("qc (MPa)" → "MPa"), if Pastload reads it. */
+export function headerUnit(header: string | undefined): string | null {
+  const said = /\(([^()]*)\)\s*$/.exec(header ?? '')?.[1]?.trim().toLowerCase()
+  return (said && UNIT_SPELLINGS[said]) || null
+}
+
+/**
+ * The unit a numeric field is read in when its heading names none: the project's (ft, psf or tsf, pcf on a US
+ * project; m, kPa, kN/m³ on an SI one), except a US CPT's cone readings (`US_CONE_UNITS`).
+ */
+export function defaultUnit(target: ImportTarget, key: string, system: UnitSystem, usStress: UsStressUnit = 'psf'): string | null {
+  const q = importFieldQuantity(target, key)
+  if (!q) return null
+  if (system !== 'US') return { length: 'm', stress: 'kPa', unitWeight: 'kN/m³' }[q]
+  if (target === 'cpt' && US_CONE_UNITS[key]) return US_CONE_UNITS[key]
+  return { length: 'ft', stress: usStress, unitWeight: 'pcf' }[q]
+}
+
+/** The units to offer for each numeric field: the unit a mapped header names in brackets ("Depth (ft)"), else `defaultUnit`. */
 export function suggestUnits(target: ImportTarget, mapping: ImportMapping, system: UnitSystem, usStress: UsStressUnit = 'psf'): ImportUnits {
-  const project: Record<ImportQuantity, string> = system === 'US' ? { length: 'ft', stress: usStress, unitWeight: 'pcf' } : { length: 'm', stress: 'kPa', unitWeight: 'kN/m³' }
   const out: ImportUnits = {}
   for (const [key, q] of Object.entries(QUANTITY_OF[target] ?? {})) {
-    const said = /\(([^()]*)\)\s*$/.exec(mapping[key] ?? '')?.[1]?.trim().toLowerCase()
-    const named = said ? UNIT_SPELLINGS[said] : undefined
-    out[key] = named && IMPORT_UNITS[q].includes(named) ? named : project[q]
+    const named = headerUnit(mapping[key])
+    out[key] = named && IMPORT_UNITS[q].includes(named) ? named : defaultUnit(target, key, system, usStress)!
+  }
+  return out
+}
+
+/** Where a column's unit came from, for the preview to say so: its heading, the saved mapping, or the default (`defaultUnit`). */
+export type UnitSource = 'heading' | 'saved' | 'default' | 'chosen'
+
+/**
+ * Each numeric field's unit source as the preview shows it beside the choice: "heading" when the mapped heading
+ * names the unit chosen, "saved" when it is the unit saved with the mapping, "default" when it is the default
+ * for a heading that names none, else "chosen" (the user changed it).
+ */
+export function unitSources(target: ImportTarget, mapping: ImportMapping, units: ImportUnits, system: UnitSystem, usStress: UsStressUnit = 'psf', saved?: ImportUnits | null): Record<string, UnitSource> {
+  const out: Record<string, UnitSource> = {}
+  for (const key of Object.keys(QUANTITY_OF[target] ?? {})) {
+    const unit = units[key]
+    out[key] = headerUnit(mapping[key]) === unit ? 'heading' : saved?.[key] === unit ? 'saved' : defaultUnit(target, key, system, usStress) === unit ? 'default' : 'chosen'
   }
   return out
 }

@@ -65,6 +65,17 @@ export function checkIntervals(intervals: readonly IntervalLike[], finalDepth: n
   return { issues, gaps }
 }
 
+/** A depth and a span of depths in these words, for messages beyond the interval checks ("4.45 m", "1.2–3.4 m"; ft on a US project). */
+export interface DepthPhrases {
+  depth: (metres: number) => string
+  span: (top: number, bottom: number) => string
+}
+export function depthPhrases(words: IntervalWords = {}): DepthPhrases {
+  const n = words.number ?? fmt
+  const unit = words.unit ?? 'm'
+  return { depth: m => `${n(m)} ${unit}`, span: (top, bottom) => `${n(top)}–${n(bottom)} ${unit}` }
+}
+
 function fmt(v: number): string {
   return Number(v.toFixed(3)).toString()
 }

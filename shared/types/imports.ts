@@ -21,6 +21,8 @@ export interface ServerImportPreview {
   preview: ServerImportCell[][]
   mapping: Record<string, string> | null
   mappingSource: 'saved' | 'suggested' | null
+  /** The unit of each numeric column saved with the mapping (`{ qc: 'MPa' }`); null when none was saved. */
+  units: Record<string, string> | null
 }
 export type ImportPreview = Serialize<ServerImportPreview>
 

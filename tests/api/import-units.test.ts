@@ -88,6 +88,36 @@ describe('units of imported and exported numbers', () => {
     expect(detail.body.vane[0]!.peak).toBeCloseTo(20.0, 1)
   })
 
+  it('remembers each column\'s unit with a saved mapping, and gives them back for the next file of that layout', async () => {
+    await createPoint(geo, projectId, { identifier: 'BH-01', kind: 'borehole', easting: 10, northing: 20, groundElevation: 2.5, finalDepth: 20 })
+    const csv = 'Hole,Kind,When,Depth,u\nBH-01,standing,2026-11-02T09:00:00Z,10,2\n'
+    const mapping = { point: 'Hole', kind: 'Kind', observedAt: 'When', depth: 'Depth', pressure: 'u' }
+    const first = await upload<{ importId: string }>(geo, `${base}/imports`, 'water.csv', csv)
+    const ok = await geo.post<{ written: number }>(`${base}/imports/${first.body.importId}/commit`, { target: 'groundwater', mapping, units: { depth: 'ft', pressure: 'psi' } })
+    expect(ok.status).toBe(200)
+    const next = await upload<{ importId: string }>(geo, `${base}/imports`, 'water-2.csv', csv.replace('10,2', '12,3'))
+    const preview = await geo.get<{ preview: { mapping: Record<string, string>, mappingSource: string, units: Record<string, string> | null } }>(`${base}/imports/${next.body.importId}?target=groundwater`)
+    expect(preview.status).toBe(200)
+    expect(preview.body.preview).toMatchObject({ mappingSource: 'saved', mapping, units: { depth: 'ft', pressure: 'psi' } })
+    // 2 psi = 13.79 kPa (1 psi = 6.894757 kPa).
+    const pts = (await geo.get<{ points: { id: string }[] }>(`${base}/points`)).body.points
+    const detail = await geo.get<{ groundwater: { pressure: number }[] }>(`${base}/points/${pts[0]!.id}`)
+    expect(detail.body.groundwater[0]!.pressure).toBeCloseTo(13.7895, 3)
+  })
+
+  it('writes an AGS4 file\'s log rules in ft on a US project, in the preview and the commit', async () => {
+    await must('US units', owner.patch(base, { unitSystem: 'US' }))
+    const text = usFile().replace('"DATA","BH-U1","32.81","65.62","Dense SAND"', '"DATA","BH-U1","30.00","65.62","Dense SAND"')
+    const up = await upload<{ importId: string, ags: { errors: { message: string }[] } }>(owner, `${base}/imports`, 'overlap.ags', text, 'text/plain')
+    expect(up.status).toBe(201)
+    expect(up.body.ags.errors.map(e => e.message)).toContain('BH-U1 30.00–65.62 ft: Overlaps the interval 0.00–32.81 ft.')
+    const r = await owner.post<Report>(`${base}/imports/${up.body.importId}/commit-ags`, {})
+    expect(r.status).toBe(422)
+    const messages = (r.body.data.errors ?? []).map(e => e.message)
+    expect(messages).toContain('BH-U1 30.00–65.62 ft: Overlaps the interval 0.00–32.81 ft.')
+    expect(messages.join(' ')).not.toMatch(/\d m\b/)
+  })
+
   it('refuses an AGS4 file whose depth is in a unit Pastload does not read, at the file\'s line, writing nothing', async () => {
     const text = usFile('furlongs')
     const up = await upload<{ importId: string }>(owner, `${base}/imports`, 'bad.ags', text, 'text/plain')

@@ -207,6 +207,18 @@ describe('oedometer tests and σ\'p adoption', () => {
       const wrong = await engineer.post<{ message: string }>(url, { method: 'casagrande', value: cas * 1.2, reason: 'mislabelled' })
       expect(wrong.status).toBe(422)
       expect(wrong.body.message).toContain('Casagrande')
+      expect(wrong.body.message).toContain(`is ${cas.toFixed(1)} kPa, not ${(cas * 1.2).toFixed(1)} kPa.`)
+      // On a US project the same refusal quotes the project's stress unit (1 psf = 0.04788026 kPa, NIST SP 811).
+      expect((await owner.patch(`/api/projects/${projectId}`, { unitSystem: 'US', usStressUnit: 'psf' })).status).toBe(200)
+      try {
+        const us = await engineer.post<{ message: string }>(url, { method: 'casagrande', value: cas * 1.2, reason: 'mislabelled' })
+        expect(us.status).toBe(422)
+        expect(us.body.message).toContain(`is ${(cas / 0.047880259).toFixed(0)} psf, not ${(cas * 1.2 / 0.047880259).toFixed(0)} psf.`)
+        expect(us.body.message).not.toContain('kPa')
+      }
+      finally {
+        expect((await owner.patch(`/api/projects/${projectId}`, { unitSystem: 'SI' })).status).toBe(200)
+      }
 
       const first = await engineer.post<{ adoption: Adoption, superseded: Adoption | null }>(url, { method: 'casagrande', value: Math.round(cas * 10) / 10, reason: 'Clear break; methods agree' })
       expect(first.status).toBe(201)

@@ -124,6 +124,25 @@ describe('the demo on a 390 px phone', () => {
     await page.close()
   })
 
+  it('the model compare page shows what changed and both profiles within the screen', async () => {
+    const inForce = (await demo.client.get<{ modelId: string }>(`/api/projects/${demo.projectId}/model-in-force`)).body
+    // Without a and b in the address the page compares the two latest versions.
+    const page = await demo.open(`/models/${inForce.modelId}/compare`, { viewport: PHONE })
+    await page.getByTestId('compare-page').waitFor()
+    await page.getByRole('heading', { name: /^What changed/ }).waitFor({ timeout: 15_000 })
+    await expectShown(page, 'compare-changes-card')
+    await expectShown(page, 'compare-profiles')
+    await page.getByTestId('compare-profiles').locator('svg').first().waitFor()
+    for (const id of ['compare-changes-card', 'compare-profiles']) {
+      const box = await page.getByTestId(id).evaluate(el => ({ right: el.getBoundingClientRect().right, scroll: el.scrollWidth, client: el.clientWidth, overflow: getComputedStyle(el).overflowX }))
+      expect(box.right, `${id} reaches ${box.right} px`).toBeLessThanOrEqual(PHONE.width + 0.5)
+      // Content wider than its card scrolls inside it, never out of it.
+      if (box.scroll > box.client) expect(box.overflow, `${id} is ${box.scroll} px of content in ${box.client} px`).toMatch(/auto|scroll/)
+    }
+    await expectNoSideScroll(page, 'The model compare page', 'narrow-model-compare-phone')
+    await page.close()
+  })
+
   it('the other project pages fit the screen too', async () => {
     const page = await demo.open('', { viewport: PHONE })
     const id = demo.projectId

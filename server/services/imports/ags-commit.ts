@@ -12,6 +12,7 @@ import { loadInvestigationRows } from '../exports/logs'
 import { unprocessableError } from '../http-errors'
 import { writeInvestigation } from '../investigation-writer'
 import { agsLineOf, analyseAgsOrThrow, asRowErrors } from './ags'
+import { projectDepthWords } from '../project-units'
 import { holdPointLimit } from './commit'
 import { asUploadRefusal, loadImportFile } from './preview'
 
@@ -100,12 +101,13 @@ export async function commitAgsImport(args: { projectId: string, actorId: string
   const { projectId, actorId, mode } = args
   const file = await loadImportFile(projectId, args.importId)
   if (file.format !== 'ags4') throw unprocessableError(`${file.filename} is not an AGS4 file; map its columns instead.`)
-  const a = analyseAgsOrThrow(file.content, file.filename)
+  const words = (await projectDepthWords(projectId)).intervals
+  const a = analyseAgsOrThrow(file.content, file.filename, words)
   const existing = await existingHoles(projectId, a.data.points.map(p => p.identifier))
   const plans = planHoleImport(a.data.points, existing, mode)
   // Pastload's own log rules are checked on the holes as they would be after the import, not on the file alone.
   const errors = asRowErrors(a.errors.filter(i => i.rule !== 'pastload'))
-  for (const issue of holePlanIssues(plans, existing)) {
+  for (const issue of holePlanIssues(plans, existing, words)) {
     const group = issue.kind === 'interval' ? 'GEOL' : 'SAMP'
     const line = issue.fromFile ? agsLineOf(a.file, group, issue.identifier, issue.kind === 'interval' ? 'GEOL_TOP' : 'SAMP_TOP', issue.top) : agsLineOf(a.file, 'LOCA', issue.identifier)
     errors.push({ row: line, column: issue.fromFile ? group : 'LOCA', message: issue.message, rule: 'pastload' })

@@ -4,7 +4,7 @@ import { agsToInvestigation } from '#shared/ags4/investigation'
 import { decodeAgs, parseAgs } from '#shared/ags4/parse'
 import type { AgsFile, AgsIssue } from '#shared/ags4/types'
 import { AGS_LINE_LIMIT, tooManyAgsLines } from '#shared/imports/limits'
-import { checkIntervals } from '#shared/investigation/intervals'
+import { checkIntervals, depthPhrases, type IntervalWords } from '#shared/investigation/intervals'
 import type { InvestigationRecord } from '#shared/investigation/types'
 import { asUploadRefusal } from './preview'
 
@@ -14,10 +14,10 @@ import { asUploadRefusal } from './preview'
  * and the groups Pastload keeps but does not map.
  */
 /** `analyseAgs` with a file over the line limit refused (422) before it is parsed. */
-export function analyseAgsOrThrow(content: Buffer, filename: string) {
+export function analyseAgsOrThrow(content: Buffer, filename: string, words: IntervalWords = {}) {
   const lines = countLines(content)
   if (lines > AGS_LINE_LIMIT) throw asUploadRefusal(tooManyAgsLines(filename, lines))
-  return analyseAgs(content)
+  return analyseAgs(content, words)
 }
 
 /** Line breaks counted on the bytes (no decoding, no splitting), plus a last line without one. */
@@ -31,11 +31,12 @@ function countLines(content: Buffer): number {
   return content.length > 0 && content[content.length - 1] !== 10 ? n + 1 : n
 }
 
-export function analyseAgs(content: Buffer) {
+/** `words`: how the log rules write depths, in the project's units (`projectDepthWords(…).intervals`). */
+export function analyseAgs(content: Buffer, words: IntervalWords = {}) {
   const file = parseAgs(decodeAgs(new Uint8Array(content)))
   const ruleIssues = checkAgs(file, standardDictionary())
   const mapped = agsToInvestigation(file)
-  const issues: AgsIssue[] = [...ruleIssues, ...mapped.issues, ...logRuleIssues(file, mapped.data)]
+  const issues: AgsIssue[] = [...ruleIssues, ...mapped.issues, ...logRuleIssues(file, mapped.data, words)]
   const errors = issues.filter(i => i.severity === 'error')
   const warnings = issues.filter(i => i.severity !== 'error')
   return {
@@ -76,18 +77,20 @@ export function agsLineOf(file: AgsFile, group: string, loca: string, heading?: 
 
 /**
  * Pastload's own log rules on the mapped data (the AGS4 format rules say nothing
- * about overlaps or depths beyond the hole), reported at the GEOL or SAMP line.
+ * about overlaps or depths beyond the hole), reported at the GEOL or SAMP line, with depths in the
+ * project's units (`words`; metres by default).
  */
-export function logRuleIssues(file: AgsFile, data: InvestigationRecord): AgsIssue[] {
+export function logRuleIssues(file: AgsFile, data: InvestigationRecord, words: IntervalWords = {}): AgsIssue[] {
   const out: AgsIssue[] = []
+  const { depth, span } = depthPhrases(words)
   const lineOf = (group: string, loca: string, topHeading: string, top: number) => agsLineOf(file, group, loca, topHeading, top)
   for (const p of data.points) {
-    for (const issue of checkIntervals(p.intervals, p.finalDepth).issues) {
+    for (const issue of checkIntervals(p.intervals, p.finalDepth, words).issues) {
       const iv = p.intervals[issue.index]!
-      out.push({ rule: 'pastload', severity: 'error', group: 'GEOL', line: lineOf('GEOL', p.identifier, 'GEOL_TOP', iv.top), message: `${p.identifier} ${iv.top}–${iv.bottom} m: ${issue.message.replace(/ \(row \d+\)/, '')}` })
+      out.push({ rule: 'pastload', severity: 'error', group: 'GEOL', line: lineOf('GEOL', p.identifier, 'GEOL_TOP', iv.top), message: `${p.identifier} ${span(iv.top, iv.bottom)}: ${issue.message.replace(/ \(row \d+\)/, '')}` })
     }
     for (const s of p.samples) {
-      if (s.bottom > p.finalDepth + 1e-6) out.push({ rule: 'pastload', severity: 'error', group: 'SAMP', line: lineOf('SAMP', p.identifier, 'SAMP_TOP', s.top), message: `${p.identifier} sample ${s.identifier}: bottom (${s.bottom} m) is below the hole's final depth (${p.finalDepth} m).` })
+      if (s.bottom > p.finalDepth + 1e-6) out.push({ rule: 'pastload', severity: 'error', group: 'SAMP', line: lineOf('SAMP', p.identifier, 'SAMP_TOP', s.top), message: `${p.identifier} sample ${s.identifier}: bottom (${depth(s.bottom)}) is below the hole's final depth (${depth(p.finalDepth)}).` })
     }
   }
   return out

@@ -226,8 +226,10 @@ export async function commitImport(args: { projectId: string, actorId: string, r
       await recordAudit({ actorId, projectId, action: 'import', entity: body.target, entityId: body.target === 'cpt' ? body.pointId : null, after: { filename: file.filename, rows: out.written } }, tx)
     }
     if (body.saveMapping) {
-      await tx.insert(importMappings).values({ projectId, target: body.target, mapping: body.mapping, savedBy: actorId })
-        .onConflictDoUpdate({ target: [importMappings.projectId, importMappings.target], set: { mapping: body.mapping, savedBy: actorId, updatedAt: new Date() } })
+      // The columns' units are saved with the mapping, so the next file of the same layout reads alike.
+      const units = body.units && Object.keys(body.units).length ? body.units : null
+      await tx.insert(importMappings).values({ projectId, target: body.target, mapping: body.mapping, units, savedBy: actorId })
+        .onConflictDoUpdate({ target: [importMappings.projectId, importMappings.target], set: { mapping: body.mapping, units, savedBy: actorId, updatedAt: new Date() } })
     }
     await tx.delete(importFiles).where(eq(importFiles.id, file.id))
     return out.written

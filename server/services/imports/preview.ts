@@ -48,16 +48,18 @@ export function plainCsvOrThrow(content: Buffer, filename: string): PlainCsvText
   }
 }
 
-/** Headers, the first rows, and a mapping: the saved one for this target when its columns are all present, else a suggestion. */
+/** Headers, the first rows, and a mapping: the saved one for this target (with its columns' units) when its columns are all present, else a suggestion. */
 export async function previewTable(projectId: string, file: { content: Buffer, format: string, filename: string }, target?: ImportTarget, sheet?: string): Promise<ServerImportPreview> {
   const table = await tableOrThrow(file.content, file.format as UploadFormat, file.filename, sheet, PREVIEW_ROWS)
   let mapping: Record<string, string> | null = null
   let mappingSource: 'saved' | 'suggested' | null = null
+  let units: Record<string, string> | null = null
   if (target) {
     const [saved] = await useDb().select().from(importMappings).where(and(eq(importMappings.projectId, projectId), eq(importMappings.target, target)))
     if (saved && Object.values(saved.mapping).every(h => table.headers.includes(h))) {
       mapping = saved.mapping
       mappingSource = 'saved'
+      units = saved.units ?? null
     }
     else {
       mapping = suggestMapping(target, table.headers)
@@ -72,5 +74,6 @@ export async function previewTable(projectId: string, file: { content: Buffer, f
     preview: table.rows.slice(0, PREVIEW_ROWS),
     mapping,
     mappingSource,
+    units,
   }
 }

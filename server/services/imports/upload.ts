@@ -5,6 +5,8 @@ import { preferFastCompression } from '~~/server/db/binary'
 import { importFiles } from '~~/server/db/schema'
 import { unprocessableError } from '../http-errors'
 import { readMultipart } from '../multipart'
+import type { IntervalWords } from '#shared/investigation/intervals'
+import { projectDepthWords } from '../project-units'
 import { analyseAgsOrThrow, asRowErrors } from './ags'
 import { detectFormat, UploadError } from './files'
 import { previewTable } from './preview'
@@ -47,7 +49,7 @@ export async function storeUpload(projectId: string, actorId: string, upload: { 
     throw err
   }
   const preview = format === 'ags4' ? null : await previewTable(projectId, { content: upload.data, format, filename })
-  const ags = format === 'ags4' ? agsPreview(upload.data, filename) : null
+  const ags = format === 'ags4' ? agsPreview(upload.data, filename, (await projectDepthWords(projectId)).intervals) : null
   const db = useDb()
   await db.delete(importFiles).where(lt(importFiles.createdAt, new Date(Date.now() - 24 * 3600 * 1000)))
   // The bytes go in as a binary parameter (node-postgres sends a Buffer as is), compressed with lz4 where available.
@@ -59,7 +61,7 @@ export async function storeUpload(projectId: string, actorId: string, upload: { 
   return { importId: row!.id, filename, format, size: upload.data.length, preview, ags }
 }
 
-function agsPreview(content: Buffer, filename: string) {
-  const a = analyseAgsOrThrow(content, filename)
+function agsPreview(content: Buffer, filename: string, words: IntervalWords) {
+  const a = analyseAgsOrThrow(content, filename, words)
   return { groups: a.groups, unknownGroups: a.unknownGroups, undefinedStrata: a.undefinedStrata, summary: a.summary, errors: asRowErrors(a.errors).slice(0, 500), errorCount: a.errors.length, warnings: asRowErrors(a.warnings).slice(0, 500) }
 }

@@ -157,5 +157,19 @@ describe('a CPT file in US units', () => {
     expect(g.records.map(r => r.depth)).toEqual([0.3048, 0.6096])
     expect(g.records.map(r => r.qc)).toEqual(Array.from(f.columns.qc))
   })
-})
 
+  it('quotes depths in feet on a US project, on both paths alike', () => {
+    const csv = 'Depth (ft),qc (tsf),fs (psf),u2 (psf)\n2,10,200,100\n1,12,250,150\n120,12,250,150\n'
+    const mapping = { depth: 'Depth (ft)', qc: 'qc (tsf)', fs: 'fs (psf)', u2: 'u2 (psf)' }
+    const units = { depth: 'ft', qc: 'tsf', fs: 'psf', u2: 'psf' }
+    const feet = (m: number) => `${(m / 0.3048).toFixed(2)} ft`
+    const f = checkCptCsv(openPlainCsv(Buffer.from(csv), 'cpt.csv')!, mapping, { cptFinalDepth: 30, units, depthWords: feet })
+    expect(f.errors).toEqual([
+      { row: 3, column: 'Depth (ft)', message: 'Depth 1.00 ft does not increase from the row above (2.00 ft).' },
+      { row: 4, column: 'Depth (ft)', message: 'Depth 120.00 ft is below the point\'s final depth (98.43 ft).' },
+    ])
+    const table = readCsvTable(Buffer.from(csv), 'cpt.csv')
+    const g = validateRows('cpt', table.headers, table.rows, mapping, { points: new Map(), samples: new Set(), strata: new Set(), cptFinalDepth: 30, depthWords: feet }, table.rowNumbers, units)
+    expect(g.errors).toEqual(f.errors)
+  })
+})

@@ -6,6 +6,7 @@ import { parseAgs } from '../../../shared/ags4/parse'
 import { generateDemoInvestigation } from '../../../shared/demo/generate'
 import { diffRows, type ExistingHole, holePlanIssues, planHoleImport, previewHole, sameValue } from '../../../shared/imports/hole-plan'
 import type { PointRecord } from '../../../shared/investigation/types'
+import { unitWords } from '../../../server/services/project-units'
 
 const base: PointRecord = {
   identifier: 'BH-01', kind: 'borehole', easting: 1000, northing: 2000, groundElevation: 2.5, finalDepth: 10,
@@ -151,6 +152,18 @@ describe('holePlanIssues', () => {
     const issues = holePlanIssues(planHoleImport([p], existing, 'update'), existing)
     expect(issues.map(i => i.message)).toContain('BH-01 sample U2 (already in the project): bottom (4.45 m) is below the hole\'s final depth (3.5 m).')
     expect(issues.some(i => i.kind === 'interval' && !i.fromFile)).toBe(true)
+  })
+  it('writes depths in feet for a US project (the project\'s words, 1 ft = 0.3048 m)', () => {
+    const p = clone(base)
+    p.finalDepth = 3.5
+    p.intervals = [{ top: 0, bottom: 3.5, description: 'Clay', uscs: 'CL', stratumCode: null, moisture: null, consistency: null }]
+    p.samples = [base.samples[0]!]
+    const existing = new Map([['BH-01', stored(base)]])
+    const issues = holePlanIssues(planHoleImport([p], existing, 'update'), existing, unitWords('US').intervals)
+    expect(issues.map(i => i.message)).toContain('BH-01 sample U2 (already in the project): bottom (14.60 ft) is below the hole\'s final depth (11.48 ft).')
+    const messages = issues.map(i => i.message).join('\n')
+    expect(messages).not.toMatch(/\d m\b/)
+    expect(messages).toMatch(/ft/)
   })
 })
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { checkMapping, checkUnits, fieldName, suggestMapping, suggestUnits, TARGET_FIELDS, validateRows, type ImportContext } from '../../../shared/imports/targets'
+import { checkMapping, checkUnits, fieldName, suggestMapping, suggestUnits, TARGET_FIELDS, unitSources, validateRows, type ImportContext } from '../../../shared/imports/targets'
 
 const ctx = (): ImportContext => ({ points: new Map([['BH-01', { finalDepth: 20 }]]), samples: new Set(['BH-01/U1']), strata: new Set(['EST']) })
 
@@ -68,6 +68,23 @@ describe('units of the numeric columns', () => {
     expect(fieldName(TARGET_FIELDS.points.find(f => f.key === 'finalDepth')!)).toBe('Final depth')
   })
 
+  it('reads a US cone file without units in its headings as tsf (qc, fs) and psi (u2), and says where each unit came from', () => {
+    const mapping = { depth: 'Depth (ft)', qc: 'qc', fs: 'fs (MPa)', u2: 'u2' }
+    // A US project that shows psf still reads cone data as US sounding logs give it (common practice).
+    const units = suggestUnits('cpt', mapping, 'US', 'psf')
+    expect(units).toEqual({ depth: 'ft', qc: 'tsf', fs: 'MPa', u2: 'psi' })
+    expect(suggestUnits('cpt', { depth: 'Depth', qc: 'qc', fs: 'fs', u2: 'u2' }, 'SI')).toEqual({ depth: 'm', qc: 'kPa', fs: 'kPa', u2: 'kPa' })
+    expect(unitSources('cpt', mapping, units, 'US', 'psf')).toEqual({ depth: 'heading', qc: 'default', fs: 'heading', u2: 'default' })
+    expect(unitSources('cpt', mapping, { ...units, qc: 'MPa', u2: 'kPa' }, 'US', 'psf', { u2: 'kPa' })).toMatchObject({ qc: 'chosen', u2: 'saved' })
+    // Each can be chosen per column: psi is read at 144 psf (1 psi = 6.894757 kPa, NIST SP 811, 2008, App. B.8).
+    expect(checkUnits('cpt', { qc: 'MPa', fs: 'psf', u2: 'psi' }, mapping)).toEqual([])
+    const r = validateRows('cpt', ['Depth (ft)', 'qc', 'fs (MPa)', 'u2'], [['1', '10', '0.05', '20']], mapping, { ...ctx(), cptFinalDepth: 30 }, undefined, units)
+    expect(r.errors).toEqual([])
+    expect(r.records[0]!.qc).toBeCloseTo(957.6052, 3)
+    expect(r.records[0]!.fs).toBeCloseTo(50, 9)
+    expect(r.records[0]!.u2).toBeCloseTo(137.8951, 3)
+  })
+
   it('reads a column in ft, psf or pcf to SI before checking it against the hole', () => {
     const headers = ['point', 'kind', 'when', 'depth', 'u']
     const mapping = { point: 'point', kind: 'kind', observedAt: 'when', depth: 'depth', pressure: 'u' }
@@ -85,7 +102,7 @@ describe('units of the numeric columns', () => {
   it('names the column of a unit it does not read for that field', () => {
     expect(checkUnits('points', { finalDepth: 'ft', easting: 'm' })).toEqual([])
     expect(checkUnits('points', { finalDepth: 'furlongs' }, { finalDepth: 'FDEP' })).toEqual(['Final depth (column “FDEP”) cannot be in "furlongs": choose one of m, ft.'])
-    expect(checkUnits('vane', { peak: 'ft' })).toEqual(['Peak su cannot be in "ft": choose one of kPa, MPa, psf, tsf.'])
+    expect(checkUnits('vane', { peak: 'ft' })).toEqual(['Peak su cannot be in "ft": choose one of kPa, MPa, psf, tsf, psi.'])
     expect(checkUnits('points', { kind: 'm' })).toEqual(['Kind has no unit to choose.'])
   })
 })

@@ -1,0 +1,1 @@
+ALTER TABLE "import_mappings" ADD COLUMN "units" jsonb;
