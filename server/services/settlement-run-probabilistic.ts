@@ -51,6 +51,8 @@ export interface RunProbabilisticOptions {
   threads?: number
   /** The worker script (default the bundle next to the built server; null: this thread). */
   workerFile?: string | null
+  /** At most this many realisations per grid node (the demo seed keeps its grid light). */
+  gridNodeCap?: number
 }
 
 /** Runs one task in the pool, or in this thread without one. */
@@ -90,7 +92,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const plans = input.points.map(pt => planMonteCarlo(runSettlementInputAt(input, pt.x, pt.y), options))
   const firstNode = nodes[0]
   const sublayers = plans[0]?.count ?? (firstNode ? planMonteCarlo(runSettlementInputAt(input, firstNode[0], firstNode[1]), options).count : 0)
-  const perNode = gridNodeRealizations(p.realizations, nodes.length, sublayers)
+  const perNode = Math.min(gridNodeRealizations(p.realizations, nodes.length, sublayers), opts.gridNodeCap ?? Infinity)
   const nodeOptions: MonteCarloOptions = { ...options, realizations: Math.max(perNode, 1), limit: undefined }
 
   const total = input.points.length * p.realizations + nodes.length * perNode
