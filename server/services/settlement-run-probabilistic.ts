@@ -55,27 +55,24 @@ export interface RunProbabilisticOptions {
   gridNodeCap?: number
 }
 
-/** Runs one task in the pool, or in this thread without one. */
-function runTask<T>(pool: Piscina | null, name: 'runPointChunks' | 'runGridNodes', task: Record<string, unknown>, local: () => T, signal?: AbortSignal): Promise<T> {
-  if (signal?.aborted) return Promise.reject(new RunCancelled())
-  if (!pool) {
-    return new Promise((resolve, reject) => {
-      // One task per turn of the event loop, so a cancel is heard between chunks.
-      setImmediate(() => {
-        if (signal?.aborted) return reject(new RunCancelled())
-        try {
-          resolve(local())
-        }
-        catch (err) {
-          reject(err instanceof Error ? err : new Error(String(err)))
-        }
+/** Runs one task in the pool, or in this thread without one (one at a time, a turn of the event loop apart, so a cancel is heard between them). */
+function taskRunner(pool: Piscina | null, signal?: AbortSignal) {
+  let line: Promise<unknown> = Promise.resolve()
+  return <T>(name: 'runPointChunks' | 'runGridNodes', task: Record<string, unknown>, local: () => T): Promise<T> => {
+    if (signal?.aborted) return Promise.reject(new RunCancelled())
+    if (!pool) {
+      const next = line.catch(() => undefined).then(() => new Promise<void>(r => setImmediate(r))).then(() => {
+        if (signal?.aborted) throw new RunCancelled()
+        return local()
       })
+      line = next
+      return next
+    }
+    return (pool.run(task, { name, ...(signal ? { signal } : {}) }) as Promise<T>).catch((err: unknown) => {
+      if (signal?.aborted) throw new RunCancelled()
+      throw err
     })
   }
-  return (pool.run(task, { name, ...(signal ? { signal } : {}) }) as Promise<T>).catch((err: unknown) => {
-    if (signal?.aborted) throw new RunCancelled()
-    throw err
-  })
 }
 
 /** Adds the probabilistic blocks to a computed run: per point, the grid's P50/P95 and the set-up used. */
@@ -85,6 +82,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const pool = monteCarloTaskPool(threads, opts.workerFile)
   const resolved = resolveScatter(input.definition, p, data)
   const options = runMonteCarloOptions(p, resolved.variation)
+  const runTask = taskRunner(pool, opts.signal)
   const slim: RunComputeInput = { ...input, definition: slimDefinition(input.definition) }
   const chunks = Math.ceil(p.realizations / MONTE_CARLO_CHUNK)
   const grid = out.results.grid
@@ -103,7 +101,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   }
 
   const pointTasks = input.points.map((pt, i) => Promise.all(Array.from({ length: chunks }, (_, c) =>
-    runTask<MonteCarloSamples>(pool, 'runPointChunks', { input: slim, options, x: pt.x, y: pt.y, chunkStart: c, chunkEnd: c + 1 }, () => pointChunks(slim, options, pt.x, pt.y, c, c + 1), opts.signal)
+    runTask<MonteCarloSamples>('runPointChunks', { input: slim, options, x: pt.x, y: pt.y, chunkStart: c, chunkEnd: c + 1 }, () => pointChunks(slim, options, pt.x, pt.y, c, c + 1))
       .then((part) => {
         advance(part.settlement.length)
         return part
@@ -117,7 +115,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   if (perNode > 0) {
     for (let k = 0; k < nodes.length; k += NODES_PER_TASK) {
       const batch = nodes.slice(k, k + NODES_PER_TASK)
-      gridTasks.push(runTask<{ p50: number[], p95: number[] }>(pool, 'runGridNodes', { input: slim, options: nodeOptions, nodes: batch }, () => gridNodeQuantiles(slim, nodeOptions, batch), opts.signal)
+      gridTasks.push(runTask<{ p50: number[], p95: number[] }>('runGridNodes', { input: slim, options: nodeOptions, nodes: batch }, () => gridNodeQuantiles(slim, nodeOptions, batch))
         .then((r) => {
           advance(batch.length * perNode)
           return r

@@ -10,7 +10,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import { RUN_SCATTER_DEFAULT_COV } from '../../shared/schemas/settlement-run-limits'
 import type { RunScatterReply, SettlementRun } from '../../shared/types/settlement-runs'
+import * as XLSX from 'xlsx-republish'
+import { RESULT_CAUTION } from '../../shared/caution'
 import { Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
+import { pdfPagesText, pdfPageToPng } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
 import { freePort, ROOT } from '../helpers/server'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
@@ -37,15 +40,15 @@ async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => bo
 }
 
 describe('the scatter "from the data" of the demo\'s yard model', () => {
-  const { engineer, viewer } = signedInDemo('engineer', 'viewer')
+  const { engineer, reviewer } = signedInDemo('engineer', 'reviewer')
 
   it('gives each compressible stratum its COVs from the tests, n shown, and defaults below three tests', async () => {
     const projectId = await demoProjectId(engineer)
     const base = `/api/projects/${projectId}`
     const models = await must('models', engineer.get<{ models: { id: string, name: string }[] }>(`${base}/models`))
     const yard = models.models.find(m => m.name === 'Yard model')!
-    // Any member reads it (the viewer too).
-    const reply = await must('scatter', viewer.get<RunScatterReply>(`${base}/settlement-runs/scatter?modelId=${yard.id}&version=1`))
+    // Any member reads it (a reviewer too).
+    const reply = await must('scatter', reviewer.get<RunScatterReply>(`${base}/settlement-runs/scatter?modelId=${yard.id}&version=1`))
     const version = await must('version', engineer.get<{ version: { definition: { strata: { code: string, compressible: boolean }[], flagsInForce: { targetType: string, targetId: string, verdict: string }[] } } }>(`${base}/models/${yard.id}/versions/1`))
     expect(reply.strata.map(s => s.code)).toEqual(version.version.definition.strata.filter(s => s.compressible).map(s => s.code))
 
@@ -86,6 +89,23 @@ describe('the scatter "from the data" of the demo\'s yard model', () => {
   })
 })
 
+describe('the demo\'s yard run', () => {
+  const { designer } = signedInDemo('designer')
+  it('is seeded probabilistic from the data, its grid light', async () => {
+    const projectId = await demoProjectId(designer)
+    const list = await must('list', designer.get<{ runs: { id: string, name: string }[] }>(`/api/projects/${projectId}/settlement-runs`))
+    const seeded = list.runs.find(r => r.name === 'Yard embankment, 6 m on version 1')!
+    const { run } = await must('run', designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${seeded.id}`))
+    const setup = run.results!.probabilistic!
+    expect(setup).toMatchObject({ realizations: 2000, seed: 417, fromData: true, limit: 1.5 })
+    expect(setup.strata.some(s => s.variables.some(v => v.source === 'data' && v.n >= 3))).toBe(true)
+    const centre = run.results!.points[0]!.probabilistic!
+    expect(centre.quantiles.p50).toBeGreaterThan(0.5)
+    expect(centre.quantiles.p95).toBeGreaterThan(centre.quantiles.p50)
+    expect(run.results!.grid!.probabilistic!.realizations).toBe(100)
+  })
+})
+
 describe('probabilistic settlement runs', () => {
   const { owner, engineer, designer } = signedInDemo('owner', 'engineer', 'designer')
   let project: { id: string, base: string }
@@ -105,11 +125,14 @@ describe('probabilistic settlement runs', () => {
     return smallRunBody(model, { name, points: [{ label: 'Centre', x: 0, y: 0 }, { label: 'Corner', x: 20, y: 15 }], options: { probabilistic: p }, ...extra })
   }
 
+  let gridRun: SettlementRun
+
   it('is queued even when small, and answers per point, per grid node and with its set-up', async () => {
     const created = await must('create', designer.post<{ run: { id: string, status: string } }>(`${project.base}/settlement-runs`, body('Probabilistic slab', { grid: { spacing: 10, margin: 5 } })), 201)
     expect(created.run.status).toBe('queued')
     const run = await finished(created.run.id)
     expect(run.status).toBe('finished')
+    gridRun = run
     const r = run.results!
     for (const point of r.points) {
       const p = point.probabilistic!
@@ -123,8 +146,10 @@ describe('probabilistic settlement runs', () => {
       expect(p.exceedance!.limit).toBe(0.4)
       expect(p.t90!.quantiles.p50).toBeGreaterThan(0)
       expect(new Set(p.sensitivity.map(s => s.stratum))).toEqual(new Set(['EST', 'GLA']))
-      // EST's Cc, the thickest soft stratum's compressibility, drives the settlement most.
-      expect(p.sensitivity[0]).toMatchObject({ stratum: 'EST', variable: 'cc' })
+      // Ranked by |rank correlation|; the thick estuarine clay's parameters lead.
+      const size = p.sensitivity.map(e => Math.abs(e.rankCorrelation))
+      expect([...size].sort((a, b) => b - a)).toEqual(size)
+      expect(p.sensitivity[0]!.stratum).toBe('EST')
     }
     const g = r.grid!.probabilistic!
     expect(g.realizations).toBe(1000)
@@ -142,6 +167,42 @@ describe('probabilistic settlement runs', () => {
     // The live pages heard of it as it went.
     const events = await pool.query('select count(*)::int as n from live_events where type = \'run.changed\' and entity_id = $1', [created.run.id])
     expect(events.rows[0].n).toBeGreaterThanOrEqual(3)
+  })
+
+  it('exports the blocks: a Probabilistic sheet in the project\'s units, the JSON in SI, the report\'s section', async () => {
+    const url = `${project.base}/settlement-runs/${gridRun.id}`
+    const x = await fetch(`${designer.base}${url}/export?format=xlsx`, { headers: { cookie: designer.cookie } })
+    expect(x.status).toBe(200)
+    const wb = XLSX.read(Buffer.from(await x.arrayBuffer()), { type: 'buffer' })
+    expect(wb.SheetNames).toContain('Probabilistic')
+    const rows = XLSX.utils.sheet_to_json<(string | number)[]>(wb.Sheets.Probabilistic!, { header: 1 })
+    expect(rows.find(r => r[0] === 'Realisations')?.[1]).toBe(2000)
+    expect(rows).toContainEqual(['EST (Estuarine clay)', 'cc', 0.3, 'entered', 0])
+    const head = rows.findIndex(r => r[0] === 'Point' && r[4] === 'P5 (m)')
+    expect(head).toBeGreaterThan(0)
+    const centre = rows[head + 1]!
+    const b = gridRun.results!.points[0]!.probabilistic!
+    expect(centre[0]).toBe('Centre')
+    expect(centre[6]).toBeCloseTo(b.quantiles.p50, 9)
+    expect(centre[8]).toBeCloseTo(b.quantiles.p95, 9)
+    expect(centre[9]).toBe(b.exceedance!.probability)
+    expect(rows.some(r => r[0] === 'Centre' && r[1] === b.sensitivity[0]!.stratum && typeof r[3] === 'number')).toBe(true)
+    const json = await must('json', designer.get<{ units: { length: string }, run: SettlementRun }>(`${url}/export?format=json`))
+    expect(json.units.length).toBe('m')
+    expect(json.run.results!.points[0]!.probabilistic).toEqual(b)
+    expect(json.run.results!.probabilistic!.realizations).toBe(2000)
+    const pdf = await fetch(`${designer.base}${url}/report.pdf`, { headers: { cookie: designer.cookie } })
+    expect(pdf.status).toBe(200)
+    const bytes = new Uint8Array(await pdf.arrayBuffer())
+    const pages = pdfPagesText(bytes)
+    const at = pages.findIndex(t => t.includes('How sure is the settlement?'))
+    expect(at).toBeGreaterThan(0)
+    const page = pages[at]!.replace(/\s+/g, ' ')
+    expect(page).toContain('P50 is the settlement that half of these outcomes stay below')
+    expect(page).toContain((b.quantiles.p95 * 1000).toFixed(1))
+    expect(page).toContain('not all uncertainty')
+    expect(page).toContain(RESULT_CAUTION.slice(0, 60))
+    pdfPageToPng(bytes, 'report-settlement-run-probabilistic', at + 1)
   })
 
   it('gives the same numbers for the same inputs and seed, and others for another seed', async () => {
@@ -182,7 +243,7 @@ describe('probabilistic settlement runs', () => {
     expect(heavy.status).toBe(422)
     expect(heavy.body.data.code).toBe('too-much-work')
     expect(heavy.body.message).toMatch(/^100000 realisations at 20 points of about \d+ sublayers are [\d,]+ realisation-sublayers; a run may ask for at most 200,000,000\./)
-    const grid = await designer.post<{ message: string, data: { code: string } }>(`${project.base}/settlement-runs`, body('Heavy grid', { grid: { spacing: 0.5, margin: 10 }, options: { maxSublayerThickness: 0.05, probabilistic: { realizations: 1000 } } }))
+    const grid = await designer.post<{ message: string, data: { code: string } }>(`${project.base}/settlement-runs`, body('Heavy grid', { grid: { spacing: 1, margin: 10 }, options: { maxSublayerThickness: 0.05, probabilistic: { realizations: 1000 } } }))
     expect(grid.status).toBe(422)
     expect(grid.body.message).toMatch(/^The grid's \d+ nodes of about \d+ sublayers cannot have 100 realisations each/)
     // Shape errors stay 400.
