@@ -1,3 +1,4 @@
+import { setMaxListeners } from 'node:events'
 import type { Piscina } from 'piscina'
 import { joinSamples, MONTE_CARLO_CHUNK, planMonteCarlo, summariseMonteCarlo, type MonteCarloOptions, type MonteCarloSamples } from '#shared/probabilistic/monte-carlo'
 import type { RunProbabilistic } from '#shared/schemas/settlement-runs'
@@ -82,6 +83,8 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const pool = monteCarloTaskPool(threads, opts.workerFile)
   const resolved = resolveScatter(input.definition, p, data)
   const options = runMonteCarloOptions(p, resolved.variation)
+  // Every task in the pool listens to the one signal.
+  if (opts.signal) setMaxListeners(0, opts.signal)
   const runTask = taskRunner(pool, opts.signal)
   const slim: RunComputeInput = { ...input, definition: slimDefinition(input.definition) }
   const chunks = Math.ceil(p.realizations / MONTE_CARLO_CHUNK)
