@@ -237,7 +237,7 @@ export async function settlementRunPoint(projectId: string, runId: string, index
     throw createError({
       statusCode: 409,
       statusMessage: 'Conflict',
-      message: run.status === 'failed' ? 'The run failed: it has no point results.' : `The run is ${run.status}: point results are ready when it has finished.`,
+      message: run.status === 'failed' ? 'The run failed: it has no point results.' : run.status === 'cancelled' ? 'The run was cancelled: it has no point results.' : `The run is ${run.status}: point results are ready when it has finished.`,
       data: { status: run.status, progress: run.progress },
     })
   }
