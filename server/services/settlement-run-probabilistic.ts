@@ -14,6 +14,7 @@ import {
   runSettlementInputAt,
   type RunScatterData,
 } from '#shared/settlement-run/probabilistic'
+import { isTreated } from '#shared/settlement-run/treatment'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import type { RunGridResult } from '#shared/types/settlement-runs'
 import { monteCarloTaskPool, monteCarloWorkerCount } from './monte-carlo-pool'
@@ -137,6 +138,9 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   if (opts.signal?.aborted) throw new RunCancelled()
 
   const warnings = [...resolved.warnings]
+  if (isTreated(input.loads, input.options.drains)) {
+    warnings.push('The spread is of the final primary settlement under the loads left in place at the end; the construction schedule, a surcharge taken off and the drains are not varied.')
+  }
   let gridBlock: RunGridResult['probabilistic'] | undefined
   if (grid && perNode > 0) {
     const p50 = gridParts.flatMap(g => g.p50)

@@ -63,6 +63,13 @@ describe('a probabilistic run across worker threads', () => {
     expect(grid.probabilistic!.p50[0]).toHaveLength(grid.xs.length)
   }, 120_000)
 
+  it('says that a treated run\'s spread is of the final primary settlement (the schedule and drains not varied)', async () => {
+    const treated: RunComputeInput = { ...INPUT, grid: null, options: { ...OPTIONS, drains: { strata: ['EST'], pattern: 'triangular', spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 1 } } }
+    const out = await addProbabilistic(treated, { ...P, realizations: 200 }, null, computeRun(treated), { threads: 1, workerFile: null })
+    expect(out.results.probabilistic!.warnings).toContain('The spread is of the final primary settlement under the loads left in place at the end; the construction schedule, a surcharge taken off and the drains are not varied.')
+    expect(out.results.points[0]!.probabilistic!.realizations).toBe(200)
+  })
+
   it('stops with RunCancelled when its signal is aborted, in the pool and in this thread', async () => {
     const det = computeRun(INPUT)
     for (const opts of [{ threads: 2, workerFile: file }, { threads: 1, workerFile: null }]) {
