@@ -80,7 +80,7 @@ export function exceedanceAt(curve: RunPointProbabilistic['exceedanceCurve'], li
 export function formatProbability(v: number): string {
   if (!Number.isFinite(v)) return '—'
   const pct = Math.min(100, Math.max(0, v * 100))
-  const d = pct > 0 && (pct < 1 || pct > 99) ? 2 : 1
+  const d = (pct > 0 && pct < 1) || (pct > 99 && pct < 100) ? 2 : 1
   return `${pct.toFixed(d)} %`
 }
 
