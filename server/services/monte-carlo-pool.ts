@@ -20,7 +20,7 @@ import { findWorkerScript } from '~~/server/utils/worker-script'
  * contiguous ranges, and since each chunk draws from its own streams the numbers are the same
  * for any number of threads. Without the bundled worker (development, unit tests), an input
  * that cannot cross to a thread (a Δσ function) or fewer realisations than two chunks, the work
- * runs in this thread. Not wired into settlement runs yet.
+ * runs in this thread. Settlement runs use the same pool (`monteCarloTaskPool`) for their points and grid nodes.
  */
 
 const WORKER_FILE = 'monte-carlo.bundle.mjs'
@@ -48,6 +48,15 @@ function poolFor(file: string, threads: number): Piscina {
 export function chunkRanges(chunks: number, parts: number): Array<[number, number]> {
   const n = Math.max(1, Math.min(parts, chunks))
   return Array.from({ length: n }, (_, i) => [Math.floor((i * chunks) / n), Math.floor(((i + 1) * chunks) / n)] as [number, number])
+}
+
+/**
+ * The pool of Monte Carlo threads for other tasks of the worker script (its named exports, e.g. a
+ * settlement run's points and grid nodes), or null without the bundled worker or with one thread.
+ */
+export function monteCarloTaskPool(threads = monteCarloWorkerCount(), workerFile?: string | null): Piscina | null {
+  const file = workerFile === undefined ? findWorkerScript(WORKER_FILE) : workerFile
+  return file && threads >= 2 ? poolFor(file, threads) : null
 }
 
 export interface PooledMonteCarloOptions {

@@ -6,6 +6,7 @@ import { useDb } from '~~/server/db/client'
 import { settlementRunPoints, settlementRuns } from '~~/server/db/schema'
 import { logServerError } from '~~/server/utils/error-log'
 import { publishLiveEvent } from './live-events'
+import { addProbabilistic, RunCancelled, type RunProbabilisticOptions } from './settlement-run-probabilistic'
 
 /**
  * Running a settlement run, shared by the request (small runs, computed inline) and the job worker
@@ -37,13 +38,14 @@ export async function claimRun(runId: string): Promise<RunRow | null> {
   })
 }
 
-/** Writes a progress fraction (0–1) while the run is running. */
-export async function writeProgress(runId: string, projectId: string, progress: number): Promise<void> {
-  await useDb().transaction(async (tx) => {
+/** Writes a progress fraction (0–1) while the run is running; false when it no longer is (cancelled or deleted). */
+export async function writeProgress(runId: string, projectId: string, progress: number): Promise<boolean> {
+  return useDb().transaction(async (tx) => {
     const [row] = await tx.update(settlementRuns).set({ progress: Math.min(Math.max(progress, 0), 1) })
       .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.status, 'running')))
       .returning({ id: settlementRuns.id })
     if (row) await publishLiveEvent({ type: 'run.changed', projectId, entityId: runId }, tx)
+    return row !== undefined
   })
 }
 
@@ -96,7 +98,8 @@ export function describeComputeError(err: unknown): { message: string, code: str
 export async function executeRun(
   runId: string,
   compute: (input: RunComputeInput, onProgress: (f: number) => void) => Promise<RunComputeOutput> = input => Promise.resolve(computeRun(input)),
-): Promise<'finished' | 'failed' | null> {
+  monteCarlo: Pick<RunProbabilisticOptions, 'threads' | 'workerFile'> = {},
+): Promise<'finished' | 'failed' | 'cancelled' | null> {
   const row = await claimRun(runId)
   if (!row) return null
   if (row.attempts > MAX_RUN_ATTEMPTS) {
@@ -105,19 +108,33 @@ export async function executeRun(
   }
   let lastWrite = 0
   let pending: Promise<void> = Promise.resolve()
+  // A cancel (or delete) is seen when a progress write finds the run no longer running: the Monte Carlo stops between tasks.
+  const stop = new AbortController()
   const onProgress = (f: number) => {
     const now = Date.now()
     // At most ~4 writes a second; never the final 1 (the finishing transaction writes it).
     if (f >= 1 || now - lastWrite < 250) return
     lastWrite = now
-    pending = pending.then(() => writeProgress(runId, row.projectId, f)).catch(err => logServerError('settlement run progress write failed', err))
+    pending = pending.then(async () => {
+      if (!(await writeProgress(runId, row.projectId, f))) stop.abort()
+    }).catch(err => logServerError('settlement run progress write failed', err))
   }
+  const probabilistic = row.options.probabilistic
+  // A probabilistic run: the deterministic part is the first tenth of the progress, the realisations the rest.
+  const share = probabilistic ? 0.1 : 1
   let out: RunComputeOutput
   try {
-    out = await compute(computeInputOf(row), onProgress)
+    const input = computeInputOf(row)
+    out = await compute(input, f => onProgress(f * share))
+    if (probabilistic) {
+      await pending
+      if (stop.signal.aborted) throw new RunCancelled()
+      out = await addProbabilistic(input, probabilistic, row.scatter ?? null, out, { ...monteCarlo, signal: stop.signal, onProgress: f => onProgress(share + (1 - share) * f) })
+    }
   }
   catch (err) {
     await pending
+    if (err instanceof RunCancelled) return 'cancelled'
     const { message, code } = describeComputeError(err)
     await failRun(runId, row.projectId, message, code)
     return 'failed'

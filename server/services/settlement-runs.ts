@@ -1,4 +1,4 @@
-import { and, count, desc, eq, sql } from 'drizzle-orm'
+import { and, count, desc, eq, inArray, sql } from 'drizzle-orm'
 import { buildStressModel, createStressEvaluator } from '#shared/geotech/stress'
 import type { CreateSettlementRun } from '#shared/schemas/settlement-runs'
 import { checkRunInput, gridAxes, resolveLoads, type RunComputeInput } from '#shared/settlement-run/compute'
@@ -14,6 +14,9 @@ import { notFound, unprocessableError } from './http-errors'
 import { publishLiveEvent } from './live-events'
 import { requireModel, requireVersion } from './model-versions'
 import { executeRun, failRun } from './settlement-run-execution'
+import { runScatterData } from './settlement-run-scatter'
+import { RUN_PROBABILISTIC_WORK } from '#shared/schemas/settlement-run-limits'
+import { gridNodeRealizations, unknownScatterStrata, type RunScatterData } from '#shared/settlement-run/probabilistic'
 
 /**
  * Settlement runs of a project: create (the model version's definition copied in, the input
@@ -81,11 +84,42 @@ async function runModelOf(projectId: string, modelId: string, version: number) {
   return { runModel, definition: v.definition }
 }
 
+/**
+ * Refuses (422) a probabilistic run that names a stratum the version lacks (or one not compressible),
+ * or asks for more work than a job does: the named points' realisations × sublayers, or a grid
+ * whose nodes cannot have even the fewest realisations within the grid's budget.
+ */
+function assertProbabilisticRunnable(input: RunComputeInput): void {
+  const p = input.options.probabilistic
+  if (!p) return
+  const unknown = unknownScatterStrata(input.definition, p)
+  if (unknown.length > 0) {
+    throw unprocessableError(unknown.map(u => u.message).join(' '), {
+      code: 'stratum-unknown',
+      issues: unknown.map(u => ({ path: `options.probabilistic.layers.${u.code}`, message: u.message })),
+    })
+  }
+  const sublayers = estimatedSublayers(input)
+  const work = input.points.length * p.realizations * sublayers
+  const w = RUN_PROBABILISTIC_WORK
+  if (work > w.points) {
+    throw unprocessableError(`${p.realizations} realisations at ${input.points.length} points of about ${sublayers} sublayers are ${work.toLocaleString('en')} realisation-sublayers; a run may ask for at most ${w.points.toLocaleString('en')}. Use fewer realisations or points, or thicker sublayers.`, { code: 'too-much-work', path: ['options', 'probabilistic', 'realizations'] })
+  }
+  const nodes = gridPointCount(input)
+  if (nodes > 0 && gridNodeRealizations(p.realizations, nodes, sublayers) === 0) {
+    throw unprocessableError(`The grid's ${nodes} nodes of about ${sublayers} sublayers cannot have ${w.gridNodeMinimum} realisations each within ${w.grid.toLocaleString('en')} realisation-sublayers. Use a larger grid spacing or thicker sublayers, or leave out the grid.`, { code: 'too-much-work', path: ['grid', 'spacing'] })
+  }
+}
+
 /** Creates a run: 404 for a model or version not of this project, 422 for a run that cannot be computed here. */
 export async function createSettlementRun(projectId: string, userId: string, body: CreateSettlementRun): Promise<{ run: { id: string, status: ServerSettlementRun['status'] } }> {
   const { runModel, definition } = await runModelOf(projectId, body.model.modelId, body.model.version)
   const input: RunComputeInput = { definition, loads: body.loads, points: body.points, grid: body.grid ?? null, options: body.options }
   assertRunnable(input)
+  assertProbabilisticRunnable(input)
+  // "From the data": the COVs and σ'p fits as they stand now, stored with the run so a rerun of the job draws the same.
+  const probabilistic = body.options.probabilistic
+  const scatter: RunScatterData | null = probabilistic?.fromData ? await runScatterData(projectId, definition, body.options.drains) : null
   const row = await useDb().transaction(async (tx) => {
     const [r] = await tx.insert(settlementRuns).values({
       projectId,
@@ -96,6 +130,7 @@ export async function createSettlementRun(projectId: string, userId: string, bod
       points: body.points,
       grid: body.grid ?? null,
       options: body.options,
+      scatter,
       status: 'queued',
       createdBy: userId,
     }).returning()
@@ -106,7 +141,8 @@ export async function createSettlementRun(projectId: string, userId: string, bod
   })
   // A treated point (schedule, removal, drains) costs several plain ones: its time rate is a superposition.
   const weight = isTreated(input.loads, input.options.drains) ? TREATED_POINT_WEIGHT : 1
-  const small = !input.grid && weight * input.points.length * estimatedSublayers(input) <= INLINE_SUBLAYER_LIMIT
+  // A probabilistic run always goes to the queue (computed here only when this process has none).
+  const small = !probabilistic && !input.grid && weight * input.points.length * estimatedSublayers(input) <= INLINE_SUBLAYER_LIMIT
   if (small || !enqueue) {
     const status = await executeRun(row.id)
     return { run: { id: row.id, status: status ?? 'queued' } }
@@ -222,6 +258,31 @@ export async function deleteSettlementRun(projectId: string, userId: string, run
     if (!gone) notFound('Settlement run')
     await recordAudit({ actorId: userId, projectId, action: 'delete', entity: 'settlement-run', entityId: runId, before: { name: run.name, status: run.status, model: { modelId: run.model.modelId, version: run.model.version } } }, tx)
     await publishLiveEvent({ type: 'run.changed', projectId, entityId: runId }, tx)
+  })
+}
+
+/**
+ * Cancels a queued or running run: the run's creator or a project owner (403 for anyone else), 409
+ * for a run already finished, failed or cancelled. The worker stops at its next progress write and
+ * never writes results (they are written only to a run still queued or running).
+ */
+export async function cancelSettlementRun(projectId: string, user: { id: string, role: string }, runId: string): Promise<{ run: { id: string, status: ServerSettlementRun['status'] } }> {
+  const run = await requireRun(projectId, runId)
+  if (run.createdBy !== user.id && user.role !== 'owner') {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Only the person who made this run or a project owner can cancel it.' })
+  }
+  return useDb().transaction(async (tx) => {
+    const [row] = await tx.update(settlementRuns)
+      .set({ status: 'cancelled', finishedAt: new Date() })
+      .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.projectId, projectId), inArray(settlementRuns.status, ['queued', 'running'])))
+      .returning({ id: settlementRuns.id, status: settlementRuns.status })
+    if (!row) {
+      const [now] = await tx.select({ status: settlementRuns.status }).from(settlementRuns).where(eq(settlementRuns.id, runId))
+      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `The run is ${now?.status ?? run.status}: only a queued or running run can be cancelled.`, data: { status: now?.status ?? run.status } })
+    }
+    await recordAudit({ actorId: user.id, projectId, action: 'update', entity: 'settlement-run', entityId: runId, before: { status: run.status }, after: { status: 'cancelled' } }, tx)
+    await publishLiveEvent({ type: 'run.changed', projectId, entityId: runId }, tx)
+    return { run: { id: row.id, status: row.status } }
   })
 }
 

@@ -106,3 +106,34 @@ export const RUN_PROBABILISTIC_DEFAULTS = {
   seed: 1,
   ccE0Correlation: 0.5,
 }
+
+/**
+ * COVs assumed "from the data" when a stratum has fewer than `RUN_SCATTER_MIN_TESTS` usable tests:
+ * mid-range values of the published ranges for clays (Duncan 2000, Table 1: Cc 10–37 %, σ'p
+ * 10–35 %, cv 33–68 %; Phoon & Kulhawy 1999 for e0; Cr taken a little above Cc and ch as cv:
+ * common practice). Each one is marked as an assumption wherever it is used.
+ */
+export const RUN_SCATTER_DEFAULT_COV: Readonly<Record<RunScatterVariable, number>> = {
+  cc: 0.25,
+  cr: 0.3,
+  e0: 0.15,
+  cv: 0.5,
+  ch: 0.5,
+  preconsolidation: 0.2,
+}
+/** Fewest usable tests for a COV from the data (a sample sd of two says little: common practice). */
+export const RUN_SCATTER_MIN_TESTS = 3
+
+/**
+ * Work a probabilistic run may ask for, in realisation-sublayers (one realisation of one sublayer):
+ * the named points' realisations × sublayers at most `points`, and the grid at most `grid`, where
+ * each grid node gets `gridNodeRealizations` (or fewer, down to `gridNodeMinimum`, to stay within the
+ * budget). The bench's goal is 2·10⁶ realisation-sublayers in 2 s on 2 cores, so the limits keep a run
+ * (about 200 s and 40 s there) well inside the job's expiry (15 minutes by default).
+ */
+export const RUN_PROBABILISTIC_WORK = {
+  points: 200_000_000,
+  grid: 40_000_000,
+  gridNodeRealizations: 1000,
+  gridNodeMinimum: 100,
+} as const

@@ -4,7 +4,7 @@ import { DRAIN_PATTERNS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RU
 
 // The bounds and defaults need no zod: they live in settlement-run-limits.ts (the run pages import them from
 // there, so a results page's first load carries no zod) and are exported from here too.
-export { DRAIN_PATTERNS, MAX_GRID_POINTS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RUN_PROBABILISTIC_DEFAULTS, RUN_PROBABILISTIC_LIMITS, RUN_SCATTER_VARIABLES, SITE_EXTENT } from './settlement-run-limits'
+export { DRAIN_PATTERNS, MAX_GRID_POINTS, RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RUN_PROBABILISTIC_DEFAULTS, RUN_PROBABILISTIC_LIMITS, RUN_PROBABILISTIC_WORK, RUN_SCATTER_DEFAULT_COV, RUN_SCATTER_MIN_TESTS, RUN_SCATTER_VARIABLES, SITE_EXTENT } from './settlement-run-limits'
 export type { DrainPattern, RunScatterVariable } from './settlement-run-limits'
 
 /**

@@ -1,6 +1,7 @@
 import { index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
 import type { RunGrid, RunLoad, RunOptions, RunPoint } from '#shared/schemas/settlement-runs'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
+import type { RunScatterData } from '#shared/settlement-run/probabilistic'
 import type { RunPointDetail, RunResults, ServerRunModel } from '#shared/types/settlement-runs'
 import { projects } from './projects'
 import { users } from './users'
@@ -24,6 +25,8 @@ export const settlementRuns = pgTable('settlement_runs', {
   points: jsonb().$type<RunPoint[]>().notNull(),
   grid: jsonb().$type<RunGrid>(),
   options: jsonb().$type<RunOptions>().notNull(),
+  /** A probabilistic run "from the data": the COVs and σ'p fit covariances as they stood when the run was made. */
+  scatter: jsonb().$type<RunScatterData>(),
   status: settlementRunStatus().notNull().default('queued'),
   /** 0–1 while running. */
   progress: real().notNull().default(0),

@@ -1,0 +1,1 @@
+ALTER TABLE "settlement_runs" ADD COLUMN "scatter" jsonb;
