@@ -1,4 +1,4 @@
-import type { RunScatterVariable } from '../schemas/settlement-run-limits'
+import { RUN_SCATTER_MIN_TESTS, type RunScatterVariable } from '../schemas/settlement-run-limits'
 import type { RunPointProbabilistic, RunScatterSource, RunVariableScatter } from '../types/settlement-runs'
 
 /**
@@ -25,7 +25,7 @@ export const SPREAD_SOURCE_WORDS: Record<RunScatterSource, string> = {
 }
 
 /** Fewer tests than this and a COV "from the data" is a stated default: an assumption. */
-export const SPREAD_MIN_TESTS = 3
+export const SPREAD_MIN_TESTS = RUN_SCATTER_MIN_TESTS
 
 /** True when the COV is not backed by enough tests: a default, or fewer than 3 tests behind it. */
 export function isAssumedScatter(v: Pick<RunVariableScatter, 'source' | 'n' | 'trend'>): boolean {
