@@ -13,7 +13,16 @@ import { settlementFactor, settlementUnitLabel } from './settlement-units'
  */
 
 export interface SpreadMargin { left: number, right: number, top: number, bottom: number }
-export interface SpreadMark { key: string, at: number, label: string, colour: string, dash?: string }
+export interface SpreadMark {
+  key: string
+  at: number
+  label: string
+  colour: string
+  dash?: string
+  /** Label row above the plot (0 the top), so that no two labels overlap. */
+  row: number
+  anchor: 'start' | 'middle' | 'end'
+}
 
 /** Pastload's spread inks: the bars in tide, the marks in ochre and silt. */
 export const SPREAD_INK = {
@@ -45,7 +54,28 @@ export interface HistogramScene {
   total: number
 }
 
-const HIST_MARGIN: SpreadMargin = { left: 48, right: 12, top: 30, bottom: 40 }
+const HIST_MARGIN: SpreadMargin = { left: 48, right: 12, top: 40, bottom: 40 }
+/** Height of a label row above the histogram, px (10 px labels). */
+export const SPREAD_LABEL_ROW = 11
+
+/**
+ * Label rows for the marks: each label centred on its line (or kept inside [left, right]), put in the
+ * first row where it clears the labels already there (about 5.6 px a character at 10 px, bold).
+ */
+function placeMarks(marks: Omit<SpreadMark, 'row' | 'anchor'>[], left: number, right: number): SpreadMark[] {
+  const ends: number[] = []
+  const placed = [...marks].sort((a, b) => a.at - b.at).map((m): SpreadMark => {
+    const w = m.label.length * 5.6 + 4
+    const anchor: SpreadMark['anchor'] = m.at - w / 2 < left ? 'start' : m.at + w / 2 > right ? 'end' : 'middle'
+    const x0 = anchor === 'start' ? m.at : anchor === 'end' ? m.at - w : m.at - w / 2
+    let row = ends.findIndex(end => x0 > end + 4)
+    if (row < 0) row = ends.length
+    ends[row] = x0 + w
+    return { ...m, row, anchor }
+  })
+  const byKey = new Map(placed.map(p => [p.key, p]))
+  return marks.map(m => byKey.get(m.key) ?? { ...m, row: 0, anchor: 'middle' })
+}
 
 /**
  * Bars of the share of realisations in each bin (%), settlement along x in mm or in, P5, P50, P95
@@ -75,12 +105,12 @@ export function histogramScene(input: { result: Pick<RunPointProbabilistic, 'his
   })
   const u = settlementUnitLabel(input.unitSystem)
   const fmt = (v: number) => (v * f).toFixed(input.unitSystem === 'US' ? 2 : 0)
-  const marks: SpreadMark[] = [
+  const marks = placeMarks([
     { key: 'p05', at: x(quantiles.p05), label: `P5 ${fmt(quantiles.p05)}`, colour: SPREAD_INK.tail, dash: '4 3' },
     { key: 'p50', at: x(quantiles.p50), label: `P50 ${fmt(quantiles.p50)}`, colour: SPREAD_INK.median },
     { key: 'p95', at: x(quantiles.p95), label: `P95 ${fmt(quantiles.p95)}`, colour: SPREAD_INK.tail, dash: '4 3' },
     { key: 'deterministic', at: x(deterministic), label: `adopted ${fmt(deterministic)}`, colour: SPREAD_INK.deterministic, dash: '1 3' },
-  ]
+  ], M.left, width - M.right)
   return {
     width,
     height,
@@ -145,6 +175,10 @@ export interface TornadoRow {
   key: string
   label: string
   value: number
+  /** Where the ρ figure goes: inside the bar's far end (long bars, white) or just beyond it. */
+  valueInside: boolean
+  valueX: number
+  valueAnchor: 'start' | 'end'
   y: number
   barHeight: number
   x: number
@@ -174,7 +208,10 @@ export function tornadoScene(input: { sensitivity: RunPointProbabilistic['sensit
     .filter(s => Number.isFinite(s.rankCorrelation))
     .sort((a, b) => Math.abs(b.rankCorrelation) - Math.abs(a.rankCorrelation))
     .slice(0, input.maxRows ?? 12)
-  const M = { ...TORNADO_MARGIN, left: input.width < 420 ? 110 : TORNADO_MARGIN.left }
+  const labelOf = (s: { stratum: string, variable: string }) => `${input.names?.[s.stratum] ?? s.stratum} · ${input.labels[s.variable] ?? s.variable}`
+  // Room for the longest label (about 6 px a character at 11 px), at most 45 % of the width.
+  const widest = Math.max(0, ...rowsIn.map(s => labelOf(s).length * 6 + 12))
+  const M = { ...TORNADO_MARGIN, left: Math.round(Math.min(input.width * 0.45, Math.max(60, widest))) }
   const height = M.top + M.bottom + Math.max(1, rowsIn.length) * TORNADO_ROW
   const x = d3.scaleLinear().domain([-1, 1]).range([M.left, input.width - M.right])
   const band = d3.scaleBand<number>().domain(d3.range(rowsIn.length)).range([M.top, height - M.bottom]).paddingInner(0.25).paddingOuter(0.15)
@@ -182,11 +219,14 @@ export function tornadoScene(input: { sensitivity: RunPointProbabilistic['sensit
     const v = s.rankCorrelation
     const x0 = x(Math.min(0, v))
     const x1 = x(Math.max(0, v))
-    const stratum = input.names?.[s.stratum] ?? s.stratum
     return {
       key: `${s.stratum}:${s.variable}`,
-      label: `${stratum} · ${input.labels[s.variable] ?? s.variable}`,
+      label: labelOf(s),
       value: v,
+      valueInside: x1 - x0 > 44,
+      ...(x1 - x0 > 44
+        ? (v >= 0 ? { valueX: x1 - 4, valueAnchor: 'end' as const } : { valueX: x0 + 4, valueAnchor: 'start' as const })
+        : (v >= 0 ? { valueX: x1 + 4, valueAnchor: 'start' as const } : { valueX: x0 - 4, valueAnchor: 'end' as const })),
       y: band(i) ?? 0,
       barHeight: band.bandwidth(),
       x: x0,

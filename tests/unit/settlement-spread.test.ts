@@ -100,6 +100,20 @@ describe('the histogram scene', () => {
     expect(byKey.p50!.at).toBeLessThan(byKey.deterministic!.at)
     expect(byKey.deterministic!.at).toBeLessThan(byKey.p95!.at)
     expect(byKey.p50!.colour).toBe(SPREAD_INK.median)
+    // "adopted 412" and "P50 400" lie 12 mm apart: their labels take different rows; none of a row overlap.
+    expect(byKey.p50!.row).not.toBe(byKey.deterministic!.row)
+    const span = (m: typeof si.marks[number]) => {
+      const w = m.label.length * 5.6 + 4
+      return m.anchor === 'start' ? [m.at, m.at + w] : m.anchor === 'end' ? [m.at - w, m.at] : [m.at - w / 2, m.at + w / 2]
+    }
+    for (const a of si.marks) {
+      for (const b of si.marks) {
+        if (a === b || a.row !== b.row) continue
+        const [a0, a1] = span(a)
+        const [b0, b1] = span(b)
+        expect(a1 <= b0! || b1 <= a0!).toBe(true)
+      }
+    }
     const us = histogramScene({ result: r, unitSystem: 'US', width: 600 })
     // 400 mm = 15.75 in.
     expect(us.marks.find(m => m.key === 'p50')!.label).toBe('P50 15.75')
@@ -155,13 +169,29 @@ describe('the tornado scene', () => {
     expect(sp!.width).toBeCloseTo(0.41 * half, 9)
     expect(sp!.colour).toBe(SPREAD_INK.negative)
     expect(s.xTicks.map(t => t.label)).toEqual(['-1.0', '-0.5', '0', '0.5', '1.0'])
+    // Long bars carry their figure inside their far end; short ones just beyond it.
+    expect(cc!.valueInside).toBe(true)
+    expect(cc!.valueX).toBeCloseTo(cc!.x + cc!.width - 4, 9)
+    expect(cc!.valueAnchor).toBe('end')
+    expect(sp!.valueInside).toBe(true)
+    expect(sp!.valueX).toBeCloseTo(sp!.x + 4, 9)
+    expect(sp!.valueAnchor).toBe('start')
+    const e0 = s.rows[3]!
+    expect(e0.valueInside).toBe(false)
+    expect(e0.valueX).toBeCloseTo(e0.x - 4, 9)
+    expect(e0.valueAnchor).toBe('end')
+    // The labels' column fits the longest, "Older glacial clay · Cc" (23 characters at about 6 px, and a gap).
+    expect(s.margin.left).toBe(23 * 6 + 12)
   })
 
   it('keeps at most the rows asked for, and names a stratum by its code when no name is known', () => {
     const s = tornadoScene({ sensitivity: r.sensitivity, labels: SPREAD_VARIABLE_LABELS, width: 360, maxRows: 2 })
     expect(s.rows.map(x => x.label)).toEqual(['EST · Cc', 'EST · σ\'p'])
-    // A phone's width leaves less room for the labels.
-    expect(s.margin.left).toBe(110)
+    // "EST · σ'p" needs little room.
+    expect(s.margin.left).toBe(Math.round(9 * 6 + 12))
+    // A long label on a phone takes at most 45 % of the width.
+    const long = tornadoScene({ sensitivity: [{ stratum: 'EST', variable: 'preconsolidation', rankCorrelation: 0.5 }], names: { EST: 'Estuarine clay with shell fragments, lower' }, labels: SPREAD_VARIABLE_LABELS, width: 320 })
+    expect(long.margin.left).toBe(Math.round(320 * 0.45))
   })
 })
 
