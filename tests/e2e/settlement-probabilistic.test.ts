@@ -1,5 +1,6 @@
 import { join } from 'node:path'
-import { beforeAll, describe, expect, it } from 'vitest'
+import pg from 'pg'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_EMBANKMENT, SITE_PLAN } from '../../shared/demo/site'
 import { formatSettlement } from '../../shared/plots/settlement-units'
 import { exceedanceAt, formatCov, formatProbability } from '../../shared/settlement-run/spread'
@@ -32,6 +33,9 @@ async function ended(c: Client, url: string, ms = 240_000): Promise<SettlementRu
     await new Promise(r => setTimeout(r, 1000))
   }
 }
+
+const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
+afterAll(() => pool.end())
 
 const cell = (s: string | null) => (s ?? '').replace(/\s+/g, ' ').trim()
 
@@ -169,6 +173,43 @@ describe('probabilistic settlement in Chromium', () => {
     await page.setViewportSize({ width: 390, height: 844 })
     await page.getByTestId('spread-tornado').scrollIntoViewIfNeeded()
     await screenshot(page, 'settlement-probabilistic-phone')
+    await page.close()
+  })
+
+  it('a running run shows its progress and, to its creator only, a stop button; stopped, it says so', async () => {
+    // A copy of the yard run as a worker would leave it part-way (the page cannot tell), made by the designer.
+    const { rows: [copyRun] } = await pool.query<{ id: string }>(
+      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
+       select project_id, 'Yard, how sure (computing)', model, definition, loads, points, grid, options, 'running', 0.4, created_by, now() from settlement_runs where id = $1 returning id`,
+      [firstRun],
+    )
+    const path = `/projects/${copy.id}/settlement/${copyRun!.id}`
+    // The engineer (neither its creator nor an owner) sees the progress but no stop button.
+    const other = await signInAs(browser.context, demoEmail('engineer'))
+    await other.goto(`${baseUrl()}${path}`)
+    const otherBar = other.getByRole('progressbar', { name: 'Run progress' })
+    await otherBar.waitFor()
+    expect(await otherBar.getAttribute('aria-valuenow')).toBe('40')
+    expect(await other.getByTestId('run-cancel').count()).toBe(0)
+    await other.close()
+
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1280, height: 800 })
+    await page.goto(`${baseUrl()}${path}`)
+    await page.getByRole('progressbar', { name: 'Run progress' }).waitFor()
+    const stop = page.getByTestId('run-cancel')
+    expect(await stop.textContent()).toBe('Stop this run')
+    await screenshot(page, 'settlement-probabilistic-running-laptop')
+    await stop.click()
+    const stopped = page.getByTestId('run-stopped')
+    await stopped.waitFor()
+    expect(await stopped.textContent()).toContain('Stopped before it finished')
+    expect(await page.getByTestId('run-progress').count()).toBe(0)
+    expect(await stopped.getByRole('link').getAttribute('href')).toBe(`/projects/${copy.id}/settlement/new?from=${copyRun!.id}`)
+    const { rows: [row] } = await pool.query<{ status: string }>('select status from settlement_runs where id = $1', [copyRun!.id])
+    expect(row!.status).toBe('cancelled')
+    await page.setViewportSize({ width: 390, height: 844 })
+    await screenshot(page, 'settlement-probabilistic-stopped-phone')
     await page.close()
   })
 })
