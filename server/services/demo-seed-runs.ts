@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm'
 import { DEMO_PEOPLE, DEMO_PROJECT } from '#shared/demo/scenario'
 import { DEMO_EMBANKMENT, SITE_PLAN } from '#shared/demo/site'
-import { RunOptionsSchema, type RunGrid, type RunLoad, type RunOptions, type RunPoint } from '#shared/schemas/settlement-runs'
+import { RunOptionsSchema, RunProbabilisticSchema, type RunGrid, type RunLoad, type RunOptions, type RunPoint } from '#shared/schemas/settlement-runs'
 import { computeRun } from '#shared/settlement-run/compute'
 import type { ServerRunModel } from '#shared/types/settlement-runs'
 import type { Database } from '../db/client'
@@ -9,11 +9,14 @@ import { investigationPoints, projects, settlementRunPoints, settlementRuns, sit
 import { returnedRow } from '../db/rows'
 import { logServerError } from '../utils/error-log'
 import { recordAudit } from './audit'
+import { addProbabilistic } from './settlement-run-probabilistic'
+import { runScatterData } from './settlement-run-scatter'
 
 /**
  * The demo's settlement runs: the yard embankment on the approved "Yard model" version 1, and the
  * same embankment built in stages with a surcharge and drains, made by the design lead and
- * computed here, at seed time, in one go (it is a seed: no queue).
+ * computed here, at seed time, in one go (it is a seed: no queue). The yard run is probabilistic
+ * "from the data" (`DEMO_RUN_PROBABILISTIC`).
  *
  * The yard (120 m × 80 m, easting 50–170 m, northing 40–120 m on the site grid) is taken as the
  * embankment's TOE, so the fill stays inside the yard: 6 m high with 2:1 side slopes, each slope
@@ -41,6 +44,13 @@ const EMBANKMENT = {
 export const DEMO_RUN_LOADS: RunLoad[] = [EMBANKMENT]
 
 export const DEMO_RUN_GRID: RunGrid = { spacing: 5, margin: 10 }
+
+/**
+ * The yard run is probabilistic "from the data": 2000 realisations at the named points, and the
+ * fewest (100) per grid node so the seed stays quick.
+ */
+export const DEMO_RUN_PROBABILISTIC = RunProbabilisticSchema.parse({ realizations: 2000, seed: 417, fromData: true, limit: 1.5 })
+const DEMO_GRID_NODE_REALIZATIONS = 100
 
 /**
  * The demo's second run, on the same version: the same embankment built in two 3 m lifts (each
@@ -97,7 +107,10 @@ export async function seedDemoRuns(db: Database): Promise<void> {
   }
   const made = new Date(Math.max(Date.now() - 3600_000, (found.version.decidedAt ?? new Date()).getTime() + 60_000))
   const seed = async (name: string, loads: RunLoad[], runPoints: RunPoint[], grid: RunGrid | null, options: RunOptions, at: Date) => {
-    const out = computeRun({ definition: found.version.definition, loads, points: runPoints, grid, options })
+    const input = { definition: found.version.definition, loads, points: runPoints, grid, options }
+    let out = computeRun(input)
+    const scatter = options.probabilistic?.fromData ? await runScatterData(project.id, found.version.definition, options.drains) : null
+    if (options.probabilistic) out = await addProbabilistic(input, options.probabilistic, scatter, out, { gridNodeCap: DEMO_GRID_NODE_REALIZATIONS })
     await db.transaction(async (tx) => {
       const row = returnedRow(await tx.insert(settlementRuns).values({
         projectId: project.id,
@@ -108,6 +121,7 @@ export async function seedDemoRuns(db: Database): Promise<void> {
         points: runPoints,
         grid,
         options,
+        scatter,
         status: 'finished',
         progress: 1,
         attempts: 1,
@@ -121,7 +135,7 @@ export async function seedDemoRuns(db: Database): Promise<void> {
       await recordAudit({ actorId: designer?.id ?? null, projectId: project.id, action: 'create', entity: 'settlement-run', entityId: row.id, after: { seeded: 'demo', name } }, tx)
     })
   }
-  if (!existing.has(DEMO_RUN_NAME)) await seed(DEMO_RUN_NAME, DEMO_RUN_LOADS, points, DEMO_RUN_GRID, RunOptionsSchema.parse({}), made)
+  if (!existing.has(DEMO_RUN_NAME)) await seed(DEMO_RUN_NAME, DEMO_RUN_LOADS, points, DEMO_RUN_GRID, RunOptionsSchema.parse({ probabilistic: DEMO_RUN_PROBABILISTIC }), made)
   if (!existing.has(DEMO_TREATED_RUN_NAME)) {
     // The named points only (the schedule is followed at named points; a grid would show final values alone).
     const options = RunOptionsSchema.parse({ years: [0.25, 0.5, 0.75, 1, 2, 5, 10, 20, 50], drains: DEMO_TREATED_RUN_DRAINS })

@@ -13,7 +13,8 @@ import { settlementRunForExport } from './settlement-runs'
  * and Treatment when the run has a construction schedule, a removal or drains; in the project's
  * units, each heading labelled; the caution on the first sheet) or as JSON (the run as
  * `GET …/{runId}` answers it, SI as its `units` says, with the caution, every point's sublayer table
- * and `treatment`: the schedule rows and the drain design). A run not yet finished is 409.
+ * and `treatment`: the schedule rows and the drain design; a probabilistic run's blocks are in
+ * `run.results`). A probabilistic run adds the sheet Probabilistic. A run not yet finished is 409.
  */
 
 export interface RunExportFile {
@@ -91,6 +92,48 @@ function treatmentSheet(run: ServerSettlementRun & { results: RunResults }, u: R
   return rows
 }
 
+const SOURCE_WORDS = { data: 'from the tests', default: 'assumed (default)', entered: 'entered' } as const
+const QUANTILE_KEYS = ['p05', 'p10', 'p50', 'p90', 'p95'] as const
+const QUANTILE_HEADS = ['P5', 'P10', 'P50', 'P90', 'P95']
+
+/** The Probabilistic sheet: the set-up with each COV's source and n, each point's percentiles, exceedance and t90, the sensitivity, the grid's P50/P95. */
+function probabilisticSheet(results: RunResults, u: RunUnits): (string | number | null)[][] {
+  const setup = results.probabilistic
+  if (!setup) return []
+  const L = (h: string) => u.head(h, 'length')
+  const rows: (string | number | null)[][] = [
+    ['Monte Carlo settlement: the spread reflects the scatter of the data entered, not all uncertainty.'],
+    ['Realisations', setup.realizations],
+    ['Seed', setup.seed],
+    ['Cc–e0 correlation', setup.ccE0Correlation],
+    [L('Settlement limit'), setup.limit === null ? 'none' : u.len(setup.limit)],
+    ['COVs from the data', setup.fromData ? 'yes' : 'no'],
+    ['Worker threads', setup.threads],
+    [],
+    ['Stratum', 'Variable', 'COV', 'Source', 'Tests (n)', u.head('Correlation length', 'length'), 'Whole trend lines'],
+    ...setup.strata.flatMap(s => s.variables.map(v => [`${s.code} (${s.name})`, v.variable === 'preconsolidation' ? 'σ\'p' : v.variable, v.trend ? null : v.cov, SOURCE_WORDS[v.source], v.n, v.correlationLength === undefined ? null : u.len(v.correlationLength), v.trend ? 'yes' : null])),
+    [],
+    ['Point', L('Deterministic'), L('Mean'), L('Standard deviation'), ...QUANTILE_HEADS.map(h => L(h)), 'P(exceeding the limit)', 't90 mean (years)', 't90 sd (years)', ...QUANTILE_HEADS.map(h => `t90 ${h} (years)`)],
+    ...results.points.flatMap((p) => {
+      const b = p.probabilistic
+      if (!b) return []
+      return [[p.label, u.len(b.deterministic), u.len(b.mean), u.len(b.sd), ...QUANTILE_KEYS.map(k => u.len(b.quantiles[k])), b.exceedance?.probability ?? null, b.t90?.mean ?? null, b.t90?.sd ?? null, ...QUANTILE_KEYS.map(k => b.t90?.quantiles[k] ?? null)]]
+    }),
+    [],
+    ['Sensitivity: rank correlation of each variable with the settlement (largest first)'],
+    ['Point', 'Stratum', 'Variable', 'Rank correlation'],
+    ...results.points.flatMap(p => (p.probabilistic?.sensitivity ?? []).map(e => [p.label, e.stratum, e.variable === 'preconsolidation' ? 'σ\'p' : e.variable, e.rankCorrelation])),
+  ]
+  const g = results.grid
+  if (g?.probabilistic) {
+    for (const [name, values] of [['P50', g.probabilistic.p50], ['P95', g.probabilistic.p95]] as const) {
+      rows.push([], [`${name} of settlement (${u.label('length')}) at each grid point from ${g.probabilistic.realizations} realisations: rows y, columns x (${u.label('length')})`], ['y \\ x', ...g.xs.map(x => u.len(x))], ...g.ys.map((y, j) => [u.len(y), ...(values[j] ?? []).map(v => u.len(v))]))
+    }
+  }
+  if (setup.warnings.length) rows.push([], ['Warnings'], ...setup.warnings.map(w => [w]))
+  return rows
+}
+
 export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, details: RunPointDetail[], u: RunUnits = runExportUnits({ unitSystem: 'SI', usStressUnit: 'psf' })): Buffer {
   const results = run.results
   const wb = XLSX.utils.book_new()
@@ -152,6 +195,7 @@ export function runWorkbook(run: ServerSettlementRun & { results: RunResults }, 
     : [['No grid in this run.']]
   XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(grid), 'Grid')
   if (isTreated(run.loads, run.options.drains)) XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(treatmentSheet(run, u)), 'Treatment')
+  if (results.probabilistic) XLSX.utils.book_append_sheet(wb, XLSX.utils.aoa_to_sheet(probabilisticSheet(results, u)), 'Probabilistic')
   return XLSX.write(wb, { type: 'buffer', bookType: 'xlsx', compression: true }) as Buffer
 }
 

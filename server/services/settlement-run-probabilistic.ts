@@ -1,3 +1,4 @@
+import { setMaxListeners } from 'node:events'
 import type { Piscina } from 'piscina'
 import { joinSamples, MONTE_CARLO_CHUNK, planMonteCarlo, summariseMonteCarlo, type MonteCarloOptions, type MonteCarloSamples } from '#shared/probabilistic/monte-carlo'
 import type { RunProbabilistic } from '#shared/schemas/settlement-runs'
@@ -51,29 +52,28 @@ export interface RunProbabilisticOptions {
   threads?: number
   /** The worker script (default the bundle next to the built server; null: this thread). */
   workerFile?: string | null
+  /** At most this many realisations per grid node (the demo seed keeps its grid light). */
+  gridNodeCap?: number
 }
 
-/** Runs one task in the pool, or in this thread without one. */
-function runTask<T>(pool: Piscina | null, name: 'runPointChunks' | 'runGridNodes', task: Record<string, unknown>, local: () => T, signal?: AbortSignal): Promise<T> {
-  if (signal?.aborted) return Promise.reject(new RunCancelled())
-  if (!pool) {
-    return new Promise((resolve, reject) => {
-      // One task per turn of the event loop, so a cancel is heard between chunks.
-      setImmediate(() => {
-        if (signal?.aborted) return reject(new RunCancelled())
-        try {
-          resolve(local())
-        }
-        catch (err) {
-          reject(err instanceof Error ? err : new Error(String(err)))
-        }
+/** Runs one task in the pool, or in this thread without one (one at a time, a turn of the event loop apart, so a cancel is heard between them). */
+function taskRunner(pool: Piscina | null, signal?: AbortSignal) {
+  let line: Promise<unknown> = Promise.resolve()
+  return <T>(name: 'runPointChunks' | 'runGridNodes', task: Record<string, unknown>, local: () => T): Promise<T> => {
+    if (signal?.aborted) return Promise.reject(new RunCancelled())
+    if (!pool) {
+      const next = line.catch(() => undefined).then(() => new Promise<void>(r => setImmediate(r))).then(() => {
+        if (signal?.aborted) throw new RunCancelled()
+        return local()
       })
+      line = next
+      return next
+    }
+    return (pool.run(task, { name, ...(signal ? { signal } : {}) }) as Promise<T>).catch((err: unknown) => {
+      if (signal?.aborted) throw new RunCancelled()
+      throw err
     })
   }
-  return (pool.run(task, { name, ...(signal ? { signal } : {}) }) as Promise<T>).catch((err: unknown) => {
-    if (signal?.aborted) throw new RunCancelled()
-    throw err
-  })
 }
 
 /** Adds the probabilistic blocks to a computed run: per point, the grid's P50/P95 and the set-up used. */
@@ -83,6 +83,9 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const pool = monteCarloTaskPool(threads, opts.workerFile)
   const resolved = resolveScatter(input.definition, p, data)
   const options = runMonteCarloOptions(p, resolved.variation)
+  // Every task in the pool listens to the one signal.
+  if (opts.signal) setMaxListeners(0, opts.signal)
+  const runTask = taskRunner(pool, opts.signal)
   const slim: RunComputeInput = { ...input, definition: slimDefinition(input.definition) }
   const chunks = Math.ceil(p.realizations / MONTE_CARLO_CHUNK)
   const grid = out.results.grid
@@ -90,7 +93,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const plans = input.points.map(pt => planMonteCarlo(runSettlementInputAt(input, pt.x, pt.y), options))
   const firstNode = nodes[0]
   const sublayers = plans[0]?.count ?? (firstNode ? planMonteCarlo(runSettlementInputAt(input, firstNode[0], firstNode[1]), options).count : 0)
-  const perNode = gridNodeRealizations(p.realizations, nodes.length, sublayers)
+  const perNode = Math.min(gridNodeRealizations(p.realizations, nodes.length, sublayers), opts.gridNodeCap ?? Infinity)
   const nodeOptions: MonteCarloOptions = { ...options, realizations: Math.max(perNode, 1), limit: undefined }
 
   const total = input.points.length * p.realizations + nodes.length * perNode
@@ -101,7 +104,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   }
 
   const pointTasks = input.points.map((pt, i) => Promise.all(Array.from({ length: chunks }, (_, c) =>
-    runTask<MonteCarloSamples>(pool, 'runPointChunks', { input: slim, options, x: pt.x, y: pt.y, chunkStart: c, chunkEnd: c + 1 }, () => pointChunks(slim, options, pt.x, pt.y, c, c + 1), opts.signal)
+    runTask<MonteCarloSamples>('runPointChunks', { input: slim, options, x: pt.x, y: pt.y, chunkStart: c, chunkEnd: c + 1 }, () => pointChunks(slim, options, pt.x, pt.y, c, c + 1))
       .then((part) => {
         advance(part.settlement.length)
         return part
@@ -115,7 +118,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   if (perNode > 0) {
     for (let k = 0; k < nodes.length; k += NODES_PER_TASK) {
       const batch = nodes.slice(k, k + NODES_PER_TASK)
-      gridTasks.push(runTask<{ p50: number[], p95: number[] }>(pool, 'runGridNodes', { input: slim, options: nodeOptions, nodes: batch }, () => gridNodeQuantiles(slim, nodeOptions, batch), opts.signal)
+      gridTasks.push(runTask<{ p50: number[], p95: number[] }>('runGridNodes', { input: slim, options: nodeOptions, nodes: batch }, () => gridNodeQuantiles(slim, nodeOptions, batch))
         .then((r) => {
           advance(batch.length * perNode)
           return r

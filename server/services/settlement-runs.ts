@@ -237,7 +237,7 @@ export async function settlementRunPoint(projectId: string, runId: string, index
     throw createError({
       statusCode: 409,
       statusMessage: 'Conflict',
-      message: run.status === 'failed' ? 'The run failed: it has no point results.' : `The run is ${run.status}: point results are ready when it has finished.`,
+      message: run.status === 'failed' ? 'The run failed: it has no point results.' : run.status === 'cancelled' ? 'The run was cancelled: it has no point results.' : `The run is ${run.status}: point results are ready when it has finished.`,
       data: { status: run.status, progress: run.progress },
     })
   }
@@ -262,12 +262,15 @@ export async function deleteSettlementRun(projectId: string, userId: string, run
 }
 
 /**
- * Cancels a queued or running run: the run's creator or a project owner (403 for anyone else), 409
- * for a run already finished, failed or cancelled. The worker stops at its next progress write and
+ * Cancels a queued or running run: 409 for a run already finished, failed or cancelled (for anyone
+ * who may run settlements: the state is no secret), else the run's creator or a project owner (403
+ * for anyone else). The worker stops at its next progress write and
  * never writes results (they are written only to a run still queued or running).
  */
 export async function cancelSettlementRun(projectId: string, user: { id: string, role: string }, runId: string): Promise<{ run: { id: string, status: ServerSettlementRun['status'] } }> {
   const run = await requireRun(projectId, runId)
+  const ended = (status: string) => createError({ statusCode: 409, statusMessage: 'Conflict', message: `The run is ${status}: only a queued or running run can be cancelled.`, data: { status } })
+  if (run.status !== 'queued' && run.status !== 'running') throw ended(run.status)
   if (run.createdBy !== user.id && user.role !== 'owner') {
     throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Only the person who made this run or a project owner can cancel it.' })
   }
@@ -277,8 +280,9 @@ export async function cancelSettlementRun(projectId: string, user: { id: string,
       .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.projectId, projectId), inArray(settlementRuns.status, ['queued', 'running'])))
       .returning({ id: settlementRuns.id, status: settlementRuns.status })
     if (!row) {
+      // Finished (or failed) between the read and the update.
       const [now] = await tx.select({ status: settlementRuns.status }).from(settlementRuns).where(eq(settlementRuns.id, runId))
-      throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `The run is ${now?.status ?? run.status}: only a queued or running run can be cancelled.`, data: { status: now?.status ?? run.status } })
+      throw ended(now?.status ?? 'gone')
     }
     await recordAudit({ actorId: user.id, projectId, action: 'update', entity: 'settlement-run', entityId: runId, before: { status: run.status }, after: { status: 'cancelled' } }, tx)
     await publishLiveEvent({ type: 'run.changed', projectId, entityId: runId }, tx)

@@ -246,6 +246,96 @@ function warnings(inp: SettlementRunReportInput): Content[] {
   ]
 }
 
+const QUANTILES = [['p05', 'P5'], ['p10', 'P10'], ['p50', 'P50'], ['p90', 'P90'], ['p95', 'P95']] as const
+const SCATTER_WORDS: Record<string, string> = { cc: 'Cc', cr: 'Cr', e0: 'e0', cv: 'cv', ch: 'ch', preconsolidation: 'σ\'p' }
+const SOURCE_WORDS: Record<string, string> = { data: 'from the tests', default: 'assumed', entered: 'entered' }
+
+/**
+ * The probabilistic section of a run with `options.probabilistic`: what P50 and P95 mean in plain
+ * words, the percentiles of settlement and t90 per point, the exceedance of the limit, the
+ * sensitivity ranking and the set-up with each COV's source, and the caution that the spread
+ * reflects the data entered only.
+ */
+function probabilistic(inp: SettlementRunReportInput): Content[] {
+  const r = inp.run.results
+  const setup = r.probabilistic
+  if (!setup) return []
+  const u = inp.project.unitSystem
+  const unit = settlementUnitLabel(u)
+  const rows = r.points.filter(p => p.probabilistic)
+  const limit = setup.limit
+  const out: Content[] = [
+    { text: 'How sure is the settlement?', style: 'section', pageBreak: 'before' },
+    {
+      text: `The soil parameters were varied ${setup.realizations.toLocaleString('en-GB')} times within their scatter and the settlement computed each time (seed ${setup.seed}). `
+        + 'P50 is the settlement that half of these outcomes stay below; P95 the settlement exceeded in only 5 % of them, P5 the one exceeded in 95 %. '
+        + 'The deterministic settlement uses the adopted values.',
+      style: 'small',
+      margin: [0, 0, 0, 4],
+    },
+    {
+      table: {
+        headerRows: 1,
+        widths: ['auto', 'auto', 'auto', 'auto', ...QUANTILES.map(() => '*' as const), ...(limit !== null ? ['auto' as const] : [])],
+        body: [
+          head(['Point', `Deterministic (${unit})`, `Mean (${unit})`, `SD (${unit})`, ...QUANTILES.map(([, h]) => `${h} (${unit})`), ...(limit !== null ? [`P(> ${s(limit, u)} ${unit})`] : [])]),
+          ...rows.map((p) => {
+            const b = p.probabilistic!
+            return [cell(p.label, 'left'), cell(s(b.deterministic, u)), cell(s(b.mean, u)), cell(s(b.sd, u)), ...QUANTILES.map(([k]) => cell(s(b.quantiles[k], u))), ...(limit !== null ? [cell(b.exceedance ? `${(b.exceedance.probability * 100).toFixed(1)} %` : '—')] : [])] as TableCell[]
+          }),
+        ],
+      },
+      layout: TABLE_LAYOUT,
+    },
+  ]
+  if (rows.some(p => p.probabilistic!.t90)) {
+    out.push(
+      { text: 'Time to 90 % of primary settlement', style: 'small', bold: true, margin: [0, 8, 0, 2] },
+      {
+        table: {
+          headerRows: 1,
+          widths: ['auto', ...QUANTILES.map(() => '*' as const)],
+          body: [head(['Point', ...QUANTILES.map(([, h]) => `t90 ${h}`)]), ...rows.filter(p => p.probabilistic!.t90).map(p => [cell(p.label, 'left'), ...QUANTILES.map(([k]) => cell(formatYears(p.probabilistic!.t90!.quantiles[k])))] as TableCell[])],
+        },
+        layout: TABLE_LAYOUT,
+      },
+    )
+  }
+  const first = rows[0]?.probabilistic
+  if (first && first.sensitivity.length > 0) {
+    out.push(
+      { text: `What drives the spread at ${rows[0]!.label}`, style: 'small', bold: true, margin: [0, 8, 0, 2] },
+      { text: 'Rank correlation of each varied parameter with the settlement: the nearer to ±1, the more the settlement follows it.', style: 'note', margin: [0, 0, 0, 2] },
+      {
+        table: {
+          headerRows: 1,
+          widths: ['auto', 'auto', 'auto'],
+          body: [head(['Stratum', 'Parameter', 'Rank correlation']), ...first.sensitivity.slice(0, 8).map(e => [cell(e.stratum, 'left'), cell(SCATTER_WORDS[e.variable] ?? e.variable, 'left'), cell(e.rankCorrelation.toFixed(2))] as TableCell[])],
+        },
+        layout: TABLE_LAYOUT,
+      },
+    )
+  }
+  out.push(
+    { text: 'Scatter used', style: 'small', bold: true, margin: [0, 8, 0, 2] },
+    {
+      table: {
+        headerRows: 1,
+        widths: ['auto', 'auto', 'auto', 'auto', 'auto'],
+        body: [
+          head(['Stratum', 'Parameter', 'COV', 'Source', 'Tests']),
+          ...setup.strata.flatMap(st => st.variables.map(v => [cell(st.code, 'left'), cell(SCATTER_WORDS[v.variable] ?? v.variable, 'left'), cell(v.trend ? 'fitted band' : v.cov.toFixed(2)), cell(SOURCE_WORDS[v.source] ?? v.source, 'left'), cell(v.n > 0 ? String(v.n) : '—')] as TableCell[])),
+        ],
+      },
+      layout: TABLE_LAYOUT,
+    },
+    { text: `Cc and e0 correlated at ${setup.ccE0Correlation}; strata independent of each other.${setup.warnings.length ? ` ${setup.warnings.join(' ')}` : ''}`, style: 'note', margin: [0, 2, 0, 0] },
+    { text: 'The spread reflects the scatter of the data and values entered, not all uncertainty: the ground model, the stratum boundaries, the loads and the method itself are taken as given.', style: 'small', bold: true, color: REPORT_INK.alert, margin: [0, 6, 0, 0] },
+    { text: RESULT_CAUTION, style: 'note', margin: [0, 4, 0, 0] },
+  )
+  return out
+}
+
 const CASE_WORDS: Record<string, string> = { 'NC': 'NC', 'OC': 'OC', 'OC-NC': 'OC→NC' }
 
 function pointPages(inp: SettlementRunReportInput): Content[] {
@@ -346,6 +436,7 @@ export function settlementRunReport(inp: SettlementRunReportInput): TDocumentDef
     ...summary(inp),
     ...convergence(inp),
     ...warnings(inp),
+    ...probabilistic(inp),
     ...pointPages(inp),
     ...approvalBlock(inp),
   ]

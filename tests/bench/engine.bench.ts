@@ -12,7 +12,7 @@ import { toStressInput } from '../../shared/site-model/convert'
 import { scenarioDefinition } from '../helpers/scenario-definition'
 import { fitTrend } from '../../shared/geotech/trends'
 import { runReportBench } from './report.bench'
-import { monteCarloBench } from './probabilistic.bench'
+import { monteCarloBench, runProbabilisticBench } from './probabilistic.bench'
 
 export interface BenchRow { name: string, ours: number, baseline: number, ratio: number, goal: number, note?: string }
 
@@ -281,4 +281,5 @@ export const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   runStaged: () => [runStagedBench()],
   runReport: async () => [await runReportBench()],
   monteCarlo: () => [monteCarloBench()],
+  runProbabilistic: () => [runProbabilisticBench()],
 }

@@ -3,7 +3,11 @@
 // by bisection over the consolidation units, one sort for the quantiles. Run by `npm run bench`.
 import { performance } from 'node:perf_hooks'
 import { computeSettlement, type SettlementInput } from '../../shared/geotech/settlement'
-import { runMonteCarlo, type MonteCarloOptions } from '../../shared/probabilistic/monte-carlo'
+import { MONTE_CARLO_CHUNK, planMonteCarlo, runMonteCarlo, simulateChunks, type MonteCarloOptions } from '../../shared/probabilistic/monte-carlo'
+import { RunProbabilisticSchema } from '../../shared/schemas/settlement-runs'
+import type { RunComputeInput } from '../../shared/settlement-run/compute'
+import { pointChunks, resolveScatter, runMonteCarloOptions, runSettlementInputAt } from '../../shared/settlement-run/probabilistic'
+import { scenarioDefinition } from '../helpers/scenario-definition'
 import type { BenchRow } from './engine.bench'
 
 const REALIZATIONS = 10_000
@@ -149,3 +153,34 @@ export function monteCarloBench(): BenchRow {
 
 // `npx tsx tests/bench/probabilistic.bench.ts` prints the row alone.
 if (process.argv[1]?.endsWith('probabilistic.bench.ts')) console.log(JSON.stringify(monteCarloBench()))
+
+/**
+ * A probabilistic settlement run's named point (shared/settlement-run/probabilistic.ts): the demo
+ * yard embankment over the scenario's ground model at 0.1 m sublayers (about 200), 10,000
+ * realisations with Cc, Cr, e0, cv and σ'p varying in every compressible stratum, drawn as the pool's
+ * tasks do it (a plan per chunk, Δσ from the plan loads), against the same draws from one plan made
+ * beforehand. Goal: the run's path ≤ 1.3× (its chunks re-plan; the threads share them out).
+ */
+export function runProbabilisticBench(): BenchRow {
+  const input: RunComputeInput = {
+    definition: scenarioDefinition(),
+    loads: [{ type: 'embankment', x: 0, y: 0, crestWidth: 96, crestLength: 56, sideSlope: 2, height: 6, unitWeight: 20, rotation: 0 }],
+    points: [{ label: 'Centre', x: 0, y: 0 }],
+    grid: null,
+    options: { maxSublayerThickness: 0.1, years: [1, 10], designLife: 50, angularDistortionLimit: 1 / 500 },
+  }
+  const all = { cc: { cov: 0.3 }, cr: { cov: 0.3 }, e0: { cov: 0.1 }, cv: { cov: 0.5 }, preconsolidation: { cov: 0.2 } }
+  const p = RunProbabilisticSchema.parse({ realizations: REALIZATIONS, seed: 1, layers: { CRUST: all, EST: all, GLA: all } })
+  const options = runMonteCarloOptions(p, resolveScatter(input.definition, p, null).variation)
+  const chunks = Math.ceil(REALIZATIONS / MONTE_CARLO_CHUNK)
+  const plan = planMonteCarlo(runSettlementInputAt(input, 0, 0), options)
+  const ours = () => {
+    let s = 0
+    for (let c = 0; c < chunks; c++) s += pointChunks(input, options, 0, 0, c, c + 1).settlement[0]!
+    return s
+  }
+  const bare = () => simulateChunks(plan, 0, chunks).settlement[0]!
+  const o = bestOf(ours, 3)
+  const b = bestOf(bare, 3)
+  return { name: `probabilistic run, one named point: ${REALIZATIONS} realisations of ${plan.count} sublayers in chunk tasks vs one plan`, ours: o, baseline: b, ratio: o / b, goal: 1.3, note: 'baseline: the same draws from a plan made beforehand (one thread)' }
+}

@@ -19,12 +19,18 @@ function fixture(ctx: Ctx) {
   return f
 }
 
-/** Settlement runs: reads for every member; runs by the settlement runners; a delete only by the run's creator (403 for everyone else, even a runner). */
+/** Settlement runs: reads for every member; runs by the settlement runners; a delete only by the run's creator (403 for everyone else, even a runner); a cancel of a finished run is 409. */
 export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId/settlement-runs', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/settlement-runs', allowed: SETTLEMENT_RUNNERS, ok: 201, prepare: async ctx => ({ body: smallRunBody((await fixture(ctx)).model) }) },
   { method: 'GET', path: '/api/projects/:projectId/settlement-runs/:runId', allowed: ALL, ok: 200, prepare: async ctx => ({ path: (await fixture(ctx)).runUrl }) },
   { method: 'GET', path: '/api/projects/:projectId/settlement-runs/:runId/points/:index', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await fixture(ctx)).runUrl}/points/0` }) },
   { method: 'GET', path: '/api/projects/:projectId/settlement-runs/:runId/export', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await fixture(ctx)).runUrl}/export?format=json` }) },
+  { method: 'GET', path: '/api/projects/:projectId/settlement-runs/scatter', allowed: ALL, ok: 200, prepare: async (ctx) => {
+    const { model } = await fixture(ctx)
+    return { path: `/api/projects/${ctx.projectId}/settlement-runs/scatter?modelId=${model.modelId}&version=${model.version}` }
+  } },
+  // The fixture's run has finished: 409 for every runner (the state is checked before who may cancel).
+  { method: 'POST', path: '/api/projects/:projectId/settlement-runs/:runId/cancel', allowed: SETTLEMENT_RUNNERS, ok: 409, prepare: async ctx => ({ path: `${(await fixture(ctx)).runUrl}/cancel`, body: {} }) },
   { method: 'DELETE', path: '/api/projects/:projectId/settlement-runs/:runId', allowed: SETTLEMENT_RUNNERS, ok: 403, prepare: async ctx => ({ path: (await fixture(ctx)).runUrl }) },
 ]

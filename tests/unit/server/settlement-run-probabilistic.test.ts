@@ -1,0 +1,74 @@
+// A probabilistic settlement run's Monte Carlo across the pool (server/services/settlement-run-probabilistic.ts):
+// the worker script bundled as the build bundles it; one thread (no pool), 2 and 3 threads give exactly the
+// same blocks per point and grid node; progress reaches 1; an aborted signal stops it with RunCancelled.
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join, resolve } from 'node:path'
+import { build } from 'esbuild'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { RunProbabilisticSchema, type RunOptions } from '../../../shared/schemas/settlement-runs'
+import { computeRun, type RunComputeInput } from '../../../shared/settlement-run/compute'
+import { closeMonteCarloPools } from '../../../server/services/monte-carlo-pool'
+import { addProbabilistic, RunCancelled } from '../../../server/services/settlement-run-probabilistic'
+import { scenarioDefinition } from '../../helpers/scenario-definition'
+
+const OPTIONS: RunOptions = { maxSublayerThickness: 0.5, years: [1, 10], designLife: 50, angularDistortionLimit: 1 / 500 }
+const INPUT: RunComputeInput = {
+  definition: scenarioDefinition(),
+  loads: [{ type: 'rectangle', x: 0, y: 0, width: 30, length: 40, rotation: 0, pressure: 80 }],
+  points: [{ label: 'Centre', x: 0, y: 0 }, { label: 'Edge', x: 15, y: 0 }],
+  grid: { spacing: 10, margin: 0 },
+  options: OPTIONS,
+}
+const P = RunProbabilisticSchema.parse({ realizations: 2500, seed: 9, limit: 0.5, layers: { EST: { cc: { cov: 0.3 }, e0: { cov: 0.1 }, cv: { cov: 0.4 } }, GLA: { preconsolidation: { cov: 0.2 } } } })
+
+describe('a probabilistic run across worker threads', () => {
+  let dir: string
+  let file: string
+  beforeAll(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'pastload-run-mc-'))
+    file = join(dir, 'monte-carlo.bundle.mjs')
+    await build({ entryPoints: [resolve(import.meta.dirname, '../../../server/workers/monte-carlo.mjs')], outfile: file, bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning' })
+  }, 60_000)
+  afterAll(async () => {
+    await closeMonteCarloPools()
+    rmSync(dir, { recursive: true, force: true })
+  })
+
+  const strip = (r: Awaited<ReturnType<typeof addProbabilistic>>) => ({
+    points: r.results.points.map(p => p.probabilistic),
+    grid: r.results.grid?.probabilistic,
+    strata: r.results.probabilistic?.strata,
+  })
+
+  it('gives exactly the same blocks with one, two and three threads', async () => {
+    const det = computeRun(INPUT)
+    const progress: number[] = []
+    const one = await addProbabilistic(INPUT, P, null, det, { threads: 1, workerFile: null, onProgress: f => progress.push(f) })
+    const two = await addProbabilistic(INPUT, P, null, det, { threads: 2, workerFile: file })
+    const three = await addProbabilistic(INPUT, P, null, det, { threads: 3, workerFile: file })
+    expect(strip(two)).toEqual(strip(one))
+    expect(strip(three)).toEqual(strip(one))
+    expect(one.results.probabilistic!.threads).toBe(1)
+    expect(two.results.probabilistic!.threads).toBe(2)
+    expect(progress.at(-1)).toBe(1)
+    // Progress only goes up.
+    expect([...progress].sort((a, b) => a - b)).toEqual(progress)
+    // The deterministic results are kept as they were, and the point's deterministic equals them.
+    expect(one.results.points[0]!.settlement).toBe(det.results.points[0]!.settlement)
+    expect(one.results.points[0]!.probabilistic!.deterministic).toBeCloseTo(det.results.points[0]!.settlement, 12)
+    const grid = one.results.grid!
+    expect(grid.probabilistic!.realizations).toBe(1000)
+    expect(grid.probabilistic!.p50).toHaveLength(grid.ys.length)
+    expect(grid.probabilistic!.p50[0]).toHaveLength(grid.xs.length)
+  }, 120_000)
+
+  it('stops with RunCancelled when its signal is aborted, in the pool and in this thread', async () => {
+    const det = computeRun(INPUT)
+    for (const opts of [{ threads: 2, workerFile: file }, { threads: 1, workerFile: null }]) {
+      const stop = new AbortController()
+      const running = addProbabilistic(INPUT, { ...P, realizations: 20_000 }, null, det, { ...opts, signal: stop.signal, onProgress: () => stop.abort() })
+      await expect(running).rejects.toBeInstanceOf(RunCancelled)
+    }
+  }, 120_000)
+})
