@@ -4,8 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_EMBANKMENT, SITE_PLAN } from '../../shared/demo/site'
 import { formatSettlement } from '../../shared/plots/settlement-units'
 import { exceedanceAt, formatCov, formatProbability } from '../../shared/settlement-run/spread'
-import type { SettlementRun } from '../../shared/types/settlement-runs'
-import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
+import type { SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
+import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
 import { useDemoCopy } from '../helpers/demo-project'
 import { must } from '../helpers/project'
 import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
@@ -210,6 +210,36 @@ describe('probabilistic settlement in Chromium', () => {
     expect(row!.status).toBe('cancelled')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'settlement-probabilistic-stopped-phone')
+    await page.close()
+  })
+
+  it('the demo\'s seeded yard run opens on its Probability tab from a link, with the figures it stored (read only)', async () => {
+    const demoId = await demoProjectId(designer)
+    const { runs } = await must('runs', designer.get<SettlementRunList>(`/api/projects/${demoId}/settlement-runs?limit=200`))
+    const listed = runs.find(r => r.name === 'Yard embankment, 6 m on version 1')
+    expect(listed).toBeDefined()
+    const { run } = await must('run', designer.get<{ run: SettlementRun }>(`/api/projects/${demoId}/settlement-runs/${listed!.id}`))
+    const centrePoint = run.results!.points.find(p => p.label === 'Yard centre')!
+    const spread = centrePoint.probabilistic!
+    expect(run.results!.probabilistic!.fromData).toBe(true)
+
+    const page = await signInAs(browser.context, demoEmail('designer'))
+    await page.setViewportSize({ width: 1280, height: 800 })
+    await page.goto(`${baseUrl()}/projects/${demoId}/settlement/${listed!.id}?tab=probability`)
+    const row = page.getByTestId('spread-row-Yard centre')
+    await row.waitFor()
+    expect(await page.getByTestId('run-tab-probability').getAttribute('aria-selected')).toBe('true')
+    const mm = (v: number) => formatSettlement(v, 'SI', false)
+    expect(cell(await row.locator('[data-q="p50"]').textContent())).toBe(mm(spread.quantiles.p50))
+    expect(cell(await row.locator('[data-q="p95"]').textContent())).toBe(mm(spread.quantiles.p95))
+    expect(cell(await page.getByTestId('spread-used-realizations').textContent())).toBe(run.results!.probabilistic!.realizations.toLocaleString('en-GB'))
+    await page.getByTestId('spread-tornado').waitFor()
+    // Back to the single figure: the other tab, by the keyboard.
+    await page.getByTestId('run-tab-probability').focus()
+    await page.keyboard.press('ArrowLeft')
+    await page.waitForURL(url => !url.search.includes('tab='))
+    expect(await page.getByTestId('run-tab-adopted').getAttribute('aria-selected')).toBe('true')
+    await page.getByTestId('contour-band').first().waitFor()
     await page.close()
   })
 })
