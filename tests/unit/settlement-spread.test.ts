@@ -102,7 +102,7 @@ describe('the histogram scene', () => {
     expect(byKey.p50!.colour).toBe(SPREAD_INK.median)
     // "adopted 412" and "P50 400" lie 12 mm apart: their labels take different rows; none of a row overlap.
     expect(byKey.p50!.row).not.toBe(byKey.deterministic!.row)
-    const span = (m: typeof si.marks[number]) => {
+    const span = (m: typeof si.marks[number]): [number, number] => {
       const w = m.label.length * 5.6 + 4
       return m.anchor === 'start' ? [m.at, m.at + w] : m.anchor === 'end' ? [m.at - w, m.at] : [m.at - w / 2, m.at + w / 2]
     }
@@ -111,7 +111,7 @@ describe('the histogram scene', () => {
         if (a === b || a.row !== b.row) continue
         const [a0, a1] = span(a)
         const [b0, b1] = span(b)
-        expect(a1 <= b0! || b1 <= a0!).toBe(true)
+        expect(a1 <= b0 || b1 <= a0).toBe(true)
       }
     }
     const us = histogramScene({ result: r, unitSystem: 'US', width: 600 })
