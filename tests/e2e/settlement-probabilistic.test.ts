@@ -173,6 +173,17 @@ describe('probabilistic settlement in Chromium', () => {
     await page.setViewportSize({ width: 390, height: 844 })
     await page.getByTestId('spread-tornado').scrollIntoViewIfNeeded()
     await screenshot(page, 'settlement-probabilistic-phone')
+
+    // "Run again with changes" brings the probability inputs back as they were sent.
+    await page.setViewportSize({ width: 1280, height: 800 })
+    await page.getByTestId('run-again').click()
+    await page.locator('[data-testid="run-editor"][data-ready="yes"]').waitFor()
+    expect(await page.getByTestId('spread-on').isChecked()).toBe(true)
+    expect(await page.getByTestId('spread-from-data').isChecked()).toBe(true)
+    expect(await page.getByTestId('spread-realizations').inputValue()).toBe('2000')
+    expect(await page.getByTestId('spread-seed').inputValue()).toBe('1')
+    expect(await page.getByTestId('spread-cc-e0').inputValue()).toBe('0.5')
+    expect(await page.getByTestId('spread-limit').inputValue()).toBe('500')
     await page.close()
   })
 
