@@ -2,10 +2,11 @@ import { defineStore } from 'pinia'
 import { computed, ref, shallowRef, toRaw } from 'vue'
 import {
   draftFromRun, emptyDraft, loadFromBox, newLoad, nextLabel, normalizeDraft, round,
-  type DraftDrains, type DraftLoad, type DraftLoadType, type DraftPoint, type RunInputs, type SettlementDraft,
+  withVariation,
+  type DraftDrains, type DraftLoad, type DraftLoadType, type DraftOptions, type DraftPoint, type DraftProbabilistic, type RunInputs, type SettlementDraft,
 } from '#shared/settlement-run/draft'
-import { RUN_LIMITS } from '#shared/schemas/settlement-run-limits'
-import type { RunOptions } from '#shared/schemas/settlement-runs'
+import { RUN_LIMITS, type RunScatterVariable } from '#shared/schemas/settlement-run-limits'
+import type { RunVariation } from '#shared/schemas/settlement-runs'
 import { useUndoHistory } from '../composables/useUndoHistory'
 
 /**
@@ -298,7 +299,7 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
     }))
   }
 
-  function setOptions(patch: Partial<Omit<RunOptions, 'drains'>>) {
+  function setOptions(patch: Partial<DraftOptions>) {
     edit('Edit the options', d => ({ ...d, options: { ...d.options, ...patch } }))
   }
 
@@ -306,6 +307,20 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
   function setDrains(patch: Partial<DraftDrains>, opts: DraftEditOptions & { label?: string } = {}): boolean {
     const label = opts.label ?? (patch.on === undefined ? 'Edit the drains' : patch.on ? 'Add vertical drains' : 'Leave out the drains')
     return edit(label, d => ({ ...d, drains: { ...d.drains, ...patch, strata: [...(patch.strata ?? d.drains.strata)] } }), opts)
+  }
+
+  /** Changes the probabilistic inputs (SI); switching them on or off is its own step, keeping the values typed. */
+  function setProbabilistic(patch: Partial<Omit<DraftProbabilistic, 'layers'>>, opts: DraftEditOptions & { label?: string } = {}): boolean {
+    const label = opts.label ?? (patch.on === undefined ? 'Edit the probability inputs' : patch.on ? 'Ask for the probability of settlement' : 'Leave out the probability')
+    return edit(label, d => ({ ...d, probabilistic: { ...d.probabilistic, ...patch } }), opts)
+  }
+
+  /** Types (or with null clears) one stratum's COV of a parameter and its correlation length. */
+  function setVariation(code: string, variable: RunScatterVariable, v: RunVariation | null, opts: DraftEditOptions = {}): boolean {
+    return edit(v ? 'Type a scatter' : 'Use the scatter from the data', d => ({
+      ...d,
+      probabilistic: { ...d.probabilistic, layers: withVariation(d.probabilistic.layers, code, variable, v) },
+    }), opts)
   }
 
   function select(kind: 'load' | 'point', id: string | null) {
@@ -318,6 +333,6 @@ export const useSettlementDraftStore = defineStore('settlementDraft', () => {
     open, copyRun, reset, forget, edit, undo, redo, startGesture,
     addLoad, addLoadBox, updateLoad, moveLoad, removeLoad,
     addPoint, addInvestigationPoint, updatePoint, removePoint,
-    setName, setModel, defaultModel, setGrid, setOptions, setDrains, select,
+    setName, setModel, defaultModel, setGrid, setOptions, setDrains, setProbabilistic, setVariation, select,
   }
 })

@@ -1,8 +1,8 @@
 import { loadOutlines, type PlanLoad } from '../geotech/plan-loads'
 import { convert, type Quantity, type UnitSystem } from '../units'
 import { gridAxes } from './grid'
-import { RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, type DrainPattern } from '../schemas/settlement-run-limits'
-import type { RunGrid, RunLoad, RunLoadInput, RunOptions, RunPoint } from '../schemas/settlement-runs'
+import { RUN_DRAIN_DEFAULTS, RUN_LIMITS, RUN_OPTION_DEFAULTS, RUN_PROBABILISTIC_DEFAULTS, RUN_SCATTER_VARIABLES, type DrainPattern, type RunScatterVariable } from '../schemas/settlement-run-limits'
+import type { RunGrid, RunLoad, RunLoadInput, RunOptions, RunPoint, RunStratumVariation, RunVariation } from '../schemas/settlement-runs'
 
 /**
  * The run editor's working copy of a settlement run (SI: m, kPa, kN/m³, degrees, years) and the
@@ -78,6 +78,22 @@ export interface DraftDrains {
   dischargeCapacity: number | null
 }
 
+/**
+ * A probabilistic run's inputs (SI; the settlement limit in m), kept while switched off so the values
+ * typed stay. `layers` holds only the COVs the engineer typed, by stratum code; "from the data" fills
+ * the others on the server.
+ */
+export interface DraftProbabilistic {
+  on: boolean
+  realizations: number
+  seed: number
+  fromData: boolean
+  ccE0Correlation: number
+  /** m; null: no limit. */
+  limit: number | null
+  layers: Record<string, RunStratumVariation>
+}
+
 export interface DraftPoint {
   id: string
   label: string
@@ -94,10 +110,13 @@ export interface SettlementDraft {
   points: DraftPoint[]
   gridOn: boolean
   grid: { spacing: number, margin: number }
-  /** The options without the drains (those are `drains`). */
-  options: Omit<RunOptions, 'drains'>
+  /** The options without the drains and the probabilistic inputs (those are `drains`, `probabilistic`). */
+  options: DraftOptions
   drains: DraftDrains
+  probabilistic: DraftProbabilistic
 }
+
+export type DraftOptions = Omit<RunOptions, 'drains' | 'probabilistic'>
 
 /** Sizes a load placed by a click takes (m, kPa, kN/m³): a 6 m embankment of 20 kN/m³ fill at 2:1. */
 export const DEFAULT_LOAD: Omit<DraftLoad, 'id' | 'type' | 'label' | 'x' | 'y'> = {
@@ -142,6 +161,60 @@ export function defaultDrains(): DraftDrains {
   }
 }
 
+/** The probabilistic inputs a draft starts with (off, "from the data"). */
+export function defaultProbabilistic(): DraftProbabilistic {
+  const D = RUN_PROBABILISTIC_DEFAULTS
+  return { on: false, realizations: D.realizations, seed: D.seed, fromData: true, ccE0Correlation: D.ccE0Correlation, limit: null, layers: {} }
+}
+
+/** A stratum's entered variations with one variable set (or left out with null); empty strata are dropped. */
+export function withVariation(layers: Record<string, RunStratumVariation>, code: string, variable: RunScatterVariable, v: RunVariation | null): Record<string, RunStratumVariation> {
+  const stratum: RunStratumVariation = { ...(layers[code] ?? {}) }
+  if (v) stratum[variable] = { cov: v.cov, ...(v.correlationLength === undefined ? {} : { correlationLength: v.correlationLength }) }
+  else delete stratum[variable]
+  const out = { ...layers }
+  if (Object.keys(stratum).length) out[code] = stratum
+  else delete out[code]
+  return out
+}
+
+/** The probabilistic inputs as the request sends them (SI), or nothing when they are off. */
+export function requestProbabilisticOf(p: DraftProbabilistic) {
+  if (!p.on) return undefined
+  const layers: Record<string, RunStratumVariation> = {}
+  for (const [code, s] of Object.entries(p.layers)) {
+    const entry: RunStratumVariation = {}
+    for (const v of RUN_SCATTER_VARIABLES) {
+      const e = s[v]
+      if (e) entry[v] = { cov: e.cov, ...(e.correlationLength === undefined ? {} : { correlationLength: e.correlationLength }) }
+    }
+    if (Object.keys(entry).length) layers[code] = entry
+  }
+  return {
+    realizations: p.realizations,
+    seed: p.seed,
+    fromData: p.fromData,
+    layers,
+    ccE0Correlation: p.ccE0Correlation,
+    ...(p.limit === null ? {} : { limit: p.limit }),
+  }
+}
+
+/** A run's probabilistic inputs as the draft's (on), or the defaults (off) for a run without. */
+export function probabilisticFromRun(p: RunOptions['probabilistic']): DraftProbabilistic {
+  const base = defaultProbabilistic()
+  if (!p) return base
+  return {
+    on: true,
+    realizations: p.realizations ?? base.realizations,
+    seed: p.seed ?? base.seed,
+    fromData: p.fromData ?? false,
+    ccE0Correlation: p.ccE0Correlation ?? base.ccE0Correlation,
+    limit: p.limit ?? null,
+    layers: structuredClone(p.layers ?? {}),
+  }
+}
+
 export const DEFAULT_GRID = { spacing: 5, margin: 10 }
 
 export function emptyDraft(): SettlementDraft {
@@ -154,6 +227,7 @@ export function emptyDraft(): SettlementDraft {
     grid: { ...DEFAULT_GRID },
     options: { ...RUN_OPTION_DEFAULTS, years: [...RUN_OPTION_DEFAULTS.years] },
     drains: defaultDrains(),
+    probabilistic: defaultProbabilistic(),
   }
 }
 
@@ -266,7 +340,12 @@ export function requestOf(d: SettlementDraft) {
     loads: d.loads.map(requestLoadOf),
     points: d.points.map(p => ({ label: p.label, x: p.x, y: p.y, ...(p.pointId ? { pointId: p.pointId } : {}) })),
     ...(d.gridOn ? { grid: { ...d.grid } } : {}),
-    options: { ...d.options, years: [...d.options.years], ...(d.drains.on ? { drains: requestDrainsOf(d.drains) } : {}) },
+    options: {
+      ...d.options,
+      years: [...d.options.years],
+      ...(d.drains.on ? { drains: requestDrainsOf(d.drains) } : {}),
+      ...(d.probabilistic.on ? { probabilistic: requestProbabilisticOf(d.probabilistic) } : {}),
+    },
   }
 }
 
@@ -307,11 +386,12 @@ export function draftFromRun(run: RunInputs, ids: () => string): SettlementDraft
     grid: run.grid ? { spacing: run.grid.spacing, margin: run.grid.margin } : { ...DEFAULT_GRID },
     options: { ...RUN_OPTION_DEFAULTS, ...withoutDrains(run.options), years: [...(run.options.years ?? RUN_OPTION_DEFAULTS.years)] },
     drains: drainsFromRun(run.options.drains),
+    probabilistic: probabilisticFromRun(run.options.probabilistic),
   }
 }
 
-function withoutDrains(o: RunOptions): Omit<RunOptions, 'drains'> {
-  const { drains: _drains, ...rest } = o
+function withoutDrains(o: RunOptions): DraftOptions {
+  const { drains: _drains, probabilistic: _probabilistic, ...rest } = o
   return rest
 }
 
@@ -334,11 +414,11 @@ export function drainsFromRun(d: RunOptions['drains']): DraftDrains {
 
 /**
  * A draft kept by an earlier Pastload (a tab's session copy) brought up to today's fields: loads
- * without a schedule are placed at once, a draft without drains has them off.
+ * without a schedule are placed at once, a draft without drains or probabilistic inputs has them off.
  */
 export function normalizeDraft(d: Partial<SettlementDraft>): SettlementDraft {
   const empty = emptyDraft()
-  const { drains: _drains, ...options } = { ...empty.options, ...(d.options ?? {}) } as RunOptions
+  const { drains: _drains, probabilistic: _probabilistic, ...options } = { ...empty.options, ...(d.options ?? {}) } as RunOptions
   return {
     ...empty,
     ...d,
@@ -349,6 +429,7 @@ export function normalizeDraft(d: Partial<SettlementDraft>): SettlementDraft {
     })),
     options,
     drains: { ...empty.drains, ...(d.drains ?? {}) },
+    probabilistic: { ...empty.probabilistic, ...(d.probabilistic ?? {}), layers: { ...(d.probabilistic?.layers ?? {}) } },
   }
 }
 
