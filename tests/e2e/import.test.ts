@@ -41,3 +41,30 @@ describe('import page in Chromium', () => {
     await page.close()
   })
 })
+
+describe('a CPT file on a US project in Chromium', () => {
+  const browser = useBrowser()
+  const copy = useDemoCopy('E2E-IMP-US')
+
+  it('reads cone readings whose headings name no unit as tsf and psi, and says so beside each column', async () => {
+    const owner = await signIn(demoEmail('owner'))
+    expect((await owner.patch(`/api/projects/${copy.id}`, { unitSystem: 'US', usStressUnit: 'psf' })).status).toBe(200)
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await page.goto(`${baseUrl()}/projects/${copy.id}/import?target=cpt`)
+    const csv = 'Depth (ft),qc,fs (MPa),u2\n1.0,10.5,0.05,2.1\n1.5,11.0,0.06,2.4\n'
+    await page.getByTestId('import-file').setInputFiles({ name: 'cone-us.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+    await page.getByTestId('import-mapping').waitFor()
+    await page.getByTestId('cone-unit-note').waitFor()
+    expect(await page.getByTestId('unit-depth').inputValue()).toBe('ft')
+    expect(await page.getByTestId('unit-qc').inputValue()).toBe('tsf')
+    expect(await page.getByTestId('unit-fs').inputValue()).toBe('MPa')
+    expect(await page.getByTestId('unit-u2').inputValue()).toBe('psi')
+    expect(await page.getByTestId('unit-source-qc').textContent()).toBe('not in the heading: assumed')
+    expect(await page.getByTestId('unit-source-fs').textContent()).toBe('named in the heading')
+    // Another unit can be chosen per column.
+    await page.getByTestId('unit-qc').selectOption('MPa')
+    expect(await page.getByTestId('unit-source-qc').textContent()).toBe('your choice')
+    await screenshot(page, 'import-cpt-us-units')
+    await page.close()
+  })
+})

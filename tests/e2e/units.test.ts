@@ -205,3 +205,27 @@ describe('US units on every converted page', () => {
     expect(text).not.toMatch(/\bkPa\b/)
   }, 400_000)
 })
+
+describe('range messages in US units', () => {
+  const browser = useBrowser()
+  // A copy of its own: the other tests here switch their copy's units through the settings page.
+  const copy = useDemoCopy('E2E-UNITS-B')
+
+  it('a range message on a form quotes its bound in the units typed (pcf, not kN/m³)', async () => {
+    await must('switching to US', (await signIn(demoEmail('owner'))).patch(`/api/projects/${copy.id}`, { unitSystem: 'US', usStressUnit: 'psf' }))
+    const page = await signInAs(browser.context, demoEmail('geologist'))
+    await page.goto(`${baseUrl()}/projects/${copy.id}/strata`)
+    await page.getByTestId('stratum-add').click()
+    const form = page.getByTestId('stratum-form')
+    await form.locator('#st-code').fill('DRY')
+    await form.locator('#st-name').fill('Dry crust')
+    await form.locator('#st-gamma').fill('500')
+    await form.locator('#st-gamma-sat').fill('120')
+    await page.getByTestId('stratum-save').click()
+    // 30 kN/m³, the schema's bound, is 190.96 pcf (1 pcf = 0.157087 kN/m³): quoted rounded down, so the number is allowed.
+    await form.getByText('Unit weight above water must be at most 190.9 pcf').waitFor()
+    expect(await form.innerText()).not.toContain('kN/m³')
+    await shoot(page, 'units-us-bound-message')
+    await page.close()
+  })
+})
