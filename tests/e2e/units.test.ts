@@ -113,6 +113,13 @@ describe('US units on every converted page', () => {
     expect(head).toContain('(psf)')
   }, 300_000)
 
+})
+
+// Its own copy: the walk above switches its project in the settings and must find it in SI, whichever test runs first.
+describe('US units on the point, strata, σ\'p, stress-model and compare pages', () => {
+  const browser = useBrowser()
+  const copy = useDemoCopy('E2E-UNITS-PAGES')
+
   it('the point page, its log sheet, strata, σ\'p data, the stress model, its compare and the run compare read in US units too', async () => {
     const projectId = copy.id
     const api = await signIn(demoEmail('owner'))
