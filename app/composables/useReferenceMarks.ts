@@ -3,12 +3,12 @@ import type { UnitWeightReading, WaterReading } from '#shared/investigation/refe
 import { filterWater, type ModelWorkspace } from '~/composables/useModelWorkspace'
 
 /** A logged bulk unit weight where the γ track draws it (x in the track's own x, the drawing's y). */
-export interface UnitWeightMark { x: number, y: number, reading: UnitWeightReading, name: string }
+export interface UnitWeightMark { x: number, y: number, reading: UnitWeightReading }
 
 /** A groundwater record where the u track draws it: a level as a tick at u = 0, a piezometer reading as a cross at its tip. */
-export interface WaterMark { x: number, y: number, reading: WaterReading, name: string }
+export interface WaterMark { x: number, y: number, reading: WaterReading }
 
-/** What a reference mark says (the hover card and the list of marks read the same words). */
+/** What a reference mark says (the hover card and the list of marks read the same words); made when shown, not with the marks. */
 export function unitWeightName(ws: Pick<ModelWorkspace, 'units'>, r: UnitWeightReading): string {
   return `${r.pointIdentifier} ${r.sample}: bulk γ ${ws.units.format(r.value, 'unitWeight')} at ${ws.units.format(r.depth, 'length')}`
 }
@@ -32,12 +32,12 @@ export function useReferenceMarks(ws: ModelWorkspace, widths: () => { uw: number
   const unitWeights = computed((): UnitWeightMark[] => {
     const y = ws.y.value
     const x = uwScale.value
-    return ws.unitWeights.value.map(r => ({ x: x(r.value), y: y(r.depth), reading: r, name: unitWeightName(ws, r) }))
+    return ws.unitWeights.value.map(r => ({ x: x(r.value), y: y(r.depth), reading: r }))
   })
   const water = computed((): WaterMark[] => {
     const y = ws.y.value
     const x = waterScale.value
-    return shownWater.value.map(m => ({ x: x(m.pressure ?? 0), y: y(m.depth), reading: m, name: waterName(ws, m) }))
+    return shownWater.value.map(m => ({ x: x(m.pressure ?? 0), y: y(m.depth), reading: m }))
   })
 
   /** The mark nearest to a point of a track (track x, drawing y) within `px`, else null. */
