@@ -195,6 +195,8 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     const e = context.error.value ?? answer.error.value
     return e ? apiErrorMessage(e) : ''
   })
+  /** The first answers are in (points and flags, or an error): the drawing can be built once, with them. */
+  const settled = computed(() => (shown.value || !!answer.error.value) && (context.data.value !== null || !!context.error.value))
   const listNote = computed(() => {
     const c = context.data.value
     return c ? [cutNote(c.flags, 'open flags'), cutNote(c.tests, 'oedometer tests')].filter(Boolean).join(' ') : ''
@@ -204,5 +206,5 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     latest.cancel()
     await Promise.all([context.refresh(), answer.refresh()])
   }
-  return { points, flags, flaggedTests, dense, behaviour, warnings, stressModel, loading, error, listNote, refresh }
+  return { points, flags, flaggedTests, dense, behaviour, warnings, stressModel, loading, settled, error, listNote, refresh }
 }

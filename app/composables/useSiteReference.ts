@@ -26,6 +26,8 @@ export function useSiteReference(projectId: MaybeRefOrGetter<string>) {
     unitWeights: computed((): UnitWeightReading[] => reference.data.value?.unitWeights ?? []),
     water: computed((): WaterReading[] => reference.data.value?.water ?? []),
     loading,
+    /** The reference layers have answered (or failed). */
+    settled: computed(() => reference.data.value !== null || !!reference.error.value),
     error,
     refresh,
   }

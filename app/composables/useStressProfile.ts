@@ -25,6 +25,8 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   const pending = ref(false)
   /** Counts the profiles received (a new curve on screen). */
   const sequence = ref(0)
+  /** The first request has answered (a profile or an error), or there is nothing to ask. */
+  const answered = ref(false)
 
   const input = computed(() => {
     const d = toValue(definition)
@@ -54,7 +56,10 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
       }
     }
     finally {
-      if (!signal.aborted) pending.value = false
+      if (!signal.aborted) {
+        pending.value = false
+        answered.value = true
+      }
     }
   }, delay)
 
@@ -63,5 +68,6 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   })
   onMounted(() => latest.schedule(true))
 
-  return { points, warnings, error, pending, sequence, refresh: () => latest.schedule(true) }
+  const settled = computed(() => answered.value || !input.value)
+  return { points, warnings, error, pending, sequence, settled, refresh: () => latest.schedule(true) }
 }

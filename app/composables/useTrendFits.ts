@@ -165,7 +165,8 @@ export function useTrendFits(args: {
   const displayFits = useLatestRequest(async () => {
     const def = args.definition()
     if (!args.profile().length || !args.points().length) return
-    const jobs: Promise<void>[] = []
+    const jobs: Promise<{ i: number, key: string, fit: BandFit }>[] = []
+    const asked: Record<number, BandFit> = {}
     def.strata.forEach((s, i) => {
       const t = s.trend
       if (!t || t.manual) return
@@ -173,19 +174,28 @@ export function useTrendFits(args: {
       if (fits.value[i]?.key === key) return
       const inp = inputOf(i)
       if (!inp.included.length) return
-      fits.value = { ...fits.value, [i]: { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true } }
-        jobs.push(api<TrendFitReply>('/api/calc/trend-fit', {
+      asked[i] = { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true }
+      jobs.push(api<TrendFitReply>('/api/calc/trend-fit', {
         method: 'POST',
         body: { model: t.model, logSpace: t.logSpace, points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })) },
-      }).then((answer) => {
-        if (fits.value[i]?.key !== key) return
-        fits.value = { ...fits.value, [i]: { key, answer, error: null, pending: false } }
-      }).catch((err: unknown) => {
-        if (fits.value[i]?.key !== key) return
-        fits.value = { ...fits.value, [i]: { key, answer: null, error: apiErrorMessage(err), pending: false } }
-      }))
+      }).then(
+        answer => ({ i, key, fit: { key, answer, error: null, pending: false } }),
+        (err: unknown) => ({ i, key, fit: { key, answer: null, error: apiErrorMessage(err), pending: false } }),
+      ))
     })
-    await Promise.all(jobs)
+    if (!jobs.length) return
+    fits.value = { ...fits.value, ...asked }
+    // The bands' answers land together: one change of the fits (one redraw of the tracks and panels), not one per band.
+    // Each lands only while its request key is still the band's (a newer ask of the same band replaces it).
+    const done = await Promise.all(jobs)
+    const next = { ...fits.value }
+    let changed = false
+    for (const { i, key, fit } of done) {
+      if (next[i]?.key !== key) continue
+      next[i] = fit
+      changed = true
+    }
+    if (changed) fits.value = next
   }, 250)
   function refreshDisplayFits() {
     displayFits.schedule()
