@@ -1,5 +1,4 @@
 import { PROJECT_POINT_LIMIT } from '#shared/imports/limits'
-import { groupedNumber } from '#shared/number-text'
 
 /** The list routes' largest page (PointListQuerySchema, OedometerListQuerySchema, FlagListQuerySchema). */
 export const LIST_PAGE = 500
@@ -51,8 +50,8 @@ export async function readAllPages<R, T>(
 /** The line a cut list shows ("Showing the first 20,000 of 23,100 oedometer tests."), empty when it is whole. */
 export function cutNote(list: Pick<ListRead<unknown>, 'rows' | 'total' | 'cut'> | null | undefined, noun: string): string {
   if (!list?.cut) return ''
-  const n = groupedNumber(list.rows.length)
+  const n = list.rows.length.toLocaleString('en-GB')
   return list.total === null
     ? `Showing the first ${n} ${noun}; more were not read.`
-    : `Showing the first ${n} of ${groupedNumber(list.total)} ${noun}.`
+    : `Showing the first ${n} of ${list.total.toLocaleString('en-GB')} ${noun}.`
 }
