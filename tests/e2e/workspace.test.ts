@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { DEMO_PEOPLE } from '../../shared/demo/scenario'
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 import { ROLE_LABELS } from '../../shared/auth/roles'
 import { baseUrl, createUser, demoEmail, demoProjectId, signIn, TEST_PASSWORD } from '../helpers/http'
 import { createProject } from '../helpers/project'
@@ -21,6 +21,35 @@ describe('the signed-in workspace in Chromium', () => {
     expect(await error.textContent()).toContain('E-mail or password is wrong.')
     expect(new URL(page.url()).pathname).toBe('/login')
     await screenshot(page, 'login-error')
+    await page.close()
+  })
+
+  it('what is typed before the sign-in page comes alive is kept, and the form cannot be sent before then', async () => {
+    await browser.context.clearCookies()
+    const page = await browser.context.newPage()
+    // The app's scripts are held back until the fields are filled: the page is the server's HTML only.
+    let release!: () => void
+    const held = new Promise<void>((resolve) => { release = resolve })
+    await page.route('**/_nuxt/**/*.js', async (route) => {
+      await held
+      await route.continue()
+    })
+    const addresses: string[] = []
+    page.on('request', r => addresses.push(r.url()))
+    await page.goto(`${baseUrl()}/login`, { waitUntil: 'domcontentloaded' })
+    await page.getByLabel('E-mail').fill(demoEmail('engineer'))
+    await page.getByLabel('Password').fill(DEMO_PASSWORD)
+    const button = page.getByRole('button', { name: 'Sign in' })
+    expect(await button.isDisabled()).toBe(true)
+    await page.getByLabel('Password').press('Enter')
+    release()
+    await page.unroute('**/_nuxt/**/*.js')
+    await expect.poll(() => button.isEnabled()).toBe(true)
+    expect(await page.getByLabel('E-mail').inputValue()).toBe(demoEmail('engineer'))
+    expect(await page.getByLabel('Password').inputValue()).toBe(DEMO_PASSWORD)
+    await button.click()
+    await page.getByTestId('project-list').waitFor({ state: 'attached' })
+    expect(addresses.filter(a => a.includes('password=') || a.includes(encodeURIComponent(DEMO_PASSWORD)))).toEqual([])
     await page.close()
   })
 
