@@ -95,7 +95,12 @@ export async function runCanvasBench(baseUrl: string, page: Page, options: { poi
     return { projectId: project.id, modelId: model.id }
   })()`) as { projectId: string, modelId: string }
   await page.goto(`${baseUrl}/projects/${ids.projectId}/models/${ids.modelId}?bench=${n}`)
-  await page.waitForFunction(`Number(document.querySelector('[data-testid="dense-layer"]')?.getAttribute('data-count') ?? 0) >= ${n}`, undefined, { timeout: 60_000 })
+  // Polled from here: a predicate written as text would be evaluated in the page, which its CSP forbids.
+  const deadline = Date.now() + 60_000
+  while (Number(await page.getByTestId('dense-layer').getAttribute('data-count') ?? 0) < n) {
+    if (Date.now() > deadline) throw new Error(`the dense layer did not reach ${n} points within 60 s`)
+    await page.waitForTimeout(200)
+  }
   await page.getByTestId('effective-stress-line').waitFor()
   const points = Number(await page.getByTestId('dense-layer').getAttribute('data-count'))
 
