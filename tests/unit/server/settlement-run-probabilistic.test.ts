@@ -78,7 +78,10 @@ describe('a probabilistic run across worker threads', () => {
     // The drains shorten t90; the settlement's spread is the same draws as without them.
     expect(block.t90!.quantiles.p50).toBeLessThan(plain.results.points[0]!.probabilistic!.t90!.quantiles.p50 / 2)
     expect(block.quantiles).toEqual(plain.results.points[0]!.probabilistic!.quantiles)
-  })
+    // The drains reach the worker threads: the same numbers with two threads.
+    const two = await addProbabilistic(drained, withCh, null, computeRun(drained), { threads: 2, workerFile: file })
+    expect(strip(two)).toEqual(strip(out))
+  }, 60_000)
 
   it('says that a staged run\'s spread is of the final primary settlement (the schedule and drains not varied)', async () => {
     const staged: RunComputeInput = { ...INPUT, grid: null, loads: [{ ...INPUT.loads[0]!, stages: [{ start: 0, duration: 0.5, fraction: 1 }] }], options: { ...OPTIONS, drains: { ...DRAINS, strata: [...DRAINS.strata] } } }
