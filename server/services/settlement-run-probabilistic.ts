@@ -9,7 +9,9 @@ import {
   gridNodeRealizations,
   pointChunks,
   pointProbabilistic,
+  loadsPlacedAtOnce,
   resolveScatter,
+  runMonteCarloDrains,
   runMonteCarloOptions,
   runSettlementInputAt,
   type RunScatterData,
@@ -82,8 +84,10 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   const started = Date.now()
   const threads = opts.threads ?? monteCarloWorkerCount()
   const pool = monteCarloTaskPool(threads, opts.workerFile)
-  const resolved = resolveScatter(input.definition, p, data)
-  const options = runMonteCarloOptions(p, resolved.variation)
+  // Drains enter the draws' t90 when the loads are placed at once (Carrillo's combination, ch drawn).
+  const drains = runMonteCarloDrains(input)
+  const resolved = resolveScatter(input.definition, p, data, new Set(Object.keys(drains ?? {})))
+  const options = runMonteCarloOptions(p, resolved.variation, p.realizations, drains)
   // Every task in the pool listens to the one signal.
   if (opts.signal) setMaxListeners(0, opts.signal)
   const runTask = taskRunner(pool, opts.signal)
@@ -138,7 +142,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
   if (opts.signal?.aborted) throw new RunCancelled()
 
   const warnings = [...resolved.warnings]
-  if (isTreated(input.loads, input.options.drains)) {
+  if (isTreated(input.loads, input.options.drains) && !loadsPlacedAtOnce(input.loads)) {
     warnings.push('The spread is of the final primary settlement under the loads left in place at the end; the construction schedule, a surcharge taken off and the drains are not varied.')
   }
   let gridBlock: RunGridResult['probabilistic'] | undefined

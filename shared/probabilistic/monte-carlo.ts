@@ -24,9 +24,15 @@ const degreeAt = degreeOfConsolidation
  * engine itself (`computeSettlement`), and every realisation applies the engine's own law
  * (`voidRatioChange`, Δh = Δe/(1 + e0)·h, σ'p below σ'v0 raised to σ'v0), summed in the engine's
  * order, so with every COV zero a realisation equals the deterministic result to the last bit.
+ *
+ * With vertical drains (`options.drains`, per stratum: De, μ, ch/cv) a drained unit's degree is
+ * Carrillo's (1942) U = 1 − (1 − Uv)(1 − Uh) with Uh = 1 − exp(−8·ch·t/(μ·De²)) (Hansbo 1981; Barron
+ * 1948). ch is taken as the deterministic path takes it, ch = (ch/cv)·cv, from the realisation's cv,
+ * times its own lognormal factor (mean 1, the stratum's ch COV): with cv varying ch follows it, and
+ * the scatter of ch/cv adds on top (a choice: ch is rarely tested on its own).
  */
 
-export const PROBABILISTIC_VARIABLES = ['cc', 'cr', 'e0', 'cv', 'preconsolidation'] as const
+export const PROBABILISTIC_VARIABLES = ['cc', 'cr', 'e0', 'cv', 'preconsolidation', 'ch'] as const
 export type ProbabilisticVariable = (typeof PROBABILISTIC_VARIABLES)[number]
 
 /** Cc–e0 correlation when none is given (common practice). */
@@ -53,6 +59,18 @@ export interface StratumVariation {
   e0?: LognormalVariation
   cv?: LognormalVariation
   preconsolidation?: LognormalVariation | TrendVariation
+  /** Factor on ch = (ch/cv)·cv of a drained stratum (one value per realisation); ignored without drains. */
+  ch?: LognormalVariation
+}
+
+/** Vertical drains through a stratum, as the deterministic path sets them (treatment.ts). */
+export interface StratumDrains {
+  /** De (m), the diameter of the soil cylinder one drain serves. */
+  influenceDiameter: number
+  /** Hansbo's (1981) μ, smear and well resistance included. */
+  mu: number
+  /** ch/cv: a unit's ch is this times its cv. */
+  chRatio: number
 }
 
 export interface MonteCarloOptions {
@@ -68,6 +86,8 @@ export interface MonteCarloOptions {
   limit?: number
   /** Histogram bins (default by the Rice rule). */
   bins?: number
+  /** Drains per stratum, keyed as `strata` (t90 by Carrillo's combination in those strata's units). */
+  drains?: Record<string, StratumDrains>
 }
 
 export interface Distribution {
@@ -148,6 +168,7 @@ interface LayerPlan {
   /** Layer thickness (m), as the consolidation units count it. */
   height: number
   stratum: number
+  drains?: StratumDrains
 }
 
 /** What every chunk needs, built once from the inputs. */
@@ -165,7 +186,7 @@ export interface MonteCarloPlan {
   layers: LayerPlan[]
   strata: StratumPlan[]
   variables: VariablePlan[]
-  units: { members: number[], hdr: number, thickness: number }[] | null
+  units: { members: number[], hdr: number, thickness: number, drains: StratumDrains | null }[] | null
   tv90: number
   warnings: string[]
   options: MonteCarloOptions
@@ -257,9 +278,16 @@ export function planMonteCarlo(input: SettlementInput, options: MonteCarloOption
       for (let i = start; i < row; i++) sublayersOf.get(key)!.push(i)
       stratum = plan.strata.indexOf(s)
     }
-    plan.layers.push({ name: layer.name, start, end: row, cc: layer.cc!, cr: layer.cr!, e0: layer.e0!, cv: layer.cv, height: bottom - top, stratum })
+    const drains = key !== undefined ? options.drains?.[key] : undefined
+    plan.layers.push({ name: layer.name, start, end: row, cc: layer.cc!, cr: layer.cr!, e0: layer.e0!, cv: layer.cv, height: bottom - top, stratum, ...(drains ? { drains } : {}) })
   })
   if (row !== count) fail('sublayers-mismatch', 'The sublayers could not be matched to their layers.')
+  for (const [key, d] of Object.entries(options.drains ?? {})) {
+    if (!plan.layers.some(l => l.drains === d)) fail('stratum-unknown', `"${key}" names no compressible layer, so drains cannot pass through it.`)
+    for (const [what, value] of [['De', d.influenceDiameter], ['μ', d.mu], ['ch/cv', d.chRatio]] as const) {
+      if (!(Number.isFinite(value) && value > 0)) fail('drains-invalid', `Drains in "${key}": ${what} is ${String(value)}; it must be a positive number.`)
+    }
+  }
 
   for (const key of Object.keys(options.strata)) {
     if (strataByKey.has(key)) continue
@@ -294,9 +322,13 @@ export function planMonteCarlo(input: SettlementInput, options: MonteCarloOption
         warnings.push(`Stratum "${s.key}": cv varies, but not every compressible layer has cv, so t90 is not computed.`)
         continue
       }
+      if (variable === 'ch' && !(timed && s.layers.some(j => plan.layers[j]!.drains !== undefined))) {
+        warnings.push(`Stratum "${s.key}": ch varies, but ${timed ? 'no drains pass through it' : 'not every compressible layer has cv, so t90 is not computed'}; ch is not varied.`)
+        continue
+      }
       let field: FieldPlan | null = null
       if (lv.correlationLength !== undefined) {
-        if (variable === 'cv') fail('field-not-supported', `Stratum "${s.key}": cv takes one value per stratum; it cannot be a random field.`)
+        if (variable === 'cv' || variable === 'ch') fail('field-not-supported', `Stratum "${s.key}": ${variable} takes one value per stratum; it cannot be a random field.`)
         const m = s.sublayers.length
         if (m > MONTE_CARLO_LIMITS.fieldSublayers) fail('field-too-large', `Stratum "${s.key}": a random field over ${m} sublayers is too large (at most ${MONTE_CARLO_LIMITS.fieldSublayers}); use thicker sublayers.`)
         const tops = new Float64Array(m)
@@ -339,7 +371,8 @@ export function planMonteCarlo(input: SettlementInput, options: MonteCarloOption
       if (j > 0 && compressible[j - 1]!.i + 1 !== i) run++
       return { thickness: model.boundaries[i + 1]! - model.boundaries[i]!, cv: l.cv, drainage: l.drainage, drainageGroup: l.drainageGroup === undefined ? undefined : `${run}\u0000${l.drainageGroup}` }
     }))
-    plan.units = units.map(u => ({ members: u.members, hdr: u.hdr, thickness: u.thickness }))
+    // A unit drains radially as its first layer's stratum does (as treatment.ts takes a unit's stratum).
+    plan.units = units.map(u => ({ members: u.members, hdr: u.hdr, thickness: u.thickness, drains: plan.layers[u.members[0]!]!.drains ?? null }))
   }
   return plan
 }
@@ -361,6 +394,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
     raised: 0,
   }
   const cvOf = new Float64Array(layers.length)
+  const chOf = new Float64Array(layers.length)
   const layerSum = new Float64Array(layers.length)
   const white = new Float64Array(MONTE_CARLO_LIMITS.fieldSublayers)
   const ccWhite = new Float64Array(MONTE_CARLO_LIMITS.fieldSublayers)
@@ -373,7 +407,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
   const factors = [factor.cc, factor.cr, factor.e0, factor.preconsolidation]
   const trendValue = new Float64Array(count)
   const useTrend = new Uint8Array(count)
-  const scratch = plan.units ? { settlement: new Float64Array(plan.units.length), cv: new Float64Array(plan.units.length) } : null
+  const scratch = plan.units ? { settlement: new Float64Array(plan.units.length), cv: new Float64Array(plan.units.length), rate: new Float64Array(plan.units.length) } : null
 
   for (let chunk = chunkStart; chunk < chunkEnd; chunk++) {
     const first = chunk * MONTE_CARLO_CHUNK
@@ -385,6 +419,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
       for (const f of factors) f.fill(1)
       useTrend.fill(0)
       for (let j = 0; j < layers.length; j++) cvOf[j] = layers[j]!.cv ?? 0
+      chOf.fill(1)
       let raisedHere = false
       for (const s of strata) {
         // Cc first: e0 leans on its normal draws through the copula.
@@ -437,7 +472,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
             let mean = 0
             for (let k = 0; k < m; k++) {
               mean += values[k]! * v.field.weights[k]!
-              if (variable !== 'cv') factor[variable][v.field.sublayers[k]!] = Math.exp(sigma * values[k]! + shift)
+              if (variable !== 'cv' && variable !== 'ch') factor[variable][v.field.sublayers[k]!] = Math.exp(sigma * values[k]! + shift)
             }
             samples.draws[vi]![out] = mean
             continue
@@ -449,6 +484,9 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
           const f = Math.exp(sigma * zz + shift)
           if (variable === 'cv') {
             for (const j of s.layers) cvOf[j] = layers[j]!.cv! * f
+          }
+          else if (variable === 'ch') {
+            for (const j of s.layers) chOf[j] = f
           }
           else {
             const col = factor[variable]
@@ -475,7 +513,7 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
       }
       samples.settlement[out] = total
       if (raisedHere) samples.raised++
-      if (samples.t90) samples.t90[out] = t90Of(plan, layerSum, cvOf, total, scratch!)
+      if (samples.t90) samples.t90[out] = t90Of(plan, layerSum, cvOf, chOf, total, scratch!)
     }
   }
   return samples
@@ -484,17 +522,21 @@ export function simulateChunks(plan: MonteCarloPlan, chunkStart: number, chunkEn
 /**
  * Years to 90 % of primary settlement: Σ Sₖ·U(cvₖt/Hₖ²) = 0.9·S over the consolidation units (Terzaghi 1925),
  * with the engine's degree of consolidation. The root lies between the units' own t90 when none rebounds;
- * it is found by regula falsi with the Illinois step (Dowell & Jarratt 1971), to 1e-12 of t.
+ * it is found by regula falsi with the Illinois step (Dowell & Jarratt 1971), to 1e-12 of t. A drained
+ * unit's degree is 1 − (1 − Uv)·exp(−8·ch·t/(μ·De²)) (Carrillo 1942; Hansbo 1981), ch = (ch/cv)·cv·(ch
+ * factor); its own t90 is then below both the vertical and the radial one, so the search runs from 0.
  */
-function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array, total: number, scratch: { settlement: Float64Array, cv: Float64Array }): number {
+function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array, chOf: Float64Array, total: number, scratch: { settlement: Float64Array, cv: Float64Array, rate: Float64Array }): number {
   const units = plan.units!
   if (!(total > 0)) return Number.NaN
   const k = units.length
   const us = scratch.settlement
   const ucv = scratch.cv
+  const rate = scratch.rate
   let lo = Infinity
   let hi = 0
   let monotone = true
+  let drained = false
   for (let u = 0; u < k; u++) {
     const unit = units[u]!
     let s = 0
@@ -506,13 +548,22 @@ function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array,
     us[u] = s
     ucv[u] = unit.members.length === 1 ? cvOf[unit.members[0]!]! : unit.thickness / resistance
     if (s < 0) monotone = false
+    const d = unit.drains
+    rate[u] = 0
+    if (d) {
+      // Uh = 1 − exp(−rate·t), rate = 8·ch/(μ·De²) (Hansbo 1981).
+      rate[u] = (8 * d.chRatio * ucv[u]! * chOf[unit.members[0]!]!) / (d.mu * d.influenceDiameter * d.influenceDiameter)
+      drained = true
+    }
     if (s > 0) {
-      const t = (plan.tv90 * unit.hdr * unit.hdr) / ucv[u]!
+      let t = (plan.tv90 * unit.hdr * unit.hdr) / ucv[u]!
+      if (d) t = Math.min(t, Math.LN10 / rate[u]!)
       if (t < lo) lo = t
       if (t > hi) hi = t
     }
   }
-  if (k === 1 || (monotone && lo === hi)) return lo
+  if (drained) lo = 0
+  else if (k === 1 || (monotone && lo === hi)) return lo
   if (!monotone) {
     // Rebound in some unit: search the whole span, as the engine does.
     lo = 0
@@ -520,7 +571,15 @@ function t90Of(plan: MonteCarloPlan, layerSum: Float64Array, cvOf: Float64Array,
   }
   const f = (t: number): number => {
     let s = 0
-    for (let u = 0; u < k; u++) s += us[u]! * degreeAt((ucv[u]! * t) / (units[u]!.hdr * units[u]!.hdr))
+    if (drained) {
+      for (let u = 0; u < k; u++) {
+        const uv = degreeAt((ucv[u]! * t) / (units[u]!.hdr * units[u]!.hdr))
+        s += us[u]! * (rate[u]! > 0 ? 1 - (1 - uv) * Math.exp(-rate[u]! * t) : uv)
+      }
+    }
+    else {
+      for (let u = 0; u < k; u++) s += us[u]! * degreeAt((ucv[u]! * t) / (units[u]!.hdr * units[u]!.hdr))
+    }
     return s / total - 0.9
   }
   let flo = f(lo)

@@ -201,7 +201,7 @@ export function describeConvergence(c: { halved: number, relativeChange: number 
 }
 
 /** The run's settlement layers, each with the stratum it came from. */
-interface RunProfile {
+export interface RunProfile {
   layers: SettlementLayer[]
   /** Index into definition.strata per settlement layer. */
   stratumOf: number[]
@@ -210,7 +210,8 @@ interface RunProfile {
   hasCalpha: boolean
 }
 
-function runProfile(input: RunComputeInput): RunProfile {
+/** The run's settlement profile (layers, their strata, the stress input): the same for every point. */
+export function runProfile(input: RunComputeInput): RunProfile {
   const def = input.definition
   const stressInput = toStressInput(def)
   const evaluate = createStressEvaluator(stressInput)

@@ -9,6 +9,7 @@ import {
   type MonteCarloOptions,
   type MonteCarloResult,
   type MonteCarloSamples,
+  type StratumDrains,
   type StratumVariation,
 } from '../probabilistic/monte-carlo'
 import { quantileOfSorted, sampleMean, sampleSd, sortedFinite } from '../probabilistic/summary'
@@ -20,13 +21,13 @@ import {
   RUN_SCATTER_VARIABLES,
   type RunScatterVariable,
 } from '../schemas/settlement-run-limits'
-import type { RunProbabilistic } from '../schemas/settlement-runs'
+import type { RunLoad, RunProbabilistic } from '../schemas/settlement-runs'
 import { eligibleTests, type TestCompressibility } from '../site-model/compressibility'
 import type { SiteModelDefinition } from '../site-model/definition'
 import { toSettlementLayers, toStressInput } from '../site-model/convert'
 import type { RunPointProbabilistic, RunStratumScatter, RunVariableScatter } from '../types/settlement-runs'
-import { resolveLoads, type RunComputeInput } from './compute'
-import { isTreated, permanentLoads } from './treatment'
+import { buildSettlementKernel, resolveLoads, runProfile, type RunComputeInput } from './compute'
+import { isTreated, permanentLoads, treatmentProfile } from './treatment'
 
 /**
  * Probabilistic settlement runs (`options.probabilistic`): the COVs "from the data" of a model
@@ -116,10 +117,11 @@ export interface ResolvedScatter {
 /**
  * What scatters in a run: per compressible stratum and variable, the entered value, else (with
  * `fromData`) the data's, else nothing. σ'p from the data with a fit covariance is drawn as whole
- * trend lines (the version's trend as the mean line). ch is recorded but not drawn: the Monte Carlo
- * gives final primary settlement and t90 by vertical drainage.
+ * trend lines (the version's trend as the mean line). ch is drawn in the strata of `drainedCodes`
+ * (the strata whose drains the Monte Carlo takes, `runMonteCarloDrains`); elsewhere it is recorded
+ * but not drawn, and t90 is by vertical drainage.
  */
-export function resolveScatter(def: Pick<SiteModelDefinition, 'strata'>, p: RunProbabilistic, data: RunScatterData | null): ResolvedScatter {
+export function resolveScatter(def: Pick<SiteModelDefinition, 'strata'>, p: RunProbabilistic, data: RunScatterData | null, drainedCodes: ReadonlySet<string> = new Set()): ResolvedScatter {
   const strata: RunStratumScatter[] = []
   const variation: Record<string, StratumVariation> = {}
   const warnings: string[] = []
@@ -137,7 +139,7 @@ export function resolveScatter(def: Pick<SiteModelDefinition, 'strata'>, p: RunP
       else if (d) used = { ...d }
       if (!used) continue
       variables.push(used)
-      if (variable === 'ch') {
+      if (variable === 'ch' && !drainedCodes.has(s.code)) {
         if (used.cov > 0) warnings.push(`Stratum ${s.code}: ch is recorded but not varied; the spread is of final primary settlement and of t90 by vertical drainage.`)
         continue
       }
@@ -184,8 +186,8 @@ export const VARIABLE_WORDS: Record<RunScatterVariable, string> = {
   cc: 'Cc', cr: 'Cr', e0: 'e0', cv: 'cv', ch: 'ch', preconsolidation: 'σ\'p',
 }
 
-/** The engine's options of a run's Monte Carlo (strata keyed by code: each layer's drainage group). */
-export function runMonteCarloOptions(p: RunProbabilistic, variation: Record<string, StratumVariation>, realizations = p.realizations): MonteCarloOptions {
+/** The engine's options of a run's Monte Carlo (strata keyed by code: each layer's drainage group), with its drains if any. */
+export function runMonteCarloOptions(p: RunProbabilistic, variation: Record<string, StratumVariation>, realizations = p.realizations, drains?: Record<string, StratumDrains>): MonteCarloOptions {
   return {
     realizations,
     seed: p.seed,
@@ -193,7 +195,32 @@ export function runMonteCarloOptions(p: RunProbabilistic, variation: Record<stri
     keyBy: 'drainageGroup',
     ccE0Correlation: p.ccE0Correlation,
     ...(p.limit !== undefined ? { limit: p.limit } : {}),
+    ...(drains && Object.keys(drains).length > 0 ? { drains } : {}),
   }
+}
+
+/** Whether every load of a run is placed at once and stays (no construction schedule, no removal). */
+export function loadsPlacedAtOnce(loads: readonly RunLoad[]): boolean {
+  return loads.every(l => !(l.stages !== undefined && l.stages.length > 0) && l.removeAt === undefined)
+}
+
+/**
+ * The drains the Monte Carlo takes, by stratum code: De, μ and ch/cv of each drained stratum's
+ * unit exactly as the deterministic path sets them (`treatmentProfile`: Barron's 1948 De, Hansbo's
+ * 1981 μ with smear and, with qw, well resistance). Only for a run whose loads are placed at once
+ * (a schedule or a surcharge taken off is not drawn); undefined without drains.
+ */
+export function runMonteCarloDrains(input: RunComputeInput): Record<string, StratumDrains> | undefined {
+  const drains = input.options.drains
+  if (!drains || !loadsPlacedAtOnce(input.loads)) return undefined
+  const profile = runProfile(input)
+  const t = treatmentProfile(input.definition, profile.layers, profile.stratumOf, buildSettlementKernel(profile.base), drains)
+  const out: Record<string, StratumDrains> = {}
+  t.units.forEach((u, k) => {
+    if (!u.drains) return
+    out[input.definition.strata[t.unitStratum[k]!]!.code] = { influenceDiameter: u.drains.influenceDiameter, mu: u.drains.mu, chRatio: drains.chRatio }
+  })
+  return Object.keys(out).length > 0 ? out : undefined
 }
 
 /**

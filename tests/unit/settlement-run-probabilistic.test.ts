@@ -11,7 +11,9 @@ import {
   gridNodeQuantiles,
   gridNodeRealizations,
   pointChunks,
+  loadsPlacedAtOnce,
   resolveScatter,
+  runMonteCarloDrains,
   runMonteCarloOptions,
   sampleCov,
   scatterFromTests,
@@ -22,6 +24,7 @@ import { planMonteCarlo, runMonteCarlo, simulateChunks } from '../../shared/prob
 import { runSettlementInputAt } from '../../shared/settlement-run/probabilistic'
 import type { TestCompressibility } from '../../shared/site-model/compressibility'
 import { scenarioDefinition } from '../helpers/scenario-definition'
+import { hansboMu, influenceDiameter } from '../../shared/geotech/radial-consolidation'
 
 const OPTIONS: RunOptions = { maxSublayerThickness: 0.5, years: [1, 10], designLife: 50, angularDistortionLimit: 1 / 500 }
 
@@ -178,5 +181,48 @@ describe('the Monte Carlo at a run\'s point', () => {
     const one = gridNodeQuantiles(input, options, [[10, 5]])
     expect(both.p50[1]).toBe(one.p50[0])
     expect(both.p95[0]!).toBeGreaterThan(both.p50[0]!)
+  })
+})
+
+describe('drains in a run\'s Monte Carlo', () => {
+  const drains = { strata: ['EST'], pattern: 'triangular' as const, spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 2 }
+  const input: RunComputeInput = {
+    definition: scenarioDefinition(),
+    loads: [{ type: 'rectangle', x: 0, y: 0, width: 30, length: 40, rotation: 0, pressure: 60 }],
+    points: [{ label: 'C', x: 0, y: 0 }],
+    grid: null,
+    options: { ...OPTIONS, drains },
+  }
+  it('takes De (Barron 1948) and μ (Hansbo 1981) as the deterministic run does, per drained stratum', () => {
+    const d = runMonteCarloDrains(input)!
+    const de = influenceDiameter('triangular', 1.5)
+    expect(Object.keys(d)).toEqual(['EST'])
+    expect(d.EST!.influenceDiameter).toBe(de)
+    expect(d.EST!.mu).toBe(hansboMu({ n: de / 0.052, smearRatio: 3, permeabilityRatio: 3 }))
+    expect(d.EST!.chRatio).toBe(2)
+    expect(d.EST!.mu).toBe(computeRun(input).results.drains!.mu)
+  })
+  it('takes none without drains or when a load is staged or taken off', () => {
+    expect(runMonteCarloDrains({ ...input, options: OPTIONS })).toBeUndefined()
+    const staged = [{ ...input.loads[0]!, stages: [{ start: 0, duration: 1, fraction: 1 }] }]
+    expect(loadsPlacedAtOnce(staged)).toBe(false)
+    expect(runMonteCarloDrains({ ...input, loads: staged })).toBeUndefined()
+    expect(runMonteCarloDrains({ ...input, loads: [{ ...input.loads[0]!, removeAt: 2 }] })).toBeUndefined()
+  })
+  it('varies ch in a drained stratum and records it elsewhere', () => {
+    const p = RunProbabilisticSchema.parse({ layers: { EST: { ch: { cov: 0.3 } }, GLA: { ch: { cov: 0.2 } } } })
+    const r = resolveScatter(input.definition, p, null, new Set(['EST']))
+    expect(r.variation.EST).toEqual({ ch: { cov: 0.3 } })
+    expect(r.variation.GLA).toBeUndefined()
+    expect(r.warnings).toEqual(['Stratum GLA: ch is recorded but not varied; the spread is of final primary settlement and of t90 by vertical drainage.'])
+  })
+  it('with every COV zero gives the deterministic drained run\'s t90 at the point', () => {
+    const p = RunProbabilisticSchema.parse({ realizations: 100, layers: { EST: { cc: { cov: 0 }, cv: { cov: 0 }, ch: { cov: 0 } } } })
+    const d = runMonteCarloDrains(input)
+    const mc = runMonteCarlo(runSettlementInputAt(input, 0, 0), runMonteCarloOptions(p, resolveScatter(input.definition, p, null, new Set(Object.keys(d ?? {}))).variation, 100, d))
+    const run = computeRun(input).results.points[0]!
+    expect(mc.t90!.sd).toBe(0)
+    expect(mc.t90!.quantiles.p50 / run.t90! - 1).toBeCloseTo(0, 3)
+    expect(run.t90).toBeLessThan(run.t90WithoutDrains!)
   })
 })

@@ -21,6 +21,8 @@ import { histogramOfSorted, midranks, quantileOfSorted, rankCorrelation, sampleS
 import { localAverageCovariance, varianceFunction } from '../../../shared/probabilistic/field'
 import { normalStream } from '../../../shared/probabilistic/random'
 import { catchGeotechError } from '../../helpers/geotech'
+import { consolidationUnits, degreeOfConsolidation, timeFactor } from '../../../shared/geotech/consolidation'
+import { combinedDegree, hansboMu, influenceDiameter, radialDegree, radialTimeFactor } from '../../../shared/geotech/radial-consolidation'
 
 /*
  * Checks of the Monte Carlo settlement engine (shared/probabilistic/monte-carlo.ts) against closed
@@ -379,5 +381,84 @@ describe('Monte Carlo settlement — a variable that does not move the settlemen
     expect(r.sensitivity).toEqual([])
     expect(r.t90!.sd).toBeGreaterThan(0)
     expect(Array.from(midranks(new Float64Array(N).fill(1)).subarray(0, 2))).toEqual([(N - 1) / 2, (N - 1) / 2])
+  })
+})
+
+describe('Monte Carlo settlement — vertical drains and a random ch', () => {
+  // Drains through the clay of ncProfile: De of a 1.5 m triangular pattern (Barron 1948) and
+  // Hansbo's (1981) μ with smear, as the deterministic path takes them.
+  const de = influenceDiameter('triangular', 1.5)
+  const mu = hansboMu({ n: de / 0.052, smearRatio: 3, permeabilityRatio: 3 })
+
+  describe('vertical drainage negligible, only ch random: t90 = μ·De²·ln 10/(8·ch) is lognormal in 1/ch', () => {
+    // cv = 1e-10 m²/yr with ch/cv = 1e10 gives ch = 1 m²/yr while Uv at t90 stays below 1e-5, so
+    // (1 − Uv)·exp(−8·ch·t/(μ·De²)) = 0.1 gives t90 within 1e-5 of the radial form (Hansbo 1981,
+    // Barron 1948 equal strain, Ur = 1 − exp(−8·Th/μ) at Ur = 0.9) — far inside the sampling tolerance.
+    // With ch lognormal of mean m and COV V, 1/ch is lognormal with median √(1 + V²)/m and the same
+    // σ = √ln(1 + V²) (Aitchison & Brown 1957), so t90 has median K·√(1 + V²)/m, K = μ·De²·ln 10/8.
+    const cov = 0.4
+    const sigma = Math.sqrt(Math.log(1 + cov * cov))
+    const profile = ncProfile()
+    profile.layers[1] = { ...profile.layers[1]!, cv: 1e-10 }
+    const result = runMonteCarlo(profile, { realizations: N, seed: 'drains', strata: { Clay: { ch: { cov } } }, drains: { Clay: { influenceDiameter: de, mu, chRatio: 1e10 } } })
+    const k = (mu * de * de * Math.LN10) / 8
+    const p50 = k * Math.sqrt(1 + cov * cov)
+
+    it('P50 of t90 = μ·De²·ln 10·√(1 + COV²)/(8·ch) within 4 sampling SE', () => {
+      const se = p50 * sigma * Math.sqrt(0.25 / N) / phi(0)
+      expect(Math.abs(result.t90!.quantiles.p50 - p50)).toBeLessThan(4 * se)
+    })
+
+    it('P95 of t90 = P50·exp(1.645·√ln(1 + COV²)) within 4 sampling SE', () => {
+      const z95 = Z[0.95]!
+      const p95 = p50 * Math.exp(z95 * sigma)
+      const se = p95 * sigma * Math.sqrt(0.95 * 0.05 / N) / phi(z95)
+      expect(Math.abs(result.t90!.quantiles.p95 - p95)).toBeLessThan(4 * se)
+    })
+
+    it('leaves the settlement alone (ch does not enter it)', () => {
+      expect(result.sd).toBe(0)
+      expect(result.quantiles.p50).toBe(result.deterministic)
+    })
+  })
+
+  it('with every COV zero, t90 equals the deterministic drained t90 (Carrillo 1942 with Hansbo 1981)', () => {
+    const chRatio = 2
+    const result = runMonteCarlo(ncProfile(), { realizations: 200, seed: 3, strata: { Clay: { cc: { cov: 0 }, cv: { cov: 0 }, ch: { cov: 0 } } }, drains: { Clay: { influenceDiameter: de, mu, chRatio } } })
+    const { cv } = ncProfile().layers[1]!
+    const hdr = consolidationUnits([{ thickness: 6, cv }])[0]!.hdr
+    const degree = (t: number) => combinedDegree(degreeOfConsolidation(timeFactor(cv!, t, hdr)), radialDegree(radialTimeFactor(chRatio * cv!, t, de), mu))
+    let lo = 0
+    let hi = 100
+    for (let i = 0; i < 200; i++) {
+      const mid = 0.5 * (lo + hi)
+      if (degree(mid) >= 0.9) hi = mid
+      else lo = mid
+    }
+    // Faster than either drainage alone.
+    expect(hi).toBeLessThan((mu * de * de * Math.LN10) / (8 * chRatio * cv!))
+    expect(result.t90!.sd).toBe(0)
+    expect(result.t90!.quantiles.p50 / hi - 1).toBeCloseTo(0, 10)
+    expect(result.t90!.mean / hi - 1).toBeCloseTo(0, 10)
+  })
+
+  it('ch follows cv: with cv random and ch/cv fixed, t90 falls as cv rises; sensitivity names ch', () => {
+    const result = runMonteCarlo(ncProfile(), { realizations: 2000, seed: 5, strata: { Clay: { cc: { cov: 0.3 }, cv: { cov: 0.3 }, ch: { cov: 0.3 } } }, drains: { Clay: { influenceDiameter: de, mu, chRatio: 2 } } })
+    const names = result.sensitivity.map(e => e.variable)
+    expect(names).toContain('ch')
+    expect(names).toContain('cv')
+    expect(result.t90!.quantiles.p95).toBeGreaterThan(result.t90!.quantiles.p50)
+    // Without drains the same draws give a longer t90 at every quantile.
+    const vertical = runMonteCarlo(ncProfile(), { realizations: 2000, seed: 5, strata: { Clay: { cc: { cov: 0.3 }, cv: { cov: 0.3 } } } })
+    expect(result.t90!.quantiles.p50).toBeLessThan(vertical.t90!.quantiles.p50)
+    expect(result.quantiles).toEqual(vertical.quantiles)
+  })
+
+  it('warns and leaves ch alone where no drains pass; refuses drains in an unknown stratum or with μ ≤ 0', () => {
+    const plan = planMonteCarlo(ncProfile(), { realizations: 10, seed: 1, strata: { Clay: { ch: { cov: 0.3 } } } })
+    expect(plan.variables).toHaveLength(0)
+    expect(plan.warnings).toEqual(['Stratum "Clay": ch varies, but no drains pass through it; ch is not varied.'])
+    expect(catchGeotechError(() => planMonteCarlo(ncProfile(), { realizations: 10, seed: 1, strata: {}, drains: { Sand: { influenceDiameter: de, mu, chRatio: 1 } } })).code).toBe('stratum-unknown')
+    expect(catchGeotechError(() => planMonteCarlo(ncProfile(), { realizations: 10, seed: 1, strata: {}, drains: { Clay: { influenceDiameter: de, mu: 0, chRatio: 1 } } })).code).toBe('drains-invalid')
   })
 })

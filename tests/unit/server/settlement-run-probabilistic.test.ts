@@ -63,11 +63,34 @@ describe('a probabilistic run across worker threads', () => {
     expect(grid.probabilistic!.p50[0]).toHaveLength(grid.xs.length)
   }, 120_000)
 
-  it('says that a treated run\'s spread is of the final primary settlement (the schedule and drains not varied)', async () => {
-    const treated: RunComputeInput = { ...INPUT, grid: null, options: { ...OPTIONS, drains: { strata: ['EST'], pattern: 'triangular', spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 1 } } }
-    const out = await addProbabilistic(treated, { ...P, realizations: 200 }, null, computeRun(treated), { threads: 1, workerFile: null })
-    expect(out.results.probabilistic!.warnings).toContain('The spread is of the final primary settlement under the loads left in place at the end; the construction schedule, a surcharge taken off and the drains are not varied.')
+  const DRAINS = { strata: ['EST'], pattern: 'triangular', spacing: 1.5, diameter: 0.052, smearRatio: 3, permeabilityRatio: 3, chRatio: 2 } as const
+  const STAGED_WARNING = 'The spread is of the final primary settlement under the loads left in place at the end; the construction schedule, a surcharge taken off and the drains are not varied.'
+
+  it('draws t90 with the drains and ch when the loads are placed at once (ch in the sensitivity)', async () => {
+    const drained: RunComputeInput = { ...INPUT, grid: null, options: { ...OPTIONS, drains: { ...DRAINS, strata: [...DRAINS.strata] } } }
+    const withCh = { ...P, realizations: 500, layers: { ...P.layers, EST: { ...P.layers.EST, ch: { cov: 0.3 } } } }
+    const out = await addProbabilistic(drained, withCh, null, computeRun(drained), { threads: 1, workerFile: null })
+    const plain = await addProbabilistic({ ...INPUT, grid: null }, withCh, null, computeRun({ ...INPUT, grid: null }), { threads: 1, workerFile: null })
+    const block = out.results.points[0]!.probabilistic!
+    expect(out.results.probabilistic!.warnings).not.toContain(STAGED_WARNING)
+    expect(out.results.probabilistic!.warnings.some(w => w.includes('ch is recorded but not varied'))).toBe(false)
+    expect(block.sensitivity.some(e => e.stratum === 'EST' && e.variable === 'ch')).toBe(true)
+    // The drains shorten t90; the settlement's spread is the same draws as without them.
+    expect(block.t90!.quantiles.p50).toBeLessThan(plain.results.points[0]!.probabilistic!.t90!.quantiles.p50 / 2)
+    expect(block.quantiles).toEqual(plain.results.points[0]!.probabilistic!.quantiles)
+    // The drains reach the worker threads: the same numbers with two threads.
+    const two = await addProbabilistic(drained, withCh, null, computeRun(drained), { threads: 2, workerFile: file })
+    expect(strip(two)).toEqual(strip(out))
+  }, 60_000)
+
+  it('says that a staged run\'s spread is of the final primary settlement (the schedule and drains not varied)', async () => {
+    const staged: RunComputeInput = { ...INPUT, grid: null, loads: [{ ...INPUT.loads[0]!, stages: [{ start: 0, duration: 0.5, fraction: 1 }] }], options: { ...OPTIONS, drains: { ...DRAINS, strata: [...DRAINS.strata] } } }
+    const withCh = { ...P, realizations: 200, layers: { ...P.layers, EST: { ...P.layers.EST, ch: { cov: 0.3 } } } }
+    const out = await addProbabilistic(staged, withCh, null, computeRun(staged), { threads: 1, workerFile: null })
+    expect(out.results.probabilistic!.warnings).toContain(STAGED_WARNING)
+    expect(out.results.probabilistic!.warnings).toContain('Stratum EST: ch is recorded but not varied; the spread is of final primary settlement and of t90 by vertical drainage.')
     expect(out.results.points[0]!.probabilistic!.realizations).toBe(200)
+    expect(out.results.points[0]!.probabilistic!.sensitivity.some(e => e.variable === 'ch')).toBe(false)
   })
 
   it('stops with RunCancelled when its signal is aborted, in the pool and in this thread', async () => {
