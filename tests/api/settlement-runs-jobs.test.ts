@@ -1,15 +1,13 @@
 // Settlement runs through the job queue: a grid run goes queued → running → finished in the app
 // process's worker, with progress; and a run whose worker is killed mid-run is left running and
 // unwritten, then finished by the next worker after the job's expiry (attempts 2).
-import { spawn, type ChildProcess } from 'node:child_process'
-import { resolve } from 'node:path'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { Client, demoEmail, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
-import { freePort, ROOT } from '../helpers/server'
+import { until, useStandaloneWorkers } from '../helpers/run-worker'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
@@ -22,16 +20,6 @@ async function row(runId: string): Promise<RunRow> {
   return r.rows[0]!
 }
 
-/** Polls until `done` holds (generous: the machine may be busy); returns the last value. */
-async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => boolean, seconds = 240): Promise<T> {
-  const deadline = Date.now() + seconds * 1000
-  for (;;) {
-    const v = await read()
-    if (done(v)) return v
-    if (Date.now() > deadline) throw new Error(`${what}: still ${JSON.stringify(v)} after ${seconds} s`)
-    await new Promise(r => setTimeout(r, 100))
-  }
-}
 
 /** A grid run large enough to take a few seconds: a 70 m × 50 m slab, a 1 m grid with 10 m margin (91 × 71 points). */
 function gridRunBody(model: { modelId: string, version: number }, name: string) {
@@ -91,54 +79,10 @@ describe('settlement runs through the job queue', () => {
   })
 
   describe('a standalone worker killed mid-run', () => {
-    const schema = `pgboss_kill_${Date.now().toString(36)}`
-    const workers: ChildProcess[] = []
-
-    async function startWorker(): Promise<{ child: ChildProcess, url: string, log: () => string }> {
-      const port = await freePort()
-      let log = ''
-      const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
-        cwd: ROOT,
-        env: {
-          ...process.env,
-          PASTLOAD_JOBS_SCHEMA: schema,
-          PASTLOAD_RUN_JOB_EXPIRY_S: '60',
-          PASTLOAD_JOBS_MAINTENANCE_S: '1',
-          PASTLOAD_WORKER_PORT: String(port),
-          PASTLOAD_WORKER_SKIP_BUILD: '1',
-          PASTLOAD_TRUST_PROXY: '1',
-        },
-        stdio: ['ignore', 'pipe', 'pipe'],
-      })
-      child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
-      child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
-      workers.push(child)
-      const url = `http://127.0.0.1:${port}`
-      await until('worker ready', async () => {
-        if (child.exitCode !== null) throw new Error(`the worker exited (${child.exitCode}):\n${log}`)
-        try {
-          const health = await (await fetch(`${url}/api/health`)).json() as { db?: string }
-          return health.db === 'ok' && log.includes('settlement-run worker started')
-        }
-        catch {
-          return false
-        }
-      }, ready => ready, 60)
-      return { child, url, log: () => log }
-    }
-
-    afterAll(async () => {
-      for (const w of workers) {
-        if (w.exitCode === null && w.signalCode === null) {
-          w.kill('SIGTERM')
-          await new Promise(r => w.once('exit', r))
-        }
-      }
-      await pool.query(`drop schema if exists ${schema} cascade`)
-    })
+    const workers = useStandaloneWorkers('pgboss_kill', pool)
 
     it('leaves the run running and unwritten, and the next worker finishes it (attempts 2)', async () => {
-      const first = await startWorker()
+      const first = await workers.start()
       expect(first.log()).toContain('runs computed in a worker thread')
       // Sent through the worker's own HTTP side, so the job lands in its queue schema.
       const viaWorker = new Client(first.url)
@@ -156,7 +100,7 @@ describe('settlement runs through the job queue', () => {
       const left = await row(created.run.id)
       expect(left).toMatchObject({ status: 'running', attempts: 1, has_results: false, points: 0 })
 
-      await startWorker()
+      await workers.start()
       const done = await until('finished by the second worker', () => row(created.run.id), r => r.status === 'finished' || r.status === 'failed', 300)
       expect(done).toMatchObject({ status: 'finished', progress: 1, attempts: 2, has_results: true, points: 1 })
       const { run } = await must('read', designer.get<{ run: SettlementRun }>(`${project.base}/settlement-runs/${created.run.id}`))

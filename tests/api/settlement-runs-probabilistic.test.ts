@@ -2,8 +2,6 @@
 // checked against the oedometer list with simple-statistics), the run through the queue with its
 // blocks per point, grid and set-up, the 422s, the same numbers for the same seed, cancel (200, 403,
 // 409, nothing written after it), and a killed worker's run restarted and never half-written.
-import { spawn, type ChildProcess } from 'node:child_process'
-import { resolve } from 'node:path'
 import pg from 'pg'
 import { mean, sampleStandardDeviation } from 'simple-statistics'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -15,7 +13,7 @@ import { RESULT_CAUTION } from '../../shared/caution'
 import { Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { pdfPagesText, pdfPageToPng } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
-import { freePort, ROOT } from '../helpers/server'
+import { until, useStandaloneWorkers } from '../helpers/run-worker'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
@@ -28,16 +26,6 @@ async function row(runId: string): Promise<RunRow> {
   return r.rows[0]!
 }
 
-/** Polls until `done` holds (generous: the machine may be busy); returns the last value. */
-async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => boolean, seconds = 240): Promise<T> {
-  const deadline = Date.now() + seconds * 1000
-  for (;;) {
-    const v = await read()
-    if (done(v)) return v
-    if (Date.now() > deadline) throw new Error(`${what}: still ${JSON.stringify(v)} after ${seconds} s`)
-    await new Promise(r => setTimeout(r, 100))
-  }
-}
 
 describe('the scatter "from the data" of the demo\'s yard model', () => {
   const { engineer, reviewer } = signedInDemo('engineer', 'reviewer')
@@ -278,54 +266,10 @@ describe('probabilistic settlement runs', () => {
   })
 
   describe('a standalone worker killed mid-run', () => {
-    const schema = `pgboss_probkill_${Date.now().toString(36)}`
-    const workers: ChildProcess[] = []
-
-    async function startWorker(): Promise<{ child: ChildProcess, url: string, log: () => string }> {
-      const port = await freePort()
-      let log = ''
-      const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
-        cwd: ROOT,
-        env: {
-          ...process.env,
-          PASTLOAD_JOBS_SCHEMA: schema,
-          PASTLOAD_RUN_JOB_EXPIRY_S: '60',
-          PASTLOAD_JOBS_MAINTENANCE_S: '1',
-          PASTLOAD_WORKER_PORT: String(port),
-          PASTLOAD_WORKER_SKIP_BUILD: '1',
-          PASTLOAD_TRUST_PROXY: '1',
-        },
-        stdio: ['ignore', 'pipe', 'pipe'],
-      })
-      child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
-      child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
-      workers.push(child)
-      const url = `http://127.0.0.1:${port}`
-      await until('worker ready', async () => {
-        if (child.exitCode !== null) throw new Error(`the worker exited (${child.exitCode}):\n${log}`)
-        try {
-          const health = await (await fetch(`${url}/api/health`)).json() as { db?: string }
-          return health.db === 'ok' && log.includes('settlement-run worker started')
-        }
-        catch {
-          return false
-        }
-      }, ready => ready, 60)
-      return { child, url, log: () => log }
-    }
-
-    afterAll(async () => {
-      for (const w of workers) {
-        if (w.exitCode === null && w.signalCode === null) {
-          w.kill('SIGTERM')
-          await new Promise(r => w.once('exit', r))
-        }
-      }
-      await pool.query(`drop schema if exists ${schema} cascade`)
-    })
+    const workers = useStandaloneWorkers('pgboss_probkill', pool)
 
     it('leaves the run running and unwritten, and the next worker draws it again from the start (attempts 2, the same numbers)', async () => {
-      const first = await startWorker()
+      const first = await workers.start()
       const viaWorker = new Client(first.url)
       await must('sign-in on the worker', viaWorker.post('/api/auth/login', { email: demoEmail('designer'), password: DEMO_PASSWORD }))
       const p = { realizations: 40_000, seed: 5, layers: { EST: { cc: { cov: 0.3 } } } }
@@ -337,7 +281,7 @@ describe('probabilistic settlement runs', () => {
       await new Promise(r => first.child.once('exit', r))
       expect(await row(killed.run.id)).toMatchObject({ status: 'running', attempts: 1, has_results: false, points: 0 })
 
-      await startWorker()
+      await workers.start()
       const done = await until('finished by the second worker', () => row(killed.run.id), r => r.status === 'finished' || r.status === 'failed', 400)
       expect(done).toMatchObject({ status: 'finished', progress: 1, attempts: 2, has_results: true, points: 2 })
       // The same inputs and seed through the app's own worker: the same numbers, so the restart drew everything again.

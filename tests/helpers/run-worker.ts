@@ -1,0 +1,75 @@
+// Settlement-run job tests: polling a run until it settles, and standalone job workers
+// (`scripts/worker.mjs`) on a queue schema of the test file's own, stopped after the file.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { resolve } from 'node:path'
+import type pg from 'pg'
+import { afterAll } from 'vitest'
+import { freePort, ROOT } from './server'
+
+/** Polls until `done` holds (generous: the machine may be busy); returns the last value. */
+export async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => boolean, seconds = 240): Promise<T> {
+  const deadline = Date.now() + seconds * 1000
+  for (;;) {
+    const v = await read()
+    if (done(v)) return v
+    if (Date.now() > deadline) throw new Error(`${what}: still ${JSON.stringify(v)} after ${seconds} s`)
+    await new Promise(r => setTimeout(r, 100))
+  }
+}
+
+export interface StandaloneWorker { child: ChildProcess, url: string, log: () => string }
+
+/**
+ * Standalone workers on the queue schema `<prefix>_<time>` (jobs expire after 60 s, expired jobs are
+ * looked for every second); each answers HTTP on a port of its own. After the file every worker
+ * still alive is stopped and the schema dropped through `pool`.
+ */
+export function useStandaloneWorkers(prefix: string, pool: pg.Pool): { schema: string, start: () => Promise<StandaloneWorker> } {
+  const schema = `${prefix}_${Date.now().toString(36)}`
+  const workers: ChildProcess[] = []
+
+  async function start(): Promise<StandaloneWorker> {
+    const port = await freePort()
+    let log = ''
+    const child = spawn(process.execPath, [resolve(ROOT, 'scripts/worker.mjs')], {
+      cwd: ROOT,
+      env: {
+        ...process.env,
+        PASTLOAD_JOBS_SCHEMA: schema,
+        PASTLOAD_RUN_JOB_EXPIRY_S: '60',
+        PASTLOAD_JOBS_MAINTENANCE_S: '1',
+        PASTLOAD_WORKER_PORT: String(port),
+        PASTLOAD_WORKER_SKIP_BUILD: '1',
+        PASTLOAD_TRUST_PROXY: '1',
+      },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    })
+    child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
+    child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
+    workers.push(child)
+    const url = `http://127.0.0.1:${port}`
+    await until('worker ready', async () => {
+      if (child.exitCode !== null) throw new Error(`the worker exited (${child.exitCode}):\n${log}`)
+      try {
+        const health = await (await fetch(`${url}/api/health`)).json() as { db?: string }
+        return health.db === 'ok' && log.includes('settlement-run worker started')
+      }
+      catch {
+        return false
+      }
+    }, ready => ready, 60)
+    return { child, url, log: () => log }
+  }
+
+  afterAll(async () => {
+    for (const w of workers) {
+      if (w.exitCode === null && w.signalCode === null) {
+        w.kill('SIGTERM')
+        await new Promise(r => w.once('exit', r))
+      }
+    }
+    await pool.query(`drop schema if exists ${schema} cascade`)
+  })
+
+  return { schema, start }
+}
