@@ -1,24 +1,15 @@
 // Settlement runs through the job queue: a grid run goes queued → running → finished in the app
 // process's worker, with progress; and a run whose worker is killed mid-run is left running and
 // unwritten, then finished by the next worker after the job's expiry (attempts 2).
-import pg from 'pg'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
 import { Client, demoEmail, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
-import { until, useStandaloneWorkers } from '../helpers/run-worker'
+import { until, useRunRows, useStandaloneWorkers } from '../helpers/run-worker'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
-const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
-afterAll(() => pool.end())
-
-interface RunRow { status: string, progress: number, attempts: number, has_results: boolean, points: number }
-async function row(runId: string): Promise<RunRow> {
-  const r = await pool.query<RunRow>(`select status, progress, attempts, results is not null as has_results,
-    (select count(*)::int from settlement_run_points p where p.run_id = r.id) as points from settlement_runs r where id = $1`, [runId])
-  return r.rows[0]!
-}
+const { pool, row } = useRunRows()
 
 
 /** A grid run large enough to take a few seconds: a 70 m × 50 m slab, a 1 m grid with 10 m margin (91 × 71 points). */

@@ -2,9 +2,8 @@
 // checked against the oedometer list with simple-statistics), the run through the queue with its
 // blocks per point, grid and set-up, the 422s, the same numbers for the same seed, cancel (200, 403,
 // 409, nothing written after it), and a killed worker's run restarted and never half-written.
-import pg from 'pg'
 import { mean, sampleStandardDeviation } from 'simple-statistics'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo/scenario'
 import { RUN_SCATTER_DEFAULT_COV } from '../../shared/schemas/settlement-run-limits'
 import type { RunScatterReply, SettlementRun } from '../../shared/types/settlement-runs'
@@ -13,18 +12,10 @@ import { RESULT_CAUTION } from '../../shared/caution'
 import { Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { pdfPagesText, pdfPageToPng } from '../helpers/pdf'
 import { createProject, must } from '../helpers/project'
-import { until, useStandaloneWorkers } from '../helpers/run-worker'
+import { until, useRunRows, useStandaloneWorkers } from '../helpers/run-worker'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 
-const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
-afterAll(() => pool.end())
-
-interface RunRow { status: string, progress: number, attempts: number, has_results: boolean, points: number }
-async function row(runId: string): Promise<RunRow> {
-  const r = await pool.query<RunRow>(`select status, progress, attempts, results is not null as has_results,
-    (select count(*)::int from settlement_run_points p where p.run_id = r.id) as points from settlement_runs r where id = $1`, [runId])
-  return r.rows[0]!
-}
+const { pool, row } = useRunRows()
 
 
 describe('the scatter "from the data" of the demo\'s yard model', () => {

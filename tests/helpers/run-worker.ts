@@ -2,9 +2,11 @@
 // (`scripts/worker.mjs`) on a queue schema of the test file's own, stopped after the file.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
-import type pg from 'pg'
+import pg from 'pg'
 import { afterAll } from 'vitest'
 import { freePort, ROOT } from './server'
+
+const { Pool } = pg
 
 /** Polls until `done` holds (generous: the machine may be busy); returns the last value. */
 export async function until<T>(what: string, read: () => Promise<T>, done: (v: T) => boolean, seconds = 240): Promise<T> {
@@ -72,4 +74,23 @@ export function useStandaloneWorkers(prefix: string, pool: pg.Pool): { schema: s
   })
 
   return { schema, start }
+}
+
+export interface RunRow { status: string, progress: number, attempts: number, has_results: boolean, points: number }
+
+/**
+ * A small pool on the test database (closed after the file) and a reader of a run's row as the
+ * worker leaves it: status, progress, starts, whether results and point rows are written.
+ */
+export function useRunRows(): { pool: pg.Pool, row: (runId: string) => Promise<RunRow> } {
+  const pool = new Pool({ connectionString: process.env.DATABASE_URL, max: 2 })
+  afterAll(() => pool.end())
+  async function row(runId: string): Promise<RunRow> {
+    const r = await pool.query<RunRow>(`select status, progress, attempts, results is not null as has_results,
+      (select count(*)::int from settlement_run_points p where p.run_id = r.id) as points from settlement_runs r where id = $1`, [runId])
+    const found = r.rows[0]
+    if (!found) throw new Error(`run ${runId} has no row`)
+    return found
+  }
+  return { pool, row }
 }

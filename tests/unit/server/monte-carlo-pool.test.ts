@@ -1,14 +1,11 @@
 // The Monte Carlo split across worker threads (server/services/monte-carlo-pool.ts): the worker
 // script is bundled here as the build bundles it, and the pooled result must equal the one-thread
 // result exactly for any number of threads (each chunk of realisations draws from its own streams).
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { build } from 'esbuild'
+import { describe, expect, it } from 'vitest'
+import { useBundledMonteCarloWorker } from '../../helpers/monte-carlo-worker'
 import { runMonteCarlo, type MonteCarloOptions } from '../../../shared/probabilistic/monte-carlo'
 import type { SettlementInput } from '../../../shared/geotech/settlement'
-import { chunkRanges, closeMonteCarloPools, runMonteCarloPooled } from '../../../server/services/monte-carlo-pool'
+import { chunkRanges, runMonteCarloPooled } from '../../../server/services/monte-carlo-pool'
 
 const INPUT: SettlementInput = {
   layers: [
@@ -27,17 +24,7 @@ const OPTIONS: MonteCarloOptions = {
 }
 
 describe('Monte Carlo across worker threads', () => {
-  let dir: string
-  let file: string
-  beforeAll(async () => {
-    dir = mkdtempSync(join(tmpdir(), 'pastload-mc-'))
-    file = join(dir, 'monte-carlo.bundle.mjs')
-    await build({ entryPoints: [resolve(import.meta.dirname, '../../../server/workers/monte-carlo.mjs')], outfile: file, bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning' })
-  }, 60_000)
-  afterAll(async () => {
-    await closeMonteCarloPools()
-    rmSync(dir, { recursive: true, force: true })
-  })
+  const worker = useBundledMonteCarloWorker()
 
   it('chunk ranges cover every chunk once, contiguous', () => {
     expect(chunkRanges(6, 4)).toEqual([[0, 1], [1, 3], [3, 4], [4, 6]])
@@ -47,14 +34,14 @@ describe('Monte Carlo across worker threads', () => {
   it('2 and 3 threads give exactly the one-thread result, with progress to the total', async () => {
     const one = runMonteCarlo(INPUT, OPTIONS)
     const seen: number[] = []
-    const two = await runMonteCarloPooled(INPUT, OPTIONS, { threads: 2, workerFile: file, onProgress: d => seen.push(d) })
-    const three = await runMonteCarloPooled(INPUT, OPTIONS, { threads: 3, workerFile: file })
+    const two = await runMonteCarloPooled(INPUT, OPTIONS, { threads: 2, workerFile: worker.file(), onProgress: d => seen.push(d) })
+    const three = await runMonteCarloPooled(INPUT, OPTIONS, { threads: 3, workerFile: worker.file() })
     expect(two).toEqual(one)
     expect(three).toEqual(one)
     expect(seen.at(-1)).toBe(5500)
   }, 60_000)
 
   it('refusals come from the plan in this thread (the engine\'s GeotechError)', async () => {
-    await expect(runMonteCarloPooled(INPUT, { ...OPTIONS, strata: { Peat: { cc: { cov: 0.2 } } } }, { threads: 2, workerFile: file })).rejects.toMatchObject({ code: 'stratum-unknown' })
+    await expect(runMonteCarloPooled(INPUT, { ...OPTIONS, strata: { Peat: { cc: { cov: 0.2 } } } }, { threads: 2, workerFile: worker.file() })).rejects.toMatchObject({ code: 'stratum-unknown' })
   })
 })

@@ -1,14 +1,10 @@
 // A probabilistic settlement run's Monte Carlo across the pool (server/services/settlement-run-probabilistic.ts):
 // the worker script bundled as the build bundles it; one thread (no pool), 2 and 3 threads give exactly the
 // same blocks per point and grid node; progress reaches 1; an aborted signal stops it with RunCancelled.
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
-import { build } from 'esbuild'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
+import { useBundledMonteCarloWorker } from '../../helpers/monte-carlo-worker'
 import { RunProbabilisticSchema, type RunOptions } from '../../../shared/schemas/settlement-runs'
 import { computeRun, type RunComputeInput } from '../../../shared/settlement-run/compute'
-import { closeMonteCarloPools } from '../../../server/services/monte-carlo-pool'
 import { addProbabilistic, RunCancelled } from '../../../server/services/settlement-run-probabilistic'
 import { scenarioDefinition } from '../../helpers/scenario-definition'
 
@@ -23,17 +19,7 @@ const INPUT: RunComputeInput = {
 const P = RunProbabilisticSchema.parse({ realizations: 2500, seed: 9, limit: 0.5, layers: { EST: { cc: { cov: 0.3 }, e0: { cov: 0.1 }, cv: { cov: 0.4 } }, GLA: { preconsolidation: { cov: 0.2 } } } })
 
 describe('a probabilistic run across worker threads', () => {
-  let dir: string
-  let file: string
-  beforeAll(async () => {
-    dir = mkdtempSync(join(tmpdir(), 'pastload-run-mc-'))
-    file = join(dir, 'monte-carlo.bundle.mjs')
-    await build({ entryPoints: [resolve(import.meta.dirname, '../../../server/workers/monte-carlo.mjs')], outfile: file, bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning' })
-  }, 60_000)
-  afterAll(async () => {
-    await closeMonteCarloPools()
-    rmSync(dir, { recursive: true, force: true })
-  })
+  const worker = useBundledMonteCarloWorker()
 
   const strip = (r: Awaited<ReturnType<typeof addProbabilistic>>) => ({
     points: r.results.points.map(p => p.probabilistic),
@@ -45,8 +31,8 @@ describe('a probabilistic run across worker threads', () => {
     const det = computeRun(INPUT)
     const progress: number[] = []
     const one = await addProbabilistic(INPUT, P, null, det, { threads: 1, workerFile: null, onProgress: f => progress.push(f) })
-    const two = await addProbabilistic(INPUT, P, null, det, { threads: 2, workerFile: file })
-    const three = await addProbabilistic(INPUT, P, null, det, { threads: 3, workerFile: file })
+    const two = await addProbabilistic(INPUT, P, null, det, { threads: 2, workerFile: worker.file() })
+    const three = await addProbabilistic(INPUT, P, null, det, { threads: 3, workerFile: worker.file() })
     expect(strip(two)).toEqual(strip(one))
     expect(strip(three)).toEqual(strip(one))
     expect(one.results.probabilistic!.threads).toBe(1)
@@ -79,7 +65,7 @@ describe('a probabilistic run across worker threads', () => {
     expect(block.t90!.quantiles.p50).toBeLessThan(plain.results.points[0]!.probabilistic!.t90!.quantiles.p50 / 2)
     expect(block.quantiles).toEqual(plain.results.points[0]!.probabilistic!.quantiles)
     // The drains reach the worker threads: the same numbers with two threads.
-    const two = await addProbabilistic(drained, withCh, null, computeRun(drained), { threads: 2, workerFile: file })
+    const two = await addProbabilistic(drained, withCh, null, computeRun(drained), { threads: 2, workerFile: worker.file() })
     expect(strip(two)).toEqual(strip(out))
   }, 60_000)
 
@@ -95,7 +81,7 @@ describe('a probabilistic run across worker threads', () => {
 
   it('stops with RunCancelled when its signal is aborted, in the pool and in this thread', async () => {
     const det = computeRun(INPUT)
-    for (const opts of [{ threads: 2, workerFile: file }, { threads: 1, workerFile: null }]) {
+    for (const opts of [{ threads: 2, workerFile: worker.file() }, { threads: 1, workerFile: null }]) {
       const stop = new AbortController()
       const running = addProbabilistic(INPUT, { ...P, realizations: 20_000 }, null, det, { ...opts, signal: stop.signal, onProgress: () => stop.abort() })
       await expect(running).rejects.toBeInstanceOf(RunCancelled)
