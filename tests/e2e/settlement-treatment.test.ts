@@ -131,6 +131,8 @@ describe('designing the treatment in Chromium: stages, a surcharge taken off and
     await expect(page.getByTestId('run-caution').textContent()).resolves.toContain('licensed engineer')
 
     // The time curve: the load band above, the curves with and without drains, the removal marked.
+    // It is built when it comes near the screen: the designer scrolls down to it.
+    await page.getByTestId('time-curve-box').scrollIntoViewIfNeeded()
     const curve = page.getByTestId('time-curve')
     await curve.getByTestId('load-band').waitFor()
     const legend = await curve.getByTestId('time-legend').textContent()
