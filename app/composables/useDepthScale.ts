@@ -21,9 +21,10 @@ export function useDepthScale(options: {
   function configure() {
     if (!behaviour || !target) return
     const [top, bottom] = toValue(options.range)
-    const width = target.clientWidth || 1000
+    // The width is read when a gesture starts, not here: reading it while the drawing mounts would force a layout.
+    const el = target
     behaviour
-      .extent([[0, top], [width, bottom]])
+      .extent(() => [[0, top], [el.clientWidth || 1000, bottom]])
       .translateExtent([[-Infinity, top], [Infinity, bottom]])
   }
 

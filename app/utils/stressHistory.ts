@@ -1,5 +1,5 @@
 import type { FlagVerdict } from '#shared/review/flags'
-import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/schemas/lab'
+import { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '#shared/lab/sources'
 import type { ProfilePoint } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { ModelStratum, SiteModelDefinition } from '#shared/site-model/definition'

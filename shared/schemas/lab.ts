@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { OEDOMETER_TEST_TYPES } from '../investigation/types'
+import type { PreconsolidationSource } from '../lab/sources'
 import { STAGE_CONVENTIONS } from '../lab/stages'
 import { SiteModelDefinitionSchema } from '../site-model/definition'
 import { int, INT32_MAX, str, UuidSchema } from './common'
@@ -127,8 +128,7 @@ export const PreconsolidationPointsEvaluateSchema = z.object({
 
 export const CptInterpretationQuerySchema = z.object({ spacing })
 
-export const PRECONSOLIDATION_SOURCES = ['oedometer', 'cpt', 'vane'] as const
-export type PreconsolidationSource = (typeof PRECONSOLIDATION_SOURCES)[number]
+export { PRECONSOLIDATION_SOURCES, type PreconsolidationSource } from '../lab/sources'
 
 /**
  * One σ'p point, whatever its source, as the σ'p points routes send it: `TDate`
