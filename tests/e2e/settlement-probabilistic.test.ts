@@ -5,10 +5,10 @@ import { DEMO_EMBANKMENT, SITE_PLAN } from '../../shared/demo/site'
 import { formatSettlement } from '../../shared/plots/settlement-units'
 import { exceedanceAt, formatCov, formatProbability } from '../../shared/settlement-run/spread'
 import type { SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { baseUrl, type Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { useDemoCopy } from '../helpers/demo-project'
 import { must } from '../helpers/project'
-import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
+import { createApprovedRunModel } from '../helpers/settlement-run'
 import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 interface Created { run: { id: string, status: string } }
@@ -43,19 +43,14 @@ describe('probabilistic settlement in Chromium', () => {
   const browser = useBrowser()
   // A copy of the demo (its boreholes, samples and interpreted oedometer tests), so the COVs "from the data" are the demo's.
   const copy = useDemoCopy('E2E-PROB')
-  let designer: Client
+  const { designer, ...people } = signedInDemo('owner', 'engineer', 'reviewer', 'designer')
   let base = ''
   let firstRun = ''
 
   beforeAll(async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const engineer = await signIn(demoEmail('engineer'))
-    const reviewer = await signIn(demoEmail('reviewer'))
-    designer = await signIn(demoEmail('designer'))
     base = `/api/projects/${copy.id}`
     // The yard model (the demo's ground model, strata CRUST, EST, GLA compressible), version 1 approved.
-    const model = await createRunModel(engineer, copy.id, undefined, 'Yard model')
-    await approveFirstVersion({ owner, engineer, reviewer }, base, model.url, 'For the yard embankment')
+    const model = await createApprovedRunModel(people, copy.id, 'For the yard embankment')
     // The designer's single-figure run of the embankment, the one they will run again "from the data".
     const created = await must('the yard run', designer.post<Created>(`${base}/settlement-runs`, {
       name: 'Yard embankment, 6 m',
