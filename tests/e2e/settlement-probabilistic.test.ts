@@ -8,6 +8,7 @@ import type { SettlementRun, SettlementRunList } from '../../shared/types/settle
 import { baseUrl, type Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { useDemoCopy } from '../helpers/demo-project'
 import { must } from '../helpers/project'
+import { insertRunningCopy } from '../helpers/run-worker'
 import { createApprovedRunModel } from '../helpers/settlement-run'
 import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
@@ -184,12 +185,8 @@ describe('probabilistic settlement in Chromium', () => {
 
   it('a running run shows its progress and, to its creator only, a stop button; stopped, it says so', async () => {
     // A copy of the yard run as a worker would leave it part-way (the page cannot tell), made by the designer.
-    const { rows: [copyRun] } = await pool.query<{ id: string }>(
-      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
-       select project_id, 'Yard, how sure (computing)', model, definition, loads, points, grid, options, 'running', 0.4, created_by, now() from settlement_runs where id = $1 returning id`,
-      [firstRun],
-    )
-    const path = `/projects/${copy.id}/settlement/${copyRun!.id}`
+    const copyRun = await insertRunningCopy(pool, firstRun, 'Yard, how sure (computing)', 0.4)
+    const path = `/projects/${copy.id}/settlement/${copyRun}`
     // The engineer (neither its creator nor an owner) sees the progress but no stop button.
     const other = await signInAs(browser.context, demoEmail('engineer'))
     await other.goto(`${baseUrl()}${path}`)
@@ -211,8 +208,8 @@ describe('probabilistic settlement in Chromium', () => {
     await stopped.waitFor()
     expect(await stopped.textContent()).toContain('Stopped before it finished')
     expect(await page.getByTestId('run-progress').count()).toBe(0)
-    expect(await stopped.getByRole('link').getAttribute('href')).toBe(`/projects/${copy.id}/settlement/new?from=${copyRun!.id}`)
-    const { rows: [row] } = await pool.query<{ status: string }>('select status from settlement_runs where id = $1', [copyRun!.id])
+    expect(await stopped.getByRole('link').getAttribute('href')).toBe(`/projects/${copy.id}/settlement/new?from=${copyRun}`)
+    const { rows: [row] } = await pool.query<{ status: string }>('select status from settlement_runs where id = $1', [copyRun])
     expect(row!.status).toBe('cancelled')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'settlement-probabilistic-stopped-phone')
