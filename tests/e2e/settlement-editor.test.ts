@@ -2,9 +2,9 @@ import { join } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
-import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
+import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
 import { createPoint, createProject, must } from '../helpers/project'
-import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
+import { createApprovedRunModel } from '../helpers/settlement-run'
 import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 /** Both screen sizes of the page as it stands. */
@@ -32,21 +32,15 @@ async function drag(page: Page, x0: number, y0: number, x1: number, y1: number) 
 
 describe('the settlement run editor in Chromium', () => {
   const browser = useBrowser()
-  let designer: Client
+  const people = signedInDemo('owner', 'engineer', 'reviewer', 'designer')
   let projectId = ''
 
   // A project of this file's own: two boreholes, and a model from the scenario's ground model, version 1 approved.
   beforeAll(async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const engineer = await signIn(demoEmail('engineer'))
-    const reviewer = await signIn(demoEmail('reviewer'))
-    designer = await signIn(demoEmail('designer'))
-    const project = await createProject(owner, 'E2E-RUN', 'Run editor (browser)', ['engineer', 'reviewer', 'designer', 'geologist'])
-    projectId = project.id
-    await createPoint(engineer, projectId, { identifier: 'BH-R1', easting: 10, northing: 20 })
-    await createPoint(engineer, projectId, { identifier: 'BH-R2', easting: 150, northing: 90 })
-    const model = await createRunModel(engineer, projectId, undefined, 'Yard model')
-    await approveFirstVersion({ owner, engineer, reviewer }, project.base, model.url, 'For settlement runs')
+    projectId = (await createProject(people.owner, 'E2E-RUN', 'Run editor (browser)', ['engineer', 'reviewer', 'designer', 'geologist'])).id
+    await createPoint(people.engineer, projectId, { identifier: 'BH-R1', easting: 10, northing: 20 })
+    await createPoint(people.engineer, projectId, { identifier: 'BH-R2', easting: 150, northing: 90 })
+    await createApprovedRunModel(people, projectId, 'For settlement runs')
   })
 
   it('a designer draws an embankment, places two points, edits and undoes a value, runs and lands on the run', async () => {
@@ -138,7 +132,7 @@ describe('the settlement run editor in Chromium', () => {
     await page.getByTestId('run').click()
     await page.waitForURL(/\/settlement\/[0-9a-f-]{36}$/)
     const runId = page.url().split('/').pop()!
-    const { run } = await must('reading the run', designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${runId}`))
+    const { run } = await must('reading the run', people.designer.get<{ run: SettlementRun }>(`/api/projects/${projectId}/settlement-runs/${runId}`))
     expect(run.name).toBe('Yard embankment, drawn')
     expect(run.loads).toHaveLength(1)
     expect(run.loads[0]).toMatchObject({ type: 'embankment', height: 6, sideSlope: 2, unitWeight: 20, crestWidth })
@@ -174,8 +168,7 @@ describe('the settlement run editor in Chromium', () => {
   })
 
   it('a project in US units takes feet and psf in the table and keeps SI in the draft', async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const us = await createProject(owner, 'E2E-RUN-US', 'Run editor in US units (browser)', ['designer'], { unitSystem: 'US' })
+    const us = await createProject(people.owner, 'E2E-RUN-US', 'Run editor in US units (browser)', ['designer'], { unitSystem: 'US' })
     const page = await signInAs(browser.context, demoEmail('designer'))
     await page.route('**/api/projects/*/events', route => route.abort())
     await page.goto(`${baseUrl()}/projects/${us.id}/settlement/new`)

@@ -5,10 +5,11 @@ import { DEMO_EMBANKMENT, SITE_PLAN } from '../../shared/demo/site'
 import { formatSettlement } from '../../shared/plots/settlement-units'
 import { exceedanceAt, formatCov, formatProbability } from '../../shared/settlement-run/spread'
 import type { SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
-import { baseUrl, type Client, demoEmail, demoProjectId, signIn } from '../helpers/http'
+import { baseUrl, type Client, demoEmail, demoProjectId, signedInDemo } from '../helpers/http'
 import { useDemoCopy } from '../helpers/demo-project'
 import { must } from '../helpers/project'
-import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
+import { insertRunningCopy } from '../helpers/run-worker'
+import { createApprovedRunModel } from '../helpers/settlement-run'
 import { SCREENSHOTS, screenshot, signInAs, useBrowser } from './helpers'
 
 interface Created { run: { id: string, status: string } }
@@ -43,19 +44,14 @@ describe('probabilistic settlement in Chromium', () => {
   const browser = useBrowser()
   // A copy of the demo (its boreholes, samples and interpreted oedometer tests), so the COVs "from the data" are the demo's.
   const copy = useDemoCopy('E2E-PROB')
-  let designer: Client
+  const { designer, ...people } = signedInDemo('owner', 'engineer', 'reviewer', 'designer')
   let base = ''
   let firstRun = ''
 
   beforeAll(async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const engineer = await signIn(demoEmail('engineer'))
-    const reviewer = await signIn(demoEmail('reviewer'))
-    designer = await signIn(demoEmail('designer'))
     base = `/api/projects/${copy.id}`
     // The yard model (the demo's ground model, strata CRUST, EST, GLA compressible), version 1 approved.
-    const model = await createRunModel(engineer, copy.id, undefined, 'Yard model')
-    await approveFirstVersion({ owner, engineer, reviewer }, base, model.url, 'For the yard embankment')
+    const model = await createApprovedRunModel(people, copy.id, 'For the yard embankment')
     // The designer's single-figure run of the embankment, the one they will run again "from the data".
     const created = await must('the yard run', designer.post<Created>(`${base}/settlement-runs`, {
       name: 'Yard embankment, 6 m',
@@ -189,12 +185,8 @@ describe('probabilistic settlement in Chromium', () => {
 
   it('a running run shows its progress and, to its creator only, a stop button; stopped, it says so', async () => {
     // A copy of the yard run as a worker would leave it part-way (the page cannot tell), made by the designer.
-    const { rows: [copyRun] } = await pool.query<{ id: string }>(
-      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
-       select project_id, 'Yard, how sure (computing)', model, definition, loads, points, grid, options, 'running', 0.4, created_by, now() from settlement_runs where id = $1 returning id`,
-      [firstRun],
-    )
-    const path = `/projects/${copy.id}/settlement/${copyRun!.id}`
+    const copyRun = await insertRunningCopy(pool, firstRun, 'Yard, how sure (computing)', 0.4)
+    const path = `/projects/${copy.id}/settlement/${copyRun}`
     // The engineer (neither its creator nor an owner) sees the progress but no stop button.
     const other = await signInAs(browser.context, demoEmail('engineer'))
     await other.goto(`${baseUrl()}${path}`)
@@ -216,8 +208,8 @@ describe('probabilistic settlement in Chromium', () => {
     await stopped.waitFor()
     expect(await stopped.textContent()).toContain('Stopped before it finished')
     expect(await page.getByTestId('run-progress').count()).toBe(0)
-    expect(await stopped.getByRole('link').getAttribute('href')).toBe(`/projects/${copy.id}/settlement/new?from=${copyRun!.id}`)
-    const { rows: [row] } = await pool.query<{ status: string }>('select status from settlement_runs where id = $1', [copyRun!.id])
+    expect(await stopped.getByRole('link').getAttribute('href')).toBe(`/projects/${copy.id}/settlement/new?from=${copyRun}`)
+    const { rows: [row] } = await pool.query<{ status: string }>('select status from settlement_runs where id = $1', [copyRun])
     expect(row!.status).toBe('cancelled')
     await page.setViewportSize({ width: 390, height: 844 })
     await screenshot(page, 'settlement-probabilistic-stopped-phone')

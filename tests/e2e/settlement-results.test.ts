@@ -5,6 +5,7 @@ import type { SettlementRun } from '../../shared/types/settlement-runs'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { baseUrl, demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
+import { insertRunningCopy } from '../helpers/run-worker'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 import { openProjectAs, screenshot, useBrowser } from './helpers'
 
@@ -148,20 +149,16 @@ describe('settlement results in Chromium', () => {
 
   it('moves the progress bar of a run being computed, then shows its results once it has finished', async () => {
     // A run of this test's own, written as a worker would leave it part-way (the page cannot tell).
-    const { rows: [copy] } = await pool.query<{ id: string }>(
-      `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
-       select project_id, 'Slab computing', model, definition, loads, points, grid, options, 'running', 0.3, created_by, now() from settlement_runs where id = $1 returning id`,
-      [approvedRun],
-    )
-    const page = await openProjectAs(browser.context, 'designer', projectId, `/settlement/${copy!.id}`, { viewport: { width: 1366, height: 800 } })
+    const copy = await insertRunningCopy(pool, approvedRun, 'Slab computing', 0.3)
+    const page = await openProjectAs(browser.context, 'designer', projectId, `/settlement/${copy}`, { viewport: { width: 1366, height: 800 } })
     const bar = page.getByRole('progressbar', { name: 'Run progress' })
     await bar.waitFor()
     expect(await bar.getAttribute('aria-valuenow')).toBe('30')
     await screenshot(page, 'settlement-results-running-laptop')
-    await pool.query('update settlement_runs set progress = 0.6 where id = $1', [copy!.id])
+    await pool.query('update settlement_runs set progress = 0.6 where id = $1', [copy])
     await expect.poll(() => bar.getAttribute('aria-valuenow'), { timeout: 10_000 }).toBe('60')
-    await pool.query('insert into settlement_run_points (run_id, index, detail) select $1, index, detail from settlement_run_points where run_id = $2', [copy!.id, approvedRun])
-    await pool.query(`update settlement_runs r set status = 'finished', progress = 1, finished_at = now(), results = s.results from settlement_runs s where r.id = $1 and s.id = $2`, [copy!.id, approvedRun])
+    await pool.query('insert into settlement_run_points (run_id, index, detail) select $1, index, detail from settlement_run_points where run_id = $2', [copy, approvedRun])
+    await pool.query(`update settlement_runs r set status = 'finished', progress = 1, finished_at = now(), results = s.results from settlement_runs s where r.id = $1 and s.id = $2`, [copy, approvedRun])
     await page.getByTestId('headline-cards').waitFor({ timeout: 10_000 })
     expect(await page.getByTestId('run-progress').count()).toBe(0)
     expect(await page.getByTestId('headline-max').textContent()).toContain('at Centre')
@@ -170,10 +167,10 @@ describe('settlement results in Chromium', () => {
     // Its creator deletes it from the list (after saying yes).
     await page.goto(`${baseUrl()}/projects/${projectId}/settlement`)
     page.once('dialog', d => void d.accept())
-    await page.getByTestId(`run-delete-${copy!.id}`).click()
-    await page.getByTestId(`run-row-${copy!.id}`).waitFor({ state: 'detached' })
+    await page.getByTestId(`run-delete-${copy}`).click()
+    await page.getByTestId(`run-row-${copy}`).waitFor({ state: 'detached' })
     expect(await page.getByRole('status').textContent()).toContain('“Slab computing” deleted.')
-    const { rows } = await pool.query('select 1 from settlement_runs where id = $1', [copy!.id])
+    const { rows } = await pool.query('select 1 from settlement_runs where id = $1', [copy])
     expect(rows).toEqual([])
     await page.close()
   })

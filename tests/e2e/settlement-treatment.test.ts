@@ -4,9 +4,9 @@ import { drainSpacingFor } from '../../shared/geotech/radial-consolidation'
 import { formatSettlement, formatYears } from '../../shared/plots/settlement-units'
 import { RUN_DRAIN_DEFAULTS } from '../../shared/schemas/settlement-runs'
 import type { SettlementRun } from '../../shared/types/settlement-runs'
-import { type Client, demoEmail, signIn } from '../helpers/http'
+import { signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
-import { approveFirstVersion, createRunModel } from '../helpers/settlement-run'
+import { createApprovedRunModel } from '../helpers/settlement-run'
 import { openProjectAs, screenshotLaptopAndPhone, useBrowser } from './helpers'
 
 /** Types `value` into the field `testid` and commits it (Enter). */
@@ -23,19 +23,13 @@ async function words(l: Locator): Promise<string> {
 
 describe('designing the treatment in Chromium: stages, a surcharge taken off and vertical drains', () => {
   const browser = useBrowser()
-  let designer: Client
+  const { designer, ...people } = signedInDemo('owner', 'engineer', 'reviewer', 'designer')
   let projectId = ''
 
   // A project of this file's own with the scenario's ground model, version 1 approved (the model in force).
   beforeAll(async () => {
-    const owner = await signIn(demoEmail('owner'))
-    const engineer = await signIn(demoEmail('engineer'))
-    const reviewer = await signIn(demoEmail('reviewer'))
-    designer = await signIn(demoEmail('designer'))
-    const project = await createProject(owner, 'E2E-TREAT', 'Staged yard (browser)', ['engineer', 'reviewer', 'designer'])
-    projectId = project.id
-    const model = await createRunModel(engineer, projectId, undefined, 'Yard model')
-    await approveFirstVersion({ owner, engineer, reviewer }, project.base, model.url, 'For the treatment design')
+    projectId = (await createProject(people.owner, 'E2E-TREAT', 'Staged yard (browser)', ['engineer', 'reviewer', 'designer'])).id
+    await createApprovedRunModel(people, projectId, 'For the treatment design')
   })
 
   it('a designer builds the embankment in two stages with a surcharge off at 9 months and drains at 1.5 m, reads t90 with and without drains and the residual, and uses the spacing aid', async () => {

@@ -1,5 +1,6 @@
-// Settlement-run job tests: polling a run until it settles, and standalone job workers
-// (`scripts/worker.mjs`) on a queue schema of the test file's own, stopped after the file.
+// Settlement-run job tests: polling a run until it settles, standalone job workers
+// (`scripts/worker.mjs`) on a queue schema of the test file's own, stopped after the file, a run's
+// row as the worker leaves it, and a copy of a run written as if a worker were part-way through it.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
 import pg from 'pg'
@@ -93,4 +94,18 @@ export function useRunRows(): { pool: pg.Pool, row: (runId: string) => Promise<R
     return found
   }
   return { pool, row }
+}
+
+/**
+ * A copy of run `runId`'s inputs named `name`, written as a worker leaves a run part-way (running at `progress`,
+ * started now, no results yet): a page cannot tell it from a run being computed. Returns the copy's id.
+ */
+export async function insertRunningCopy(pool: pg.Pool, runId: string, name: string, progress: number): Promise<string> {
+  const { rows: [copy] } = await pool.query<{ id: string }>(
+    `insert into settlement_runs (project_id, name, model, definition, loads, points, grid, options, status, progress, created_by, started_at)
+     select project_id, $2, model, definition, loads, points, grid, options, 'running', $3, created_by, now() from settlement_runs where id = $1 returning id`,
+    [runId, name, progress],
+  )
+  if (!copy) throw new Error(`run ${runId} has no row to copy`)
+  return copy.id
 }

@@ -31,3 +31,13 @@ export async function approveFirstVersion(people: { owner: Client, engineer: Cli
   await must('submitting version 1', people.engineer.post(`${modelUrl}/versions/1/submit`, { message, reviewerIds: [reviewerId] }))
   await must('approving version 1', people.reviewer.post(`${modelUrl}/versions/1/decision`, { decision: 'approve', comment: 'Agreed.' }))
 }
+
+/**
+ * A model of the project from the scenario's ground model, its version 1 saved by the engineer and approved by the
+ * reviewer (`message` goes with the submission): the model in force for runs.
+ */
+export async function createApprovedRunModel(people: { owner: Client, engineer: Client, reviewer: Client }, projectId: string, message: string, name = 'Yard model'): Promise<{ modelId: string, version: number, url: string }> {
+  const model = await createRunModel(people.engineer, projectId, undefined, name)
+  await approveFirstVersion(people, `/api/projects/${projectId}`, model.url, message)
+  return model
+}

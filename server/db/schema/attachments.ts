@@ -1,6 +1,7 @@
-import { index, integer, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, pgEnum, pgTable, text, uuid } from 'drizzle-orm/pg-core'
+import { createdAt, ownedRow } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 export const attachmentOwner = pgEnum('attachment_owner', ['project', 'point', 'sample', 'test'])
 
@@ -9,8 +10,7 @@ export const attachmentOwner = pgEnum('attachment_owner', ['project', 'point', '
  * under a random key; downloads go only through an authorised route.
  */
 export const attachments = pgTable('attachments', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   ownerType: attachmentOwner().notNull(),
   /** The point, sample or test id (null for the project itself). */
   ownerId: uuid(),
@@ -21,6 +21,6 @@ export const attachments = pgTable('attachments', {
   objectKey: text().notNull(),
   thumbnailKey: text(),
   caption: text().notNull().default(''),
-  uploadedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  uploadedBy: namedUser(),
+  createdAt: createdAt(),
 }, t => [index('attachments_owner_idx').on(t.projectId, t.ownerType, t.ownerId)])

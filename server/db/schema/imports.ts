@@ -1,7 +1,7 @@
-import { customType, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { timestamps } from './columns'
+import { customType, index, integer, jsonb, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core'
+import { createdAt, ownedRow, timestamps } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -11,14 +11,13 @@ const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () =>
  * after a day.
  */
 export const importFiles = pgTable('import_files', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
-  uploadedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  ...ownedRow('projectId', () => projects.id),
+  uploadedBy: namedUser(),
   filename: text().notNull(),
   format: text().notNull(),
   size: integer().notNull(),
   content: bytea().notNull(),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  createdAt: createdAt(),
 }, t => [index('import_files_project_idx').on(t.projectId, t.createdAt)])
 
 /**
@@ -26,11 +25,10 @@ export const importFiles = pgTable('import_files', {
  * unit of each numeric column (`{ qc: 'MPa' }`; null for a mapping saved before units were kept).
  */
 export const importMappings = pgTable('import_mappings', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   target: text().notNull(),
   mapping: jsonb().$type<Record<string, string>>().notNull(),
   units: jsonb().$type<Record<string, string>>(),
-  savedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  savedBy: namedUser(),
   ...timestamps,
 }, t => [uniqueIndex('import_mappings_project_target_idx').on(t.projectId, t.target)])

@@ -1,20 +1,16 @@
 import { sql } from 'drizzle-orm'
 import { boolean, check, date, doublePrecision, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { GROUNDWATER_KINDS, POINT_KINDS, SAMPLE_TYPES } from '#shared/investigation/types'
-import { timestamps } from './columns'
+import { ownedRow, timestamps, versioned } from './columns'
 import { projects } from './projects'
 
 export const pointKind = pgEnum('point_kind', POINT_KINDS)
 export const sampleType = pgEnum('sample_type', SAMPLE_TYPES)
 export const groundwaterKind = pgEnum('groundwater_kind', GROUNDWATER_KINDS)
 
-/** Optimistic concurrency: every write sends the version it read; a stale one is 409. */
-const version = { version: integer().notNull().default(1) }
-
 /** Project-level geological units, in display order. */
 export const strata = pgTable('strata', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   code: text().notNull(),
   name: text().notNull(),
   description: text().notNull().default(''),
@@ -25,15 +21,14 @@ export const strata = pgTable('strata', {
   displayOrder: integer().notNull().default(0),
   /** σ'p derived from CPT and vane in this stratum: null follows the logged USCS symbols (`cptDerivationDefault`). */
   cptDerivation: boolean(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [
   uniqueIndex('strata_project_code_idx').on(t.projectId, t.code),
 ])
 
 export const investigationPoints = pgTable('investigation_points', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   identifier: text().notNull(),
   kind: pointKind().notNull(),
   easting: doublePrecision().notNull(),
@@ -45,7 +40,7 @@ export const investigationPoints = pgTable('investigation_points', {
   method: text().notNull().default(''),
   loggedBy: text().notNull().default(''),
   remarks: text().notNull().default(''),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [
   uniqueIndex('investigation_points_project_identifier_idx').on(t.projectId, t.identifier),
@@ -53,8 +48,7 @@ export const investigationPoints = pgTable('investigation_points', {
 ])
 
 export const logIntervals = pgTable('log_intervals', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   top: doublePrecision().notNull(),
   bottom: doublePrecision().notNull(),
   description: text().notNull().default(''),
@@ -63,7 +57,7 @@ export const logIntervals = pgTable('log_intervals', {
   stratumId: uuid().references(() => strata.id, { onDelete: 'set null' }),
   moisture: text(),
   consistency: text(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [
   index('log_intervals_point_idx').on(t.pointId, t.top),
@@ -71,15 +65,14 @@ export const logIntervals = pgTable('log_intervals', {
 ])
 
 export const samples = pgTable('samples', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   identifier: text().notNull(),
   top: doublePrecision().notNull(),
   bottom: doublePrecision().notNull(),
   type: sampleType().notNull(),
   recovery: doublePrecision(),
   remarks: text().notNull().default(''),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [
   uniqueIndex('samples_point_identifier_idx').on(t.pointId, t.identifier),
@@ -88,19 +81,17 @@ export const samples = pgTable('samples', {
 
 /** Index tests on a sample (one set per sample). PI is derived, never stored. */
 export const indexTests = pgTable('index_tests', {
-  id: uuid().primaryKey().defaultRandom(),
-  sampleId: uuid().notNull().references(() => samples.id, { onDelete: 'cascade' }),
+  ...ownedRow('sampleId', () => samples.id),
   waterContent: doublePrecision(),
   liquidLimit: doublePrecision(),
   plasticLimit: doublePrecision(),
   bulkUnitWeight: doublePrecision(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [uniqueIndex('index_tests_sample_idx').on(t.sampleId)])
 
 export const sptResults = pgTable('spt_results', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   depth: doublePrecision().notNull(),
   /** Blows of each increment, seating drive first (rows without `penetrations`: seating, then the two halves of the test drive, per 150 mm). */
   blows: integer().array().notNull(),
@@ -111,19 +102,18 @@ export const sptResults = pgTable('spt_results', {
   penetrations: integer().array(),
   /** How many of the increments belong to the seating drive (0: not recorded); null on rows stored as three counts per 150 mm. */
   seating: integer(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [index('spt_results_point_idx').on(t.pointId, t.depth)])
 
 export const groundwaterObservations = pgTable('groundwater_observations', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   kind: groundwaterKind().notNull(),
   observedAt: timestamp({ withTimezone: true, mode: 'string' }).notNull(),
   depth: doublePrecision(),
   pressure: doublePrecision(),
   remarks: text().notNull().default(''),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [
   index('groundwater_point_idx').on(t.pointId, t.observedAt),
@@ -135,26 +125,24 @@ export const groundwaterObservations = pgTable('groundwater_observations', {
  * thousands of rows that are always read whole, so one row reads in one fetch.
  */
 export const cptSoundings = pgTable('cpt_soundings', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   areaRatio: doublePrecision().notNull(),
   count: integer().notNull(),
   depth: doublePrecision().array().notNull(),
   qc: doublePrecision().array().notNull(),
   fs: doublePrecision().array().notNull(),
   u2: doublePrecision().array().notNull(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [uniqueIndex('cpt_soundings_point_idx').on(t.pointId)])
 
 /** Field vane readings (peak and remoulded su,FV). */
 export const vaneReadings = pgTable('vane_readings', {
-  id: uuid().primaryKey().defaultRandom(),
-  pointId: uuid().notNull().references(() => investigationPoints.id, { onDelete: 'cascade' }),
+  ...ownedRow('pointId', () => investigationPoints.id),
   depth: doublePrecision().notNull(),
   peak: doublePrecision().notNull(),
   remoulded: doublePrecision(),
-  ...version,
+  ...versioned,
   ...timestamps,
 }, t => [index('vane_readings_point_idx').on(t.pointId, t.depth)])
 

@@ -1,23 +1,24 @@
-import { index, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { index, pgTable, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { createdAt, moment, ownedRow, rowKey } from './columns'
 import { projectRole, projects } from './projects'
-import { users } from './users'
+import { namedUser, users } from './users'
 
 /**
  * An invitation by e-mail: to a project with a role, or (project null) to the site from the
  * people page. Only the SHA-256 of the link's token is stored; single use; revocable.
  */
 export const invitations = pgTable('invitations', {
-  id: uuid().primaryKey().defaultRandom(),
+  id: rowKey(),
   projectId: uuid().references(() => projects.id, { onDelete: 'cascade' }),
   email: text().notNull(),
   role: projectRole(),
   tokenHash: text().notNull(),
-  invitedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
-  acceptedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  acceptedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  revokedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  invitedBy: namedUser(),
+  expiresAt: moment().notNull(),
+  acceptedAt: moment(),
+  acceptedBy: namedUser(),
+  revokedAt: moment(),
+  createdAt: createdAt(),
 }, t => [
   uniqueIndex('invitations_token_idx').on(t.tokenHash),
   index('invitations_project_idx').on(t.projectId, t.createdAt),
@@ -25,12 +26,11 @@ export const invitations = pgTable('invitations', {
 
 /** A password-reset link: only the token's SHA-256 is stored; one hour, single use. */
 export const passwordResets = pgTable('password_resets', {
-  id: uuid().primaryKey().defaultRandom(),
-  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  ...ownedRow('userId', () => users.id),
   tokenHash: text().notNull(),
-  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
-  usedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  expiresAt: moment().notNull(),
+  usedAt: moment(),
+  createdAt: createdAt(),
 }, t => [
   uniqueIndex('password_resets_token_idx').on(t.tokenHash),
   index('password_resets_user_idx').on(t.userId),

@@ -1,10 +1,10 @@
-import { doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { doublePrecision, index, jsonb, pgEnum, pgTable, text, uuid } from 'drizzle-orm/pg-core'
 import { OEDOMETER_TEST_TYPES } from '#shared/investigation/types'
 import type { AdoptionMethod } from '#shared/schemas/lab'
-import { timestamps } from './columns'
+import { moment, ownedRow, timestamps, versioned } from './columns'
 import { samples } from './investigation'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 export const oedometerTestType = pgEnum('oedometer_test_type', OEDOMETER_TEST_TYPES)
 export const stageConvention = pgEnum('stage_convention', ['void-ratio', 'strain', 'dial'])
@@ -23,8 +23,7 @@ export interface OedometerStageJson {
 
 /** An oedometer test on a sample: specimen data and stages (unload–reload loops allowed). */
 export const oedometerTests = pgTable('oedometer_tests', {
-  id: uuid().primaryKey().defaultRandom(),
-  sampleId: uuid().notNull().references(() => samples.id, { onDelete: 'cascade' }),
+  ...ownedRow('sampleId', () => samples.id),
   label: text().notNull(),
   testType: oedometerTestType().notNull(),
   /** Initial specimen height, mm. */
@@ -35,7 +34,7 @@ export const oedometerTests = pgTable('oedometer_tests', {
   convention: stageConvention().notNull(),
   stages: jsonb().$type<OedometerStageJson[]>().notNull(),
   remarks: text().notNull().default(''),
-  version: integer().notNull().default(1),
+  ...versioned,
   ...timestamps,
 }, t => [index('oedometer_tests_sample_idx').on(t.sampleId)])
 
@@ -44,8 +43,7 @@ export const oedometerTests = pgTable('oedometer_tests', {
  * adoption supersedes the current one; the earlier rows stay as history.
  */
 export const preconsolidationAdoptions = pgTable('preconsolidation_adoptions', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   oedometerTestId: uuid().notNull().references(() => oedometerTests.id, { onDelete: 'cascade' }),
   /** casagrande | pachecoSilva | work | bilinear | dragged | typed */
   method: text().$type<AdoptionMethod>().notNull(),
@@ -55,9 +53,9 @@ export const preconsolidationAdoptions = pgTable('preconsolidation_adoptions', {
   deltaEOverE0: doublePrecision(),
   qualityClass: text(),
   effectiveStress: doublePrecision(),
-  adoptedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  adoptedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-  supersededAt: timestamp({ withTimezone: true, mode: 'date' }),
+  adoptedBy: namedUser(),
+  adoptedAt: moment().notNull().defaultNow(),
+  supersededAt: moment(),
 }, t => [
   index('preconsolidation_adoptions_test_idx').on(t.oedometerTestId, t.adoptedAt),
   index('preconsolidation_adoptions_project_idx').on(t.projectId),

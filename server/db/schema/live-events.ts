@@ -1,4 +1,5 @@
-import { bigint, index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { bigint, index, pgTable, text, uuid } from 'drizzle-orm/pg-core'
+import { moment } from './columns'
 import { projects } from './projects'
 import { users } from './users'
 
@@ -13,7 +14,7 @@ export const liveEvents = pgTable('live_events', {
   userId: uuid().references(() => users.id, { onDelete: 'cascade' }),
   type: text().notNull(),
   entityId: text(),
-  at: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  at: moment().notNull().defaultNow(),
 }, t => [
   index('live_events_project_idx').on(t.projectId, t.id),
   index('live_events_user_idx').on(t.userId, t.id),

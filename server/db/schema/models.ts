@@ -1,15 +1,14 @@
-import { index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, jsonb, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
-import { timestamps } from './columns'
+import { createdAt, moment, ownedRow, timestamps } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser, users } from './users'
 
 export const modelVersionStatus = pgEnum('model_version_status', ['saved', 'submitted', 'approved', 'returned'])
 
 /** A site's stress model: an editable draft plus immutable saved versions. */
 export const siteModels = pgTable('site_models', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   name: text().notNull(),
   description: text().notNull().default(''),
   draft: jsonb().$type<SiteModelDefinition>().notNull(),
@@ -17,26 +16,25 @@ export const siteModels = pgTable('site_models', {
   draftRevision: integer().notNull().default(1),
   /** The saved version the draft started from, if any. */
   basedOn: integer(),
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  createdBy: namedUser(),
   ...timestamps,
 }, t => [uniqueIndex('site_models_project_name_idx').on(t.projectId, t.name)])
 
 /** An immutable snapshot of a model; a write to it is 409. */
 export const siteModelVersions = pgTable('site_model_versions', {
-  id: uuid().primaryKey().defaultRandom(),
-  modelId: uuid().notNull().references(() => siteModels.id, { onDelete: 'cascade' }),
+  ...ownedRow('modelId', () => siteModels.id),
   version: integer().notNull(),
   definition: jsonb().$type<SiteModelDefinition>().notNull(),
   message: text().notNull(),
   status: modelVersionStatus().notNull().default('saved'),
   /** The version this one was saved from (a resubmission after a return names the returned version). */
   savedFrom: integer(),
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-  submittedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  submittedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  decidedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  decidedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  createdBy: namedUser(),
+  createdAt: createdAt(),
+  submittedBy: namedUser(),
+  submittedAt: moment(),
+  decidedBy: namedUser(),
+  decidedAt: moment(),
   decisionComment: text(),
   /** Approval only: SHA-256 of the definition's canonical JSON (safe-stable-stringify). */
   approvalHash: text(),
@@ -45,7 +43,7 @@ export const siteModelVersions = pgTable('site_model_versions', {
   /** Approval only: the open flags on points the version's fits use, as they stood at approval. */
   approvalFlags: jsonb().$type<ApprovalFlagRecord[]>(),
   /** Set when a newer version of the same model is approved; the approval itself stays. */
-  supersededAt: timestamp({ withTimezone: true, mode: 'date' }),
+  supersededAt: moment(),
   supersededBy: integer(),
 }, t => [
   uniqueIndex('site_model_versions_model_version_idx').on(t.modelId, t.version),
@@ -66,7 +64,7 @@ export interface ApprovalFlagRecord {
 export const siteModelVersionReviewers = pgTable('site_model_version_reviewers', {
   versionId: uuid().notNull().references(() => siteModelVersions.id, { onDelete: 'cascade' }),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  createdAt: createdAt(),
 }, t => [
   primaryKey({ name: 'site_model_version_reviewers_pk', columns: [t.versionId, t.userId] }),
   index('site_model_version_reviewers_user_idx').on(t.userId),
@@ -77,10 +75,9 @@ export const versionEventKind = pgEnum('version_event_kind', VERSION_EVENT_KINDS
 
 /** A version's review history, shown as its timeline: who did what, when, with which comment. */
 export const siteModelVersionEvents = pgTable('site_model_version_events', {
-  id: uuid().primaryKey().defaultRandom(),
-  versionId: uuid().notNull().references(() => siteModelVersions.id, { onDelete: 'cascade' }),
+  ...ownedRow('versionId', () => siteModelVersions.id),
   kind: versionEventKind().notNull(),
-  actorId: uuid().references(() => users.id, { onDelete: 'set null' }),
+  actorId: namedUser(),
   comment: text().notNull().default(''),
-  at: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  at: moment().notNull().defaultNow(),
 }, t => [index('site_model_version_events_version_idx').on(t.versionId, t.at)])

@@ -1,8 +1,9 @@
 import { sql } from 'drizzle-orm'
-import { bigint, index, integer, pgEnum, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { bigint, index, integer, pgEnum, pgTable, primaryKey, text, uuid } from 'drizzle-orm/pg-core'
 import { NOTIFICATION_KINDS, NOTIFICATION_MODES } from '#shared/notifications/kinds'
+import { createdAt, moment, ownedRow } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser, users } from './users'
 
 export const notificationKind = pgEnum('notification_kind', NOTIFICATION_KINDS)
 export const notificationMode = pgEnum('notification_mode', NOTIFICATION_MODES)
@@ -17,18 +18,18 @@ export const mailOutbox = pgTable('mail_outbox', {
   id: bigint({ mode: 'number' }).primaryKey().generatedAlwaysAsIdentity(),
   kind: notificationKind().notNull(),
   toAddress: text().notNull(),
-  toUserId: uuid().references(() => users.id, { onDelete: 'set null' }),
+  toUserId: namedUser(),
   projectId: uuid().references(() => projects.id, { onDelete: 'set null' }),
   subject: text().notNull(),
   textBody: text().notNull(),
   htmlBody: text().notNull(),
   status: outboxStatus().notNull().default('pending'),
   attempts: integer().notNull().default(0),
-  nextAttemptAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  nextAttemptAt: moment().notNull().defaultNow(),
   /** The last delivery error's message (never the message body). */
   lastError: text(),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-  sentAt: timestamp({ withTimezone: true, mode: 'date' }),
+  createdAt: createdAt(),
+  sentAt: moment(),
 }, t => [
   index('mail_outbox_due_idx').on(t.nextAttemptAt).where(sql`${t.status} = 'pending'`),
   index('mail_outbox_status_idx').on(t.status, t.createdAt),
@@ -36,17 +37,16 @@ export const mailOutbox = pgTable('mail_outbox', {
 
 /** The in-app inbox: one row per person and event. */
 export const notifications = pgTable('notifications', {
-  id: uuid().primaryKey().defaultRandom(),
-  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  ...ownedRow('userId', () => users.id),
   projectId: uuid().references(() => projects.id, { onDelete: 'cascade' }),
   kind: notificationKind().notNull(),
   title: text().notNull(),
   body: text().notNull().default(''),
   /** The app path of the exact page the event concerns. */
   link: text().notNull(),
-  actorId: uuid().references(() => users.id, { onDelete: 'set null' }),
-  readAt: timestamp({ withTimezone: true, mode: 'date' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  actorId: namedUser(),
+  readAt: moment(),
+  createdAt: createdAt(),
 }, t => [index('notifications_user_idx').on(t.userId, t.createdAt)])
 
 /** A person's choice per kind of e-mail; no row means the default (immediate). */

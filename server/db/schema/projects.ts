@@ -2,16 +2,16 @@ import type { AnyPgColumn } from 'drizzle-orm/pg-core'
 import { index, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { PROJECT_ROLES, UNIT_SYSTEMS } from '#shared/auth/roles'
 import { US_STRESS_UNITS } from '#shared/units/index'
-import { timestamps } from './columns'
+import { rowKey, timestamps } from './columns'
 import { siteModels } from './models'
-import { users } from './users'
+import { namedUser, users } from './users'
 
 export const projectRole = pgEnum('project_role', PROJECT_ROLES)
 export const unitSystem = pgEnum('unit_system', UNIT_SYSTEMS)
 export const usStressUnit = pgEnum('us_stress_unit', US_STRESS_UNITS)
 
 export const projects = pgTable('projects', {
-  id: uuid().primaryKey().defaultRandom(),
+  id: rowKey(),
   jobNumber: text().notNull(),
   name: text().notNull(),
   client: text().notNull().default(''),
@@ -22,7 +22,7 @@ export const projects = pgTable('projects', {
   /** The project's design model: its latest approved version is the model in force. */
   designModelId: uuid().references((): AnyPgColumn => siteModels.id, { onDelete: 'set null' }),
   // A creator may leave; the project stays.
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  createdBy: namedUser(),
   ...timestamps,
 }, t => [uniqueIndex('projects_job_number_idx').on(t.jobNumber)])
 

@@ -1,7 +1,8 @@
-import { boolean, index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, index, integer, jsonb, pgEnum, pgTable, real, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { moment, ownedRow } from './columns'
 import { attachments } from './attachments'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 export const reportKind = pgEnum('report_kind', ['point-log', 'model-version', 'settlement-run'])
 /**
@@ -22,8 +23,7 @@ export const reportStage = pgEnum('report_stage', ['gathering', 'drawing', 'writ
  * it is stored (null until then).
  */
 export const issuedReports = pgTable('issued_reports', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   kind: reportKind().notNull(),
   /** The run, model or point id. */
   sourceId: uuid().notNull(),
@@ -52,10 +52,10 @@ export const issuedReports = pgTable('issued_reports', {
   pages: integer(),
   /** False when the record (or the version a run used) was not approved: the PDF carries the band. */
   approvedRecord: boolean().notNull(),
-  issuedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+  issuedBy: namedUser(),
   /** The issuer's name as printed on the report. */
   issuedByName: text().notNull(),
-  issuedAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  issuedAt: moment().notNull().defaultNow(),
 }, t => [
   uniqueIndex('issued_reports_revision_idx').on(t.projectId, t.kind, t.sourceKey, t.revision),
   index('issued_reports_project_idx').on(t.projectId, t.issuedAt),

@@ -1,8 +1,8 @@
-import { index, integer, pgEnum, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { index, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
 import { FLAG_TARGETS, FLAG_VERDICTS } from '#shared/review/flags'
-import { timestamps } from './columns'
+import { createdAt, moment, ownedRow, timestamps, versioned } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 export const flagTarget = pgEnum('flag_target', FLAG_TARGETS)
 export const flagVerdict = pgEnum('flag_verdict', FLAG_VERDICTS)
@@ -10,18 +10,17 @@ export const flagStatus = pgEnum('flag_status', ['open', 'resolved'])
 
 /** A reviewer's flag on a σ'p point, a test or a log interval, with a thread of replies. */
 export const reviewFlags = pgTable('review_flags', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   targetType: flagTarget().notNull(),
   /** Id of the flagged record; derived points use a stable composite id (see shared/review/flags.ts). */
   targetId: text().notNull(),
   verdict: flagVerdict().notNull(),
   comment: text().notNull(),
   status: flagStatus().notNull().default('open'),
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  resolvedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  resolvedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  version: integer().notNull().default(1),
+  createdBy: namedUser(),
+  resolvedBy: namedUser(),
+  resolvedAt: moment(),
+  ...versioned,
   ...timestamps,
 }, t => [
   index('review_flags_project_idx').on(t.projectId, t.status),
@@ -29,9 +28,8 @@ export const reviewFlags = pgTable('review_flags', {
 ])
 
 export const reviewReplies = pgTable('review_replies', {
-  id: uuid().primaryKey().defaultRandom(),
-  flagId: uuid().notNull().references(() => reviewFlags.id, { onDelete: 'cascade' }),
+  ...ownedRow('flagId', () => reviewFlags.id),
   body: text().notNull(),
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  createdBy: namedUser(),
+  createdAt: createdAt(),
 }, t => [index('review_replies_flag_idx').on(t.flagId, t.createdAt)])

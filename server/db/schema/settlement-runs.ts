@@ -1,10 +1,11 @@
-import { index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, timestamp, uuid } from 'drizzle-orm/pg-core'
+import { index, integer, jsonb, pgEnum, pgTable, primaryKey, real, text, uuid } from 'drizzle-orm/pg-core'
 import type { RunGrid, RunLoad, RunOptions, RunPoint } from '#shared/schemas/settlement-runs'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import type { RunScatterData } from '#shared/settlement-run/probabilistic'
 import type { RunPointDetail, RunResults, ServerRunModel } from '#shared/types/settlement-runs'
+import { createdAt, moment, ownedRow } from './columns'
 import { projects } from './projects'
-import { users } from './users'
+import { namedUser } from './users'
 
 export const settlementRunStatus = pgEnum('settlement_run_status', ['queued', 'running', 'finished', 'failed', 'cancelled'])
 
@@ -14,8 +15,7 @@ export const settlementRunStatus = pgEnum('settlement_run_status', ['queued', 'r
  * once, in one transaction, at the end.
  */
 export const settlementRuns = pgTable('settlement_runs', {
-  id: uuid().primaryKey().defaultRandom(),
-  projectId: uuid().notNull().references(() => projects.id, { onDelete: 'cascade' }),
+  ...ownedRow('projectId', () => projects.id),
   name: text().notNull(),
   /** The model version used and its status at run time (`ServerRunModel`). */
   model: jsonb().$type<ServerRunModel>().notNull(),
@@ -35,10 +35,10 @@ export const settlementRuns = pgTable('settlement_runs', {
   /** Times a worker started it (a crashed worker's run is started again). */
   attempts: integer().notNull().default(0),
   results: jsonb().$type<RunResults>(),
-  createdBy: uuid().references(() => users.id, { onDelete: 'set null' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-  startedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  finishedAt: timestamp({ withTimezone: true, mode: 'date' }),
+  createdBy: namedUser(),
+  createdAt: createdAt(),
+  startedAt: moment(),
+  finishedAt: moment(),
 }, t => [
   index('settlement_runs_project_idx').on(t.projectId, t.createdAt),
   index('settlement_runs_status_idx').on(t.status),

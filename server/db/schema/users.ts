@@ -1,15 +1,23 @@
 import { sql } from 'drizzle-orm'
-import { boolean, check, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { timestamps } from './columns'
+import { boolean, check, index, integer, pgTable, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { createdAt, moment, ownedRow, rowKey, timestamps } from './columns'
+
+/**
+ * A person named on a record (its author, uploader, decider, recipient…): set to null when their account is
+ * deleted, and the record stays.
+ */
+export function namedUser() {
+  return uuid().references(() => users.id, { onDelete: 'set null' })
+}
 
 export const users = pgTable('users', {
-  id: uuid().primaryKey().defaultRandom(),
+  id: rowKey(),
   email: text().notNull(),
   displayName: text().notNull(),
   passwordHash: text().notNull(),
   isSiteAdmin: boolean().notNull().default(false),
   /** A disabled account cannot sign in; its sessions and tokens stop at once. */
-  disabledAt: timestamp({ withTimezone: true, mode: 'date' }),
+  disabledAt: moment(),
   ...timestamps,
 }, t => [
   // E-mail is unique regardless of case: "Ana@x" and "ana@x" are one account.
@@ -20,7 +28,7 @@ export const users = pgTable('users', {
 export const sessions = pgTable('sessions', {
   id: text().primaryKey(),
   userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
-  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+  expiresAt: moment().notNull(),
 }, t => [
   index('sessions_user_idx').on(t.userId),
   check('sessions_id_is_sha256', sql`${t.id} ~ '^[0-9a-f]{64}$'`),
@@ -34,16 +42,15 @@ export const API_TOKEN_SCOPES = ['read-write', 'read-only'] as const
  * was introduced got 90 days from the day the migration ran (the column default).
  */
 export const apiTokens = pgTable('api_tokens', {
-  id: uuid().primaryKey().defaultRandom(),
-  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  ...ownedRow('userId', () => users.id),
   name: text().notNull(),
   tokenHash: text().notNull(),
   prefix: text().notNull(),
   scope: text({ enum: API_TOKEN_SCOPES }).notNull().default('read-write'),
-  expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().default(sql`now() + interval '90 days'`),
-  lastUsedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  revokedAt: timestamp({ withTimezone: true, mode: 'date' }),
-  createdAt: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  expiresAt: moment().notNull().default(sql`now() + interval '90 days'`),
+  lastUsedAt: moment(),
+  revokedAt: moment(),
+  createdAt: createdAt(),
 }, t => [
   uniqueIndex('api_tokens_hash_idx').on(t.tokenHash),
   index('api_tokens_user_idx').on(t.userId),
@@ -57,5 +64,5 @@ export const apiTokens = pgTable('api_tokens', {
 export const loginThrottle = pgTable('login_throttle', {
   key: text().primaryKey(),
   attempts: integer().notNull(),
-  windowStart: timestamp({ withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  windowStart: moment().notNull().defaultNow(),
 }, t => [index('login_throttle_window_idx').on(t.windowStart)])

@@ -143,23 +143,23 @@ describe('holePlanIssues', () => {
     expect(holePlanIssues(planHoleImport([p], existing, 'replace'), existing)).toEqual([])
   })
 
-  it('names a stored sample left below a shallower final depth', () => {
+  /** The file makes BH-01 3.5 m deep, one interval and only its first sample: the stored U2 (to 4.45 m) is left below; its issues in `words`. */
+  function shallowerHoleIssues(words?: Parameters<typeof holePlanIssues>[2]) {
     const p = clone(base)
     p.finalDepth = 3.5
     p.intervals = [{ top: 0, bottom: 3.5, description: 'Clay', uscs: 'CL', stratumCode: null, moisture: null, consistency: null }]
     p.samples = [base.samples[0]!]
     const existing = new Map([['BH-01', stored(base)]])
-    const issues = holePlanIssues(planHoleImport([p], existing, 'update'), existing)
+    return holePlanIssues(planHoleImport([p], existing, 'update'), existing, words)
+  }
+
+  it('names a stored sample left below a shallower final depth', () => {
+    const issues = shallowerHoleIssues()
     expect(issues.map(i => i.message)).toContain('BH-01 sample U2 (already in the project): bottom (4.45 m) is below the hole\'s final depth (3.5 m).')
     expect(issues.some(i => i.kind === 'interval' && !i.fromFile)).toBe(true)
   })
   it('writes depths in feet for a US project (the project\'s words, 1 ft = 0.3048 m)', () => {
-    const p = clone(base)
-    p.finalDepth = 3.5
-    p.intervals = [{ top: 0, bottom: 3.5, description: 'Clay', uscs: 'CL', stratumCode: null, moisture: null, consistency: null }]
-    p.samples = [base.samples[0]!]
-    const existing = new Map([['BH-01', stored(base)]])
-    const issues = holePlanIssues(planHoleImport([p], existing, 'update'), existing, unitWords('US').intervals)
+    const issues = shallowerHoleIssues(unitWords('US').intervals)
     expect(issues.map(i => i.message)).toContain('BH-01 sample U2 (already in the project): bottom (14.60 ft) is below the hole\'s final depth (11.48 ft).')
     const messages = issues.map(i => i.message).join('\n')
     expect(messages).not.toMatch(/\d m\b/)
