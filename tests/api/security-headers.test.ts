@@ -70,13 +70,8 @@ describe('security headers', () => {
       expect(csp.get('style-src')).toContain(`'nonce-${nonce}'`)
       const html = await r.text()
       const scripts = html.match(/<script\b[^>]*>/g) ?? []
-      // The import map, the loader of the entry module, the inline config and the hydration payload at least.
-      expect(scripts.length).toBeGreaterThanOrEqual(4)
-      // The modules are asked for after the first paint, each with its integrity hash from the import map.
-      const entry = /const e="(\/_nuxt\/[^"]+\.js)"/.exec(html)?.[1]
-      expect(entry).toBeDefined()
-      const map = JSON.parse(/<script type="importmap"[^>]*>(.*?)<\/script>/.exec(html)?.[1] ?? '{}') as { integrity?: Record<string, string> }
-      expect(map.integrity?.[entry!]).toMatch(/^sha384-[A-Za-z0-9+/=]{64}$/)
+      // The entry module, the inline config and the hydration payload at least.
+      expect(scripts.length).toBeGreaterThanOrEqual(3)
       for (const tag of [...scripts, ...(html.match(/<style\b[^>]*>/g) ?? []), ...(html.match(/<link\b[^>]*rel="(?:stylesheet|modulepreload)"[^>]*>/g) ?? [])]) {
         expect(tag).toContain(`nonce="${nonce}"`)
       }
@@ -108,7 +103,7 @@ describe('security headers', () => {
     expect(signedOut.headers.get('cache-control')).toBe('no-store')
 
     const page = await (await get(owner, '/login')).text()
-    const asset = /const e="(\/_nuxt\/[^"]+\.js)"/.exec(page)?.[1]
+    const asset = /<script[^>]*src="(\/_nuxt\/[^"]+\.js)"/.exec(page)?.[1]
     expect(asset).toBeDefined()
     const js = await fetch(owner.base + asset!)
     expect(js.status).toBe(200)
