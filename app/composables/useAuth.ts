@@ -20,6 +20,8 @@ export function useAuth() {
 
   async function signIn(email: string, password: string) {
     const res = await $fetch('/api/auth/login', { method: 'POST', body: { email, password } })
+    // Pages then come from the server with their dates in this browser's zone.
+    rememberViewerZone()
     user.value = res.user
     loaded.value = true
   }

@@ -7,6 +7,12 @@
  * - `compact`   2 Dec 26 (labels inside drawings, where room is short)
  * A calendar date without a time (`2026-12-02`) is the same day in every time zone, so it is shown in UTC;
  * other instants in the viewer's zone unless `utc` is asked for.
+ *
+ * The first date formatted in a browser costs tens of milliseconds (the locale's calendar data is loaded),
+ * and a page opened from the server would pay it while it comes alive. So the server renders dates in the
+ * viewer's zone (the `pastload_tz` cookie, kept at sign-in by `rememberViewerZone`) and sends the texts with
+ * the page; while the page hydrates, the browser takes them from there. Without the cookie the server does
+ * not know the zone and the browser formats its dates itself.
  */
 export type DateStyle = 'date' | 'dateTime' | 'time' | 'long' | 'compact'
 
@@ -29,14 +35,52 @@ const STYLES: Record<DateStyle, Intl.DateTimeFormatOptions> = {
 
 const formatters = new Map<string, Intl.DateTimeFormat>()
 
-function formatter(style: DateStyle, utc: boolean): Intl.DateTimeFormat {
-  const key = `${style}:${utc}`
+/** `zone`: an IANA time zone for instants shown in the viewer's zone (the server's guess of it), else the runtime's. */
+function formatter(style: DateStyle, utc: boolean, zone?: string): Intl.DateTimeFormat {
+  const timeZone = utc ? 'UTC' : zone
+  const key = `${style}:${timeZone ?? ''}`
   let f = formatters.get(key)
   if (!f) {
-    f = new Intl.DateTimeFormat('en-GB', utc ? { ...STYLES[style], timeZone: 'UTC' } : STYLES[style])
+    f = new Intl.DateTimeFormat('en-GB', timeZone ? { ...STYLES[style], timeZone } : STYLES[style])
     formatters.set(key, f)
   }
   return f
+}
+
+/** The cookie that tells the server the viewer's time zone. */
+export const VIEWER_ZONE_COOKIE = 'pastload_tz'
+
+/** An IANA zone name as this runtime knows it, else null (bounded: the value comes from a cookie). */
+export function validZone(zone: string | null | undefined): string | null {
+  if (!zone || zone.length > 64 || !/^[A-Za-z][A-Za-z0-9_+\-/]*$/.test(zone)) return null
+  try {
+    return new Intl.DateTimeFormat('en-GB', { timeZone: zone }).resolvedOptions().timeZone
+  }
+  catch {
+    return null
+  }
+}
+
+/** Keeps the browser's time zone in a cookie, so pages come from the server with dates in it (called at sign-in). */
+export function rememberViewerZone(): void {
+  if (typeof document === 'undefined') return
+  const zone = validZone(Intl.DateTimeFormat().resolvedOptions().timeZone)
+  if (zone) document.cookie = `${VIEWER_ZONE_COOKIE}=${encodeURIComponent(zone)}; path=/; max-age=31536000; samesite=lax`
+}
+
+/** The page's date texts, where a page is being rendered or hydrated (`app/plugins/date-texts.ts` gives them). */
+export interface PageDateTexts {
+  /** The zone the server formatted instants in (the viewer's), or null when it did not know it. */
+  zone: string | null
+  /** Text by `style|u or z|epoch ms`. */
+  texts: Record<string, string>
+  /** True on the server (texts are written), false in the browser (texts are read). */
+  recording: boolean
+}
+let pageDateTexts: () => PageDateTexts | null = () => null
+/** Sets where formatDate finds the page's date texts (once, by the plugin). */
+export function providePageDateTexts(provider: () => PageDateTexts | null): void {
+  pageDateTexts = provider
 }
 
 const CALENDAR_DATE = /^\d{4}-\d{2}-\d{2}$/
@@ -47,5 +91,11 @@ export function formatDate(value: DateInput, style: DateStyle = 'date', options:
   const d = value instanceof Date ? value : new Date(value)
   if (Number.isNaN(d.getTime())) return typeof value === 'string' ? value : options.empty ?? ''
   const utc = options.utc ?? (typeof value === 'string' && CALENDAR_DATE.test(value))
-  return formatter(style, utc).format(d)
+  const page = pageDateTexts()
+  if (!page) return formatter(style, utc).format(d)
+  const key = `${style}|${utc ? 'u' : 'z'}|${d.getTime()}`
+  if (!page.recording) return page.texts[key] ?? formatter(style, utc).format(d)
+  const text = formatter(style, utc, page.zone ?? undefined).format(d)
+  if (page.zone) page.texts[key] = text
+  return text
 }

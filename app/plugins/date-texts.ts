@@ -1,0 +1,20 @@
+import { providePageDateTexts, validZone, VIEWER_ZONE_COOKIE } from '~/utils/dates'
+
+/**
+ * Dates rendered by the server travel with the page (see app/utils/dates.ts): on the server the viewer's zone
+ * comes from the `pastload_tz` cookie and every date text is kept in the payload; in the browser, while the
+ * page hydrates, formatDate reads them back instead of loading the locale's calendar data.
+ */
+export default defineNuxtPlugin((nuxtApp) => {
+  if (import.meta.server) nuxtApp.payload.viewerZone = validZone(useCookie(VIEWER_ZONE_COOKIE).value)
+  providePageDateTexts(() => {
+    const app = tryUseNuxtApp()
+    if (!app) return null
+    if (import.meta.server) {
+      const texts = (app.payload.dateTexts ??= {}) as Record<string, string>
+      return { zone: (app.payload.viewerZone as string | null | undefined) ?? null, texts, recording: true }
+    }
+    if (!app.isHydrating || typeof app.payload.viewerZone !== 'string') return null
+    return { zone: app.payload.viewerZone, texts: (app.payload.dateTexts ?? {}) as Record<string, string>, recording: false }
+  })
+})
