@@ -7,6 +7,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { cpus, loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import lighthouse from 'lighthouse'
+import { VIEWER_ZONE_COOKIE } from '../../app/utils/dates'
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
 
 export interface LighthouseRow {
@@ -76,7 +77,10 @@ function startChromium(): Promise<{ port: number, stop: () => Promise<void> }> {
 async function signIn(serverUrl: string, email: string): Promise<string> {
   const login = await fetch(`${serverUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
   if (!login.ok) throw new Error(`Lighthouse sign-in failed: ${login.status}`)
-  return login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+  // The sign-in page also keeps the browser's time zone in a cookie (rememberViewerZone), so pages come with
+  // their dates already written in it: sent here as that browser would (this machine's zone).
+  const zone = `${VIEWER_ZONE_COOKIE}=${encodeURIComponent(Intl.DateTimeFormat().resolvedOptions().timeZone)}`
+  return [...login.headers.getSetCookie().map(c => c.split(';')[0]), zone].join('; ')
 }
 
 /** The demo project, its first stress model and its seeded settlement run, as the engineer sees them. */

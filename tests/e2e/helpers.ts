@@ -40,8 +40,8 @@ function watchCsp(page: Page) {
   })
 }
 
-/** A browser as a device: its screen, and touch (`hasTouch`, `isMobile`) for a phone or tablet. */
-export interface Device { viewport?: { width: number, height: number }, hasTouch?: boolean, isMobile?: boolean }
+/** A browser as a device: its screen, touch (`hasTouch`, `isMobile`) for a phone or tablet, and its time zone. */
+export interface Device { viewport?: { width: number, height: number }, hasTouch?: boolean, isMobile?: boolean, /** The browser's time zone (IANA). */ timezoneId?: string }
 
 export async function launch(device: Device = {}): Promise<Browser> {
   const dir = mkdtempSync(join(tmpdir(), 'pastload-chromium-'))

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatDate } from '../../../app/utils/dates'
+import { formatDate, providePageDateTexts, validZone, type PageDateTexts } from '../../../app/utils/dates'
 
 describe('formatDate: one way of showing dates and times', () => {
   it('shows a calendar date as the same day in every time zone', () => {
@@ -17,6 +17,54 @@ describe('formatDate: one way of showing dates and times', () => {
     expect(formatDate(null)).toBe('')
     expect(formatDate(undefined, 'date', { empty: '—' })).toBe('—')
     expect(formatDate('not a date')).toBe('not a date')
+  })
+})
+
+describe('dates rendered by the server travel with the page', () => {
+  const at = '2026-12-02T15:05:00Z'
+  const key = `dateTime|z|${Date.parse(at)}`
+  function withPage(page: PageDateTexts | null, run: () => void) {
+    providePageDateTexts(() => page)
+    try {
+      run()
+    }
+    finally {
+      providePageDateTexts(() => null)
+    }
+  }
+
+  it('on the server, formats an instant in the viewer\'s zone and keeps the text for the browser', () => {
+    const page: PageDateTexts = { zone: 'Asia/Tokyo', texts: {}, recording: true }
+    // 15:05 UTC is 00:05 the next day in Tokyo (UTC+9, no summer time).
+    withPage(page, () => expect(formatDate(at, 'dateTime')).toBe('3 Dec 2026, 00:05'))
+    expect(page.texts).toEqual({ [key]: '3 Dec 2026, 00:05' })
+    // A calendar date is the same day everywhere: shown in UTC and kept under its own key.
+    withPage(page, () => expect(formatDate('2026-03-04')).toBe('4 Mar 2026'))
+    expect(page.texts[`date|u|${Date.UTC(2026, 2, 4)}`]).toBe('4 Mar 2026')
+  })
+
+  it('on the server without the viewer\'s zone, formats as before and keeps nothing', () => {
+    const page: PageDateTexts = { zone: null, texts: {}, recording: true }
+    withPage(page, () => expect(formatDate(at, 'dateTime', { utc: true })).toBe('2 Dec 2026, 15:05'))
+    expect(page.texts).toEqual({})
+  })
+
+  it('in the browser while hydrating, reads the server\'s text; a date the server did not write is formatted there', () => {
+    const page: PageDateTexts = { zone: 'Asia/Tokyo', texts: { [key]: 'written by the server' }, recording: false }
+    withPage(page, () => {
+      expect(formatDate(at, 'dateTime')).toBe('written by the server')
+      expect(formatDate(at, 'dateTime', { utc: true })).toBe('2 Dec 2026, 15:05')
+    })
+  })
+
+  it('takes only a real IANA zone from the cookie, bounded', () => {
+    expect(validZone('Europe/London')).toBe('Europe/London')
+    expect(validZone('UTC')).toBe('UTC')
+    expect(validZone('Mars/Olympus_Mons')).toBeNull()
+    expect(validZone('Europe/London"><script>')).toBeNull()
+    expect(validZone(`Europe/${'x'.repeat(80)}`)).toBeNull()
+    expect(validZone('')).toBeNull()
+    expect(validZone(undefined)).toBeNull()
   })
 })
 
