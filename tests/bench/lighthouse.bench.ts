@@ -8,7 +8,7 @@ import { cpus, loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import lighthouse from 'lighthouse'
 import { VIEWER_ZONE_COOKIE } from '../../app/utils/dates'
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo/scenario'
+import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PROJECT } from '../../shared/demo/scenario'
 
 export interface LighthouseRow {
   page: string
@@ -86,8 +86,9 @@ async function signIn(serverUrl: string, email: string): Promise<string> {
 /** The demo project, its first stress model and its seeded settlement run, as the engineer sees them. */
 async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: string, model: string, run: string | null }> {
   const get = async <T>(path: string) => (await (await fetch(`${serverUrl}${path}`, { headers: { cookie } })).json()) as T
-  const { projects } = await get<{ projects: { id: string }[] }>('/api/projects')
-  const projectId = projects[0]?.id
+  // The demo project by its job number: the full bench adds projects of its own (the import benchmark's) beside it.
+  const { projects } = await get<{ projects: { id: string, jobNumber: string }[] }>('/api/projects')
+  const projectId = projects.find(p => p.jobNumber === DEMO_PROJECT.jobNumber)?.id
   if (!projectId) throw new Error('the demo project is missing')
   const { models } = await get<{ models: { id: string }[] }>(`/api/projects/${projectId}/models`)
   let modelId = models[0]?.id
