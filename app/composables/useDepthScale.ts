@@ -18,13 +18,16 @@ export function useDepthScale(options: {
   let behaviour: d3.ZoomBehavior<SVGSVGElement, unknown> | null = null
   let target: SVGSVGElement | null = null
 
+  /** The drawing's width, read when a zoom first needs it (not while the drawing mounts: that would force a layout), then kept until the window is resized. */
+  let width = 0
+  const forgetWidth = () => { width = 0 }
   function configure() {
     if (!behaviour || !target) return
     const [top, bottom] = toValue(options.range)
-    // The width is read when a gesture starts, not here: reading it while the drawing mounts would force a layout.
     const el = target
+    forgetWidth()
     behaviour
-      .extent(() => [[0, top], [el.clientWidth || 1000, bottom]])
+      .extent(() => [[0, top], [(width ||= el.clientWidth || 1000), bottom]])
       .translateExtent([[-Infinity, top], [Infinity, bottom]])
   }
 
@@ -46,9 +49,11 @@ export function useDepthScale(options: {
       })
     configure()
     d3.select(el).call(behaviour).on('dblclick.zoom', null)
+    window.addEventListener('resize', forgetWidth)
   }
 
   function detach() {
+    window.removeEventListener('resize', forgetWidth)
     if (target) d3.select(target).on('.zoom', null)
     target = null
     behaviour = null
