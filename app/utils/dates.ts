@@ -13,6 +13,11 @@
  * viewer's zone (the `pastload_tz` cookie, kept at sign-in by `rememberViewerZone`) and sends the texts with
  * the page; while the page hydrates, the browser takes them from there. Without the cookie the server does
  * not know the zone and the browser formats its dates itself.
+ *
+ * The browser writes its own dates from the date's fields (`dateParts`) in the two cases that need no zone
+ * data: a calendar date, and an instant in the browser's own zone (the viewer's). The text is the same as
+ * Intl's British English (unit-tested against it); the first Intl formatter a page creates is what loads the
+ * locale's data (40–150 ms on a phone), and a page that only shows such dates never creates one.
  */
 export type DateStyle = 'date' | 'dateTime' | 'time' | 'long' | 'compact'
 
@@ -45,6 +50,32 @@ function formatter(style: DateStyle, utc: boolean, zone?: string): Intl.DateTime
     formatters.set(key, f)
   }
   return f
+}
+
+// British English month names as Intl gives them (`month: 'short'` says "Sept").
+const MONTHS_SHORT = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sept', 'Oct', 'Nov', 'Dec']
+const MONTHS_LONG = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December']
+
+/** The date's fields in UTC or in this runtime's own zone (no Intl, no zone data). */
+function dateFields(d: Date, utc: boolean) {
+  return utc
+    ? { year: d.getUTCFullYear(), month: d.getUTCMonth(), day: d.getUTCDate(), hour: d.getUTCHours(), minute: d.getUTCMinutes() }
+    : { year: d.getFullYear(), month: d.getMonth(), day: d.getDate(), hour: d.getHours(), minute: d.getMinutes() }
+}
+
+const two = (n: number) => String(n).padStart(2, '0')
+
+/** The text of one style from the date's fields: the same as `formatter(style, utc)` (British English, 24-hour). */
+export function dateParts(d: Date, style: DateStyle, utc: boolean): string {
+  const f = dateFields(d, utc)
+  const time = `${two(f.hour)}:${two(f.minute)}`
+  switch (style) {
+    case 'date': return `${f.day} ${MONTHS_SHORT[f.month]} ${f.year}`
+    case 'dateTime': return `${f.day} ${MONTHS_SHORT[f.month]} ${f.year}, ${time}`
+    case 'time': return time
+    case 'long': return `${f.day} ${MONTHS_LONG[f.month]} ${f.year}`
+    case 'compact': return `${f.day} ${MONTHS_SHORT[f.month]} ${two(f.year % 100)}`
+  }
 }
 
 /** The cookie that tells the server the viewer's time zone. */
@@ -92,9 +123,11 @@ export function formatDate(value: DateInput, style: DateStyle = 'date', options:
   if (Number.isNaN(d.getTime())) return typeof value === 'string' ? value : options.empty ?? ''
   const utc = options.utc ?? (typeof value === 'string' && CALENDAR_DATE.test(value))
   const page = pageDateTexts()
-  if (!page) return formatter(style, utc).format(d)
+  // In the browser, the zone is the viewer's own (or UTC): the text is written from the date's fields.
+  const own = import.meta.client && d.getFullYear() >= 1000 && d.getFullYear() <= 9999
+  if (!page) return own ? dateParts(d, style, utc) : formatter(style, utc).format(d)
   const key = `${style}|${utc ? 'u' : 'z'}|${d.getTime()}`
-  if (!page.recording) return page.texts[key] ?? formatter(style, utc).format(d)
+  if (!page.recording) return page.texts[key] ?? (own ? dateParts(d, style, utc) : formatter(style, utc).format(d))
   const text = formatter(style, utc, page.zone ?? undefined).format(d)
   if (page.zone) page.texts[key] = text
   return text

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatDate, providePageDateTexts, validZone, type PageDateTexts } from '../../../app/utils/dates'
+import { dateParts, formatDate, providePageDateTexts, validZone, type PageDateTexts } from '../../../app/utils/dates'
 
 describe('formatDate: one way of showing dates and times', () => {
   it('shows a calendar date as the same day in every time zone', () => {
@@ -91,5 +91,50 @@ describe('one date helper across the pages', () => {
       if (/toLocale(Date|Time)String\(|Intl\.DateTimeFormat|\bDate\([^)]*\)\.toLocaleString\(/.test(text)) own.push(rel)
     }
     expect(own).toEqual([])
+  })
+})
+
+describe('the browser writes its dates without Intl, as Intl would', () => {
+  // Reference: the runtime's Intl.DateTimeFormat in British English (ICU's CLDR data), the formatter the server uses.
+  const OPTIONS = {
+    date: { day: 'numeric', month: 'short', year: 'numeric' },
+    dateTime: { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' },
+    time: { hour: '2-digit', minute: '2-digit' },
+    long: { day: 'numeric', month: 'long', year: 'numeric' },
+    compact: { day: 'numeric', month: 'short', year: '2-digit' },
+  } as const
+  const instants = [
+    ...Array.from({ length: 12 }, (_, m) => Date.UTC(2026, m, 1 + 2 * m, (5 * m) % 24, (7 * m) % 60)),
+    Date.UTC(2026, 2, 29, 0, 30), // the night Europe/London moves to summer time
+    Date.UTC(2026, 9, 25, 0, 59), // and back
+    Date.UTC(2027, 0, 1, 23, 59),
+    Date.UTC(2000, 1, 29, 12, 0),
+    Date.UTC(2009, 8, 9, 0, 0), // a two-digit year with a leading zero, September
+  ]
+
+  it('in UTC, every style and month', () => {
+    for (const t of instants) {
+      for (const style of Object.keys(OPTIONS) as (keyof typeof OPTIONS)[]) {
+        expect(dateParts(new Date(t), style, true)).toBe(new Intl.DateTimeFormat('en-GB', { ...OPTIONS[style], timeZone: 'UTC' }).format(t))
+      }
+    }
+  })
+
+  it('in the runtime\'s own zone, summer time and a zone ahead of UTC included', () => {
+    const before = process.env.TZ
+    try {
+      for (const zone of ['Europe/London', 'Asia/Tokyo', 'America/Vancouver']) {
+        process.env.TZ = zone
+        for (const t of instants) {
+          for (const style of Object.keys(OPTIONS) as (keyof typeof OPTIONS)[]) {
+            expect(dateParts(new Date(t), style, false)).toBe(new Intl.DateTimeFormat('en-GB', { ...OPTIONS[style], timeZone: zone }).format(t))
+          }
+        }
+      }
+    }
+    finally {
+      if (before === undefined) delete process.env.TZ
+      else process.env.TZ = before
+    }
   })
 })
