@@ -1,3 +1,4 @@
+import { formatCount } from '~/utils/counts'
 import { CreateSettlementRunSchema, MAX_GRID_POINTS } from '#shared/schemas/settlement-runs'
 import { gridPointCount, requestOf } from '#shared/settlement-run/draft'
 import { messageInUnits } from '#shared/units/bounds'
@@ -79,7 +80,7 @@ export function useSettlementDraft(projectId: MaybeRefOrGetter<string>) {
         out[path || 'form'] ??= path === 'model' || path.startsWith('model.') ? 'choose a saved model version' : msg
       }
     }
-    if (gridTooBig.value) out['grid.spacing'] ??= `gives ${gridCount.value.toLocaleString('en-GB')} grid points; at most ${MAX_GRID_POINTS.toLocaleString('en-GB')}: widen the spacing or narrow the margin`
+    if (gridTooBig.value) out['grid.spacing'] ??= `gives ${formatCount(gridCount.value)} grid points; at most ${formatCount(MAX_GRID_POINTS)}: widen the spacing or narrow the margin`
     issues.value = out
     return parsed.success && !gridTooBig.value ? parsed.data : null
   }

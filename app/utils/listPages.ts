@@ -1,4 +1,5 @@
 import { PROJECT_POINT_LIMIT } from '#shared/imports/limits'
+import { formatCount } from './counts'
 
 /** The list routes' largest page (PointListQuerySchema, OedometerListQuerySchema, FlagListQuerySchema). */
 export const LIST_PAGE = 500
@@ -50,8 +51,8 @@ export async function readAllPages<R, T>(
 /** The line a cut list shows ("Showing the first 20,000 of 23,100 oedometer tests."), empty when it is whole. */
 export function cutNote(list: Pick<ListRead<unknown>, 'rows' | 'total' | 'cut'> | null | undefined, noun: string): string {
   if (!list?.cut) return ''
-  const n = list.rows.length.toLocaleString('en-GB')
+  const n = formatCount(list.rows.length)
   return list.total === null
     ? `Showing the first ${n} ${noun}; more were not read.`
-    : `Showing the first ${n} of ${list.total.toLocaleString('en-GB')} ${noun}.`
+    : `Showing the first ${n} of ${formatCount(list.total)} ${noun}.`
 }

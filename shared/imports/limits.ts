@@ -1,4 +1,5 @@
 import type { ImportTarget } from './targets'
+import { formatCount } from '../text/count'
 
 /**
  * What one upload or one project may hold. The upload size itself is limited
@@ -50,10 +51,6 @@ export class ImportLimitError extends Error {
   }
 }
 
-/** "12 345" (a thin space would not survive every terminal: a plain one). */
-export function formatCount(n: number): string {
-  return Math.round(n).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ' ')
-}
 
 function megabytes(bytes: number): string {
   const mb = bytes / (1024 * 1024)
