@@ -18,12 +18,17 @@ export function useAuth() {
     }
   }
 
-  async function signIn(email: string, password: string) {
-    const res = await $fetch('/api/auth/login', { method: 'POST', body: { email, password } })
+  /** A session has begun (sign-in, an accepted invitation, a new password): the app knows its user from now on. */
+  function sessionStarted(signedIn: SessionUser) {
     // Pages then come from the server with their dates in this browser's zone.
     rememberViewerZone()
-    user.value = res.user
+    user.value = signedIn
     loaded.value = true
+  }
+
+  async function signIn(email: string, password: string) {
+    const res = await $fetch('/api/auth/login', { method: 'POST', body: { email, password } })
+    sessionStarted(res.user)
   }
 
   async function signOut() {
@@ -36,5 +41,5 @@ export function useAuth() {
     }
   }
 
-  return { user, loaded, refresh, signIn, signOut }
+  return { user, loaded, refresh, signIn, sessionStarted, signOut }
 }
