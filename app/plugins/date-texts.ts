@@ -11,8 +11,11 @@ export default defineNuxtPlugin((nuxtApp) => {
     const app = tryUseNuxtApp()
     if (!app) return null
     if (import.meta.server) {
+      // Without the viewer's zone the server formats as it always did and sends no texts.
+      const zone = app.payload.viewerZone
+      if (typeof zone !== 'string') return null
       const texts = (app.payload.dateTexts ??= {}) as Record<string, string>
-      return { zone: (app.payload.viewerZone as string | null | undefined) ?? null, texts, recording: true }
+      return { zone, texts, recording: true }
     }
     if (!app.isHydrating || typeof app.payload.viewerZone !== 'string') return null
     return { zone: app.payload.viewerZone, texts: (app.payload.dateTexts ?? {}) as Record<string, string>, recording: false }
