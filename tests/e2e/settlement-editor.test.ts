@@ -145,6 +145,8 @@ describe('the settlement run editor in Chromium', () => {
     await page.getByTestId('run-status-finished').first().waitFor({ timeout: 30_000 })
     await page.getByTestId('contour-band').first().waitFor()
     const table = page.getByTestId('sublayer-table')
+    // The sublayer table is built once it comes near the screen.
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await table.waitFor()
     expect(await table.getByTestId('sublayer-row').count()).toBeGreaterThan(10)
     await screenshot(page, 'settlement-editor-run-laptop')

@@ -75,7 +75,9 @@ describe('settlement results in Chromium', () => {
     const readout = page.getByTestId('section-readout')
     const before = await readout.textContent()
     const handle = page.getByTestId('section-handle-b')
-    // The point's tables arrive after the map; drag once the page has its final layout, with the handle on screen.
+    // The point's tables arrive after the map, the sublayer table once it is scrolled to; drag once the page has
+    // its final layout, with the handle on screen.
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await page.getByTestId('sublayer-table').waitFor()
     await handle.scrollIntoViewIfNeeded()
     const box = (await handle.boundingBox())!
@@ -93,6 +95,7 @@ describe('settlement results in Chromium', () => {
 
     // The first named point's sublayer table, its subtotals and the convergence line.
     const table = page.getByTestId('sublayer-table')
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await table.waitFor()
     expect(await table.getByTestId('sublayer-row').count()).toBeGreaterThan(10)
     expect(await table.getByTestId('sublayer-subtotal').count()).toBeGreaterThan(1)
@@ -112,6 +115,7 @@ describe('settlement results in Chromium', () => {
 
     await screenshot(page, 'settlement-results-run-laptop')
     await page.setViewportSize({ width: 390, height: 844 })
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await page.getByTestId('sublayer-table').waitFor()
     await screenshot(page, 'settlement-results-run-phone')
     await page.close()
@@ -162,6 +166,8 @@ describe('settlement results in Chromium', () => {
     await page.getByTestId('headline-cards').waitFor({ timeout: 10_000 })
     expect(await page.getByTestId('run-progress').count()).toBe(0)
     expect(await page.getByTestId('headline-max').textContent()).toContain('at Centre')
+    // The sublayer table is built once it comes near the screen.
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await page.getByTestId('sublayer-table').waitFor()
 
     // Its creator deletes it from the list (after saying yes).
@@ -185,6 +191,7 @@ describe('settlement results in Chromium', () => {
     await page.getByTestId('contour-band').first().waitFor()
     // The embankment is outlined at its toe and its crest.
     expect(await page.getByTestId('load-outline').count()).toBe(2)
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
     await page.getByTestId('sublayer-table').waitFor()
     await screenshot(page, 'settlement-results-demo-laptop')
     await page.close()
