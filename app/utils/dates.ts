@@ -125,9 +125,10 @@ export function formatDate(value: DateInput, style: DateStyle = 'date', options:
   const page = pageDateTexts()
   // In the browser, the zone is the viewer's own (or UTC): the text is written from the date's fields.
   const own = import.meta.client && d.getFullYear() >= 1000 && d.getFullYear() <= 9999
-  if (!page) return own ? dateParts(d, style, utc) : formatter(style, utc).format(d)
+  const written = () => (own ? dateParts(d, style, utc) : formatter(style, utc).format(d))
+  if (!page) return written()
   const key = `${style}|${utc ? 'u' : 'z'}|${d.getTime()}`
-  if (!page.recording) return page.texts[key] ?? (own ? dateParts(d, style, utc) : formatter(style, utc).format(d))
+  if (!page.recording) return page.texts[key] ?? written()
   const text = formatter(style, utc, page.zone ?? undefined).format(d)
   if (page.zone) page.texts[key] = text
   return text

@@ -2,6 +2,7 @@ import { RESULT_CAUTION } from '#shared/caution'
 import { computeSettlement } from '#shared/geotech/settlement'
 import { runMonteCarlo } from '#shared/probabilistic/monte-carlo'
 import { PROBABILISTIC_DEFAULTS, PROBABILISTIC_LIMITS, type SettlementRequest } from '#shared/schemas/calc'
+import { groupThousands } from '#shared/text/count'
 import type { ProbabilisticSettlementReply, SettlementReply } from '#shared/types/calc'
 import { unprocessableError } from '~~/server/services/http-errors'
 import { MAX_SUBLAYERS, runEngine } from '~~/server/utils/engine'
@@ -35,7 +36,7 @@ export function calcSettlement(body: SettlementRequest, options: { sublayers: bo
     throw createError({
       statusCode: 413,
       statusMessage: 'Payload Too Large',
-      message: `${realizations} realisations of ${planned} sublayers are more than this route computes at once (${PROBABILISTIC_LIMITS.inlineWork.toLocaleString('en')} realisation-sublayers). Use thicker sublayers or fewer realisations, or start a settlement run (POST /api/projects/{projectId}/settlement-runs), which runs as a job.`,
+      message: `${realizations} realisations of ${planned} sublayers are more than this route computes at once (${groupThousands(PROBABILISTIC_LIMITS.inlineWork, ',')} realisation-sublayers). Use thicker sublayers or fewer realisations, or start a settlement run (POST /api/projects/{projectId}/settlement-runs), which runs as a job.`,
       data: { code: 'too-much-work', limit: PROBABILISTIC_LIMITS.inlineWork },
     })
   }

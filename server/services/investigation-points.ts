@@ -2,7 +2,7 @@ import { and, asc, count, eq, ilike, type SQL, sql } from 'drizzle-orm'
 import { returnedRow } from '../db/rows'
 import type { z } from 'zod'
 import { ImportLimitError, PROJECT_POINT_LIMIT } from '#shared/imports/limits'
-import { formatCount } from '#shared/text/count'
+import { groupThousands } from '#shared/text/count'
 import type { PointInput, PointListQuerySchema, PointUpdateSchema } from '#shared/schemas/investigation'
 import { useDb } from '../db/client'
 import { cptSoundings, investigationPoints } from '../db/schema'
@@ -41,7 +41,7 @@ export async function createPoint(projectId: string, actorId: string, body: Poin
     }), `${body.identifier} already exists in this project.`)
   }
   catch (err) {
-    if (err instanceof ImportLimitError) throw unprocessableError(`A project holds at most ${formatCount(PROJECT_POINT_LIMIT)} points and this one is full; ${body.identifier} was not added.`, { code: err.code })
+    if (err instanceof ImportLimitError) throw unprocessableError(`A project holds at most ${groupThousands(PROJECT_POINT_LIMIT)} points and this one is full; ${body.identifier} was not added.`, { code: err.code })
     throw err
   }
 }

@@ -18,6 +18,7 @@ import {
 } from '#shared/settlement-run/probabilistic'
 import { isTreated } from '#shared/settlement-run/treatment'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
+import { groupThousands } from '#shared/text/count'
 import type { RunGridResult } from '#shared/types/settlement-runs'
 import { monteCarloTaskPool, monteCarloWorkerCount } from './monte-carlo-pool'
 
@@ -155,7 +156,7 @@ export async function addProbabilistic(input: RunComputeInput, p: RunProbabilist
       p50: grid.ys.map((_, j) => p50.slice(j * nx, (j + 1) * nx)),
       p95: grid.ys.map((_, j) => p95.slice(j * nx, (j + 1) * nx)),
     }
-    if (perNode < p.realizations) warnings.push(`The grid's P50 and P95 are from ${perNode} realisations per node (the named points use ${p.realizations}), to keep the work within ${RUN_PROBABILISTIC_WORK.grid.toLocaleString('en')} realisation-sublayers.`)
+    if (perNode < p.realizations) warnings.push(`The grid's P50 and P95 are from ${perNode} realisations per node (the named points use ${p.realizations}), to keep the work within ${groupThousands(RUN_PROBABILISTIC_WORK.grid, ',')} realisation-sublayers.`)
   }
   else if (grid) {
     warnings.push('The grid has too many nodes and sublayers for P50 and P95 within the work budget; only the named points are probabilistic. Use a larger spacing or thicker sublayers.')

@@ -4,6 +4,7 @@ import type { CreateSettlementRun } from '#shared/schemas/settlement-runs'
 import { checkRunInput, gridAxes, resolveLoads, type RunComputeInput } from '#shared/settlement-run/compute'
 import { isTreated } from '#shared/settlement-run/treatment'
 import { ModelIncompleteError, toSettlementLayers, toStressInput } from '#shared/site-model/convert'
+import { groupThousands } from '#shared/text/count'
 import type { RunPointDetail, ServerRunModel, ServerSettlementRun, ServerSettlementRunList, ServerSettlementRunSummary } from '#shared/types/settlement-runs'
 import { useDb } from '~~/server/db/client'
 import { settlementRunPoints, settlementRuns, users } from '~~/server/db/schema'
@@ -103,11 +104,11 @@ function assertProbabilisticRunnable(input: RunComputeInput): void {
   const work = input.points.length * p.realizations * sublayers
   const w = RUN_PROBABILISTIC_WORK
   if (work > w.points) {
-    throw unprocessableError(`${p.realizations} realisations at ${input.points.length} points of about ${sublayers} sublayers are ${work.toLocaleString('en')} realisation-sublayers; a run may ask for at most ${w.points.toLocaleString('en')}. Use fewer realisations or points, or thicker sublayers.`, { code: 'too-much-work', path: ['options', 'probabilistic', 'realizations'] })
+    throw unprocessableError(`${p.realizations} realisations at ${input.points.length} points of about ${sublayers} sublayers are ${groupThousands(work, ',')} realisation-sublayers; a run may ask for at most ${groupThousands(w.points, ',')}. Use fewer realisations or points, or thicker sublayers.`, { code: 'too-much-work', path: ['options', 'probabilistic', 'realizations'] })
   }
   const nodes = gridPointCount(input)
   if (nodes > 0 && gridNodeRealizations(p.realizations, nodes, sublayers) === 0) {
-    throw unprocessableError(`The grid's ${nodes} nodes of about ${sublayers} sublayers cannot have ${w.gridNodeMinimum} realisations each within ${w.grid.toLocaleString('en')} realisation-sublayers. Use a larger grid spacing or thicker sublayers, or leave out the grid.`, { code: 'too-much-work', path: ['grid', 'spacing'] })
+    throw unprocessableError(`The grid's ${nodes} nodes of about ${sublayers} sublayers cannot have ${w.gridNodeMinimum} realisations each within ${groupThousands(w.grid, ',')} realisation-sublayers. Use a larger grid spacing or thicker sublayers, or leave out the grid.`, { code: 'too-much-work', path: ['grid', 'spacing'] })
   }
 }
 

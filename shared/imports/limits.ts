@@ -1,5 +1,5 @@
 import type { ImportTarget } from './targets'
-import { formatCount } from '../text/count'
+import { groupThousands } from '../text/count'
 
 /**
  * What one upload or one project may hold. The upload size itself is limited
@@ -64,18 +64,18 @@ export function workbookTooLarge(filename: string, unpacked: number): ImportLimi
 /** `rows` is the count found, `atLeast` when reading stopped at the limit and the rest was not counted. */
 export function tooManyRows(filename: string, rows: number, target: ImportTarget | null, atLeast = false): ImportLimitError {
   const limit = target ? IMPORT_ROW_LIMITS[target] : UPLOAD_ROW_LIMIT
-  const found = atLeast ? `more than ${formatCount(limit)}` : formatCount(rows)
-  const what = target ? `an import of ${TARGET_WORDS[target]} takes at most ${formatCount(limit)}` : `an import takes at most ${formatCount(limit)}`
+  const found = atLeast ? `more than ${groupThousands(limit)}` : groupThousands(rows)
+  const what = target ? `an import of ${TARGET_WORDS[target]} takes at most ${groupThousands(limit)}` : `an import takes at most ${groupThousands(limit)}`
   return new ImportLimitError(`${filename} has ${found} data rows; ${what}. Split the file and import it in parts.`, 'too-many-rows')
 }
 
 export function tooManyAgsLines(filename: string, lines: number): ImportLimitError {
-  return new ImportLimitError(`${filename} has ${formatCount(lines)} lines; an AGS4 import takes at most ${formatCount(AGS_LINE_LIMIT)}. Split the file and import it in parts.`, 'too-many-rows')
+  return new ImportLimitError(`${filename} has ${groupThousands(lines)} lines; an AGS4 import takes at most ${groupThousands(AGS_LINE_LIMIT)}. Split the file and import it in parts.`, 'too-many-rows')
 }
 
 /** Refuses an import that would bring the project past its point limit. */
 export function checkPointLimit(existing: number, adding: number): void {
   if (adding > 0 && existing + adding > PROJECT_POINT_LIMIT) {
-    throw new ImportLimitError(`This import adds ${formatCount(adding)} ${adding === 1 ? 'point' : 'points'} to the project's ${formatCount(existing)}; a project holds at most ${formatCount(PROJECT_POINT_LIMIT)} points. Nothing was imported.`, 'too-many-points')
+    throw new ImportLimitError(`This import adds ${groupThousands(adding)} ${adding === 1 ? 'point' : 'points'} to the project's ${groupThousands(existing)}; a project holds at most ${groupThousands(PROJECT_POINT_LIMIT)} points. Nothing was imported.`, 'too-many-points')
   }
 }

@@ -1,4 +1,5 @@
 import { FOOT_M, type UnitSystem } from '../units'
+import { groupThousands } from '../text/count'
 
 /**
  * Settlement at the edges: the engine gives metres; pages show millimetres (SI) or inches (US,
@@ -45,7 +46,7 @@ export function formatDistortion(v: number | null | undefined): string {
   if (v <= 0) return '0'
   const n = 1 / v
   const round = n >= 1000 ? Math.round(n / 10) * 10 : Math.round(n)
-  return `1/${round.toLocaleString('en-GB')}`
+  return `1/${groupThousands(round, ',')}`
 }
 
 /** A plan position (m) as "E x, N y" in the project's length unit. */

@@ -7,6 +7,7 @@ import { formatDistortion, formatSettlement, formatYears, settlementUnitLabel } 
 import type { RunLoad } from '../schemas/settlement-runs'
 import { isTreated, scheduleRows } from '../settlement-run/treatment'
 import type { RunPointDetail, RunResults, ServerSettlementRun } from '../types/settlement-runs'
+import { groupThousands } from '../text/count'
 import { convert, displayDigits, unitLabel, type ConvertOptions, type Quantity, type UnitSystem, type UsStressUnit } from '../units'
 import { REPORT_INK, reportDocument, type ReportSignOff } from './sheet'
 
@@ -233,7 +234,7 @@ function convergence(inp: SettlementRunReportInput): Content[] {
     rows.length
       ? { table: { headerRows: 1, widths: ['auto', 'auto', 'auto', 'auto'], body: [head(['Point', `Settlement (${unit})`, `Sublayers halved (${unit})`, 'Change']), ...rows.map(p => [cell(p.label, 'left'), cell(s(p.settlement, u)), cell(s(p.convergence?.halved, u)), cell(`${((p.convergence?.relativeChange ?? 0) * 100).toFixed(2)} %`)])] }, layout: TABLE_LAYOUT }
       : { text: 'No named point has a convergence check.', style: 'note' },
-    { text: `${r.stats.sublayers.toLocaleString('en-GB')} sublayers computed.`, style: 'note', margin: [0, 2, 0, 0] },
+    { text: `${groupThousands(r.stats.sublayers, ',')} sublayers computed.`, style: 'note', margin: [0, 2, 0, 0] },
   ]
 }
 
@@ -267,7 +268,7 @@ function probabilistic(inp: SettlementRunReportInput): Content[] {
   const out: Content[] = [
     { text: 'How sure is the settlement?', style: 'section', pageBreak: 'before' },
     {
-      text: `The soil parameters were varied ${setup.realizations.toLocaleString('en-GB')} times within their scatter and the settlement computed each time (seed ${setup.seed}). `
+      text: `The soil parameters were varied ${groupThousands(setup.realizations, ',')} times within their scatter and the settlement computed each time (seed ${setup.seed}). `
         + 'P50 is the settlement that half of these outcomes stay below; P95 the settlement exceeded in only 5 % of them, P5 the one exceeded in 95 %. '
         + 'The deterministic settlement uses the adopted values.',
       style: 'small',

@@ -4,6 +4,6 @@
  * rather than with Intl.NumberFormat: the first Intl formatter a page creates loads the locale's data
  * (40–150 ms on a phone), which a page opening with a count in it would otherwise pay.
  */
-export function formatCount(n: number, separator: ' ' | ',' = ' '): string {
+export function groupThousands(n: number, separator: ' ' | ',' = ' '): string {
   return Math.round(n).toString().replace(/\B(?=(\d{3})+(?!\d))/g, separator)
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatCount as groupDigits } from '../../../shared/text/count'
+import { groupThousands } from '../../../shared/text/count'
 import { formatCount } from '../../../app/utils/counts'
 
 describe('counts with their thousands grouped', () => {
@@ -11,9 +11,9 @@ describe('counts with their thousands grouped', () => {
   })
 
   it('in messages that quote a limit, with a plain space; a fraction is rounded', () => {
-    expect(groupDigits(20_000)).toBe('20 000')
-    expect(groupDigits(1_000_001)).toBe('1 000 001')
-    expect(groupDigits(999)).toBe('999')
-    expect(groupDigits(1234.6, ',')).toBe('1,235')
+    expect(groupThousands(20_000)).toBe('20 000')
+    expect(groupThousands(1_000_001)).toBe('1 000 001')
+    expect(groupThousands(999)).toBe('999')
+    expect(groupThousands(1234.6, ',')).toBe('1,235')
   })
 })
