@@ -112,6 +112,20 @@ describe('the demo on a 390 px phone', () => {
     const tracks = await page.getByTestId('track-scroller').evaluate(el => ({ client: el.clientWidth, scroll: el.scrollWidth, overflow: getComputedStyle(el).overflowX }))
     expect(tracks.overflow).toBe('auto')
     expect(tracks.client).toBeLessThanOrEqual(PHONE.width)
+    // Under the drawing, the panels are built when scrolled to: not while the page opens.
+    const panels = page.getByTestId('panel-box')
+    expect(await panels.getAttribute('data-shown')).toBe('false')
+    expect(await page.getByTestId('fit-panel').count()).toBe(0)
+    // Reached with the keyboard first, they open at once and the focus goes on into them (nothing is skipped).
+    await page.evaluate(() => {
+      const column = document.querySelector('[data-testid="model-workspace"] > div')!
+      const controls = [...column.querySelectorAll<HTMLElement>('a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), [tabindex]:not([tabindex="-1"])')]
+      controls.at(-1)!.focus()
+    })
+    await page.keyboard.press('Tab')
+    await page.getByTestId('fit-panel').waitFor()
+    expect(await panels.getAttribute('data-shown')).toBe('true')
+    await expect.poll(() => page.evaluate(() => !!document.activeElement?.closest('[data-testid="panel-box"]'))).toBe(true)
     await expectNoSideScroll(page, 'The stress-model page', 'narrow-model-phone')
 
     await page.goto(demo.url('/preconsolidation'))
