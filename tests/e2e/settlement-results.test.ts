@@ -108,6 +108,21 @@ describe('settlement results in Chromium', () => {
     await expect.poll(() => page.getByTestId('sublayer-total').textContent()).not.toBe(centreTotal)
     const cornerCard = (await page.getByTestId('headline-points').locator('li').nth(1).textContent())!.replace(/\s+/g, '')
     expect(cornerCard).toBe(`Corner${(await page.getByTestId('sublayer-total').textContent())!.trim()}mm`)
+    // On a phone the table is wider than its box: the subtotals and the total say their value at the box's left, where it opens.
+    await page.setViewportSize({ width: 390, height: 844 })
+    await page.getByTestId('sublayer-box').scrollIntoViewIfNeeded()
+    const totalLabel = page.getByTestId('sublayer-total-label')
+    expect((await totalLabel.textContent())!.replace(/\s+/g, ' ').trim()).toBe(`Total primary settlement: ${(await page.getByTestId('sublayer-total').textContent())!.trim()} mm`)
+    const inView = (el: Element) => {
+      const region = el.closest('[role="region"]')!
+      region.scrollLeft = 0
+      const box = region.getBoundingClientRect()
+      const said = el.querySelector('span')!.getBoundingClientRect()
+      return said.width > 0 && said.left >= box.left && said.right <= box.right
+    }
+    expect(await totalLabel.evaluate(inView)).toBe(true)
+    expect(await page.getByTestId('sublayer-subtotal-label').first().evaluate(inView)).toBe(true)
+    await page.setViewportSize({ width: 1280, height: 800 })
     expect(await page.getByTestId('run-caution').textContent()).toContain('licensed engineer')
 
     expect(await page.getByTestId('export-xlsx').getAttribute('href')).toBe(`/api/projects/${projectId}/settlement-runs/${approvedRun}/export?format=xlsx`)
