@@ -72,15 +72,19 @@ async function signIn(serverUrl: string, email: string): Promise<string> {
   return [...login.headers.getSetCookie().map(c => c.split(';')[0]), zone].join('; ')
 }
 
-/** The demo project, its first stress model and its seeded settlement run, as the engineer sees them. */
+/**
+ * The demo project, its stress model in force (the approved one every bench run finds the same; the canvas
+ * benchmark adds models of its own beside it) and its seeded settlement run, as the engineer sees them.
+ */
 async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: string, model: string, run: string | null }> {
   const get = async <T>(path: string) => (await (await fetch(`${serverUrl}${path}`, { headers: { cookie } })).json()) as T
   // The demo project by its job number: the full bench adds projects of its own (the import benchmark's) beside it.
   const { projects } = await get<{ projects: { id: string, jobNumber: string }[] }>('/api/projects')
   const projectId = projects.find(p => p.jobNumber === DEMO_PROJECT.jobNumber)?.id
   if (!projectId) throw new Error('the demo project is missing')
+  const inForce = await get<{ modelId: string | null }>(`/api/projects/${projectId}/model-in-force`)
   const { models } = await get<{ models: { id: string }[] }>(`/api/projects/${projectId}/models`)
-  let modelId = models[0]?.id
+  let modelId = inForce.modelId ?? models[0]?.id
   if (!modelId) {
     // The demo has logs but no stress model yet: one is made from the logs, as a user would.
     const made = await fetch(`${serverUrl}/api/projects/${projectId}/models`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl, cookie }, body: JSON.stringify({ name: 'Terminal platform', description: 'Made by the page benchmark' }) })
