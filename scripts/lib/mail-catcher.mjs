@@ -114,6 +114,9 @@ async function serve(directory, port, webPort) {
         })
       },
     })
+    // A sender that hangs up mid-session (the app stopped or restarted under an open connection) is reported as an
+    // 'error' event: without a listener it would end the catcher. Nothing was received, so there is nothing to keep.
+    smtp.on('error', () => {})
     await new Promise((resolve, reject) => {
       smtp.server.once('error', err => reject(Object.assign(err, { port })))
       smtp.listen(port, '127.0.0.1', resolve)

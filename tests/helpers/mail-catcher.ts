@@ -37,6 +37,9 @@ export class TestMailCatcher {
         }, (err: Error) => callback(err))
       },
     })
+    // A sender that hangs up mid-session (the app's worker or a test server stopped, the catcher stopped under an
+    // open connection) is reported as an 'error' event: without a listener it would end the test process.
+    server.on('error', () => {})
     await new Promise<void>((resolve, reject) => {
       server.server.once('error', reject)
       server.listen(this.port, '127.0.0.1', () => resolve())
