@@ -5,7 +5,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import type { TDocumentDefinitions } from 'pdfmake/interfaces'
 import { fontsShared } from '~~/server/services/reports/pdf-library'
-import { renderPdf } from '~~/server/services/reports/render'
+import { renderPdf, SVG_ARC_PRECISION, withDrawingOptions } from '~~/server/services/reports/render'
 import { REPORT_FONT } from '#shared/reports/sheet'
 import { pdfPagesText } from '../../helpers/pdf'
 
@@ -48,5 +48,34 @@ describe('pdf library', () => {
       // Each document embeds its own subsets of the three faces it uses.
       expect(new Set(embeddedFonts(pdf))).toEqual(new Set(['SourceSans3-Regular', 'SourceSans3-Semibold', 'SourceSans3-It']))
     }
+  })
+})
+
+describe('drawing options', () => {
+  it('gives every drawing in the tree the arc precision and keeps its own options and the rest of the node', () => {
+    const image = Buffer.from([1, 2, 3])
+    const content = [
+      { svg: '<svg/>', width: 100 },
+      { stack: [{ text: 'a' }, { columns: [{ svg: '<svg/>', options: { precision: 4 } }, { table: { body: [[{ svg: '<svg/>' }, 'cell']] } }] }] },
+      { image, width: 10 },
+    ]
+    const out = withDrawingOptions(content)
+    expect(out[0]).toEqual({ svg: '<svg/>', width: 100, options: { precision: SVG_ARC_PRECISION } })
+    expect(SVG_ARC_PRECISION).toBe(2)
+    const columns = (out[1] as { stack: [unknown, { columns: [unknown, { table: { body: unknown[][] } }] }] }).stack[1].columns
+    expect(columns[0]).toEqual({ svg: '<svg/>', options: { precision: 4 } })
+    expect(columns[1].table.body[0]).toEqual([{ svg: '<svg/>', options: { precision: 2 } }, 'cell'])
+    // Not a plain object: passed through untouched.
+    expect((out[2] as { image: Buffer }).image).toBe(image)
+    // The definition given is not changed.
+    expect(content[0]).toEqual({ svg: '<svg/>', width: 100 })
+  })
+
+  it('draws a circle as four quarter-turn curves', async () => {
+    const circle = { svg: '<svg xmlns="http://www.w3.org/2000/svg" width="40" height="40"><circle cx="20" cy="20" r="10" fill="#000"/></svg>', width: 40 }
+    const pdf = await renderPdf({ compress: false, content: [circle] } as TDocumentDefinitions)
+    const stream = Buffer.from(pdf).toString('latin1')
+    // pdfkit writes a cubic Bézier as "x1 y1 x2 y2 x y c": one per quarter turn (the reader's default made six).
+    expect(stream.match(/(?:-?[\d.]+ ){6}c\n/g)?.length).toBe(4)
   })
 })
