@@ -1,14 +1,15 @@
 import latin400 from '@fontsource/source-sans-3/files/source-sans-3-latin-400-normal.woff2?url'
 import latin600 from '@fontsource/source-sans-3/files/source-sans-3-latin-600-normal.woff2?url'
-import latin700 from '@fontsource/source-sans-3/files/source-sans-3-latin-700-normal.woff2?url'
 
 /**
- * The three Latin faces of Source Sans 3 every page's first screen uses are asked for with the HTML: with the CSS
- * written into the page, the first paint comes before the stylesheet's font requests would, and text drawn in the
- * fallback face would move when the web font arrives.
+ * The two Latin faces of Source Sans 3 every page's first screen uses (regular and semibold) are asked for with the
+ * HTML: with the CSS written into the page, the first paint comes before the stylesheet's font requests would, and
+ * text drawn in the fallback face would move when the web font arrives. The shell's heavier text (the name, the
+ * initials, the inbox count) is semibold too, so no third face is fetched and decoded before the first paint
+ * (a browser test checks that the first screens load no other weight).
  */
 export default defineNuxtPlugin(() => {
   useHead({
-    link: [latin400, latin600, latin700].map(href => ({ rel: 'preload', as: 'font', type: 'font/woff2', href, crossorigin: 'anonymous' })),
+    link: [latin400, latin600].map(href => ({ rel: 'preload', as: 'font', type: 'font/woff2', href, crossorigin: 'anonymous' })),
   })
 })

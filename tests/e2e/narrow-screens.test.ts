@@ -183,6 +183,34 @@ describe('the demo on a 390 px phone', () => {
   })
 })
 
+describe('the faces of the web font a first screen uses', () => {
+  const demo = useProjectAs('engineer')
+
+  it('are the two the page asks for with its HTML (regular, semibold), on the overview, the stress-model page and the run page', async () => {
+    const id = demo.projectId
+    const inForce = (await demo.client.get<{ modelId: string }>(`/api/projects/${id}/model-in-force`)).body
+    const runs = (await demo.client.get<{ runs: { id: string }[] }>(`/api/projects/${id}/settlement-runs`)).body.runs
+    const page = await demo.open('', { viewport: PHONE })
+    for (const path of ['', `/models/${inForce.modelId}`, `/settlement/${runs[0]!.id}`]) {
+      await page.goto(demo.url(path))
+      await page.waitForLoadState('networkidle')
+      const faces = await page.evaluate(() => {
+        const preloaded = [...document.querySelectorAll<HTMLLinkElement>('link[rel="preload"][as="font"]')].map(l => /latin-(\d+)-normal/.exec(l.href)?.[1] ?? l.href)
+        // Text in the page's HTML (drawings, built after the first paint, may use other weights).
+        const heavier = [...document.querySelectorAll<HTMLElement>('body *')]
+          .filter(e => !(e instanceof SVGElement) && [...e.childNodes].some(n => n.nodeType === Node.TEXT_NODE && n.textContent?.trim()))
+          .filter(e => !['400', '600'].includes(getComputedStyle(e).fontWeight))
+          .map(e => `${e.tagName.toLowerCase()} "${e.textContent?.trim().slice(0, 30)}" ${getComputedStyle(e).fontWeight}`)
+        return { preloaded: preloaded.sort(), heavier }
+      })
+      // A weight the text uses but the page does not ask for with its HTML arrives late: that text is drawn twice.
+      expect(faces.preloaded, path || '/').toEqual(['400', '600'])
+      expect(faces.heavier, path || '/').toEqual([])
+    }
+    await page.close()
+  })
+})
+
 describe('editing a log on a 390 px phone', () => {
   const site = useProjectAs('geologist', 'E2E-NAR')
 
