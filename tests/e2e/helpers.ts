@@ -86,6 +86,7 @@ export async function signInAs(context: BrowserContext, email: string, password 
   await context.clearCookies()
   const page = await context.newPage()
   await page.goto(`${base}/login`)
+  await waitForApp(page)
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
@@ -94,11 +95,20 @@ export async function signInAs(context: BrowserContext, email: string, password 
   return page
 }
 
+/**
+ * Waits until the app has taken over the page the server sent (`app/plugins/hydrated-mark.client.ts`): the page is
+ * painted first, and a control used before then does nothing.
+ */
+export async function waitForApp(page: Page): Promise<void> {
+  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+}
+
 /** Signs the demo person of `role` in through the form and opens the page at `path` of project `projectId` (`''` its overview), at the `viewport` size if given. */
 export async function openProjectAs(context: BrowserContext, role: ProjectRole, projectId: string, path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
   const page = await signInAs(context, demoEmail(role))
   if (options.viewport) await page.setViewportSize(options.viewport)
   await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
+  await waitForApp(page)
   return page
 }
 

@@ -7,7 +7,7 @@ import type { Page } from 'playwright-core'
 import { afterAll, describe, expect, it } from 'vitest'
 import { baseUrl, createUser, demoEmail, signIn, TEST_PASSWORD, uniqueEmail } from '../helpers/http'
 import { createProject } from '../helpers/project'
-import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
+import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser, waitForApp } from './helpers'
 
 const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 })
 afterAll(() => pool.end())
@@ -42,6 +42,8 @@ describe('invitations, password reset and people in the browser', () => {
     await page.goto(`${baseUrl()}/projects/${project.id}`)
     const team = page.getByTestId('members-table')
     await team.getByRole('cell', { name: colleague.email }).waitFor()
+    // The table comes with the page; its role choices answer once the app has taken the page over.
+    await waitForApp(page)
 
     // A role change waits for the owner's confirmation.
     const colleagueRole = page.getByLabel(/^Role of Test e2e-inv-colleague/)
@@ -68,6 +70,7 @@ describe('invitations, password reset and people in the browser', () => {
     const link = await linkFromOutbox(invitee, 'invitation')
     const guest = await browser.context.newPage()
     await guest.goto(`${baseUrl()}${link}`)
+    await waitForApp(guest)
     const summary = guest.getByTestId('invitation-summary')
     await summary.waitFor()
     expect((await summary.textContent())?.replace(/\s+/g, ' ')).toContain('invites you to')
@@ -93,6 +96,7 @@ describe('invitations, password reset and people in the browser', () => {
     await browser.context.clearCookies()
     const page = await browser.context.newPage()
     await page.goto(`${baseUrl()}/login`)
+    await waitForApp(page)
     await page.getByTestId('forgot-password').click()
     await page.getByRole('heading', { name: 'Forgot password?' }).waitFor()
     await screenshotLaptopAndPhone(page, 'forgot-password')
@@ -103,6 +107,7 @@ describe('invitations, password reset and people in the browser', () => {
 
     const link = await linkFromOutbox(user.email, 'password-reset')
     await page.goto(`${baseUrl()}${link}`)
+    await waitForApp(page)
     await page.getByRole('heading', { name: 'Choose a new password' }).waitFor()
     await screenshotLaptopAndPhone(page, 'reset-password')
     await page.getByLabel('New password').fill('harbour-mud-line-2026')
@@ -120,6 +125,7 @@ describe('invitations, password reset and people in the browser', () => {
     await admin.post('/api/admin/users', { email: uniqueEmail('e2e-site-invite') })
     const page = await signInAs(browser.context, demoEmail('owner'))
     await page.goto(`${baseUrl()}/admin/people`)
+    await waitForApp(page)
     const row = page.getByTestId(`person-${target.email}`)
     await row.waitFor()
     page.once('dialog', d => void d.accept())
