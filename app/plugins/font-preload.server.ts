@@ -6,7 +6,8 @@ import latin600 from '@fontsource/source-sans-3/files/source-sans-3-latin-600-no
  * HTML: with the CSS written into the page, the first paint comes before the stylesheet's font requests would, and
  * text drawn in the fallback face would move when the web font arrives. The shell's heavier text (the name, the
  * initials, the inbox count) is semibold too, so no third face is fetched and decoded before the first paint
- * (a browser test checks that the first screens load no other weight).
+ * (a browser test checks that the text of the overview, stress-model and run pages uses no other weight; drawings,
+ * built after the first paint, may).
  */
 export default defineNuxtPlugin(() => {
   useHead({
