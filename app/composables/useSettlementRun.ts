@@ -1,4 +1,5 @@
-import type { RunPointDetail, SettlementRun, SettlementRunList } from '#shared/types/settlement-runs'
+import { withoutCurves } from '#shared/settlement-run/view'
+import type { RunPointDetail, SettlementRun, SettlementRunList, SettlementRunView } from '#shared/types/settlement-runs'
 
 /**
  * A project's settlement runs as the results pages read them, keyed so the parent page's live
@@ -26,6 +27,23 @@ export function useSettlementRunDetail(projectId: MaybeRefOrGetter<string>, runI
   return useApiRecord<{ run: SettlementRun }>(
     () => `settlement-run:${toValue(runId)}`,
     () => settlementRunUrl(toValue(projectId), toValue(runId)),
+  )
+}
+
+/**
+ * One run as its results page shows it: the points' time curves (about nine tenths of a finished run's reply) are
+ * left out of what the page keeps and sends with its HTML; the page reads the curves of the point it shows with that
+ * point's detail (`useSettlementRunPoint`). Keyed under the run's own key, so a `run.changed` refresh reaches it.
+ */
+export function useSettlementRunView(projectId: MaybeRefOrGetter<string>, runId: MaybeRefOrGetter<string>) {
+  const fetcher = useRequestFetch()
+  return useAsyncData(
+    () => `settlement-run:${toValue(runId)}:view`,
+    async (_nuxtApp, { signal }): Promise<{ run: SettlementRunView }> => {
+      const { run } = await apiRead<{ run: SettlementRun }>(settlementRunUrl(toValue(projectId), toValue(runId)), signal, fetcher)
+      return { run: withoutCurves(run) }
+    },
+    { default: () => null },
   )
 }
 

@@ -218,6 +218,13 @@ export interface ServerSettlementRun {
 }
 export type SettlementRun = Serialize<ServerSettlementRun>
 
+/** A point's results without its time curves (a run's results page reads the curves of the point it shows with that point's detail). */
+export type RunPointSummary = Omit<RunPointResult, 'curve'>
+/** A run's results with every point's time curves left out: most of a finished run's reply is those curves. */
+export type RunResultsSummary = Omit<RunResults, 'points'> & { points: RunPointSummary[] }
+/** A run as its results page holds it: the reply of `GET …/settlement-runs/{runId}` without the points' time curves. */
+export type SettlementRunView = Omit<SettlementRun, 'results'> & { results: RunResultsSummary | null }
+
 /** A row of the project's run list, with its headline figures once finished. */
 export interface ServerSettlementRunSummary {
   id: string
