@@ -106,6 +106,13 @@ export async function runLighthouseBench(serverUrl: string): Promise<LighthouseR
     { page: 'stress-model page', url: `${serverUrl}${paths.model}`, cookie },
     ...(paths.run ? [{ page: 'settlement-run page', url: `${serverUrl}${paths.run}`, cookie }] : []),
   ]
+  // PASTLOAD_LIGHTHOUSE_PAGES (a comma-separated list of the row names above) measures only those pages.
+  const only = process.env.PASTLOAD_LIGHTHOUSE_PAGES?.split(',').map(s => s.trim()).filter(Boolean)
+  if (only?.length) {
+    const unknown = only.filter(name => !pages.some(p => p.page === name))
+    if (unknown.length) throw new Error(`PASTLOAD_LIGHTHOUSE_PAGES names no such page: ${unknown.join(', ')}`)
+    pages.splice(0, pages.length, ...pages.filter(p => only.includes(p.page)))
+  }
   const runs = Math.max(1, Math.min(9, Number(process.env.PASTLOAD_LIGHTHOUSE_RUNS ?? 3) || 3))
   const chromium = await startChromium()
   try {
