@@ -45,7 +45,6 @@ export interface RunTimeCurve {
   surfaceLoad?: number[]
 }
 
-/** One named point's result (`results.points[]`). */
 /**
  * Monte Carlo final primary settlement at one point (m), from `options.probabilistic`.
  * `exceedanceCurve` gives P(settlement > s) at increasing s (for the curve and a limit typed on the page).
@@ -103,6 +102,7 @@ export interface RunProbabilisticSetup {
   computeMs: number
 }
 
+/** One named point's result (`results.points[]`). */
 export interface RunPointResult {
   label: string
   x: number
