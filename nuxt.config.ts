@@ -98,6 +98,9 @@ export default defineNuxtConfig({
     // Everything that is not a page: JSON replies and downloads are never cached, framed or run as a document.
     '/api/**': { headers: NON_PAGE_HEADERS },
     '/exports/**': { headers: NON_PAGE_HEADERS },
+    // The browser's workers (app/workers/, e.g. the stress workspace's canvas painter): a page that isolates itself
+    // (COEP require-corp) may start a worker only from a script that does too; the worker itself fetches nothing.
+    '/_nuxt/workers/**': { headers: { 'cross-origin-embedder-policy': 'require-corp', 'content-security-policy': "default-src 'none'" } },
   },
   tailwindcss: {
     cssPath: false,
@@ -164,6 +167,8 @@ export default defineNuxtConfig({
     // Small shared chunks (a composable, a two-line helper) are merged into a neighbour: a page then waits for
     // a few requests instead of thirty, which on a phone's connection is most of the time to the first paint.
     build: { rollupOptions: { output: { experimentalMinChunkSize: 20_000 } } },
+    // Browser workers are built as one file each, in a folder of their own (its headers: routeRules above).
+    worker: { rollupOptions: { output: { entryFileNames: '_nuxt/workers/[name]-[hash].js' } } },
   },
   typescript: {
     strict: true,

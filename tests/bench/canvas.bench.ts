@@ -9,7 +9,7 @@ export interface CanvasBenchResult {
   frames: number
   frameMedianMs: number
   frameP95Ms: number
-  /** Time of one dense-layer redraw (bin and write the image), p95. */
+  /** Time of one dense-layer redraw (bin and write the image, in the layer's worker where the browser can hand the canvas over), p95. */
   drawP95Ms: number
   edits: number
   /** Keydown on the water table → new profile on screen (includes the 60 ms debounce and the round trip). */
