@@ -1,5 +1,6 @@
 import { INK, markStyle, RING_PATH, SLASH_PATH, type MarkStyle } from '#shared/plots/palette'
 import { RATIO_DOT, type PointMarkInput } from '#shared/plots/model-tracks'
+import type { TrackFrame } from '~/composables/useModelWorkspace'
 
 /**
  * The stress workspace's two canvas layers — the dense CPT σ'p rows under the stress track, and the σ'p symbols
@@ -12,11 +13,8 @@ import { RATIO_DOT, type PointMarkInput } from '#shared/plots/model-tracks'
 type Context2D = CanvasRenderingContext2D | OffscreenCanvasRenderingContext2D
 type LayerCanvas = HTMLCanvasElement | OffscreenCanvas
 
-/** A box in drawing coordinates (CSS px of the drawing). */
-export interface LayerFrame { x: number, width: number }
-
-/** The dense layer's rows, sorted by depth; `id` changes when the rows do. */
-export interface DenseRows { id: number, depth: Float32Array, preconsolidation: Float32Array }
+/** The dense layer's rows, sorted by depth. */
+export interface DenseRows { depth: Float32Array, preconsolidation: Float32Array }
 
 /**
  * One view of the dense layer: the canvas's size in CSS px, the device pixel ratio, and the two linear scales
@@ -38,7 +36,7 @@ export interface MarksScene {
   width: number
   top: number
   height: number
-  frames: { stress: LayerFrame, ocr: LayerFrame, pop: LayerFrame, uw: LayerFrame, water: LayerFrame }
+  frames: { stress: TrackFrame, ocr: TrackFrame, pop: TrackFrame, uw: TrackFrame, water: TrackFrame }
   /** σ'p symbols, x from the stress track's left. */
   marks: PointMarkInput[]
   /** OCR and POP dots, x from their tracks' left. */
@@ -196,7 +194,7 @@ function marksLayer(canvas: LayerCanvas) {
     if (!p) { p = new Path2D(d); paths.set(d, p) }
     return p
   }
-  function clipTo(ctx: Context2D, f: LayerFrame, s: MarksScene) {
+  function clipTo(ctx: Context2D, f: TrackFrame, s: MarksScene) {
     ctx.beginPath()
     ctx.rect(f.x, s.top, f.width, s.height)
     ctx.clip()
