@@ -3,8 +3,8 @@ import { trendFromFit } from '#shared/site-model/definition-plain'
 import type { SiteModelDefinition, StratumTrend } from '#shared/site-model/definition'
 import { setTrend } from '~/utils/siteModelEdits'
 import {
-  assignBands, fitInput, reviewerExcluded, sameIds, stressAt,
-  type PointFlag,
+  assignBands, fitInput, reviewerExcluded, stressAt, trendStaleness,
+  type DisplayFitState, type PointFlag,
 } from '~/utils/stressHistory'
 import { stratumTrendProblems, unacceptedProblems, type TrendProblem } from '#shared/site-model/trend-checks'
 import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
@@ -28,12 +28,10 @@ export interface WorkspaceEditor {
   setFitChoice: (code: string, state: FitChoiceState) => void
 }
 
-export interface BandFit {
-  /** What the fit was asked with, to know when it no longer matches the draft. */
-  key: string
+/** A band's fit: what it was asked with (to know when it no longer matches the draft), its answer or error. */
+export interface BandFit extends DisplayFitState {
   answer: TrendFitReply | null
   error: string | null
-  pending: boolean
 }
 
 /**
@@ -207,18 +205,7 @@ export function useTrendFits(args: {
     const t = s?.trend
     // Before the points (or the profile) arrive nothing can be compared.
     if (!t || t.manual || !args.points().length || !args.profile().length) return { ids: false, parameters: false }
-    const inp = inputOf(i)
-    const ids = !sameIds(t.includedPointIds, inp.included.map(p => p.id))
-    const f = fits.value[i]
-    let parameters = false
-    if (f?.answer && f.key === requestKey(i, t.model, t.logSpace)) {
-      for (const [k, v] of Object.entries(t.parameters)) {
-        const w = f.answer.parameters[k]
-        if (w === undefined) continue
-        if (Math.abs(v - w) > 1e-6 * Math.max(1, Math.abs(v)) + 0.05) parameters = true
-      }
-    }
-    return { ids, parameters }
+    return trendStaleness(t, inputOf(i).included.map(p => p.id), fits.value[i], requestKey(i, t.model, t.logSpace))
   }
 
   /**

@@ -123,6 +123,39 @@ export function sameIds(a: readonly string[], b: readonly string[]): boolean {
   return b.every(x => s.has(x))
 }
 
+/** A display fit of a band's saved trend, as far as its staleness goes. */
+export interface DisplayFitState {
+  /** What the fit was asked with (the band, model, log space and each fitted point's id and σ'v0). */
+  key: string
+  answer: { parameters: Readonly<Record<string, number>> } | null
+  /** Asked again and not answered yet: `answer` is still the previous ask's. */
+  pending: boolean
+}
+
+/**
+ * Whether a band's saved trend no longer matches today's points: `ids` when the points that would take part differ
+ * from those it was fitted to, `parameters` when the same model fitted again to today's points (and their σ'v0)
+ * moves a parameter by more than 0.05 (in its own unit). Only a settled fit of today's inputs can say
+ * `parameters`: while a new ask is pending, the answer on hand is an earlier input's and proves nothing.
+ */
+export function trendStaleness(
+  trend: { includedPointIds: readonly string[], parameters: Readonly<Record<string, number>> },
+  includedIds: readonly string[],
+  fit: DisplayFitState | undefined,
+  key: string,
+): { ids: boolean, parameters: boolean } {
+  const ids = !sameIds(trend.includedPointIds, includedIds)
+  let parameters = false
+  if (fit?.answer && !fit.pending && fit.key === key) {
+    for (const [k, v] of Object.entries(trend.parameters)) {
+      const w = fit.answer.parameters[k]
+      if (w === undefined) continue
+      if (Math.abs(v - w) > 1e-6 * Math.max(1, Math.abs(v)) + 0.05) parameters = true
+    }
+  }
+  return { ids, parameters }
+}
+
 /** Knots of a first hand-drawn trend: the band's top and bottom at the median σ'p of its fitted points (or σ'v0 + 20 kPa). */
 export function initialKnots(def: SiteModelDefinition, bandIndex: number, fitted: readonly PreconsolidationPointRow[], profile: readonly ProfilePoint[]): { depth: number, preconsolidation: number }[] {
   const b = stratumBounds(def)[bandIndex]
