@@ -1,4 +1,3 @@
-import { withoutCurves } from '#shared/settlement-run/view'
 import type { RunPointDetail, SettlementRun, SettlementRunList, SettlementRunView } from '#shared/types/settlement-runs'
 
 /**
@@ -32,7 +31,7 @@ export function useSettlementRunDetail(projectId: MaybeRefOrGetter<string>, runI
 
 /**
  * One run as its results page shows it: the points' time curves (about nine tenths of a finished run's reply) are
- * left out of what the page keeps and sends with its HTML; the page reads the curves of the point it shows with that
+ * left out of what the server reads and sends (`?curves=none`), and so of what the page keeps and sends with its HTML; the page reads the curves of the point it shows with that
  * point's detail (`useSettlementRunPoint`). Keyed under the run's own key, so a `run.changed` refresh reaches it.
  */
 export function useSettlementRunView(projectId: MaybeRefOrGetter<string>, runId: MaybeRefOrGetter<string>) {
@@ -40,8 +39,7 @@ export function useSettlementRunView(projectId: MaybeRefOrGetter<string>, runId:
   return useAsyncData(
     () => `settlement-run:${toValue(runId)}:view`,
     async (_nuxtApp, { signal }): Promise<{ run: SettlementRunView }> => {
-      const { run } = await apiRead<{ run: SettlementRun }>(settlementRunUrl(toValue(projectId), toValue(runId)), signal, fetcher)
-      return { run: withoutCurves(run) }
+      return apiRead<{ run: SettlementRunView }>(`${settlementRunUrl(toValue(projectId), toValue(runId))}?curves=none`, signal, fetcher)
     },
     { default: () => null },
   )

@@ -1,11 +1,11 @@
-import { and, count, desc, eq, inArray, sql } from 'drizzle-orm'
+import { and, count, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
 import { buildStressModel, createStressEvaluator } from '#shared/geotech/stress'
-import type { CreateSettlementRun } from '#shared/schemas/settlement-runs'
+import type { CreateSettlementRun, SettlementRunQuery } from '#shared/schemas/settlement-runs'
 import { checkRunInput, gridAxes, resolveLoads, type RunComputeInput } from '#shared/settlement-run/compute'
 import { isTreated } from '#shared/settlement-run/treatment'
 import { ModelIncompleteError, toSettlementLayers, toStressInput } from '#shared/site-model/convert'
 import { groupThousands } from '#shared/text/count'
-import type { RunPointDetail, ServerRunModel, ServerSettlementRun, ServerSettlementRunList, ServerSettlementRunSummary } from '#shared/types/settlement-runs'
+import type { RunPointDetail, ServerRunModel, ServerSettlementRun, ServerSettlementRunList, ServerSettlementRunSummary, ServerSettlementRunView, RunResultsSummary } from '#shared/types/settlement-runs'
 import { useDb } from '~~/server/db/client'
 import { settlementRunPoints, settlementRuns, users } from '~~/server/db/schema'
 import { runEngine } from '~~/server/utils/engine'
@@ -167,7 +167,22 @@ async function requireRun(projectId: string, runId: string): Promise<RunRow & { 
   return { ...r.run, creatorName: r.creatorName }
 }
 
-function toRun(r: RunRow & { creatorName: string | null }): ServerSettlementRun {
+/**
+ * The run with each point's time curve taken out of its results in the database, so the curves (most of a finished
+ * run's results) are neither read nor sent; the points keep their order.
+ */
+async function requireRunWithoutCurves(projectId: string, runId: string): Promise<Omit<RunRow, 'results'> & { results: RunResultsSummary | null, creatorName: string | null }> {
+  const { results, ...columns } = getTableColumns(settlementRuns)
+  const summary = sql<RunResultsSummary | null>`case when ${results} is null then null else jsonb_set(${results}, '{points}', coalesce((select jsonb_agg(e.p - 'curve' order by e.n) from jsonb_array_elements(${results}->'points') with ordinality as e(p, n)), '[]'::jsonb)) end`
+  const [r] = await useDb().select({ ...columns, results: summary, creatorName: users.displayName }).from(settlementRuns)
+    .leftJoin(users, eq(users.id, settlementRuns.createdBy))
+    .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.projectId, projectId)))
+  if (!r) notFound('Settlement run')
+  return r
+}
+
+/** A run row as the API answers it; `R` is what its results hold (whole, or without the points' time curves). */
+function toRun<R>(r: Omit<RunRow, 'results'> & { results: R | null, creatorName: string | null }): Omit<ServerSettlementRun, 'results'> & { results: R | null } {
   return {
     id: r.id,
     name: r.name,
@@ -187,8 +202,11 @@ function toRun(r: RunRow & { creatorName: string | null }): ServerSettlementRun 
   }
 }
 
-export async function getSettlementRun(projectId: string, runId: string): Promise<{ run: ServerSettlementRun }> {
-  return { run: toRun(await requireRun(projectId, runId)) }
+/** One run; with `curves` 'none' its points' results leave out their time curves. */
+export async function getSettlementRun(projectId: string, runId: string, curves?: 'all'): Promise<{ run: ServerSettlementRun }>
+export async function getSettlementRun(projectId: string, runId: string, curves: SettlementRunQuery['curves']): Promise<{ run: ServerSettlementRun | ServerSettlementRunView }>
+export async function getSettlementRun(projectId: string, runId: string, curves: SettlementRunQuery['curves'] = 'all'): Promise<{ run: ServerSettlementRun | ServerSettlementRunView }> {
+  return { run: curves === 'none' ? toRun(await requireRunWithoutCurves(projectId, runId)) : toRun(await requireRun(projectId, runId)) }
 }
 
 /** The project's runs, newest first, with their headline figures (read from the results in the database, not loaded whole). */

@@ -205,6 +205,12 @@ export const SettlementRunParamsSchema = z.object({ projectId: UuidSchema, runId
 export const SettlementRunPointParamsSchema = SettlementRunParamsSchema.extend({ index: z.coerce.number().int().min(0).max(L.points - 1) })
 /** Query of `GET …/settlement-runs/scatter`: the model version whose tests give the COVs "from the data". */
 export const RunScatterQuerySchema = z.object({ modelId: UuidSchema, version: z.coerce.number().int().min(1).max(100_000) })
+/**
+ * Query of `GET …/settlement-runs/{runId}`: `curves=none` leaves out each point's time curves (most of a finished
+ * run's reply), as a run's results page reads it; the page reads the curves of the point it shows with that point.
+ */
+export const SettlementRunQuerySchema = z.object({ curves: z.enum(['all', 'none']).default('all') })
+export type SettlementRunQuery = z.infer<typeof SettlementRunQuerySchema>
 export const SettlementRunExportQuerySchema = z.object({ format: z.enum(['xlsx', 'json']) })
 export const SettlementRunListQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(100),

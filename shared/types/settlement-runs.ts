@@ -222,8 +222,9 @@ export type SettlementRun = Serialize<ServerSettlementRun>
 export type RunPointSummary = Omit<RunPointResult, 'curve'>
 /** A run's results with every point's time curves left out: most of a finished run's reply is those curves. */
 export type RunResultsSummary = Omit<RunResults, 'points'> & { points: RunPointSummary[] }
-/** A run as its results page holds it: the reply of `GET …/settlement-runs/{runId}` without the points' time curves. */
-export type SettlementRunView = Omit<SettlementRun, 'results'> & { results: RunResultsSummary | null }
+/** A run as its results page holds it: the reply of `GET …/settlement-runs/{runId}?curves=none`. */
+export type ServerSettlementRunView = Omit<ServerSettlementRun, 'results'> & { results: RunResultsSummary | null }
+export type SettlementRunView = Serialize<ServerSettlementRunView>
 
 /** A row of the project's run list, with its headline figures once finished. */
 export interface ServerSettlementRunSummary {

@@ -4,7 +4,7 @@ import pg from 'pg'
 import * as XLSX from 'xlsx-republish'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { RESULT_CAUTION } from '../../shared/caution'
-import type { RunPointDetail, SettlementRun, SettlementRunList } from '../../shared/types/settlement-runs'
+import type { RunPointDetail, SettlementRun, SettlementRunList, SettlementRunView } from '../../shared/types/settlement-runs'
 import { demoProjectId, signedInDemo } from '../helpers/http'
 import { createProject, must } from '../helpers/project'
 import { scenarioDefinition } from '../helpers/scenario-definition'
@@ -59,6 +59,27 @@ describe('settlement runs', () => {
     expect(pts[0]!.surfaceStressIncrease).toBeCloseTo(100, 0)
     expect(run.results!.maximum).toMatchObject({ label: 'Centre', settlement: pts[0]!.settlement })
     expect(run.results!.caution).toBe(RESULT_CAUTION)
+  })
+
+  it('reads the run without its points\' time curves on ?curves=none, everything else the same; 400 for another value', async () => {
+    const whole = await must('run', reviewer.get<{ run: SettlementRun }>(`${base}/settlement-runs/${runId}`))
+    const explicit = await must('run', reviewer.get<{ run: SettlementRun }>(`${base}/settlement-runs/${runId}?curves=all`))
+    expect(explicit).toEqual(whole)
+    const { run } = await must('view', reviewer.get<{ run: SettlementRunView }>(`${base}/settlement-runs/${runId}?curves=none`))
+    expect(whole.run.results!.points.every(p => (p.curve?.years.length ?? 0) > 3)).toBe(true)
+    const points = run.results!.points
+    expect(points.map(p => p.label)).toEqual(['Centre', 'Corner', 'Outside'])
+    expect(points.some(p => 'curve' in p)).toBe(false)
+    expect(points).toEqual(whole.run.results!.points.map(({ curve: _curve, ...rest }) => rest))
+    const { results: _wholeResults, ...wholeRest } = whole.run
+    const { results: _viewResults, ...viewRest } = run
+    expect(viewRest).toEqual(wholeRest)
+    const { points: _wp, ...wholeHead } = whole.run.results!
+    const { points: _vp, ...viewHead } = run.results!
+    expect(viewHead).toEqual(wholeHead)
+    const bad = await reviewer.get<{ data: { issues: { path: string }[] } }>(`${base}/settlement-runs/${runId}?curves=some`)
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues.map(i => i.path)).toContain('curves')
   })
 
   it('lists runs newest first with the headline figures', async () => {
@@ -153,6 +174,8 @@ describe('settlement runs', () => {
     expect(run.status).toBe('failed')
     expect(run.results).toBeNull()
     expect(run.error?.code).toBe('final-effective-stress-not-positive')
+    const view = await must('view', reviewer.get<{ run: SettlementRunView }>(`${base}/settlement-runs/${c.run.id}?curves=none`))
+    expect(view.run).toEqual(run)
     expect(run.error?.message).toContain('Desiccated crust')
     const point = await reviewer.get<{ data: { status: string } }>(`${base}/settlement-runs/${c.run.id}/points/0`)
     expect(point.status).toBe(409)
