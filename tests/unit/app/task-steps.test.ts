@@ -17,6 +17,14 @@ function mountSteps(count: number, ready?: () => boolean) {
   return { el, app, steps: () => steps.value, shown: () => el.querySelectorAll('p').length }
 }
 
+/** Runs the next waiting task (or all of them) and lets Vue render what they changed; answers the steps taken. */
+async function runTasks(m: ReturnType<typeof mountSteps>, which: 'next' | 'all'): Promise<number> {
+  if (which === 'next') vi.advanceTimersToNextTimer()
+  else vi.runAllTimers()
+  await nextTick()
+  return m.steps()
+}
+
 describe('useTaskSteps: a part built in steps, one per task', () => {
   beforeEach(() => { vi.useFakeTimers() })
   afterEach(() => { vi.useRealTimers() })
@@ -26,15 +34,11 @@ describe('useTaskSteps: a part built in steps, one per task', () => {
     await nextTick()
     expect(m.steps()).toBe(0)
     for (const k of [1, 2, 3]) {
-      vi.advanceTimersToNextTimer()
-      await nextTick()
-      expect(m.steps()).toBe(k)
+      expect(await runTasks(m, 'next')).toBe(k)
       expect(m.shown()).toBe(k)
     }
     // Past the count no further step is taken.
-    vi.runAllTimers()
-    await nextTick()
-    expect(m.steps()).toBe(3)
+    expect(await runTasks(m, 'all')).toBe(3)
     expect(m.shown()).toBe(3)
     m.app.unmount()
   })
@@ -42,32 +46,22 @@ describe('useTaskSteps: a part built in steps, one per task', () => {
   it('waits for ready, pauses when it stops holding and goes on from there when it holds again', async () => {
     const ready = ref(false)
     const m = mountSteps(4, () => ready.value)
-    vi.runAllTimers()
-    await nextTick()
-    expect(m.steps()).toBe(0)
+    expect(await runTasks(m, 'all')).toBe(0)
     ready.value = true
     await nextTick()
-    vi.advanceTimersToNextTimer()
-    await nextTick()
-    expect(m.steps()).toBe(1)
+    expect(await runTasks(m, 'next')).toBe(1)
     ready.value = false
-    vi.runAllTimers()
-    await nextTick()
-    expect(m.steps()).toBe(1)
+    expect(await runTasks(m, 'all')).toBe(1)
     ready.value = true
     await nextTick()
-    vi.runAllTimers()
-    await nextTick()
-    expect(m.steps()).toBe(4)
+    expect(await runTasks(m, 'all')).toBe(4)
     expect(m.shown()).toBe(4)
     m.app.unmount()
   })
 
   it('leaves no task behind when the component is unmounted half-way', async () => {
     const m = mountSteps(5)
-    vi.advanceTimersToNextTimer()
-    await nextTick()
-    expect(m.steps()).toBe(1)
+    expect(await runTasks(m, 'next')).toBe(1)
     expect(vi.getTimerCount()).toBe(1)
     m.app.unmount()
     expect(vi.getTimerCount()).toBe(0)
