@@ -2,9 +2,13 @@
 // through the API with the session cookie sent as an extra header, on a project's overview, a
 // stress-model page and a settlement run. The machine's 1-minute load average is read beside each run: the
 // CPU-bound figures (TBT above all) move with whatever else runs on the machine. One run of a page moves by
-// up to ten points from the next, so each page is measured several times (PASTLOAD_LIGHTHOUSE_RUNS, 3 by
+// up to ten points from the next, so each page is measured several times (PASTLOAD_LIGHTHOUSE_RUNS, 5 by
 // default, pages interleaved) and the row is the run with the median score, its lowest and highest beside
 // it; one run before them is not counted (the browser's own start would fall on the first page).
+// The pages are loaded as a deployment serves them: over HTTPS with HTTP/2, through a local stand-in for the
+// reverse proxy (`tls-proxy.ts`; docs/operations.md). Lighthouse's simulated network gives each plain HTTP/1.1
+// connection its own handshake and slow start, which a deployed site does not pay. PASTLOAD_LIGHTHOUSE_TRANSPORT=http1
+// measures the app's own port directly instead.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { cpus, loadavg, tmpdir } from 'node:os'
@@ -13,6 +17,7 @@ import lighthouse from 'lighthouse'
 import { VIEWER_ZONE_COOKIE } from '../../app/utils/dates'
 import { DEMO_PASSWORD, DEMO_PEOPLE, DEMO_PROJECT } from '../../shared/demo/scenario'
 import { medianRun, type LighthouseRow } from './lighthouse-rows'
+import { startTlsProxy } from './tls-proxy'
 
 export const LIGHTHOUSE_GOALS: Record<string, { performance: number }> = {
   'sign-in': { performance: 95 },
@@ -21,12 +26,25 @@ export const LIGHTHOUSE_GOALS: Record<string, { performance: number }> = {
   'settlement-run page': { performance: 90 },
 }
 
-/** Debian's Chromium with a DevTools port for Lighthouse; resolves once the port is known. */
-function startChromium(): Promise<{ port: number, stop: () => Promise<void> }> {
+/** How the pages reach the browser: through the HTTPS, HTTP/2 proxy (as deployed) or from the app's own port. */
+export type LighthouseTransport = 'h2' | 'http1'
+
+export function lighthouseTransport(): LighthouseTransport {
+  const given = process.env.PASTLOAD_LIGHTHOUSE_TRANSPORT ?? 'h2'
+  if (given !== 'h2' && given !== 'http1') throw new Error(`PASTLOAD_LIGHTHOUSE_TRANSPORT must be h2 or http1, not ${given}`)
+  return given
+}
+
+/**
+ * Debian's Chromium with a DevTools port for Lighthouse; resolves once the port is known. `acceptOwnCertificate`
+ * lets it take the bench proxy's throwaway certificate (this browser profile loads nothing else).
+ */
+function startChromium(acceptOwnCertificate: boolean): Promise<{ port: number, stop: () => Promise<void> }> {
   const dir = mkdtempSync(join(tmpdir(), 'pastload-lighthouse-'))
   const child: ChildProcess = spawn(process.env.CHROME_PATH ?? '/usr/bin/chromium', [
     '--headless=new', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--no-first-run',
-    '--disable-component-update', '--disable-sync', `--user-data-dir=${dir}`, '--remote-debugging-port=0', 'about:blank',
+    '--disable-component-update', '--disable-sync', `--user-data-dir=${dir}`, '--remote-debugging-port=0',
+    ...(acceptOwnCertificate ? ['--ignore-certificate-errors'] : []), 'about:blank',
   ], { stdio: ['ignore', 'ignore', 'pipe'] })
   const stop = async () => {
     // Chromium writes its profile as it exits: the folder is removed once the process is gone.
@@ -98,13 +116,25 @@ async function demoPaths(serverUrl: string, cookie: string): Promise<{ project: 
 
 export async function runLighthouseBench(serverUrl: string): Promise<LighthouseRow[]> {
   const engineer = DEMO_PEOPLE.find(p => p.role === 'engineer')!
+  // Signed in and the demo's pages found on the app's own port; the session cookie is the same through the proxy.
   const cookie = await signIn(serverUrl, engineer.email)
   const paths = await demoPaths(serverUrl, cookie)
+  const transport = lighthouseTransport()
+  const proxy = transport === 'h2' ? await startTlsProxy(serverUrl) : null
+  try {
+    return await measurePages(proxy?.url ?? serverUrl, paths, cookie, transport)
+  }
+  finally {
+    await proxy?.stop()
+  }
+}
+
+async function measurePages(siteUrl: string, paths: Awaited<ReturnType<typeof demoPaths>>, cookie: string, transport: LighthouseTransport): Promise<LighthouseRow[]> {
   const pages: { page: string, url: string, cookie?: string }[] = [
-    { page: 'sign-in', url: `${serverUrl}/login` },
-    { page: 'project overview', url: `${serverUrl}${paths.project}`, cookie },
-    { page: 'stress-model page', url: `${serverUrl}${paths.model}`, cookie },
-    ...(paths.run ? [{ page: 'settlement-run page', url: `${serverUrl}${paths.run}`, cookie }] : []),
+    { page: 'sign-in', url: `${siteUrl}/login` },
+    { page: 'project overview', url: `${siteUrl}${paths.project}`, cookie },
+    { page: 'stress-model page', url: `${siteUrl}${paths.model}`, cookie },
+    ...(paths.run ? [{ page: 'settlement-run page', url: `${siteUrl}${paths.run}`, cookie }] : []),
   ]
   // PASTLOAD_LIGHTHOUSE_PAGES (a comma-separated list of the row names above) measures only those pages.
   const only = process.env.PASTLOAD_LIGHTHOUSE_PAGES?.split(',').map(s => s.trim()).filter(Boolean)
@@ -113,8 +143,8 @@ export async function runLighthouseBench(serverUrl: string): Promise<LighthouseR
     if (unknown.length) throw new Error(`PASTLOAD_LIGHTHOUSE_PAGES names no such page: ${unknown.join(', ')}`)
     pages.splice(0, pages.length, ...pages.filter(p => only.includes(p.page)))
   }
-  const runs = Math.max(1, Math.min(9, Number(process.env.PASTLOAD_LIGHTHOUSE_RUNS ?? 3) || 3))
-  const chromium = await startChromium()
+  const runs = Math.max(1, Math.min(9, Number(process.env.PASTLOAD_LIGHTHOUSE_RUNS ?? 5) || 5))
+  const chromium = await startChromium(transport === 'h2')
   try {
     // Not counted: the browser's first page load also pays for its own start.
     await lighthouse(pages[0]!.url, { port: chromium.port, output: 'json', logLevel: 'error', onlyCategories: ['performance'] })
@@ -169,12 +199,12 @@ async function measurePage(port: number, p: { page: string, url: string, cookie?
 export function lighthouseSection(rows: LighthouseRow[]): string {
   const date = new Date().toISOString().slice(0, 10)
   return [
-    `Measured ${date} on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}, Chromium headless (no GPU); the load average is read just before each page's run.`,
+    `Measured ${date} on ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}, Node ${process.version}, Chromium headless (no GPU); ${lighthouseTransport() === 'h2' ? 'pages served over HTTPS with HTTP/2 through the bench\'s local TLS proxy (as deployed behind a reverse proxy)' : 'pages served over plain HTTP/1.1 from the app\'s own port'}; the load average is read just before each page's run.`,
     '',
     '| page (Lighthouse 12.8.2, mobile) | date | load avg (1 min) | performance (median run; lowest–highest of the runs) | goal | accessibility | LCP (s) | TBT (ms) | CLS |',
     '|---|---|---:|---:|---:|---:|---:|---:|---:|',
     ...rows.map(r => r.error
       ? `| ${r.page} | ${date} | ${r.load.toFixed(2)} | no result (${r.error}) | ≥ ${LIGHTHOUSE_GOALS[r.page]?.performance ?? 90} | – | – | – | – |`
-      : `| ${r.page} | ${date} | ${r.load.toFixed(2)} | ${r.performance}${r.range ? ` (${r.range[0]}–${r.range[1]} in ${r.runs} runs)` : ''} | ≥ ${LIGHTHOUSE_GOALS[r.page]?.performance ?? 90} | ${r.accessibility}${r.failed.length ? ` (${r.failed.join(', ')})` : ''} | ${(r.lcpMs / 1000).toFixed(1)} | ${Math.round(r.tbtMs)} | ${r.cls.toFixed(3)} |`),
+      : `| ${r.page} | ${date} | ${r.load.toFixed(2)} | ${r.performance}${r.range ? ` (${r.range[0]}–${r.range[1]} in ${r.runs} run${r.runs === 1 ? '' : 's'})` : ''} | ≥ ${LIGHTHOUSE_GOALS[r.page]?.performance ?? 90} | ${r.accessibility}${r.failed.length ? ` (${r.failed.join(', ')})` : ''} | ${(r.lcpMs / 1000).toFixed(1)} | ${Math.round(r.tbtMs)} | ${r.cls.toFixed(3)} |`),
   ].join('\n')
 }
