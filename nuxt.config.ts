@@ -4,6 +4,7 @@ import { createRequire } from 'node:module'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { REPORT_FONT_FILES } from './shared/reports/fonts'
+import { workerBundleOptions } from './server/workers/bundle-options'
 
 // Browser features the product never uses are switched off for every page.
 const PERMISSIONS_POLICY: Record<string, string[]> = {
@@ -120,26 +121,16 @@ export default defineNuxtConfig({
       // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
       // bundle; the packages they import are traced into .output because the bundle imports them too.
       async compiled(nitro) {
-        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true })
-        // The settlement-run worker imports the TypeScript engine: bundled into one plain file (esbuild, Vite's own).
+        // (The bundling options, a TypeScript file of the build's own, stay behind.)
+        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true, filter: src => !src.endsWith('.ts') })
+        // The workers that import the TypeScript engine are bundled into one plain file each (server/workers/bundle-options.ts):
+        // the settlement run, the Monte Carlo task (a piscina task, services/monte-carlo-pool.ts) and the report
+        // renderer (pdfmake resolved from .output's node_modules).
         const { build } = await import('esbuild')
-        await build({
-          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/settlement-run.mjs')],
-          outfile: join(nitro.options.output.serverDir, 'workers', 'settlement-run.bundle.mjs'),
-          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
-        })
-        // The Monte Carlo worker (a piscina task, services/monte-carlo-pool.ts): the engine bundled the same way.
-        await build({
-          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/monte-carlo.mjs')],
-          outfile: join(nitro.options.output.serverDir, 'workers', 'monte-carlo.bundle.mjs'),
-          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning',
-        })
-        // The report renderer's worker: the report builders bundled, pdfmake resolved from .output's node_modules.
-        await build({
-          entryPoints: [resolve(nitro.options.rootDir, 'server/workers/report-render.mjs')],
-          outfile: join(nitro.options.output.serverDir, 'workers', 'report-render.bundle.mjs'),
-          bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning', external: ['pdfmake'],
-        })
+        const workers = join(nitro.options.output.serverDir, 'workers')
+        await build(workerBundleOptions(nitro.options.rootDir, 'settlement-run.mjs', join(workers, 'settlement-run.bundle.mjs')))
+        await build(workerBundleOptions(nitro.options.rootDir, 'monte-carlo.mjs', join(workers, 'monte-carlo.bundle.mjs')))
+        await build(workerBundleOptions(nitro.options.rootDir, 'report-render.mjs', join(workers, 'report-render.bundle.mjs'), { external: ['pdfmake'] }))
         // Reports embed Source Sans 3 from its TrueType files (server/services/reports/render.ts).
         const fonts = join(dirname(createRequire(import.meta.url).resolve('source-sans/package.json')), 'TTF')
         mkdirSync(join(nitro.options.output.serverDir, 'fonts'), { recursive: true })

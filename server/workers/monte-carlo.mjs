@@ -3,8 +3,8 @@
 // TypeScript engine it imports into `.output/server/workers/monte-carlo.bundle.mjs`.
 // Task in: { input, options, chunkStart, chunkEnd }; out: the samples (typed arrays, copied back).
 // Named tasks `runPointChunks` and `runGridNodes` do the same for a settlement run (services/settlement-run-probabilistic.ts).
-import { planMonteCarlo, simulateChunks } from '../../shared/probabilistic/monte-carlo.ts'
-import { gridNodeQuantiles, pointChunks } from '../../shared/settlement-run/probabilistic.ts'
+import { planMonteCarlo, simulateChunks } from '#shared/probabilistic/monte-carlo'
+import { gridNodeQuantiles, pointChunks } from '#shared/settlement-run/probabilistic'
 
 export default function drawChunks({ input, options, chunkStart, chunkEnd }) {
   return simulateChunks(planMonteCarlo(input, options), chunkStart, chunkEnd)

@@ -5,8 +5,8 @@
 // font metrics are files).
 // Task: { kind: 'settlement-run' | 'model-version', input, port? }. The document is built here (the drawings),
 // then `{ stage: 'writing' }` is posted on `port` and the PDF written. Answer: { pdf: Uint8Array, pages }.
-import { modelVersionDocument } from '../../shared/reports/model-version.ts'
-import { settlementRunReport } from '../../shared/reports/settlement-run.ts'
+import { modelVersionDocument } from '#shared/reports/model-version'
+import { settlementRunReport } from '#shared/reports/settlement-run'
 import { renderReport } from '../services/reports/render.ts'
 
 export default async function renderTask({ kind, input, port }) {

@@ -4,9 +4,9 @@
 // Messages out: { type: 'progress', fraction } while the grid is computed, then
 // { type: 'done', output } or { type: 'error', error: { name, message, code } }.
 import { parentPort, workerData } from 'node:worker_threads'
-import { computeRun } from '../../shared/settlement-run/compute.ts'
-import { isGeotechError } from '../../shared/geotech/errors.ts'
-import { ModelIncompleteError } from '../../shared/site-model/convert.ts'
+import { computeRun } from '#shared/settlement-run/compute'
+import { isGeotechError } from '#shared/geotech/errors'
+import { ModelIncompleteError } from '#shared/site-model/convert'
 
 try {
   const output = computeRun(workerData.input, fraction => parentPort.postMessage({ type: 'progress', fraction }))

@@ -6,6 +6,7 @@ import { join, resolve } from 'node:path'
 import { build } from 'esbuild'
 import { afterAll, beforeAll } from 'vitest'
 import { closeMonteCarloPools } from '../../server/services/monte-carlo-pool'
+import { workerBundleOptions } from '../../server/workers/bundle-options'
 
 /** Call inside a `describe`; `file()` is the bundled worker once the suite has started. */
 export function useBundledMonteCarloWorker(): { file: () => string } {
@@ -14,7 +15,7 @@ export function useBundledMonteCarloWorker(): { file: () => string } {
   beforeAll(async () => {
     dir = mkdtempSync(join(tmpdir(), 'pastload-mc-'))
     bundled = join(dir, 'monte-carlo.bundle.mjs')
-    await build({ entryPoints: [resolve(import.meta.dirname, '../../server/workers/monte-carlo.mjs')], outfile: bundled, bundle: true, format: 'esm', platform: 'node', target: 'node20', logLevel: 'warning' })
+    await build(workerBundleOptions(resolve(import.meta.dirname, '../..'), 'monte-carlo.mjs', bundled))
   }, 60_000)
   afterAll(async () => {
     await closeMonteCarloPools()
