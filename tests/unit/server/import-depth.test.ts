@@ -1,0 +1,36 @@
+// DEVELOPERS.md, "Imports on the server": no import in server/ climbs more than one level; code under server/ is
+// imported as ~~/server/…, shared code as #shared/… (the worker entries' #shared through package.json's imports).
+import { readdirSync, readFileSync } from 'node:fs'
+import { join, relative } from 'node:path'
+import { describe, expect, it } from 'vitest'
+
+const root = join(import.meta.dirname, '../../..')
+
+function sourceFiles(dir: string): string[] {
+  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
+    const path = join(dir, e.name)
+    if (e.isDirectory()) return sourceFiles(path)
+    return /\.(?:ts|mjs|js)$/.test(e.name) ? [path] : []
+  })
+}
+
+/** Module specifiers of static imports, re-exports and dynamic imports. */
+function specifiers(text: string): string[] {
+  const out: string[] = []
+  for (const m of text.matchAll(/(?:\bfrom\s*|\bimport\s*\(\s*|^\s*import\s+)['"]([^'"]+)['"]/gm)) out.push(m[1]!)
+  return out
+}
+
+describe('imports under server/', () => {
+  it('reads the specifiers of each kind of import', () => {
+    expect(specifiers(`import a from '../x'\nexport { b } from "../../y"\nconst c = await import('../../../z')\nimport './side-effect'`))
+      .toEqual(['../x', '../../y', '../../../z', './side-effect'])
+  })
+
+  it('climb one level at most', () => {
+    const files = sourceFiles(join(root, 'server'))
+    expect(files.length).toBeGreaterThan(100)
+    const climbing = files.flatMap(f => specifiers(readFileSync(f, 'utf8')).filter(s => s.startsWith('../../')).map(s => `${relative(root, f)}: ${s}`))
+    expect(climbing).toEqual([])
+  })
+})
