@@ -1,4 +1,4 @@
-import { and, count, desc, eq, getTableColumns, inArray, sql } from 'drizzle-orm'
+import { and, count, desc, eq, getTableColumns, inArray, sql, type SQL } from 'drizzle-orm'
 import { buildStressModel, createStressEvaluator } from '#shared/geotech/stress'
 import type { CreateSettlementRun, SettlementRunQuery } from '#shared/schemas/settlement-runs'
 import { checkRunInput, gridAxes, resolveLoads, type RunComputeInput } from '#shared/settlement-run/compute'
@@ -159,22 +159,20 @@ export async function createSettlementRun(projectId: string, userId: string, bod
   return { run: { id: row.id, status: 'queued' } }
 }
 
-async function requireRun(projectId: string, runId: string): Promise<RunRow & { creatorName: string | null }> {
-  const [r] = await useDb().select({ run: settlementRuns, creatorName: users.displayName }).from(settlementRuns)
-    .leftJoin(users, eq(users.id, settlementRuns.createdBy))
-    .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.projectId, projectId)))
-  if (!r) notFound('Settlement run')
-  return { ...r.run, creatorName: r.creatorName }
-}
-
+const { results: runResults, ...runColumns } = getTableColumns(settlementRuns)
+/** The results as stored. */
+const wholeResults = sql<RunRow['results']>`${runResults}`
 /**
- * The run with each point's time curve taken out of its results in the database, so the curves (most of a finished
- * run's results) are neither read nor sent; the points keep their order.
+ * The results with each point's time curve taken out in the database, so the curves (most of a finished run's
+ * results) are neither read nor sent; the points keep their order.
  */
-async function requireRunWithoutCurves(projectId: string, runId: string): Promise<Omit<RunRow, 'results'> & { results: RunResultsSummary | null, creatorName: string | null }> {
-  const { results, ...columns } = getTableColumns(settlementRuns)
-  const summary = sql<RunResultsSummary | null>`case when ${results} is null then null else jsonb_set(${results}, '{points}', coalesce((select jsonb_agg(e.p - 'curve' order by e.n) from jsonb_array_elements(${results}->'points') with ordinality as e(p, n)), '[]'::jsonb)) end`
-  const [r] = await useDb().select({ ...columns, results: summary, creatorName: users.displayName }).from(settlementRuns)
+const resultsWithoutCurves = sql<RunResultsSummary | null>`case when ${runResults} is null then null else jsonb_set(${runResults}, '{points}', coalesce((select jsonb_agg(e.p - 'curve' order by e.n) from jsonb_array_elements(${runResults}->'points') with ordinality as e(p, n)), '[]'::jsonb)) end`
+
+/** A run of the project with its creator's name; its results read whole, or as `results` says. */
+async function requireRun(projectId: string, runId: string): Promise<RunRow & { creatorName: string | null }>
+async function requireRun<R>(projectId: string, runId: string, results: SQL<R>): Promise<Omit<RunRow, 'results'> & { results: R, creatorName: string | null }>
+async function requireRun(projectId: string, runId: string, results: SQL<unknown> = wholeResults): Promise<Omit<RunRow, 'results'> & { results: unknown, creatorName: string | null }> {
+  const [r] = await useDb().select({ ...runColumns, results, creatorName: users.displayName }).from(settlementRuns)
     .leftJoin(users, eq(users.id, settlementRuns.createdBy))
     .where(and(eq(settlementRuns.id, runId), eq(settlementRuns.projectId, projectId)))
   if (!r) notFound('Settlement run')
@@ -206,7 +204,7 @@ function toRun<R>(r: Omit<RunRow, 'results'> & { results: R | null, creatorName:
 export async function getSettlementRun(projectId: string, runId: string, curves?: 'all'): Promise<{ run: ServerSettlementRun }>
 export async function getSettlementRun(projectId: string, runId: string, curves: SettlementRunQuery['curves']): Promise<{ run: ServerSettlementRun | ServerSettlementRunView }>
 export async function getSettlementRun(projectId: string, runId: string, curves: SettlementRunQuery['curves'] = 'all'): Promise<{ run: ServerSettlementRun | ServerSettlementRunView }> {
-  return { run: curves === 'none' ? toRun(await requireRunWithoutCurves(projectId, runId)) : toRun(await requireRun(projectId, runId)) }
+  return { run: curves === 'none' ? toRun(await requireRun(projectId, runId, resultsWithoutCurves)) : toRun(await requireRun(projectId, runId)) }
 }
 
 /** The project's runs, newest first, with their headline figures (read from the results in the database, not loaded whole). */
