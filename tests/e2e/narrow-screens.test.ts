@@ -209,6 +209,35 @@ describe('the faces of the web font a first screen uses', () => {
     }
     await page.close()
   })
+
+  it('draw the text once: no face is swapped in after the first paint, and the header and the project sections keep one row on a phone', async () => {
+    const inForce = (await demo.client.get<{ modelId: string }>(`/api/projects/${demo.projectId}/model-in-force`)).body
+    const page = await demo.open(`/models/${inForce.modelId}`, { viewport: PHONE })
+    await page.waitForLoadState('networkidle')
+    const shell = await page.evaluate(() => {
+      // Items of one row share their middle (they are centred or of one height).
+      const rows = (el: Element) => new Set([...el.children].map((k) => { const r = k.getBoundingClientRect(); return Math.round(r.top + r.height / 2) })).size
+      const nav = document.querySelector('[data-testid="project-nav"] ul')!
+      const box = nav.getBoundingClientRect()
+      const current = nav.querySelector('[aria-current="page"]')!.getBoundingClientRect()
+      return {
+        displays: [...new Set([...document.fonts].map(f => f.display))],
+        headerRows: rows(document.querySelector('header > div')!),
+        navRows: rows(nav),
+        navScrolls: nav.scrollWidth > nav.clientWidth,
+        currentInView: current.left >= box.left - 0.5 && current.right <= box.right + 0.5,
+      }
+    })
+    // A face that arrived late and was swapped in set the lines again, and everything under them moved.
+    expect(shell.displays).toEqual(['optional'])
+    // Rows that wrap depend on how wide the words come out, in whichever face is there.
+    expect(shell.headerRows).toBe(1)
+    expect(shell.navRows).toBe(1)
+    // The sections do not fit 390 px: the row scrolls sideways, with the page's own section in view.
+    expect(shell.navScrolls).toBe(true)
+    expect(shell.currentInView).toBe(true)
+    await page.close()
+  })
 })
 
 describe('editing a log on a 390 px phone', () => {
