@@ -1,4 +1,34 @@
 import type { Config } from 'tailwindcss'
+import plugin from 'tailwindcss/plugin'
+
+/**
+ * Source Sans 3, from @fontsource/source-sans-3's files: the weights pages use in the subsets their words need
+ * (Latin, Latin Extended, Greek for σ and γ), with the package's Unicode ranges.
+ *
+ * font-display: optional, not the package's swap. With swap, a face that arrived after the first paint set the text
+ * again in wider or narrower lines and everything under it moved (a phone's stress-model page moved by a fifth of the
+ * screen). With optional the text is drawn once: in this face when it is there within a moment (the regular and
+ * semibold Latin faces are preloaded with the page, app/plugins/font-preload.server.ts), else in the device's own
+ * sans-serif until the next full load, by which time the face is cached.
+ */
+const FONT_SUBSETS: Record<string, string> = {
+  'latin': 'U+0000-00FF,U+0131,U+0152-0153,U+02BB-02BC,U+02C6,U+02DA,U+02DC,U+0304,U+0308,U+0329,U+2000-206F,U+20AC,U+2122,U+2191,U+2193,U+2212,U+2215,U+FEFF,U+FFFD',
+  'latin-ext': 'U+0100-02BA,U+02BD-02C5,U+02C7-02CC,U+02CE-02D7,U+02DD-02FF,U+0304,U+0308,U+0329,U+1D00-1DBF,U+1E00-1E9F,U+1EF2-1EFF,U+2020,U+20A0-20AB,U+20AD-20C0,U+2113,U+2C60-2C7F,U+A720-A7FF',
+  'greek': 'U+0370-0377,U+037A-037F,U+0384-038A,U+038C,U+038E-03A1,U+03A3-03FF',
+}
+const FONT_WEIGHTS = [400, 600, 700]
+const fontFaces = plugin(({ addBase }) => {
+  addBase(Object.entries(FONT_SUBSETS).flatMap(([subset, unicodeRange]) => FONT_WEIGHTS.map(weight => ({
+    '@font-face': {
+      fontFamily: "'Source Sans 3'",
+      fontStyle: 'normal',
+      fontWeight: String(weight),
+      fontDisplay: 'optional',
+      src: `url('@fontsource/source-sans-3/files/source-sans-3-${subset}-${weight}-normal.woff2') format('woff2')`,
+      unicodeRange,
+    },
+  }))))
+})
 
 // Pastload's visual identity: a deep "tide" blue-green for structure and action,
 // "ochre" for attention and the σ'p line, warm "silt" neutrals for paper-like panels.
@@ -48,5 +78,5 @@ export default {
       },
     },
   },
-  plugins: [],
+  plugins: [fontFaces],
 } satisfies Config
