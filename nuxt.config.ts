@@ -1,7 +1,7 @@
 // Pastload — Nuxt configuration. See DEVELOPERS.md for the architecture map.
 import { cpSync, mkdirSync } from 'node:fs'
 import { createRequire } from 'node:module'
-import { dirname, join, resolve } from 'node:path'
+import { basename, dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { REPORT_FONT_FILES } from './shared/reports/fonts'
 import { workerBundleOptions } from './server/workers/bundle-options'
@@ -121,16 +121,15 @@ export default defineNuxtConfig({
       // Worker threads (server/workers/*.mjs, e.g. the workbook reader) run as files of their own next to the
       // bundle; the packages they import are traced into .output because the bundle imports them too.
       async compiled(nitro) {
-        // (The bundling options, a TypeScript file of the build's own, stay behind.)
-        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true, filter: src => !src.endsWith('.ts') })
-        // The workers that import the TypeScript engine are bundled into one plain file each (server/workers/bundle-options.ts):
-        // the settlement run, the Monte Carlo task (a piscina task, services/monte-carlo-pool.ts) and the report
-        // renderer (pdfmake resolved from .output's node_modules).
+        // The workers that import the TypeScript engine are bundled into one plain file each, `<name>.bundle.mjs`
+        // (server/workers/bundle-options.ts): the settlement run, the Monte Carlo task (a piscina task,
+        // services/monte-carlo-pool.ts) and the report renderer (pdfmake resolved from .output's node_modules).
+        const bundled: Record<string, { external?: string[] }> = { 'settlement-run.mjs': {}, 'monte-carlo.mjs': {}, 'report-render.mjs': { external: ['pdfmake'] } }
+        // The others are copied as they are; neither the bundled entries nor the bundling options (TypeScript of the build's own) go along.
+        cpSync(resolve(nitro.options.rootDir, 'server/workers'), join(nitro.options.output.serverDir, 'workers'), { recursive: true, filter: src => !src.endsWith('.ts') && !(basename(src) in bundled) })
         const { build } = await import('esbuild')
         const workers = join(nitro.options.output.serverDir, 'workers')
-        await build(workerBundleOptions(nitro.options.rootDir, 'settlement-run.mjs', join(workers, 'settlement-run.bundle.mjs')))
-        await build(workerBundleOptions(nitro.options.rootDir, 'monte-carlo.mjs', join(workers, 'monte-carlo.bundle.mjs')))
-        await build(workerBundleOptions(nitro.options.rootDir, 'report-render.mjs', join(workers, 'report-render.bundle.mjs'), { external: ['pdfmake'] }))
+        for (const [entry, extra] of Object.entries(bundled)) await build(workerBundleOptions(nitro.options.rootDir, entry, join(workers, entry.replace(/\.mjs$/, '.bundle.mjs')), extra))
         // Reports embed Source Sans 3 from its TrueType files (server/services/reports/render.ts).
         const fonts = join(dirname(createRequire(import.meta.url).resolve('source-sans/package.json')), 'TTF')
         mkdirSync(join(nitro.options.output.serverDir, 'fonts'), { recursive: true })
