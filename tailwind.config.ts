@@ -8,8 +8,8 @@ import plugin from 'tailwindcss/plugin'
  * font-display: optional, not the package's swap. With swap, a face that arrived after the first paint set the text
  * again in wider or narrower lines and everything under it moved (a phone's stress-model page moved by a fifth of the
  * screen). With optional the text is drawn once: in this face when it is there within a moment (the regular and
- * semibold Latin faces are preloaded with the page, app/plugins/font-preload.server.ts), else in the device's own
- * sans-serif until the next full load, by which time the face is cached.
+ * semibold Latin faces are preloaded with the page, app/plugins/font-preload.server.ts), else that page stays in the
+ * device's own sans-serif, and the faces come in with the visit's first navigation (app/plugins/web-font-swap.client.ts).
  */
 const FONT_SUBSETS: Record<string, string> = {
   'latin': 'U+0000-00FF,U+0131,U+0152-0153,U+02BB-02BC,U+02C6,U+02DA,U+02DC,U+0304,U+0308,U+0329,U+2000-206F,U+20AC,U+2122,U+2191,U+2193,U+2212,U+2215,U+FEFF,U+FFFD',

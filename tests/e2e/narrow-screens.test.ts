@@ -238,6 +238,43 @@ describe('the faces of the web font a first screen uses', () => {
     expect(shell.currentInView).toBe(true)
     await page.close()
   })
+
+  it('a first page whose faces come late stays in the device\'s face without moving; the next page is set in the web font', async () => {
+    const signedIn = await demo.open('', { viewport: PHONE })
+    const page = await signedIn.context().newPage()
+    await signedIn.close()
+    await page.setViewportSize(PHONE)
+    // The faces take a second to come (a slow first visit); routing also keeps the browser's cache out of it.
+    await page.route('**/*.woff2', async (route) => { await new Promise(r => setTimeout(r, 1000)); await route.continue() })
+    await page.addInitScript(() => {
+      (window as unknown as { shifts: number }).shifts = 0
+      new PerformanceObserver((list) => {
+        for (const e of list.getEntries() as (PerformanceEntry & { value: number, hadRecentInput: boolean })[]) {
+          if (!e.hadRecentInput) (window as unknown as { shifts: number }).shifts += e.value
+        }
+      }).observe({ type: 'layout-shift', buffered: true })
+    })
+    await page.goto(demo.url(''))
+    await page.locator('html[data-hydrated]').waitFor()
+    await page.waitForTimeout(1500)
+    const cdp = await page.context().newCDPSession(page)
+    await cdp.send('DOM.enable')
+    await cdp.send('CSS.enable')
+    const fontsOf = async (selector: string) => {
+      const { root } = await cdp.send('DOM.getDocument')
+      const { nodeId } = await cdp.send('DOM.querySelector', { nodeId: root.nodeId, selector })
+      return (await cdp.send('CSS.getPlatformFontsForNode', { nodeId })).fonts.map(f => f.familyName).join(' + ')
+    }
+    // The faces were late: the first page is drawn in the device's face, and stays so (nothing moves).
+    expect(await fontsOf('main h1')).not.toContain('Source Sans 3')
+    expect(await page.evaluate(() => (window as unknown as { shifts: number }).shifts)).toBe(0)
+    // The first navigation brings the web font in (its files are in by now).
+    await page.getByTestId('project-nav').getByRole('link', { name: 'Strata' }).click()
+    await page.waitForURL(/\/strata$/)
+    await page.locator('main h1').waitFor()
+    await expect.poll(() => fontsOf('main h1'), { timeout: 5000 }).toContain('Source Sans 3')
+    await page.close()
+  })
 })
 
 describe('editing a log on a 390 px phone', () => {
