@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { IntervalRow } from '../../shared/types/investigation'
 import { demoEmail, signIn, type Client } from '../helpers/http'
 import { createProject } from '../helpers/project'
-import { screenshot, useProjectAs } from './helpers'
+import { screenshot, useProjectAs, waitForApp } from './helpers'
 
 const PHONE = { width: 390, height: 844 }
 const TABLET = { width: 768, height: 1024 }
@@ -255,7 +255,7 @@ describe('the faces of the web font a first screen uses', () => {
       }).observe({ type: 'layout-shift', buffered: true })
     })
     await page.goto(demo.url(''))
-    await page.locator('html[data-hydrated]').waitFor()
+    await waitForApp(page)
     await page.waitForTimeout(1500)
     const cdp = await page.context().newCDPSession(page)
     await cdp.send('DOM.enable')
