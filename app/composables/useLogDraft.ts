@@ -1,7 +1,8 @@
-import { computed, onBeforeUnmount, onMounted, ref, watch } from 'vue'
+import { computed, ref, watch } from 'vue'
 import type { IntervalRow, LogReply, StratumRow } from '#shared/types/investigation'
 import { useUndoHistory } from './useUndoHistory'
 import { useWriteAction } from './useWriteAction'
+import { useUnloadWarning } from './useUnloadWarning'
 import { apiConflictCurrent, apiErrorIssues, apiErrorMessage, apiErrorStatus } from '../utils/apiErrors'
 import {
   applyPaste, draftFromInterval, emptyRow, isBlankRow, isMultiCellPaste, LOG_COLUMNS, parseDepth, parseTsv, rowContent, toPayload, validateDraft,
@@ -331,14 +332,7 @@ export function useLogDraft(source: LogDraftSource, hooks: LogDraftHooks) {
   const mayLeave = () => !source.canEdit || !dirty.value || window.confirm(LEAVE_WARNING)
   onBeforeRouteLeave(mayLeave)
   onBeforeRouteUpdate((to, from) => (to.name === from.name && to.params.pointId === from.params.pointId) || mayLeave())
-  function onBeforeUnload(e: BeforeUnloadEvent) {
-    if (source.canEdit && dirty.value) {
-      e.preventDefault()
-      e.returnValue = LEAVE_WARNING
-    }
-  }
-  onMounted(() => window.addEventListener('beforeunload', onBeforeUnload))
-  onBeforeUnmount(() => window.removeEventListener('beforeunload', onBeforeUnload))
+  useUnloadWarning(() => source.canEdit && dirty.value, LEAVE_WARNING)
 
   return {
     rows, check, errors, problemCount, dirty, notes, notice, error, saving, conflict, savedById, strataIds, strataById,

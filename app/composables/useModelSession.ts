@@ -137,11 +137,7 @@ export function useModelSession(projectId: MaybeRefOrGetter<string>, modelId: Ma
   onBeforeUnmount(() => window.removeEventListener('keydown', onKey))
 
   // Leaving with edits that only live on this device: the browser asks first.
-  function onBeforeUnload(e: BeforeUnloadEvent) {
-    if (store.dirty && !store.lastLocalWrite) e.preventDefault()
-  }
-  onMounted(() => window.addEventListener('beforeunload', onBeforeUnload))
-  onBeforeUnmount(() => window.removeEventListener('beforeunload', onBeforeUnload))
+  useUnloadWarning(() => store.dirty && !store.lastLocalWrite)
 
   return { store, editor, start, saving, error, issues, notice, conflict, saveDraft, saveVersion, keepMine, takeTheirs }
 }
