@@ -60,8 +60,7 @@ export function useTrendFits(args: {
     return fitInput(i, def, args.points(), def === args.definition() ? bands.value : assignBands(args.points(), def), pending(), flaggedOut.value, args.profile())
   }
 
-  function requestKey(i: number, model: string, logSpace: boolean) {
-    const inp = inputOf(i)
+  function requestKey(i: number, model: string, logSpace: boolean, inp = inputOf(i)) {
     // σ'v0 to 0.1 kPa: a change smaller than that does not move a fit.
     return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}`).join(',')}`
   }
@@ -77,7 +76,7 @@ export function useTrendFits(args: {
         points: inp.included.map(p => ({ depth: p.depth, preconsolidation: p.preconsolidation, effectiveStress: p.effectiveStress! })),
       },
     })
-    fits.value = { ...fits.value, [i]: { key: requestKey(i, answer.model, logSpace), answer, error: null, pending: false } }
+    fits.value = { ...fits.value, [i]: { key: requestKey(i, answer.model, logSpace, inp), answer, error: null, pending: false } }
     return { answer, included: inp.included.map(p => p.id), excluded: inp.excludedIds }
   }
 
@@ -168,10 +167,9 @@ export function useTrendFits(args: {
     def.strata.forEach((s, i) => {
       const t = s.trend
       if (!t || t.manual) return
-      const key = requestKey(i, t.model, t.logSpace)
-      if (fits.value[i]?.key === key) return
       const inp = inputOf(i)
-      if (!inp.included.length) return
+      const key = requestKey(i, t.model, t.logSpace, inp)
+      if (fits.value[i]?.key === key || !inp.included.length) return
       asked[i] = { key, answer: fits.value[i]?.answer ?? null, error: null, pending: true }
       jobs.push(api<TrendFitReply>('/api/calc/trend-fit', {
         method: 'POST',
@@ -205,7 +203,8 @@ export function useTrendFits(args: {
     const t = s?.trend
     // Before the points (or the profile) arrive nothing can be compared.
     if (!t || t.manual || !args.points().length || !args.profile().length) return { ids: false, parameters: false }
-    return trendStaleness(t, inputOf(i).included.map(p => p.id), fits.value[i], requestKey(i, t.model, t.logSpace))
+    const inp = inputOf(i)
+    return trendStaleness(t, inp.included.map(p => p.id), fits.value[i], requestKey(i, t.model, t.logSpace, inp))
   }
 
   /**
