@@ -3,8 +3,8 @@ import { onBeforeUnmount, onMounted, watch } from 'vue'
 /**
  * The browser asks before the page is closed, reloaded or left for another address while `unsaved()` holds
  * (moves inside the app are guarded by the page's route guards). The `beforeunload` listener is on the window only
- * while there is something to lose: a page holding one is not kept in the browser's back/forward cache, and adding
- * it while the page opens costs the page's start for nothing.
+ * while there is something to lose: some browsers do not keep a page holding one in their back/forward cache, and
+ * adding it while the page opens costs the page's start for nothing.
  */
 export function useUnloadWarning(unsaved: () => boolean, message?: string) {
   function onBeforeUnload(e: BeforeUnloadEvent) {
