@@ -191,6 +191,9 @@ describe('US units on the point, strata, σ\'p, stress-model and compare pages',
     // and the run compare's load in psf (100 kPa = 2089 psf, 120 kPa = 2506 psf; 1 psf = 0.047880 kPa).
     await page.goto(`${web}/points/${bh01.id}/sheet`)
     await expect.poll(() => page.getByTestId('sheet-facts').first().innerText()).toContain('98.43 ft')
+    await page.goto(`${web}/models/${model.modelId}`)
+    // The drawing's depth axis names its unit on a line of its own under "Depth".
+    await expect.poll(() => page.getByTestId('depth-axis-unit').textContent()).toBe('(ft)')
     await page.goto(`${web}/models/${model.modelId}/compare?a=1&b=2`)
     expect(await page.getByTestId('compare-summary').innerText()).toMatch(/water table [\d.]+ → [\d.]+ ft/)
     await page.goto(`${web}/settlement/compare?a=${runA}&b=${runB}`)
