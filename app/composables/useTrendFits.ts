@@ -60,7 +60,7 @@ export function useTrendFits(args: {
     return fitInput(i, def, args.points(), def === args.definition() ? bands.value : assignBands(args.points(), def), pending(), flaggedOut.value, args.profile())
   }
 
-  function requestKey(i: number, model: string, logSpace: boolean, inp = inputOf(i)) {
+  function requestKey(i: number, model: string, logSpace: boolean, inp: ReturnType<typeof inputOf>) {
     // σ'v0 to 0.1 kPa: a change smaller than that does not move a fit.
     return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}`).join(',')}`
   }
