@@ -7,6 +7,7 @@ import { stableJson } from '~/utils/siteModelEdits'
 import { flaggedUnadoptedTests, type FlaggedTest, type ListedTest, type PointFlag } from '~/utils/stressHistory'
 import { pageReader } from '~/utils/api'
 import { cutNote, readAllPages } from '~/utils/listPages'
+import type { Readiness } from '~/utils/untilReady'
 
 /** Every CPT row's σ'p for the dense layer, merged and sorted by depth (display only, never fitted). */
 export interface DenseLayer {
@@ -125,21 +126,28 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
   )
 
   // The points, through the given definition when there is one; asked again (debounced) when its stresses change.
+  // Each answer carries the stresses it was worked out for (`key`; '' for the stress model in force).
+  const key = computed(() => {
+    const def = toValue(options.definition)
+    return def ? stressKey(def) : ''
+  })
+  let askedKey = ''
   const answer = useAsyncData(
     () => `sigma-points-${through()}-${toValue(projectId)}`,
-    (_nuxtApp, { signal }) => {
+    async (_nuxtApp, { signal }) => {
       const def = toValue(options.definition)
-      if (!def) return api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points?dense=1`, { signal })
-      return api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined }, signal })
+      const asked = key.value
+      askedKey = asked
+      const reply = def
+        ? await api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points/evaluate`, { method: 'POST', body: { definition: def, dense: true, label: toValue(options.label) || undefined }, signal })
+        : await api<PreconsolidationPointsReply>(`${base()}/preconsolidation-points?dense=1`, { signal })
+      return { key: asked, reply }
     },
     { server: false, default: () => null },
   )
   const latest = useLatestRequest(signal => answer.refresh({ signal }), options.delay ?? 350)
-  watch(() => {
-    const def = toValue(options.definition)
-    return def ? stressKey(def) : ''
-  }, (key) => {
-    if (key) latest.schedule()
+  watch(key, (k) => {
+    if (k) latest.schedule()
   })
 
   const points = shallowRef<PreconsolidationPointRow[]>([])
@@ -164,8 +172,9 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     }
     return synthetic.rows
   }
-  watch(answer.data, (pts) => {
-    if (!pts) return
+  watch(answer.data, (a) => {
+    if (!a) return
+    const pts = a.reply
     points.value = pts.points
     dense.value = mergeDense(pts.dense?.cpt ?? [], syntheticSorted())
     behaviour.value = pts.behaviour ?? []
@@ -195,6 +204,12 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     const e = context.error.value ?? answer.error.value
     return e ? apiErrorMessage(e) : ''
   })
+  /** The points on screen are those of the definition's stresses now (`true`), are still to come (`false`), or cannot be (the error). */
+  const readiness = computed((): Readiness => {
+    if (answer.data.value?.key === key.value) return true
+    const e = answer.status.value === 'error' && askedKey === key.value ? answer.error.value : null
+    return e ? apiErrorMessage(e) : false
+  })
   /** The first answers are in (points and flags, or an error): the drawing can be built once, with them. */
   const settled = computed(() => (shown.value || !!answer.error.value) && (context.data.value !== null || !!context.error.value))
   const listNote = computed(() => {
@@ -206,5 +221,5 @@ export function usePreconsolidationPoints(projectId: MaybeRefOrGetter<string>, o
     latest.cancel()
     await Promise.all([context.refresh(), answer.refresh()])
   }
-  return { points, flags, flaggedTests, dense, behaviour, warnings, stressModel, loading, settled, error, listNote, refresh }
+  return { points, flags, flaggedTests, dense, behaviour, warnings, stressModel, loading, settled, readiness, error, listNote, refresh }
 }

@@ -2,6 +2,7 @@ import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { toStressInput } from '#shared/site-model/convert'
 import { stableJson } from '~/utils/siteModelEdits'
 import type { StressProfileReply } from '#shared/types/calc'
+import type { Readiness } from '~/utils/untilReady'
 
 export interface ProfileError {
   message: string
@@ -27,6 +28,9 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   const sequence = ref(0)
   /** The first request has answered (a profile or an error), or there is nothing to ask. */
   const answered = ref(false)
+  /** The stresses the profile on screen was worked out for, and those the error on screen is of. */
+  const answeredKey = ref('')
+  const errorKey = ref('')
 
   const input = computed(() => {
     const d = toValue(definition)
@@ -37,6 +41,7 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   const latest = useLatestRequest(async (signal) => {
     const body = input.value
     if (!body) return
+    const asked = key.value
     pending.value = true
     try {
       const res = await api<StressProfileReply>('/api/calc/stress-profile', { method: 'POST', body, signal })
@@ -44,10 +49,12 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
       points.value = res.points
       warnings.value = res.warnings
       error.value = null
+      answeredKey.value = asked
       sequence.value++
     }
     catch (err) {
       if (signal.aborted) return
+      errorKey.value = asked
       const e = err as { statusCode?: number, data?: { message?: string, data?: { depth?: number, code?: string } } }
       error.value = {
         message: e.data?.message ?? apiErrorMessage(err),
@@ -69,5 +76,10 @@ export function useStressProfile(definition: MaybeRefOrGetter<SiteModelDefinitio
   onMounted(() => latest.schedule(true))
 
   const settled = computed(() => answered.value || !input.value)
-  return { points, warnings, error, pending, sequence, settled, refresh: () => latest.schedule(true) }
+  /** The profile on screen is that of the definition's stresses now (`true`), is still to come (`false`), or cannot be (the error). */
+  const readiness = computed((): Readiness => {
+    if (!key.value || answeredKey.value === key.value) return true
+    return error.value && errorKey.value === key.value ? error.value.message : false
+  })
+  return { points, warnings, error, pending, sequence, settled, readiness, refresh: () => latest.schedule(true) }
 }

@@ -11,6 +11,7 @@ import type { ProfilePoint, TrendFitReply } from '#shared/types/calc'
 import type { PreconsolidationPointRow } from '#shared/types/lab'
 import type { EditorSnapshot, FitChoiceState } from '~/stores/modelEditor'
 import { TREND_MODEL_LABELS } from '#shared/site-model/trend-words'
+import { untilReady, type Readiness } from '~/utils/untilReady'
 
 export type FitChoice = StratumTrend['model'] | 'auto'
 
@@ -46,6 +47,11 @@ export function useTrendFits(args: {
   points: () => readonly PreconsolidationPointRow[]
   flags: () => ReadonlyMap<string, readonly PointFlag[]>
   editor: () => WorkspaceEditor | null
+  /**
+   * Whether σ'v0 and the points on screen are those of the definition's stresses now (`true`), are still
+   * being worked out after an edit (`false`), or cannot be (the reason). CPT and vane σ'p follow the stresses.
+   */
+  inputsReady: () => Readiness
 }) {
   // While editing, read the session itself: an edit followed at once by a fit must see the edit.
   const definition = () => args.editor()?.current() ?? args.definition()
@@ -61,11 +67,13 @@ export function useTrendFits(args: {
   }
 
   function requestKey(i: number, model: string, logSpace: boolean, inp: ReturnType<typeof inputOf>) {
-    // σ'v0 to 0.1 kPa: a change smaller than that does not move a fit.
-    return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}`).join(',')}`
+    // σ'v0 and σ'p to 0.1 kPa: a change smaller than that does not move a fit.
+    return `${i}|${model}|${logSpace}|${inp.included.map(p => `${p.id}@${Math.round(p.effectiveStress! * 10)}/${Math.round(p.preconsolidation * 10)}`).join(',')}`
   }
 
   async function ask(i: number, model: FitChoice, logSpace: boolean): Promise<{ answer: TrendFitReply, included: string[], excluded: string[] }> {
+    // A fit asked just after an edit of the stresses waits for that edit's σ'v0 and σ'p: one of the edit before would be saved as the trend.
+    await untilReady(args.inputsReady, 20_000, 'σ\'v0 and σ\'p for the latest edit have not arrived yet. Fit again in a moment.')
     const inp = inputOf(i)
     if (!inp.included.length) throw new Error('No points left to fit in this stratum.')
     const answer = await api<TrendFitReply>('/api/calc/trend-fit', {
@@ -161,7 +169,8 @@ export function useTrendFits(args: {
    */
   const displayFits = useLatestRequest(async () => {
     const def = args.definition()
-    if (!args.profile().length || !args.points().length) return
+    // Fitted to a mix of one edit's σ'v0 and another's σ'p, a saved trend would read as stale for a moment.
+    if (!args.profile().length || !args.points().length || args.inputsReady() !== true) return
     const jobs: Promise<{ i: number, key: string, fit: BandFit }>[] = []
     const asked: Record<number, BandFit> = {}
     def.strata.forEach((s, i) => {
@@ -204,7 +213,9 @@ export function useTrendFits(args: {
     // Before the points (or the profile) arrive nothing can be compared.
     if (!t || t.manual || !args.points().length || !args.profile().length) return { ids: false, parameters: false }
     const inp = inputOf(i)
-    return trendStaleness(t, inp.included.map(p => p.id), fits.value[i], requestKey(i, t.model, t.logSpace, inp))
+    // The parameters are compared only once σ'v0 and σ'p are both of the stresses on screen.
+    const fit = args.inputsReady() === true ? fits.value[i] : undefined
+    return trendStaleness(t, inp.included.map(p => p.id), fit, requestKey(i, t.model, t.logSpace, inp))
   }
 
   /**

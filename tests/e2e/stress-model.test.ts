@@ -228,6 +228,45 @@ describe('the stress workspace in Chromium', () => {
     await page.close()
   })
 
+  it('a fit asked while the σ\'p of a moved water table are still being worked out waits for them', async () => {
+    const modelId = await newModel('fit waits')
+    const start = (await engineer.get<{ model: ModelRow }>(`/api/projects/${projectId}/models/${modelId}`)).body.model
+    const estIndex = start.draft.strata.findIndex(s => s.code === 'EST')
+    const page = await signInAs(browser.context, demoEmail('engineer'))
+    await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await expect.poll(async () => Number(await page.getByTestId('dense-layer').getAttribute('data-count')), { timeout: 15_000 }).toBeGreaterThan(1000)
+    await expect.poll(() => probeEffective(page), { timeout: 10_000 }).toBeGreaterThan(0)
+    const before = await probeEffective(page)
+    await page.getByTestId('band-select').selectOption(String(estIndex))
+    await page.getByTestId('fit-model').selectOption('pop')
+
+    // The points worked out for an edit arrive 2.5 s after they are asked for; σ'v0 comes at once.
+    let held = 0
+    await page.route('**/preconsolidation-points/evaluate', async (route) => {
+      held++
+      await new Promise(resolve => setTimeout(resolve, 2500))
+      await route.continue()
+    })
+    const pxPerMetre = await page.evaluate(thickness => document.querySelector('[data-testid="band-2"]')!.getBoundingClientRect().height / thickness, start.draft.strata[2]!.thickness)
+    await dragBy(page, 'water-table-handle', 2 * pxPerMetre)
+    await expect.poll(() => probeEffective(page), { timeout: 10_000 }).toBeGreaterThan(before + 12)
+    // Fit at once: the panel waits for the CPT σ'p of the new table (they follow the total stress) before fitting.
+    await page.getByTestId('fit-run').click()
+    expect(await page.getByTestId('fit-run').textContent()).toContain('Fitting')
+    const result = page.getByTestId('fit-result')
+    await result.and(page.locator('[data-model="pop"]')).waitFor({ timeout: 15_000 })
+    expect(held).toBeGreaterThan(0)
+    const pop = Number(await result.getAttribute('data-pop'))
+    await page.unroute('**/preconsolidation-points/evaluate')
+
+    // With everything in, fitting again gives the same POP to the last digit: the first fit had the new table's σ'p.
+    await expect.poll(() => page.getByTestId('fit-run').textContent()).toContain('Fit again')
+    await page.getByTestId('fit-run').click()
+    await expect.poll(() => page.getByTestId('fit-run').textContent()).toContain('Fit again')
+    expect(Number(await result.getAttribute('data-pop'))).toBe(pop)
+    await page.close()
+  })
+
   it('unsaved edits survive a reload and are offered back', async () => {
     const page = await signInAs(browser.context, demoEmail('engineer'))
     const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `${name} (reload)` })
