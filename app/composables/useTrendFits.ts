@@ -238,7 +238,7 @@ export function useTrendFits(args: {
     })
   })
 
-  return { bands, flaggedOut, fits, fitError, inputOf, fitBand, setExcluded, refreshDisplayFits, stale, problems }
+  return { bands, flaggedOut, fits, fitError, inputsReady: args.inputsReady, inputOf, fitBand, setExcluded, refreshDisplayFits, stale, problems }
 }
 
 export type TrendFits = ReturnType<typeof useTrendFits>

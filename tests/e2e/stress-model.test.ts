@@ -253,10 +253,12 @@ describe('the stress workspace in Chromium', () => {
     // Fit at once: the panel waits for the CPT σ'p of the new table (they follow the total stress) before fitting.
     await page.getByTestId('fit-run').click()
     expect(await page.getByTestId('fit-run').textContent()).toContain('Fitting')
+    expect(await page.getByTestId('fit-waiting').textContent()).toContain('Waiting for σ\'v0 and σ\'p of the latest edit')
     const result = page.getByTestId('fit-result')
     await result.and(page.locator('[data-model="pop"]')).waitFor({ timeout: 15_000 })
     expect(held).toBeGreaterThan(0)
     const pop = Number(await result.getAttribute('data-pop'))
+    expect(await page.getByTestId('fit-waiting').count()).toBe(0)
     await page.unroute('**/preconsolidation-points/evaluate')
 
     // With everything in, fitting again gives the same POP to the last digit: the first fit had the new table's σ'p.
