@@ -1,6 +1,6 @@
 // The site plan in Chromium on the seeded demo (read only): the nest of three piezometers, 2 m apart,
 // is drawn as one mark at the plan's first view; it opens a list of its points, which opens a point;
-// zoomed in, the three are drawn apart. Laptop and phone widths.
+// zoomed in, the three are drawn apart; names are written where they cover no other. Laptop and phone widths.
 import { describe, expect, it } from 'vitest'
 import { screenshot, useProjectAs } from './helpers'
 
@@ -61,6 +61,50 @@ describe('site plan: points drawn at the same place', () => {
     expect(names).toEqual(expect.arrayContaining(['P-1', 'P-2', 'P-3']))
     await screenshot(page, 'site-plan-cluster-phone')
     await page.close()
+  })
+
+  it('writes each mark\'s name where it covers no other name or mark, on a phone and on a laptop', async () => {
+    for (const viewport of [{ width: 390, height: 844 }, { width: 1366, height: 800 }]) {
+      const page = await demo.open('/plan', { viewport })
+      await page.locator('[data-testid="plan-point"][data-cluster-size]').first().waitFor()
+      const drawn = await page.locator('[data-testid="plan-point"]:not(.clustered):not(.faint)').evaluateAll(els => els.map((g) => {
+        const box = (e: Element) => {
+          const r = e.getBoundingClientRect()
+          return { x0: r.left, y0: r.top, x1: r.right, y1: r.bottom }
+        }
+        const label = g.querySelector('text.label')!
+        const shown = getComputedStyle(label).display !== 'none'
+        return { name: g.getAttribute('aria-label')!.split(',')[0]!, group: g.hasAttribute('data-cluster-size'), text: label.textContent ?? '', side: label.getAttribute('data-side'), mark: box(g.querySelector('g.glyph')!), label: shown ? box(label) : null }
+      }))
+      expect(drawn.length).toBeGreaterThan(10)
+      const meet = (a: { x0: number, y0: number, x1: number, y1: number }, b: typeof a) => a.x0 < b.x1 - 0.5 && b.x0 < a.x1 - 0.5 && a.y0 < b.y1 - 0.5 && b.y0 < a.y1 - 0.5
+      const clashes: string[] = []
+      for (const a of drawn) {
+        if (!a.label) continue
+        for (const b of drawn) {
+          if (b === a) continue
+          if (meet(a.label, b.mark)) clashes.push(`${a.name}'s name covers ${b.name}'s mark`)
+          if (b.label && meet(a.label, b.label) && a.name < b.name) clashes.push(`${a.name}'s name covers ${b.name}'s`)
+        }
+      }
+      expect(clashes).toEqual([])
+      const unnamed = drawn.filter(d => !d.label).map(d => d.name)
+      if (viewport.width > 1000) {
+        // On a laptop every name has room, to the right of its mark as drawn by default.
+        expect(unnamed).toEqual([])
+        expect(drawn.every(d => d.side === 'right' && d.text === d.name)).toBe(true)
+      }
+      else {
+        // On a phone the marks crowd: names move to other sides, and most find a place; a group shows its count at least.
+        expect(drawn.some(d => d.side !== 'right' && d.label)).toBe(true)
+        expect(unnamed.length).toBeLessThanOrEqual(drawn.length / 3)
+        for (const g of drawn.filter(d => d.group)) {
+          expect(g.label, g.name).not.toBeNull()
+          expect([g.name, `+${g.name.split(' +')[1]}`]).toContain(g.text)
+        }
+      }
+      await page.close()
+    }
   })
 
   it('draws the three apart once zoomed in', async () => {
