@@ -107,6 +107,34 @@ describe('site plan: points drawn at the same place', () => {
     }
   })
 
+  it('holds the plan\'s room from the server\'s page until its drawing comes, so the list under it does not move', async () => {
+    const page = await demo.open('', { viewport: { width: 768, height: 1000 } })
+    // The plan's drawing code (the chunk that draws the "site-plan" SVG) arrives 1.5 s late.
+    let held = 0
+    await page.route('**/_nuxt/*.js', async (route) => {
+      const res = await route.fetch()
+      const body = await res.text()
+      if (body.includes('"data-testid":"site-plan"')) {
+        held++
+        await new Promise(resolve => setTimeout(resolve, 1500))
+      }
+      await route.fulfill({ response: res, body })
+    })
+    await page.goto(page.url().replace(/\/?$/, '/plan'))
+    const list = page.locator('section[aria-labelledby="point-list-heading"]')
+    await list.waitFor()
+    const top0 = (await list.boundingBox())!.y
+    // The page has come alive and asked for the drawing, which has not come: the placeholder holds the room.
+    await expect.poll(() => held).toBe(1)
+    expect(await page.getByTestId('plan-placeholder').count()).toBe(1)
+    expect((await list.boundingBox())!.y).toBeCloseTo(top0, 0)
+    await page.getByTestId('site-plan').waitFor()
+    expect(await page.getByTestId('plan-placeholder').count()).toBe(0)
+    // The legend under the plan takes one line at this width, as the placeholder allowed.
+    expect(Math.abs((await list.boundingBox())!.y - top0)).toBeLessThan(2)
+    await page.close()
+  })
+
   it('draws the three apart once zoomed in', async () => {
     const page = await demo.open('/plan', { viewport: { width: 1366, height: 800 } })
     await page.locator('[data-testid="plan-point"][data-cluster-size="3"]').waitFor()
