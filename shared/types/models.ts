@@ -65,3 +65,16 @@ export interface ServerCompareAnswer {
   profiles: { a: StressProfilePoint[], b: StressProfilePoint[] }
 }
 export type CompareAnswer = Serialize<ServerCompareAnswer>
+
+/** GET …/models/:modelId/drawing: the saved draft drawn on the server, as the stress-model page opens with it. */
+export interface ServerModelDrawing {
+  /** The draft revision drawn. */
+  revision: number
+  /** The drawing, one SVG element (its text escaped). */
+  svg: string
+  width: number
+  height: number
+  /** σ'p points drawn. */
+  points: number
+}
+export type ModelDrawingReply = Serialize<ServerModelDrawing>

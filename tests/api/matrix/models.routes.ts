@@ -23,6 +23,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', path: '/api/projects/:projectId/models', allowed: ALL, ok: 200 },
   { method: 'POST', path: '/api/projects/:projectId/models', allowed: MODEL_WRITERS, ok: 201, prepare: async () => ({ body: { name: `New-${next()}` } }) },
   { method: 'GET', path: '/api/projects/:projectId/models/:modelId', allowed: ALL, ok: 200, prepare: async ctx => ({ path: (await freshModel(ctx)).url }) },
+  { method: 'GET', path: '/api/projects/:projectId/models/:modelId/drawing', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshModel(ctx)).url}/drawing` }) },
   { method: 'PUT', path: '/api/projects/:projectId/models/:modelId/draft', allowed: MODEL_WRITERS, ok: 200, prepare: async (ctx) => { const m = await freshModel(ctx); return { path: `${m.url}/draft`, body: { draft: m.draft, version: m.version } } } },
   { method: 'POST', path: '/api/projects/:projectId/models/:modelId/versions', allowed: MODEL_WRITERS, ok: 201, prepare: async (ctx) => { const m = await freshModel(ctx); return { path: `${m.url}/versions`, body: { message: 'saved', version: m.version } } } },
   { method: 'GET', path: '/api/projects/:projectId/models/:modelId/versions/:version', allowed: ALL, ok: 200, prepare: async ctx => ({ path: `${(await freshModel(ctx, true)).url}/versions/1` }) },
