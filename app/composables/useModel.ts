@@ -1,4 +1,4 @@
-import type { ModelDetail, ModelList, ModelVersionReply, SiteModelRow } from '#shared/types/models'
+import type { ModelDetail, ModelDrawingReply, ModelList, ModelVersionReply, SiteModelRow } from '#shared/types/models'
 
 export function modelUrl(projectId: string, modelId: string): string {
   return `/api/projects/${projectId}/models/${modelId}`
@@ -21,6 +21,20 @@ export function useSiteModel(projectId: MaybeRefOrGetter<string>, modelId: Maybe
   return useApiRecord<ModelDetail>(
     () => `model-${toValue(projectId)}-${toValue(modelId)}`,
     () => modelUrl(toValue(projectId), toValue(modelId)),
+  )
+}
+
+/**
+ * The saved draft drawn by the server, read while the server renders the page (a visit's first page); the browser
+ * takes it from the page and never asks for it. Null where there is none: after an in-app navigation, or when the
+ * draft cannot be drawn (the workspace then opens at once and says why).
+ */
+export function useModelDrawing(projectId: MaybeRefOrGetter<string>, modelId: MaybeRefOrGetter<string>) {
+  const fetcher = useRequestFetch()
+  return useAsyncData(
+    () => `model-drawing-${toValue(projectId)}-${toValue(modelId)}`,
+    (_nuxtApp, { signal }) => apiRead<ModelDrawingReply>(`${modelUrl(toValue(projectId), toValue(modelId))}/drawing`, signal, fetcher),
+    { default: () => null, immediate: import.meta.server },
   )
 }
 

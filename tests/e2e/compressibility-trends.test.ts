@@ -5,7 +5,7 @@ import { depthTrendCandidates, eligibleTests, type TestCompressibility } from '.
 import { depthTrendAt, stratumBounds, type SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
+import { openWorkspace, screenshot, SCREENSHOTS, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
 interface ListedTest {
@@ -58,6 +58,7 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
     expect(model.draft.strata[estIndex]!.code).toBe('EST')
     const page = await signInAs(browser.context, demoEmail('engineer'))
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     await page.getByTestId('band-select').selectOption(String(estIndex))
     // The fit on offer, from the clay's eligible tests, before it is chosen.
@@ -125,6 +126,7 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
     // What the point layer draws before the flag: the flag must not change it (no σ'p point, no fit).
     const before = await signInAs(browser.context, demoEmail('engineer'))
     await before.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+    await openWorkspace(before)
     const layer0 = before.getByTestId('point-layer')
     await expect.poll(async () => Number(await layer0.getAttribute('data-drawn')), { timeout: 15_000 }).toBeGreaterThan(100)
     const drawn = await layer0.getAttribute('data-drawn')
@@ -141,6 +143,7 @@ describe('compressibility with depth and flagged tests on the stress canvas, in 
     try {
       const page = await signInAs(browser.context, demoEmail('engineer'))
       await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+      await openWorkspace(page)
       await page.getByTestId('model-workspace').waitFor()
       const mark = page.getByTestId(`flagged-test-${disturbed.id}`)
       await mark.waitFor({ timeout: 15_000 })

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { baseUrl, demoEmail, signedInDemo } from '../helpers/http'
 import { createProject, createSavedModel, must } from '../helpers/project'
 import { approveFirstVersion } from '../helpers/settlement-run'
-import { signInAs, useBrowser } from './helpers'
+import { openWorkspace, signInAs, useBrowser } from './helpers'
 
 /** The instant as the version page shows it ('dateTime'), in `timeZone`: the test's own Intl, not the app's helper. */
 const shownIn = (iso: string, timeZone: string) =>
@@ -68,6 +68,7 @@ describe('dates in the viewer\'s time zone, written by the server and kept by th
       }
     })
     await page.goto(`${baseUrl()}/projects/${project.id}/models/${model.id}`)
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     await page.getByTestId('effective-stress-line').waitFor()
     await page.waitForLoadState('networkidle')

@@ -103,12 +103,27 @@ export async function waitForApp(page: Page): Promise<void> {
   await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
 }
 
+/**
+ * A visit's first stress-model page shows the server's drawing of the draft, and the workspace opens on first use:
+ * this opens it as a user would (a click on the drawing, which leaves the page where it is) and waits for it. Where
+ * the page opened the workspace at once (no drawing, an in-app navigation) there is nothing to click.
+ */
+export async function openWorkspace(page: Page): Promise<void> {
+  await waitForApp(page)
+  const either = page.locator('[data-testid="model-drawing-figure"], [data-testid="model-workspace"]').first()
+  await either.waitFor()
+  if (await either.getAttribute('data-testid') === 'model-drawing-figure') await either.click()
+  await page.getByTestId('model-workspace').waitFor()
+}
+
 /** Signs the demo person of `role` in through the form and opens the page at `path` of project `projectId` (`''` its overview), at the `viewport` size if given. */
 export async function openProjectAs(context: BrowserContext, role: ProjectRole, projectId: string, path = '', options: { viewport?: { width: number, height: number } } = {}): Promise<Page> {
   const page = await signInAs(context, demoEmail(role))
   if (options.viewport) await page.setViewportSize(options.viewport)
   await page.goto(`${baseUrl()}/projects/${projectId}${path}`)
   await waitForApp(page)
+  // A model's draft page is opened to work in its workspace.
+  if (/^\/models\/[^/?#]+$/.test(path)) await openWorkspace(page)
   return page
 }
 
@@ -116,7 +131,7 @@ export async function openProjectAs(context: BrowserContext, role: ProjectRole, 
  * One Chromium and one project for the enclosing describe, as the demo person of `role` works in it:
  * the seeded demo project (read only), or, given `copyTag`, a copy of the demo of the describe's own.
  * `client` (the API as that person) and `projectId` are ready inside tests; `open(path)` signs the
- * person in through the form and opens the project's page at `path` (`/models/<id>`, `/strata`, …),
+ * person in through the form and opens the project's page at `path` (`/models/<id>`, its workspace opened; `/strata`, …),
  * at the `viewport` size if given.
  */
 export function useProjectAs(role: ProjectRole, copyTag?: string, device: Device = {}) {

@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
+import { openWorkspace, screenshot, screenshotLaptopAndPhone, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, version: number, draft: SiteModelDefinition }
 
@@ -78,6 +78,7 @@ describe('reviewing a model version in Chromium', () => {
 
     // The badges: the model's list of versions and the models page.
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await openWorkspace(page)
     await page.getByTestId('version-row-2').getByTestId('status-badge-approved').waitFor()
     await page.getByTestId('version-row-1').getByTestId('status-badge-returned').waitFor()
     await page.goto(`${baseUrl()}/projects/${projectId}/models`)

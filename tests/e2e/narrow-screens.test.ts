@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { IntervalRow } from '../../shared/types/investigation'
 import { demoEmail, signIn, type Client } from '../helpers/http'
 import { createProject } from '../helpers/project'
-import { screenshot, useProjectAs, waitForApp } from './helpers'
+import { openWorkspace, screenshot, useProjectAs, waitForApp } from './helpers'
 
 const PHONE = { width: 390, height: 844 }
 const TABLET = { width: 768, height: 1024 }
@@ -104,6 +104,7 @@ describe('the demo on a 390 px phone', () => {
     const inForce = (await demo.client.get<{ modelId: string | null }>(`/api/projects/${demo.projectId}/model-in-force`)).body
     expect(inForce.modelId).toBeTruthy()
     await page.goto(demo.url(`/models/${inForce.modelId}`))
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     await page.getByTestId('track-scroller').waitFor()
     await expectShown(page, 'model-title')

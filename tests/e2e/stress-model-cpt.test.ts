@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { demoEmail } from '../helpers/http'
-import { screenshot, signInAs, useProjectAs } from './helpers'
+import { openWorkspace, screenshot, signInAs, useProjectAs } from './helpers'
 
 interface Answer { points: { id: string, source: string, stratumCode: string | null, depth: number, preconsolidation: number }[], stressModel: { source: string, description: string } }
 
@@ -25,6 +25,7 @@ describe('CPT σ\'p through the model on screen', () => {
     const page = await signInAs(project.browser.context, demoEmail('engineer'))
     const first = page.waitForResponse(r => r.url().endsWith('/preconsolidation-points/evaluate') && r.request().method() === 'POST')
     await page.goto(project.url(`/models/${model.id}`))
+    await openWorkspace(page)
     const before = await (await first).json() as Answer
     expect(before.stressModel.source).toBe('given')
     await expect.poll(async () => (await page.getByTestId('workspace-summary').textContent()) ?? '', { timeout: 15_000 })

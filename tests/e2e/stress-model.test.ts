@@ -8,7 +8,7 @@ import type { SiteModelDefinition } from '../../shared/site-model/definition'
 import { ESTUARINE_POP } from '../../shared/demo/site'
 import { createDemoCopy } from '../helpers/demo-project'
 import { baseUrl, type Client, demoEmail, signIn } from '../helpers/http'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openWorkspace, screenshot, signInAs, useBrowser } from './helpers'
 
 interface ModelRow { id: string, name: string, draft: SiteModelDefinition, version: number }
 
@@ -234,6 +234,7 @@ describe('the stress workspace in Chromium', () => {
     const estIndex = start.draft.strata.findIndex(s => s.code === 'EST')
     const page = await signInAs(browser.context, demoEmail('engineer'))
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await openWorkspace(page)
     await expect.poll(async () => Number(await page.getByTestId('dense-layer').getAttribute('data-count')), { timeout: 15_000 }).toBeGreaterThan(1000)
     await expect.poll(() => probeEffective(page), { timeout: 10_000 }).toBeGreaterThan(0)
     const before = await probeEffective(page)
@@ -275,13 +276,17 @@ describe('the stress workspace in Chromium', () => {
     expect(created.status).toBe(201)
     const model = created.body.model
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+    await openWorkspace(page)
     await page.getByTestId('water-table-input').waitFor()
     await page.getByTestId('water-table-input').fill('2.35')
     await page.getByTestId('water-table-input').press('Enter')
     await expect.poll(async () => Number(await page.getByTestId('water-table-handle').getAttribute('data-depth'))).toBe(2.35)
     await page.reload()
     await page.getByTestId('draft-recovery').waitFor()
-    // Editing waits for the answer.
+    // The page opens with the saved draft's drawing while the question stands; the workspace opened meanwhile shows
+    // the saved draft too, and editing waits for the answer.
+    expect(await page.getByTestId('model-drawing-preview').count()).toBe(1)
+    await openWorkspace(page)
     expect(await page.getByTestId('water-table-handle').count()).toBe(0)
     expect(Number(await page.getByTestId('water-table-input').inputValue())).toBe(model.draft.groundwater.waterTableDepth)
     await screenshot(page, 'stress-model-recovery')
@@ -301,6 +306,7 @@ describe('the stress workspace in Chromium', () => {
     const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `${name} (conflict)` })
     const model = created.body.model
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${model.id}`)
+    await openWorkspace(page)
     await page.getByTestId('water-table-input').waitFor()
     // Someone else saves the draft first, with another surcharge.
     const theirs = await engineer.request('PUT', `/api/projects/${projectId}/models/${model.id}/draft`, { draft: { ...model.draft, surcharge: 12 }, version: model.version })
@@ -326,6 +332,7 @@ describe('the stress workspace in Chromium', () => {
     const page = await signInAs(browser.context, demoEmail('engineer'))
     const created = await engineer.post<{ model: ModelRow }>(`/api/projects/${projectId}/models`, { name: `${name} (uplift)` })
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${created.body.model.id}`)
+    await openWorkspace(page)
     await page.getByTestId('effective-stress-line').waitFor()
     const ws = page.getByTestId('model-workspace')
     await expect.poll(async () => Number(await ws.getAttribute('data-profile-sequence'))).toBeGreaterThan(0)
@@ -362,6 +369,7 @@ describe('the stress workspace in Chromium', () => {
       const modelId = await newModel('flagged')
       const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
       await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+      await openWorkspace(page)
       await page.getByTestId('model-workspace').waitFor()
       const layer = page.getByTestId('point-layer')
       await expect.poll(async () => Number(await layer.getAttribute('data-flagged-out')), { timeout: 15_000 }).toBeGreaterThanOrEqual(1)
@@ -379,6 +387,7 @@ describe('the stress workspace in Chromium', () => {
     const modelId = await newModel('compressibility')
     const page = await signInAs(browser.context, 'tomas.lindqvist@harrow-estuary.example')
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     await page.getByTestId('band-select').selectOption('2')
     const compressible = page.getByTestId('band-compressible')
@@ -404,6 +413,7 @@ describe('the stress workspace in Chromium', () => {
     const modelId = await newModel('designer')
     const page = await signInAs(browser.context, demoEmail('designer'))
     await page.goto(`${baseUrl()}/projects/${projectId}/models/${modelId}`)
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     expect(await page.getByTestId('model-workspace').getAttribute('data-read-only')).toBe('true')
     expect(await page.getByTestId('read-only-note').count()).toBe(1)

@@ -3,7 +3,7 @@
 // worker fails to start — and in each case the pixels are on the screen, not only the counts in the attributes.
 import { describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { screenshot, useProjectAs } from './helpers'
+import { openWorkspace, screenshot, useProjectAs } from './helpers'
 
 const LAYERS = ['dense-layer', 'point-layer'] as const
 
@@ -50,6 +50,7 @@ describe('the stress workspace\'s canvas layers, in Chromium', () => {
     const page = await project.browser.context.newPage()
     if (prepare) await prepare(page)
     await page.goto(project.url(`/models/${created.body.model.id}`))
+    await openWorkspace(page)
     await page.getByTestId('model-workspace').waitFor()
     // The demo's soundings: thousands of CPT rows in the dense layer, hundreds of σ'p symbols.
     await expect.poll(async () => Number(await page.getByTestId('dense-layer').getAttribute('data-drawn')), { timeout: 20_000 }).toBeGreaterThan(1000)

@@ -11,7 +11,7 @@ import { pdfPagesText } from '../helpers/pdf'
 import { must } from '../helpers/project'
 import { createRunModel, smallRunBody } from '../helpers/settlement-run'
 import type { SiteModelDefinition } from '../../shared/site-model/definition'
-import { screenshot, signInAs, useBrowser } from './helpers'
+import { openWorkspace, screenshot, signInAs, useBrowser } from './helpers'
 
 /** SI unit labels as they would read on a page: a number then the unit, or the unit in a heading's brackets. */
 const SI_LABELS: { what: string, re: RegExp }[] = [
@@ -175,7 +175,9 @@ describe('US units on the point, strata, σ\'p, stress-model and compare pages',
       { name: 'log-sheet', path: `/points/${bh01.id}/sheet`, ready: p => p.getByTestId('log-drawing').first().waitFor() },
       { name: 'strata', path: '/strata', ready: p => p.getByTestId('stratum-row').first().waitFor() },
       { name: 'preconsolidation', path: '/preconsolidation', ready: p => p.locator('[data-testid="points-table"] tbody tr').first().waitFor() },
-      { name: 'stress-model', path: `/models/${model.modelId}`, ready: p => p.getByTestId('stress-track').waitFor() },
+      // The page opens with the server's drawing of the draft, then the workspace on first use.
+      { name: 'stress-model-drawing', path: `/models/${model.modelId}`, ready: p => p.getByTestId('model-drawing-preview').waitFor() },
+      { name: 'stress-model', path: `/models/${model.modelId}`, ready: p => openWorkspace(p).then(() => p.getByTestId('stress-track').waitFor()) },
       { name: 'model-compare', path: `/models/${model.modelId}/compare?a=1&b=2`, ready: p => p.getByTestId('compare-summary').waitFor() },
       { name: 'run-compare', path: `/settlement/compare?a=${runA}&b=${runB}`, ready: p => p.getByTestId('compare-inputs').waitFor() },
     ]
@@ -192,6 +194,7 @@ describe('US units on the point, strata, σ\'p, stress-model and compare pages',
     await page.goto(`${web}/points/${bh01.id}/sheet`)
     await expect.poll(() => page.getByTestId('sheet-facts').first().innerText()).toContain('98.43 ft')
     await page.goto(`${web}/models/${model.modelId}`)
+    await openWorkspace(page)
     // The drawing's depth axis names its unit on a line of its own under "Depth".
     await expect.poll(() => page.getByTestId('depth-axis-unit').textContent()).toBe('(ft)')
     await page.goto(`${web}/models/${model.modelId}/compare?a=1&b=2`)
