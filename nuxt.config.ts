@@ -96,6 +96,8 @@ export default defineNuxtConfig({
     csrf: false,
   },
   routeRules: {
+    // The sign-in page is a plain form the browser sends itself (app/pages/login.vue): it is sent without scripts.
+    '/login': { noScripts: true },
     // Everything that is not a page: JSON replies and downloads are never cached, framed or run as a document.
     '/api/**': { headers: NON_PAGE_HEADERS },
     '/exports/**': { headers: NON_PAGE_HEADERS },

@@ -26,20 +26,16 @@ export function useAuth() {
     loaded.value = true
   }
 
-  async function signIn(email: string, password: string) {
-    const res = await $fetch('/api/auth/login', { method: 'POST', body: { email, password } })
-    sessionStarted(res.user)
-  }
-
   async function signOut() {
     try {
       await $fetch('/api/auth/logout', { method: 'POST' })
     }
     finally {
       user.value = null
-      await navigateTo('/login')
+      // A whole new page: nothing of the session stays in memory, and the sign-in page comes as sent (no scripts).
+      await navigateTo('/login', { external: true })
     }
   }
 
-  return { user, loaded, refresh, signIn, sessionStarted, signOut }
+  return { user, loaded, refresh, sessionStarted, signOut }
 }

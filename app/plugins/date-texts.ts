@@ -1,4 +1,4 @@
-import { providePageDateTexts, validZone, VIEWER_ZONE_COOKIE } from '~/utils/dates'
+import { providePageDateTexts, rememberViewerZone, validZone, VIEWER_ZONE_COOKIE } from '~/utils/dates'
 
 /**
  * Dates rendered by the server travel with the page (see app/utils/dates.ts): on the server the viewer's zone
@@ -7,6 +7,9 @@ import { providePageDateTexts, validZone, VIEWER_ZONE_COOKIE } from '~/utils/dat
  */
 export default defineNuxtPlugin((nuxtApp) => {
   if (import.meta.server) nuxtApp.payload.viewerZone = validZone(useCookie(VIEWER_ZONE_COOKIE).value)
+  // A page the server wrote without the viewer's zone (the first after signing in on the sign-in page, which has no
+  // scripts): the zone is kept once the page is up, and the next pages come with their dates in it.
+  else if (typeof nuxtApp.payload.viewerZone !== 'string') onNuxtReady(rememberViewerZone)
   providePageDateTexts(() => {
     const app = tryUseNuxtApp()
     if (!app) return null

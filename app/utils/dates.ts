@@ -10,7 +10,7 @@
  *
  * The first date formatted in a browser costs tens of milliseconds (the locale's calendar data is loaded),
  * and a page opened from the server would pay it while it comes alive. So the server renders dates in the
- * viewer's zone (the `pastload_tz` cookie, kept at sign-in by `rememberViewerZone`) and sends the texts with
+ * viewer's zone (the `pastload_tz` cookie, kept by `rememberViewerZone` when a session starts or a page came without it) and sends the texts with
  * the page; while the page hydrates, the browser takes them from there. Without the cookie the server does
  * not know the zone and the browser formats its dates itself.
  *
@@ -92,7 +92,7 @@ export function validZone(zone: string | null | undefined): string | null {
   }
 }
 
-/** Keeps the browser's time zone in a cookie, so pages come from the server with dates in it (called at sign-in). */
+/** Keeps the browser's time zone in a cookie, so pages come from the server with dates in it. */
 export function rememberViewerZone(): void {
   if (typeof document === 'undefined') return
   const zone = validZone(Intl.DateTimeFormat().resolvedOptions().timeZone)

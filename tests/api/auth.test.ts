@@ -188,3 +188,54 @@ describe('password change', () => {
     expect((await new Client().post('/api/auth/login', { email, password: 'a-brand-new-passphrase' })).status).toBe(200)
   })
 })
+
+/** The sign-in page's form as a browser sends it (the page has no scripts). */
+async function postForm(c: Client, fields: Record<string, string>) {
+  return c.request('POST', '/api/auth/login-form', new URLSearchParams(fields).toString(), { 'content-type': 'application/x-www-form-urlencoded' })
+}
+
+describe('the sign-in page\'s form (POST /api/auth/login-form)', () => {
+  it('signs in and sends the browser on to `next` with 303 and the session cookie', async () => {
+    const c = clientAt('198.51.100.20')
+    const r = await postForm(c, { email: demoEmail('engineer'), password: 'pastload-demo-2026', next: '/account' })
+    expect(r.status).toBe(303)
+    expect(r.headers.get('location')).toBe('/account')
+    expect(c.cookie).toMatch(/^pastload_session=./)
+    expect((await c.get('/api/auth/me')).status).toBe(200)
+  })
+
+  it('sends a wrong password back to the sign-in page, keeping `next`, with no session and no password in the address', async () => {
+    const c = clientAt('198.51.100.21')
+    const r = await postForm(c, { email: demoEmail('engineer'), password: 'not-the-password-42', next: '/projects?x=1' })
+    expect(r.status).toBe(303)
+    expect(r.headers.get('location')).toBe('/login?failed=wrong&next=%2Fprojects%3Fx%3D1')
+    expect(r.headers.get('location')).not.toContain('not-the-password')
+    expect(c.cookie).toBe('')
+  })
+
+  it('follows `next` only to a path of this site', async () => {
+    for (const next of ['//elsewhere.example/x', 'https://elsewhere.example/', '/\\elsewhere.example', 'projects', '/a\nb']) {
+      const r = await postForm(clientAt('198.51.100.22'), { email: demoEmail('designer'), password: 'pastload-demo-2026', next })
+      expect(r.status, next).toBe(303)
+      expect(r.headers.get('location'), next).toBe('/')
+    }
+  })
+
+  it('says an empty or malformed form is incomplete, and a JSON body too', async () => {
+    const c = clientAt('198.51.100.23')
+    expect((await postForm(c, {})).headers.get('location')).toBe('/login?failed=incomplete')
+    expect((await postForm(c, { email: 'not-an-email', password: 'x' })).headers.get('location')).toBe('/login?failed=incomplete')
+    const json = await c.request('POST', '/api/auth/login-form', { email: demoEmail('engineer') })
+    expect([json.status, json.headers.get('location')]).toEqual([303, '/login?failed=incomplete'])
+  })
+
+  it('shares the JSON route\'s throttle: after ten wrong guesses the form says how long to wait', async () => {
+    const admin = await signIn(demoEmail('owner'))
+    const { email } = await createUser(admin, 'form-throttle')
+    const guesser = clientAt('198.51.100.24')
+    for (let i = 0; i < 10; i++) expect((await postForm(guesser, { email, password: `form-guess-${i}` })).headers.get('location')).toBe('/login?failed=wrong')
+    const blocked = await postForm(guesser, { email, password: TEST_PASSWORD, next: '/account' })
+    expect(blocked.headers.get('location')).toBe('/login?failed=throttled&wait=15&next=%2Faccount')
+    expect((await clientAt('198.51.100.25').post('/api/auth/login', { email, password: TEST_PASSWORD })).status).toBe(200)
+  })
+})

@@ -13,7 +13,7 @@ describe('dates in the viewer\'s time zone, written by the server and kept by th
   const browser = useBrowser({ timezoneId: 'Asia/Tokyo', viewport: { width: 390, height: 844 } })
   const { owner, engineer, reviewer } = signedInDemo('owner', 'engineer', 'reviewer')
 
-  it('signing in keeps the zone; a version page comes from the server with its time in Tokyo and hydrates without a mismatch', async () => {
+  it('the first page after signing in keeps the zone; a version page comes from the server with its time in Tokyo and hydrates without a mismatch', async () => {
     const project = await createProject(owner, 'E2E-TZ', 'Dates by zone (browser)', ['engineer'])
     const model = await createSavedModel(engineer, project.id, 'Yard model')
     const version = await must('version 1', engineer.get<{ version: { createdAt: string } }>(`${model.url}/versions/1`))

@@ -85,13 +85,16 @@ export function useBrowser(device: Device = {}): { readonly context: BrowserCont
 export async function signInAs(context: BrowserContext, email: string, password = DEMO_PASSWORD, base = baseUrl()): Promise<Page> {
   await context.clearCookies()
   const page = await context.newPage()
+  // The sign-in page has no scripts: its form is the browser's own.
   await page.goto(`${base}/login`)
-  await waitForApp(page)
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   // The projects page is up (its list is empty, so hidden, for someone in no project yet).
   await page.getByTestId('project-list').waitFor({ state: 'attached' })
+  // It came without the viewer's zone (the sign-in page has no scripts to tell it); the app keeps it once the page is
+  // up, and the next pages come with their dates in it. (A wait, not a check: tests/e2e/dates-by-zone.test.ts checks it.)
+  await page.waitForFunction(() => document.cookie.includes('pastload_tz='), undefined, { timeout: 10_000 }).catch(() => undefined)
   return page
 }
 
