@@ -84,7 +84,7 @@ function startChromium(acceptOwnCertificate: boolean): Promise<{ port: number, s
 async function signIn(serverUrl: string, email: string): Promise<string> {
   const login = await fetch(`${serverUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json', 'origin': serverUrl }, body: JSON.stringify({ email, password: DEMO_PASSWORD }) })
   if (!login.ok) throw new Error(`Lighthouse sign-in failed: ${login.status}`)
-  // The sign-in page also keeps the browser's time zone in a cookie (rememberViewerZone), so pages come with
+  // A browser keeps its time zone in a cookie on its first page after signing in (rememberViewerZone), so pages come with
   // their dates already written in it: sent here as that browser would (this machine's zone).
   const zone = `${VIEWER_ZONE_COOKIE}=${encodeURIComponent(Intl.DateTimeFormat().resolvedOptions().timeZone)}`
   return [...login.headers.getSetCookie().map(c => c.split(';')[0]), zone].join('; ')
