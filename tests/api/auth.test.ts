@@ -229,6 +229,16 @@ describe('the sign-in page\'s form (POST /api/auth/login-form)', () => {
     expect([json.status, json.headers.get('location')]).toEqual([303, '/login?failed=incomplete'])
   })
 
+  it('answers hostile fields with the sign-in page again, never a 5xx, never a session', async () => {
+    const c = clientAt('198.51.100.26')
+    for (const v of ['a\u0000b', '\uD800', 'x'.repeat(5000), '%00', '<script>']) {
+      const r = await postForm(c, { email: v, password: v, next: v })
+      expect(r.status, JSON.stringify(v).slice(0, 20)).toBe(303)
+      expect(r.headers.get('location')).toBe('/login?failed=incomplete')
+      expect(c.cookie).toBe('')
+    }
+  })
+
   it('shares the JSON route\'s throttle: after ten wrong guesses the form says how long to wait', async () => {
     const admin = await signIn(demoEmail('owner'))
     const { email } = await createUser(admin, 'form-throttle')
