@@ -1,7 +1,7 @@
 import { ocrAxis, popAxis, stressAxis } from '#shared/plots/model-tracks'
 import type { FlagVerdict } from '#shared/review/flags'
 import type { ModelWorkspace } from '~/composables/useModelWorkspace'
-import { strongestVerdict } from '~/utils/reviewDisplay'
+import { strongestVerdict } from '#shared/review/flags'
 import { modelBase } from '~/utils/siteModelEdits'
 import { engineerExcluded, sampleTrend, stressAt, type PointState, type TrendSample } from '~/utils/stressHistory'
 import type { PreconsolidationPointRow } from '#shared/types/lab'

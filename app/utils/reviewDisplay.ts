@@ -1,4 +1,4 @@
-import { FLAG_VERDICTS, VERDICT_LABELS, type FlagTarget, type FlagVerdict } from '#shared/review/flags'
+import { VERDICT_LABELS, type FlagTarget, type FlagVerdict } from '#shared/review/flags'
 import { formatDate } from './dates'
 
 /**
@@ -39,19 +39,6 @@ export const VERDICT_LOOKS: Record<FlagVerdict, VerdictLook> = {
 
 /** Dialog and filter order: the everyday verdict first. */
 export const VERDICT_ORDER: readonly FlagVerdict[] = ['questionable', 'exclude', 'accepted']
-
-/** Strength for markers: an exclusion outranks a question, which outranks an acceptance. */
-const VERDICT_RANK: Record<FlagVerdict, number> = { exclude: 3, questionable: 2, accepted: 1 }
-
-export function strongestVerdict(verdicts: readonly FlagVerdict[]): FlagVerdict | null {
-  let best: FlagVerdict | null = null
-  for (const v of verdicts) if (!best || VERDICT_RANK[v] > VERDICT_RANK[best]) best = v
-  return best
-}
-
-export function isVerdict(v: unknown): v is FlagVerdict {
-  return typeof v === 'string' && (FLAG_VERDICTS as readonly string[]).includes(v)
-}
 
 export function verdictLabel(v: FlagVerdict): string {
   return VERDICT_LABELS[v]

@@ -5,7 +5,7 @@ import type { TrendBandPoint } from '#shared/geotech/trend-model'
 import { modelDrawing, type DrawingPoint } from '#shared/plots/model-drawing'
 import type { PointState } from '#shared/plots/model-tracks'
 import { assignBands, stressAt } from '#shared/plots/stress-history'
-import { FLAG_VERDICTS, type FlagVerdict } from '#shared/review/flags'
+import { isVerdict, strongestVerdict, type FlagVerdict } from '#shared/review/flags'
 import { toStressInput } from '#shared/site-model/convert'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import type { ProfilePoint } from '#shared/types/calc'
@@ -28,7 +28,6 @@ import { allPreconsolidationPoints, type PreconsolidationPoint } from './precons
 
 /** The CPT resampling the canvas asks for (the σ'p points routes' default spacing, m). */
 const CPT_SPACING = 0.25
-const RANK: Record<FlagVerdict, number> = { accepted: 1, questionable: 2, exclude: 3 }
 
 /** A flag's verdict on what it is on (a version's flags in force, or the open flags of the project). */
 export interface FlagOnTarget { targetType: string, targetId: string, verdict: string }
@@ -88,9 +87,10 @@ async function verdictsOnPoints(projectId: string, flags: readonly FlagOnTarget[
   for (const a of adoptions) adoptionsOf.set(a.testId, [...(adoptionsOf.get(a.testId) ?? []), a.id])
   const out = new Map<string, FlagVerdict[]>()
   for (const f of flags) {
-    if (!(FLAG_VERDICTS as readonly string[]).includes(f.verdict)) continue
+    const verdict = f.verdict
+    if (!isVerdict(verdict)) continue
     const targets = f.targetType === 'oedometer-test' ? adoptionsOf.get(f.targetId) ?? [] : [f.targetId]
-    for (const id of targets) out.set(id, [...(out.get(id) ?? []), f.verdict as FlagVerdict])
+    for (const id of targets) out.set(id, [...(out.get(id) ?? []), verdict])
   }
   return out
 }
@@ -102,7 +102,7 @@ function pointStates(def: SiteModelDefinition, points: readonly Preconsolidation
   return points.map((p, k) => {
     const band = bands[k] ?? -1
     const verdicts = flags.get(p.id) ?? []
-    const verdict = verdicts.reduce<FlagVerdict | null>((best, x) => (!best || RANK[x] > RANK[best] ? x : best), null)
+    const verdict = strongestVerdict(verdicts)
     let state: PointState
     if (band < 0 || !def.strata[band]) state = 'unassigned'
     else if (verdicts.includes('exclude')) state = 'flagged-out'

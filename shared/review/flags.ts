@@ -9,6 +9,20 @@ export type FlagTarget = (typeof FLAG_TARGETS)[number]
 export const FLAG_VERDICTS = ['questionable', 'exclude', 'accepted'] as const
 export type FlagVerdict = (typeof FLAG_VERDICTS)[number]
 
+export function isVerdict(v: unknown): v is FlagVerdict {
+  return typeof v === 'string' && (FLAG_VERDICTS as readonly string[]).includes(v)
+}
+
+/** Strength for markers: an exclusion outranks a question, which outranks an acceptance. */
+const VERDICT_RANK: Record<FlagVerdict, number> = { exclude: 3, questionable: 2, accepted: 1 }
+
+/** The verdict a point's marker shows for several flags on it (null for none). */
+export function strongestVerdict(verdicts: readonly FlagVerdict[]): FlagVerdict | null {
+  let best: FlagVerdict | null = null
+  for (const v of verdicts) if (!best || VERDICT_RANK[v] > VERDICT_RANK[best]) best = v
+  return best
+}
+
 export const VERDICT_LABELS: Record<FlagVerdict, string> = {
   questionable: 'Questionable',
   exclude: 'Exclude from fits',

@@ -1,6 +1,6 @@
 import { and, desc, eq, lt } from 'drizzle-orm'
 import { modelVersionDocument, MODEL_VERSION_REPORT_TITLE, type ModelVersionReportData, type ModelVersionReportFlag } from '#shared/reports/model-version'
-import { FLAG_VERDICTS, type FlagVerdict } from '#shared/review/flags'
+import { isVerdict } from '#shared/review/flags'
 import { diffDefinitions } from '#shared/site-model/diff'
 import type { SiteModelDefinition } from '#shared/site-model/definition'
 import { useDb } from '~~/server/db/client'
@@ -121,6 +121,6 @@ async function flagRows(projectId: string, def: SiteModelDefinition, points: rea
       ? `${p.pointIdentifier} ${SOURCE_WORDS[p.source] ?? p.source} σ'p at ${p.depth.toFixed(2)} m`
       : f.targetType.replace(/-/g, ' ')
     const r = byId.get(f.flagId)
-    return { verdict: (FLAG_VERDICTS as readonly string[]).includes(f.verdict) ? f.verdict as FlagVerdict : 'questionable', target, comment: r?.comment ?? '', statusNow: r?.status ?? 'deleted' }
+    return { verdict: isVerdict(f.verdict) ? f.verdict : 'questionable', target, comment: r?.comment ?? '', statusNow: r?.status ?? 'deleted' }
   })
 }

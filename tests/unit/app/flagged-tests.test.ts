@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { strongestVerdict } from '../../../app/utils/reviewDisplay'
+import { strongestVerdict } from '../../../shared/review/flags'
 import { flaggedUnadoptedTests, type ListedTest } from '../../../app/utils/stressHistory'
 
 const test = (id: string, depth: number, adopted: boolean): ListedTest => ({ id, depth, stratumCode: 'EST', point: { identifier: `BH-0${id.length}` }, sample: { identifier: `U-${id}` }, reading: { qualityClass: 'very-poor' }, adoption: adopted ? { id: `a-${id}` } : null })

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { strongestVerdict } from '../../../app/utils/reviewDisplay'
+import { strongestVerdict } from '../../../shared/review/flags'
 
 describe('strongestVerdict: the verdict a marker shows for several open flags', () => {
   it('ranks an exclusion over a question over an acceptance, whatever the order', () => {
