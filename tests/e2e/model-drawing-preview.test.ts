@@ -26,17 +26,30 @@ describe('the stress-model page opens with the server\'s drawing', () => {
     expect(html).toContain('data-testid="model-drawing-preview"')
     expect(html).toMatch(/<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" width="720" height="880"/)
 
+    // Every write of an element's markup is noted: taking the page over keeps the drawing the server sent.
+    await page.addInitScript(() => {
+      const inner = Object.getOwnPropertyDescriptor(Element.prototype, 'innerHTML')!
+      const written: string[] = []
+      Object.assign(window, { markupWritten: written })
+      Object.defineProperty(Element.prototype, 'innerHTML', { ...inner, set(this: Element, v: string) { written.push(this.className); inner.set!.call(this, v) } })
+    })
     const asked = requests(page)
     await page.goto(demo.url(path))
     await waitForApp(page)
     await page.waitForLoadState('networkidle')
     const preview = page.getByTestId('model-drawing-preview')
     expect(await preview.locator('figure .model-drawing-preview > svg').count()).toBe(1)
+    expect(await page.evaluate(() => (window as unknown as { markupWritten: string[] }).markupWritten.filter(c => c.includes('model-drawing-preview')))).toEqual([])
     expect(await preview.getByRole('img').getAttribute('aria-label')).toMatch(/\d+ σ'p points/)
     expect(await page.getByTestId('model-workspace').count()).toBe(0)
     // Neither the σ'p points, the logs' layers nor the drawing itself were asked for by the browser.
     expect(asked.filter(p => p.includes('/preconsolidation-points') || p.includes('/site-reference') || p.endsWith('/drawing'))).toEqual([])
     await screenshot(page, 'model-drawing-preview-laptop')
+    // The session bar works before the workspace is opened: a version message makes "Save version" ready.
+    await page.getByTestId('version-message').fill('Checked against the logs')
+    await expect.poll(() => page.getByTestId('save-version').isEnabled()).toBe(true)
+    await page.getByTestId('version-message').fill('')
+    expect(await preview.count()).toBe(1)
 
     // The pointer over the drawing fetches the workspace's code; nothing on the page changes until a click.
     const scripts = asked.length
