@@ -41,6 +41,20 @@ export function localKey(modelId: string, revision: number): string {
   return `${LOCAL_PREFIX}:${modelId}:${revision}`
 }
 
+/**
+ * Whether this device keeps a copy of a model's edits (under any revision): a page that would otherwise start its
+ * editing session only when it is used starts it at once, to offer the copy back. Reads the keys only.
+ */
+export function hasLocalDraft(modelId: string): boolean {
+  const ls = storage()
+  if (!ls) return false
+  const prefix = `${LOCAL_PREFIX}:${modelId}:`
+  for (let i = 0; i < ls.length; i++) {
+    if (ls.key(i)?.startsWith(prefix)) return true
+  }
+  return false
+}
+
 function storage(): Storage | null {
   try {
     return typeof window !== 'undefined' && window.localStorage ? window.localStorage : null

@@ -6,7 +6,7 @@ import { computeStressProfile } from '../../../shared/geotech/stress'
 import { toStressInput } from '../../../shared/site-model/convert'
 import { depthTrendCandidates, type TestCompressibility } from '../../../shared/site-model/compressibility'
 import { diffDefinitions } from '../../../shared/site-model/diff'
-import { HISTORY_LIMIT, localKey, useModelEditorStore } from '../../../app/stores/modelEditor'
+import { HISTORY_LIMIT, hasLocalDraft, localKey, useModelEditorStore } from '../../../app/stores/modelEditor'
 import { useFreshStores } from '../../helpers/stores'
 import {
   addPiezometer, modelBase, moveBoundary, movePiezometer, removeBoundary, setBandStratum, setCompressibility,
@@ -195,6 +195,21 @@ describe('the model editing session', () => {
     s.undo()
     expect(s.draft!.groundwater.waterTableDepth).toBe(1.57)
     expect(s.dirty).toBe(false)
+  })
+
+  it('tells whether this device keeps a copy of a model\'s edits, under any revision, without reading the copies', () => {
+    const OTHER = '0b5d7f1e-9c2a-4e3b-8a6d-1f2e3c4d5a6b'
+    expect(hasLocalDraft(MODEL)).toBe(false)
+    const first = useModelEditorStore()
+    first.load(MODEL, saltmarsh(), 3)
+    first.edit('Table', d => setWaterTable(d, 1.9))
+    expect(hasLocalDraft(MODEL)).toBe(true)
+    expect(hasLocalDraft(OTHER)).toBe(false)
+    // Another model whose id this one's starts with is not taken for it.
+    localStorage.setItem(`${localKey(MODEL, 3).split(':').slice(0, 1).join(':')}:${MODEL}0:1`, '{}')
+    first.undo()
+    expect(localStorage.getItem(localKey(MODEL, 3))).toBeNull()
+    expect(hasLocalDraft(MODEL)).toBe(false)
   })
 
   it('a local copy made on an older revision is offered as such; discarding it removes it', () => {
