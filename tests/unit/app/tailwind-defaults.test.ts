@@ -25,24 +25,83 @@ function compile(css: string, markup = ''): Promise<postcss.Result> {
 }
 
 /**
- * The --tw-* custom properties a rule reads with var() (and no fallback) but does not set itself. Inheritance aside,
- * nothing else sets them any more: the app's stylesheet sets them only on the elements of the classes that use them.
+ * The --tw-* custom properties a rule's own properties read through var() with no fallback, directly or through the
+ * custom properties it sets itself, that the rule does not set (a shadow's unused `--tw-shadow-colored` reads nothing).
  */
+function readsUnset(rule: Rule): string[] {
+  const declared = new Map<string, string>()
+  rule.walkDecls(d => { if (d.prop.startsWith('--')) declared.set(d.prop, d.value) })
+  const unset = new Set<string>()
+  const seen = new Set<string>()
+  const visit = (value: string) => {
+    for (const m of value.matchAll(/var\((--tw-[\w-]+)\s*([,)])/g)) {
+      const prop = m[1]!
+      if (m[2] !== ')' || seen.has(prop)) continue
+      seen.add(prop)
+      const own = declared.get(prop)
+      if (own === undefined) unset.add(prop)
+      else visit(own)
+    }
+  }
+  rule.walkDecls(d => { if (!d.prop.startsWith('--')) visit(d.value) })
+  return [...unset]
+}
+
+/** The defaults a component's rules read and do not set: nothing else sets them on its elements. */
 function unsetDefaults(result: postcss.Result): string[] {
   const unset: string[] = []
   result.root.walkRules((rule: Rule) => {
-    const declared = new Set<string>()
-    rule.walkDecls(d => { if (d.prop.startsWith('--tw-')) declared.add(d.prop) })
-    rule.walkDecls((d) => {
-      for (const m of d.value.matchAll(/var\((--tw-[\w-]+)\s*([,)])/g)) {
-        if (m[2] === ')' && !declared.has(m[1]!)) unset.push(`${rule.selector} { ${d.prop} } reads ${m[1]}`)
-      }
-    })
+    for (const prop of readsUnset(rule)) unset.push(`${rule.selector} reads ${prop}`)
   })
   return unset
 }
 
+/**
+ * The element part of a selector, as Tailwind sets a rule's defaults on it: the last compound without its
+ * pseudo-classes (`.log-grid .cell:focus` → `.cell`, `.peer:checked ~ .peer-checked\:ring-2` → `.peer-checked\:ring-2`).
+ */
+function elementPart(selector: string): string {
+  const last = selector.trim().split(/\s*[\s>+~]\s*(?![^(]*\))/).at(-1) ?? ''
+  const tokens = last.match(/(?:\\.|[^.#[:])+|[.#](?:\\.|[\w-])+|\[[^\]]*\]|::?[\w-]+(?:\([^)]*\))?/g) ?? []
+  const simple = tokens.filter(t => !/^:[^:]/.test(t) && !t.startsWith('::'))
+  return simple.at(-1) ?? ''
+}
+
 describe('Tailwind defaults', () => {
+  it('finds the element part of a selector', () => {
+    expect(elementPart('.log-grid .cell:focus')).toBe('.cell')
+    expect(elementPart('.peer:checked~.peer-checked\\:ring-2')).toBe('.peer-checked\\:ring-2')
+    expect(elementPart('.focus-visible\\:ring-2:focus-visible')).toBe('.focus-visible\\:ring-2')
+    expect(elementPart(':focus-visible')).toBe('')
+  })
+
+  it('in the app\'s stylesheet: no rule has an empty selector, and every default a rule reads is set on its elements', async () => {
+    const css = readFileSync(join(root, 'app/assets/css/main.css'), 'utf8')
+    const result = await postcss([tailwindcss(config)]).process(css, { from: join(root, 'app/assets/css/main.css') })
+    const setters = new Map<string, Set<string>>()
+    const rules: Rule[] = []
+    result.root.walkRules((rule: Rule) => {
+      rules.push(rule)
+      rule.walkDecls((d) => {
+        if (d.prop.startsWith('--tw-')) for (const sel of rule.selectors) setters.set(d.prop, (setters.get(d.prop) ?? new Set()).add(sel.trim()))
+      })
+    })
+    expect(rules.length).toBeGreaterThan(300)
+    // An empty selector in a list makes the browser drop the whole rule (a defaults rule among them).
+    expect(rules.filter(r => r.selectors.some(sel => sel.trim() === '')).map(r => r.selector.slice(0, 80))).toEqual([])
+    const unset: string[] = []
+    for (const rule of rules) {
+      for (const prop of readsUnset(rule)) {
+        for (const sel of rule.selectors) {
+          const element = elementPart(sel)
+          if (!element || !setters.get(prop)?.has(element)) unset.push(`${sel} reads ${prop}`)
+        }
+      }
+    }
+    expect(unset).toEqual([])
+  })
+
+
   it('are set on the elements that use them, not on every element', async () => {
     const result = await compile('@tailwind base; @tailwind utilities;', '<div class="ring-2 shadow rotate-45 p-2"></div>')
     const setting = (prop: string) => {
