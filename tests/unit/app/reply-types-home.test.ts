@@ -1,18 +1,11 @@
 // DEVELOPERS.md: reply types have one home, shared/types/. No file under app/ declares a type or interface of a
 // name shared/types/ exports (it imports it instead), so a client copy cannot drift from the server's reply.
-import { readdirSync, readFileSync } from 'node:fs'
+import { readFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { describe, expect, it } from 'vitest'
+import { sourceFiles } from '../../helpers/source-files'
 
 const root = join(import.meta.dirname, '../../..')
-
-function files(dir: string, pattern: RegExp): string[] {
-  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
-    const path = join(dir, e.name)
-    if (e.isDirectory()) return files(path, pattern)
-    return pattern.test(e.name) ? [path] : []
-  })
-}
 
 /** Names a file declares as its own types (`interface X`, `type X =`), not the ones it imports. */
 function declaredTypes(text: string): string[] {
@@ -25,9 +18,9 @@ describe('reply types', () => {
   })
 
   it('are declared in shared/types/ only: no file in app/ declares one of their names again', () => {
-    const shared = new Set(files(join(root, 'shared/types'), /\.ts$/).flatMap(f => [...readFileSync(f, 'utf8').matchAll(/^export\s+(?:interface|type)\s+([A-Z]\w*)/gm)].map(m => m[1]!)))
+    const shared = new Set(sourceFiles(join(root, 'shared/types'), /\.ts$/).flatMap(f => [...readFileSync(f, 'utf8').matchAll(/^export\s+(?:interface|type)\s+([A-Z]\w*)/gm)].map(m => m[1]!)))
     expect(shared.size).toBeGreaterThan(150)
-    const again = files(join(root, 'app'), /\.(?:ts|vue)$/).flatMap(f => declaredTypes(readFileSync(f, 'utf8')).filter(n => shared.has(n)).map(n => `${relative(root, f)}: ${n}`))
+    const again = sourceFiles(join(root, 'app'), /\.(?:ts|vue)$/).flatMap(f => declaredTypes(readFileSync(f, 'utf8')).filter(n => shared.has(n)).map(n => `${relative(root, f)}: ${n}`))
     expect(again).toEqual([])
   })
 })

@@ -2,22 +2,15 @@
 // and filters read) are set only on the elements whose classes use them, not on every element and pseudo-element.
 // A component's own <style> block is compiled apart from the app's stylesheet, so a utility it @applies must not read
 // a default it does not set itself: these tests compile every such block with the project's config and look.
-import { readdirSync, readFileSync } from 'node:fs'
+import { readFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import postcss, { type Rule } from 'postcss'
 import tailwindcss from 'tailwindcss'
 import { describe, expect, it } from 'vitest'
+import { sourceFiles } from '../../helpers/source-files'
 import config from '../../../tailwind.config'
 
 const root = join(import.meta.dirname, '../../..')
-
-function files(dir: string, pattern: RegExp): string[] {
-  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
-    const path = join(dir, e.name)
-    if (e.isDirectory()) return files(path, pattern)
-    return pattern.test(e.name) ? [path] : []
-  })
-}
 
 /** The project's Tailwind configuration with the given markup as its only content. */
 function compile(css: string, markup = ''): Promise<postcss.Result> {
@@ -101,7 +94,6 @@ describe('Tailwind defaults', () => {
     expect(unset).toEqual([])
   })
 
-
   it('are set on the elements that use them, not on every element', async () => {
     const result = await compile('@tailwind base; @tailwind utilities;', '<div class="ring-2 shadow rotate-45 p-2"></div>')
     const setting = (prop: string) => {
@@ -128,7 +120,7 @@ describe('Tailwind defaults', () => {
   })
 
   it('are not read by any component style block that does not set them', async () => {
-    const blocks = files(join(root, 'app'), /\.vue$/).flatMap((f) => {
+    const blocks = sourceFiles(join(root, 'app'), /\.vue$/).flatMap((f) => {
       const text = readFileSync(f, 'utf8')
       return [...text.matchAll(/<style[^>]*>([\s\S]*?)<\/style>/g)].map(m => ({ file: relative(root, f), css: m[1]! }))
     })

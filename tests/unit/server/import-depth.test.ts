@@ -1,18 +1,11 @@
 // DEVELOPERS.md, "Imports on the server": no import in server/ climbs more than one level; code under server/ is
 // imported as ~~/server/…, shared code as #shared/… (the worker entries' #shared through package.json's imports).
-import { readdirSync, readFileSync } from 'node:fs'
+import { readFileSync } from 'node:fs'
 import { join, relative } from 'node:path'
 import { describe, expect, it } from 'vitest'
+import { sourceFiles } from '../../helpers/source-files'
 
 const root = join(import.meta.dirname, '../../..')
-
-function sourceFiles(dir: string): string[] {
-  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
-    const path = join(dir, e.name)
-    if (e.isDirectory()) return sourceFiles(path)
-    return /\.(?:ts|mjs|js)$/.test(e.name) ? [path] : []
-  })
-}
 
 /** Module specifiers of static imports, re-exports and dynamic imports. */
 function specifiers(text: string): string[] {
@@ -28,7 +21,7 @@ describe('imports under server/', () => {
   })
 
   it('climb one level at most', () => {
-    const files = sourceFiles(join(root, 'server'))
+    const files = sourceFiles(join(root, 'server'), /\.(?:ts|mjs|js)$/)
     expect(files.length).toBeGreaterThan(100)
     const climbing = files.flatMap(f => specifiers(readFileSync(f, 'utf8')).filter(s => s.startsWith('../../')).map(s => `${relative(root, f)}: ${s}`))
     expect(climbing).toEqual([])
