@@ -37,8 +37,13 @@ export interface FitChoiceState { model: StratumTrend['model'] | 'auto', logSpac
 export const HISTORY_LIMIT = 300
 export const LOCAL_PREFIX = 'pastload.model-draft.v1'
 
+/** The start every local copy of a model's edits has in its key, whatever the revision. */
+function localKeyStart(modelId: string): string {
+  return `${LOCAL_PREFIX}:${modelId}:`
+}
+
 export function localKey(modelId: string, revision: number): string {
-  return `${LOCAL_PREFIX}:${modelId}:${revision}`
+  return `${localKeyStart(modelId)}${revision}`
 }
 
 /**
@@ -48,7 +53,7 @@ export function localKey(modelId: string, revision: number): string {
 export function hasLocalDraft(modelId: string): boolean {
   const ls = storage()
   if (!ls) return false
-  const prefix = `${LOCAL_PREFIX}:${modelId}:`
+  const prefix = localKeyStart(modelId)
   for (let i = 0; i < ls.length; i++) {
     if (ls.key(i)?.startsWith(prefix)) return true
   }
@@ -137,7 +142,7 @@ export const useModelEditorStore = defineStore('modelEditor', () => {
     const ls = storage()
     if (!ls) return null
     let best: LocalDraft | null = null
-    const prefix = `${LOCAL_PREFIX}:${id}:`
+    const prefix = localKeyStart(id)
     for (const key of Object.keys(ls)) {
       if (!key.startsWith(prefix)) continue
       let parsed: unknown = null

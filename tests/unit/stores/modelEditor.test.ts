@@ -206,7 +206,7 @@ describe('the model editing session', () => {
     expect(hasLocalDraft(MODEL)).toBe(true)
     expect(hasLocalDraft(OTHER)).toBe(false)
     // Another model whose id this one's starts with is not taken for it.
-    localStorage.setItem(`${localKey(MODEL, 3).split(':').slice(0, 1).join(':')}:${MODEL}0:1`, '{}')
+    localStorage.setItem(localKey(`${MODEL}0`, 1), '{}')
     first.undo()
     expect(localStorage.getItem(localKey(MODEL, 3))).toBeNull()
     expect(hasLocalDraft(MODEL)).toBe(false)
