@@ -82,7 +82,8 @@ export default {
   // Tailwind's per-element defaults (about fifty --tw-* custom properties for transforms, rings, shadows, filters…)
   // are set only on the elements whose classes use them, not on every element and pseudo-element (`*, ::before,
   // ::after`): the browser's first style pass over a page holding the server's drawing took 47 ms with them on every
-  // element. A component's own <style> block must therefore not @apply a utility that reads those defaults
-  // (rings, shadows, transforms, filters); tests/unit/tailwind-defaults.test.ts checks that.
+  // element. A component's own <style> block must therefore not @apply a utility that reads those defaults (rings,
+  // shadows, transforms, filters), nor may a base rule apply one to a selector with no element part (`:focus-visible`);
+  // tests/unit/app/tailwind-defaults.test.ts checks both.
   experimental: { optimizeUniversalDefaults: true },
 } satisfies Config
